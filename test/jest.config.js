@@ -1,0 +1,43 @@
+// One jest run, three projects: pure shared/ computations, Angular component specs, and API tests
+// against the real app and a real PostgreSQL (DATABASE_URL is set by server/setup/test.sh).
+const path = require('node:path');
+const { createCjsPreset } = require('jest-preset-angular/presets');
+
+const rootDir = path.resolve(__dirname, '..');
+const serverTransform = {
+  '^.+\\.ts$': ['ts-jest', { tsconfig: '<rootDir>/tsconfig.server.json', isolatedModules: true }],
+};
+
+module.exports = {
+  rootDir,
+  projects: [
+    {
+      displayName: 'unit',
+      rootDir,
+      testEnvironment: 'node',
+      testMatch: ['<rootDir>/test/unit/**/*.test.ts'],
+      transform: serverTransform,
+    },
+    {
+      displayName: 'client',
+      rootDir,
+      ...createCjsPreset({
+        tsconfig: '<rootDir>/tsconfig.spec.json',
+        testEnvironment: 'jest-preset-angular/environments/jest-jsdom-env',
+      }),
+      setupFilesAfterEach: undefined,
+      setupFilesAfterEnv: ['<rootDir>/test/setup-client.ts'],
+      testMatch: ['<rootDir>/src/**/*.spec.ts'],
+    },
+    {
+      displayName: 'api',
+      rootDir,
+      testEnvironment: 'node',
+      testMatch: ['<rootDir>/test/api/**/*.test.ts', '<rootDir>/test/drills/**/*.test.ts'],
+      transform: serverTransform,
+      globalSetup: '<rootDir>/test/support/global-setup.ts',
+      maxWorkers: 1,
+      testTimeout: 30000,
+    },
+  ],
+};
