@@ -1,5 +1,8 @@
 // Who is signed in, as the server answers GET /api/session and the client keeps it.
 // Pure types and one constant: shared by the Express server and the Angular client.
+import type { LengthUnit } from './lengths';
+
+export type { LengthUnit };
 
 /** What a person may do in the shop; every API route and every menu entry names the roles it allows. */
 export type Role = 'owner' | 'buyer' | 'machinist' | 'staff';
@@ -7,9 +10,7 @@ export type Role = 'owner' | 'buyer' | 'machinist' | 'staff';
 /** Every role, in the order the user admin screen lists them. */
 export const ROLES: Role[] = ['owner', 'buyer', 'machinist', 'staff'];
 
-/** The unit a person reads lengths in; values are stored exactly and only shown in this unit. */
-export type LengthUnit = 'mm' | 'in';
-
+/** The units a person may read lengths in; values are stored exactly and only shown in this unit. */
 export const LENGTH_UNITS: LengthUnit[] = ['mm', 'in'];
 
 export interface SessionUser {
