@@ -27,6 +27,9 @@ export interface SessionResponse {
   shop?: { name: string };
 }
 
+/** Shortest password a person may set; long passphrases beat clever symbols. */
+export const PASSWORD_MIN_LENGTH = 10;
+
 export function isRole(value: unknown): value is Role {
   return typeof value === 'string' && (ROLES as string[]).includes(value);
 }
