@@ -1,0 +1,20 @@
+// Work the server does besides answering requests (the outbox worker, the daily hold sweep). Each
+// feature that needs it adds a starter here. Everything coordinates through PostgreSQL, so several
+// server processes may run these side by side.
+export interface Background {
+  stop(): Promise<void>;
+}
+
+type Starter = () => Promise<Background> | Background;
+
+const starters: Starter[] = [];
+
+export async function startBackgroundWork(): Promise<Background> {
+  if (process.env.STEPSTOCK_NO_BACKGROUND === '1') return { stop: async () => undefined };
+  const running = await Promise.all(starters.map((s) => s()));
+  return {
+    stop: async () => {
+      await Promise.all(running.map((r) => r.stop()));
+    },
+  };
+}

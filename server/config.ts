@@ -1,0 +1,44 @@
+// Reads the environment once, validates it and fails fast with a clear message. Defaults make
+// `npm start` work with nothing set.
+import { z } from 'zod';
+
+const schema = z.object({
+  NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
+  PORT: z.coerce.number().int().min(1).max(65535).default(4280),
+  HOST: z.string().default('127.0.0.1'),
+  DATABASE_URL: z.string().min(1).optional(),
+  SESSION_SECRET: z.string().min(16).optional(),
+  SESSION_IDLE_MINUTES: z.coerce.number().int().min(1).max(24 * 60).default(120),
+  TRUST_PROXY: z.enum(['0', '1']).default('0'),
+  SMTP_URL: z.string().optional(),
+  MAIL_FROM: z.string().default('Stepstock <no-reply@stepstock.test>'),
+  APP_URL: z.string().optional(),
+  LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
+  PHOTO_DIR: z.string().optional(),
+  DIST_DIR: z.string().optional(),
+});
+
+export type Config = Readonly<z.infer<typeof schema>> & {
+  readonly databaseUrl: string;
+  readonly sessionSecret: string;
+  readonly appUrl: string;
+};
+
+export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
+  const parsed = schema.safeParse(env);
+  if (!parsed.success) {
+    const lines = parsed.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`).join('\n');
+    throw new Error(`Stepstock cannot start: bad configuration\n${lines}`);
+  }
+  const c = parsed.data;
+  const databaseUrl = c.DATABASE_URL ?? 'postgres://stepstock@127.0.0.1:5488/stepstock';
+  return Object.freeze({
+    ...c,
+    databaseUrl,
+    // A fixed fallback secret is only acceptable for the local demo; production sets SESSION_SECRET.
+    sessionSecret: c.SESSION_SECRET ?? 'stepstock-local-demo-session-secret',
+    appUrl: c.APP_URL ?? `http://${c.HOST}:${c.PORT}`,
+  });
+}
+
+export const config = loadConfig();

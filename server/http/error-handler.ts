@@ -1,0 +1,61 @@
+import type { ErrorRequestHandler } from 'express';
+import { AppError, ServiceUnavailable } from '../errors';
+import { logger } from '../logger';
+
+const DB_DOWN_CODES = new Set([
+  'ECONNREFUSED',
+  'ECONNRESET',
+  'ETIMEDOUT',
+  'EPIPE',
+  '57P01', // admin_shutdown
+  '57P02', // crash_shutdown
+  '57P03', // cannot_connect_now
+  '08000',
+  '08003',
+  '08006',
+  '08001',
+  '08004',
+]);
+
+function isDatabaseDown(err: unknown): boolean {
+  if (typeof err !== 'object' || err === null) return false;
+  const e = err as { code?: string; name?: string; message?: string };
+  if (e.code && DB_DOWN_CODES.has(e.code)) return true;
+  if (e.name === 'KnexTimeoutError') return true;
+  const m = e.message ?? '';
+  return /Connection terminated|connect ECONNREFUSED|timeout exceeded when trying to connect|Client has encountered a connection error/i.test(
+    m,
+  );
+}
+
+/** Maps Express and library errors onto our error model. */
+function toAppError(err: unknown): AppError {
+  if (err instanceof AppError) return err;
+  const e = err as { type?: string; status?: number; code?: string; message?: string; field?: string };
+  if (e?.type === 'entity.too.large') return new AppError(413, 'too_large', 'The request body is too large.');
+  if (e?.type === 'entity.parse.failed') return new AppError(400, 'invalid_json', 'The request body is not valid JSON.');
+  if (e?.type === 'charset.unsupported' || e?.type === 'encoding.unsupported')
+    return new AppError(415, 'unsupported_type', 'Send JSON in UTF-8.');
+  if (e?.code === 'LIMIT_FILE_SIZE') return new AppError(413, 'too_large', 'The file is larger than the limit for this upload.');
+  if (typeof e?.code === 'string' && e.code.startsWith('LIMIT_'))
+    return new AppError(400, 'invalid_upload', `Upload refused: ${e.message ?? e.code}.`, e.field ? [{ field: e.field, message: e.message ?? '' }] : []);
+  if (isDatabaseDown(err)) return new ServiceUnavailable();
+  if (e?.status === 404) return new AppError(404, 'not_found', 'Not found.');
+  return new AppError(500, 'internal', 'Something went wrong on the server. It has been logged.');
+}
+
+export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
+  const appError = toAppError(err);
+  if (appError.status >= 500) {
+    (req.log ?? logger).error({ err }, 'request failed');
+  }
+  if (res.headersSent) return;
+  res.status(appError.status).json({
+    error: {
+      code: appError.code,
+      message: appError.message,
+      details: appError.details,
+      ...appError.extra,
+    },
+  });
+};

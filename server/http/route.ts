@@ -1,0 +1,114 @@
+// Every API route is declared through `route()`: method, path, who may call it, the zod schemas of
+// its input and one async handler. Routes registered any other way have no access declaration and
+// the route-matrix test fails on them; at run time a request that reaches no declared route is 404.
+import type { Request, Response, RequestHandler, Router } from 'express';
+import { z, type ZodType } from 'zod';
+import type { Role } from '../../shared/session-types';
+import { BadRequest, Forbidden, Unauthorized, type ErrorDetail } from '../errors';
+import type { SessionUser } from '../../shared/session-types';
+
+export type Access = 'public' | 'signed-in' | readonly Role[];
+export type Method = 'get' | 'post' | 'put' | 'patch' | 'delete';
+
+export interface RouteInput<B, Q, P> {
+  body: B;
+  query: Q;
+  params: P;
+  user: SessionUser;
+  req: Request;
+  res: Response;
+}
+
+export interface RouteSpec<B = unknown, Q = unknown, P = unknown> {
+  method: Method;
+  path: string;
+  access: Access;
+  body?: ZodType<B>;
+  query?: ZodType<Q>;
+  params?: ZodType<P>;
+  /** Middleware run after the access check and before validation (multer for uploads). */
+  before?: RequestHandler[];
+  /** Status for a returned value; default 200. */
+  status?: number;
+  handler: (input: RouteInput<B, Q, P>) => Promise<unknown> | unknown;
+}
+
+export interface DeclaredRoute {
+  method: Method;
+  path: string;
+  access: Access;
+}
+
+/** Every route declared in this process, for the route × role matrix and the API description. */
+export const declaredRoutes: DeclaredRoute[] = [];
+
+export function zodDetails(error: z.ZodError, where: string): ErrorDetail[] {
+  return error.issues.map((issue) => ({
+    field: issue.path.length ? issue.path.join('.') : where,
+    message: issue.message,
+  }));
+}
+
+function parseOrThrow<T>(schema: ZodType<T> | undefined, value: unknown, where: string): T {
+  if (!schema) return value as T;
+  const result = schema.safeParse(value ?? {});
+  if (!result.success) {
+    const details = zodDetails(result.error, where);
+    const first = details[0];
+    throw new BadRequest(
+      first ? `${first.field}: ${first.message}` : `The ${where} is not valid.`,
+      details,
+    );
+  }
+  return result.data;
+}
+
+export type AccessGuard = RequestHandler & { access: Access };
+
+export function accessGuard(access: Access): AccessGuard {
+  const guard: RequestHandler = (req, _res, next) => {
+    if (access === 'public') return next();
+    const user = req.user as SessionUser | undefined;
+    if (!user) return next(new Unauthorized());
+    if (access === 'signed-in' || access.includes(user.role)) return next();
+    next(new Forbidden());
+  };
+  // The route matrix reads the declaration back from the guard.
+  return Object.assign(guard, { access });
+}
+
+export function route<B, Q, P>(router: Router, spec: RouteSpec<B, Q, P>): void {
+  if (!declaredRoutes.some((r) => r.method === spec.method && r.path === spec.path)) {
+    declaredRoutes.push({ method: spec.method, path: spec.path, access: spec.access });
+  }
+  const run: RequestHandler = async (req, res) => {
+    const input: RouteInput<B, Q, P> = {
+      body: parseOrThrow(spec.body, req.body, 'body'),
+      query: parseOrThrow(spec.query, req.query, 'query'),
+      params: parseOrThrow(spec.params, req.params, 'params'),
+      user: req.user as SessionUser,
+      req,
+      res,
+    };
+    const result = await spec.handler(input);
+    if (res.headersSent) return;
+    if (result === undefined) {
+      res.status(spec.status ?? 204).end();
+      return;
+    }
+    res.status(spec.status ?? 200).json(result);
+  };
+  router[spec.method](spec.path, accessGuard(spec.access), ...(spec.before ?? []), run);
+}
+
+/** Shared query-string schemas for paged lists: ?q&sort&dir&page&pageSize. */
+export const pageQuery = z.object({
+  q: z.string().max(200).optional(),
+  sort: z.string().max(40).optional(),
+  dir: z.enum(['asc', 'desc']).optional(),
+  page: z.coerce.number().int().min(1).max(100000).default(1),
+  pageSize: z.coerce.number().int().min(1).max(500).default(50),
+});
+export type PageQuery = z.infer<typeof pageQuery>;
+
+export const uuidParam = z.string().uuid('must be a valid id');

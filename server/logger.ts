@@ -1,0 +1,7 @@
+import pino from 'pino';
+import { config } from './config';
+
+export const logger = pino({
+  level: config.NODE_ENV === 'test' ? (process.env.LOG_LEVEL ?? 'silent') : config.LOG_LEVEL,
+  redact: ['req.headers.cookie', 'req.headers["x-xsrf-token"]', 'password'],
+});

@@ -1,0 +1,14 @@
+// The list of every feature's routes. A feature adds one line here; each register function declares
+// its routes with `route()` so the role matrix and the API description see them.
+import type { Router } from 'express';
+import { registerSessionRoutes } from './session/session-routes';
+import { registerUsersRoutes } from './users/users-routes';
+import { registerAccountRoutes } from './account/account-routes';
+import { registerSettingsRoutes } from './settings/settings-routes';
+
+export function registerAllRoutes(api: Router): void {
+  registerSessionRoutes(api);
+  registerUsersRoutes(api);
+  registerAccountRoutes(api);
+  registerSettingsRoutes(api);
+}

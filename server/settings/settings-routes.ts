@@ -1,0 +1,19 @@
+import type { Router } from 'express';
+import { route } from '../http/route';
+import { getSettings, saveSettings, shopSettingsSchema } from './settings-service';
+
+export function registerSettingsRoutes(router: Router): void {
+  route(router, {
+    method: 'get',
+    path: '/api/settings',
+    access: 'signed-in',
+    handler: () => getSettings(),
+  });
+  route(router, {
+    method: 'patch',
+    path: '/api/settings',
+    access: ['owner'],
+    body: shopSettingsSchema.partial().strict(),
+    handler: ({ body, user }) => saveSettings(user.id, body),
+  });
+}

@@ -1,0 +1,85 @@
+import type { Knex } from 'knex';
+import { db } from '../db/knex';
+import type { Role, SessionUser, LengthUnit } from '../../shared/session-types';
+
+export interface UserRow {
+  id: string;
+  email: string;
+  name: string;
+  role: Role;
+  password_hash: string;
+  active: boolean;
+  unit: LengthUnit;
+  mail_mode: 'instant' | 'digest' | 'none';
+  created_at: Date;
+  updated_at: Date;
+}
+
+export function toSessionUser(row: UserRow): SessionUser {
+  return { id: row.id, email: row.email, name: row.name, role: row.role, unit: row.unit };
+}
+
+export function toUserJson(row: UserRow) {
+  return {
+    ...toSessionUser(row),
+    active: row.active,
+    mailMode: row.mail_mode,
+    createdAt: row.created_at.toISOString(),
+  };
+}
+
+export function findUserByEmail(email: string, q: Knex = db): Promise<UserRow | undefined> {
+  return q<UserRow>('users').where({ email: email.trim().toLowerCase() }).first();
+}
+
+export function findUserById(id: string, q: Knex = db): Promise<UserRow | undefined> {
+  return q<UserRow>('users').where({ id }).first();
+}
+
+export async function listUsers(q: Knex = db): Promise<UserRow[]> {
+  return q<UserRow>('users').orderBy([{ column: 'active', order: 'desc' }, 'name']);
+}
+
+export async function insertUser(
+  q: Knex,
+  u: { email: string; name: string; role: Role; password_hash: string; unit?: LengthUnit },
+): Promise<UserRow> {
+  const [row] = await q<UserRow>('users').insert(u).returning('*');
+  return row;
+}
+
+export async function updateUser(
+  q: Knex,
+  id: string,
+  patch: Partial<Pick<UserRow, 'name' | 'role' | 'active' | 'password_hash' | 'unit' | 'mail_mode'>>,
+): Promise<UserRow | undefined> {
+  const [row] = await q<UserRow>('users')
+    .where({ id })
+    .update({ ...patch, updated_at: q.fn.now() })
+    .returning('*');
+  return row;
+}
+
+/** Ends every open session of a user (deactivation, password reset). */
+export async function deleteSessionsOf(q: Knex, userId: string, exceptSid?: string): Promise<number> {
+  const query = q('sessions').whereRaw(`sess -> 'passport' ->> 'user' = ?`, [userId]);
+  if (exceptSid) query.andWhereNot({ sid: exceptSid });
+  return query.delete();
+}
+
+export async function countRecentFailures(email: string, address: string, minutes: number) {
+  const row = await db('sign_in_failures')
+    .where({ email: email.trim().toLowerCase(), address })
+    .andWhere('at', '>', db.raw(`now() - make_interval(mins => ?)`, [minutes]))
+    .count<{ count: number }[]>('* as count')
+    .first();
+  return Number(row?.count ?? 0);
+}
+
+export async function recordFailure(email: string, address: string): Promise<void> {
+  await db('sign_in_failures').insert({ email: email.trim().toLowerCase().slice(0, 320), address });
+}
+
+export async function clearFailures(email: string, address: string): Promise<void> {
+  await db('sign_in_failures').where({ email: email.trim().toLowerCase(), address }).delete();
+}

@@ -1,0 +1,106 @@
+// Walks every route registered on the Express app with every role and signed out, against the
+// table below. A route added without an access declaration, or missing from this table, fails.
+import type { Router } from 'express';
+import { createApp } from '../../server/app';
+import type { Access } from '../../server/http/route';
+import { closeTestApp, Client, signedIn } from '../support/api';
+import { ROLES, type Role } from '../../shared/session-types';
+
+const ALL: Access = 'signed-in';
+const OWNER: Access = ['owner'];
+
+/** What each route must allow. Keep it in step with the routes: this is the access contract. */
+const EXPECTED: Record<string, Access> = {
+  'GET /api/health': 'public',
+  'POST /api/session': 'public',
+  'GET /api/session': 'public',
+  'DELETE /api/session': 'public',
+  'GET /api/users': OWNER,
+  'POST /api/users': OWNER,
+  'PATCH /api/users/:id': OWNER,
+  'PATCH /api/account': ALL,
+  'POST /api/account/password': ALL,
+  'GET /api/settings': ALL,
+  'PATCH /api/settings': OWNER,
+};
+
+interface Found {
+  key: string;
+  method: string;
+  path: string;
+  access: Access | undefined;
+}
+
+function walk(routers: Router[]): Found[] {
+  const found: Found[] = [];
+  for (const router of routers) {
+    for (const layer of router.stack as unknown as Array<{ route?: { path: string; methods: Record<string, boolean>; stack: Array<{ handle: { access?: Access } }> } }>) {
+      if (!layer.route) continue;
+      for (const method of Object.keys(layer.route.methods)) {
+        const m = method.toUpperCase();
+        found.push({
+          key: `${m} ${layer.route.path}`,
+          method: m,
+          path: layer.route.path,
+          access: layer.route.stack[0]?.handle.access,
+        });
+      }
+    }
+  }
+  return found;
+}
+
+function concrete(path: string): string {
+  // Placeholder ids that exist nowhere: allowed roles get 400/404, never 401/403.
+  return path.replace(/:(\w+)/g, (_m, name: string) =>
+    /^(n|cylinder|line)$/i.test(name) ? '1' : name === 'label' ? 'PU-NOPE' : '00000000-0000-4000-8000-000000000000',
+  );
+}
+
+const routes = walk(createApp({ serveClient: false }).routers);
+let clients: Record<Role, Client>;
+
+beforeAll(async () => {
+  clients = {} as Record<Role, Client>;
+  for (const role of ROLES) clients[role] = await signedIn(role);
+});
+afterAll(closeTestApp);
+
+describe('route × role matrix', () => {
+  it('when the app is built, then every route declares its access and is in the expected table', () => {
+    expect(routes.length).toBeGreaterThan(5);
+    for (const r of routes) {
+      expect({ route: r.key, declared: r.access !== undefined }).toEqual({ route: r.key, declared: true });
+      expect({ route: r.key, access: r.access }).toEqual({ route: r.key, access: EXPECTED[r.key] });
+    }
+  });
+
+  it('when a route is listed in the table, then it exists on the app', () => {
+    const keys = new Set(routes.map((r) => r.key));
+    for (const key of Object.keys(EXPECTED)) expect({ key, exists: keys.has(key) }).toEqual({ key, exists: true });
+  });
+
+  it('when each route is called signed out and as each role, then 401 / 403 / allowed as declared', async () => {
+    for (const r of routes) {
+      const access = r.access;
+      if (!access || access === 'public') continue;
+      const url = concrete(r.path);
+      const method = r.method.toLowerCase() as 'get' | 'post' | 'put' | 'patch' | 'delete';
+      const anon = new Client();
+      await anon.prime();
+      const anonRes = await anon.call(method, url).send({});
+      expect({ route: r.key, who: 'signed out', status: anonRes.status }).toEqual({ route: r.key, who: 'signed out', status: 401 });
+      for (const role of ROLES) {
+        const allowed = access === 'signed-in' || access.includes(role);
+        const res = await clients[role].call(method, url).send({});
+        const denied = res.status === 401 || res.status === 403;
+        expect({ route: r.key, role, status: res.status, denied }).toEqual({
+          route: r.key,
+          role,
+          status: res.status,
+          denied: !allowed,
+        });
+      }
+    }
+  });
+});
