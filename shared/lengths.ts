@@ -162,6 +162,15 @@ export function formatLength(nm: Nm, unit: LengthUnit, withUnit = true): string 
   return withUnit ? `${value} ${unit}` : value;
 }
 
+/**
+ * Like formatLength, with one trailing zero dropped for amounts in sentences: mm at 2–3 decimals
+ * ("0.08 mm", "0.035 mm"), inches at 3–4 ("0.003 in", "0.0015 in").
+ */
+export function formatLengthCompact(nm: Nm, unit: LengthUnit): string {
+  const value = formatLength(nm, unit, false);
+  return `${value.endsWith('0') ? value.slice(0, -1) : value} ${unit}`;
+}
+
 /** "0.0015" (inches) → 38 100 nm. Zero allowed; throws LengthError on anything else than a plain number. */
 export function inToNm(inches: string): Nm {
   return convenience(inches, 'in');
