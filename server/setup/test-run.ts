@@ -54,6 +54,22 @@ function typecheck(): boolean {
   });
 }
 
+/** The seeded demo shop, once, as a template each browser test copies. */
+async function seedE2eTemplate(c: Cluster): Promise<void> {
+  const url = ensureDatabase(c, 'stepstock_e2e_template');
+  const { createDb } = await import('../db/knex');
+  const { migrateLatest, seedDemo } = await import('../db/migrate');
+  const db = createDb(url);
+  try {
+    await migrateLatest(db);
+    const t = Date.now();
+    await seedDemo(db);
+    say(`demo template seeded in ${((Date.now() - t) / 1000).toFixed(1)} s`);
+  } finally {
+    await db.destroy();
+  }
+}
+
 async function main() {
   const [first, ...rest] = process.argv.slice(2);
   const only = STAGES.includes(first as Stage) ? (first as Stage) : null;
@@ -104,6 +120,7 @@ async function main() {
       else if (stage === 'api' || stage === 'drills') ok = jest(['--selectProjects', stage, '-i', ...jestArgs], env);
       else if (stage === 'e2e') {
         buildClient();
+        await seedE2eTemplate(cluster as Cluster);
         ok = jest(['--selectProjects', 'e2e', '-i', ...jestArgs], env);
       }
       if (!ok) failed.push(stage);

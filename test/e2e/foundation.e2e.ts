@@ -1,0 +1,62 @@
+// Each demo role signs in and sees its own navigation; the owner adds a user who then signs in.
+import { DEMO, e2eEnvironment, screenshot, seriousA11yViolations, signIn, type DemoRole } from './support';
+
+let env: Awaited<ReturnType<typeof e2eEnvironment>>;
+
+beforeAll(async () => {
+  env = await e2eEnvironment();
+});
+afterAll(async () => {
+  await env?.close();
+});
+
+const NAV: Record<DemoRole, { sees: string[]; hidden: string[] }> = {
+  owner: { sees: ['Home', 'Users', 'My account'], hidden: [] },
+  buyer: { sees: ['Home', 'My account'], hidden: ['Users'] },
+  machinist: { sees: ['Home', 'My account'], hidden: ['Users'] },
+  staff: { sees: ['Home', 'My account'], hidden: ['Users'] },
+};
+
+describe('signing in', () => {
+  it('when the sign-in page opens, then it has no serious accessibility problems', async () => {
+    await env.page.goto(`${env.baseUrl}/sign-in`);
+    await env.page.getByRole('button', { name: 'Sign in' }).waitFor();
+    await screenshot(env.page, 'foundation-sign-in');
+    expect(await seriousA11yViolations(env.page)).toEqual([]);
+  });
+
+  it.each(Object.keys(DEMO) as DemoRole[])('when the demo %s signs in, then the navigation shows only what the role may use', async (role) => {
+    const page = env.page;
+    await page.context().clearCookies();
+    await signIn(page, env.baseUrl, DEMO[role]);
+    const nav = page.getByRole('navigation', { name: /main/i });
+    for (const label of NAV[role].sees) await nav.getByRole('link', { name: label }).waitFor();
+    for (const label of NAV[role].hidden) expect(await nav.getByRole('link', { name: label }).count()).toBe(0);
+    await screenshot(page, `foundation-home-${role}`);
+    expect(await seriousA11yViolations(page)).toEqual([]);
+  });
+
+  it('when the owner adds a user, then that user can sign in', async () => {
+    const page = env.page;
+    await page.context().clearCookies();
+    await signIn(page, env.baseUrl, DEMO.owner);
+    await page.goto(`${env.baseUrl}/admin/users`);
+    await page.getByRole('button', { name: /add user/i }).click();
+    const dialog = page.getByRole('dialog');
+    await dialog.getByLabel('Name').fill('Wren Castellan');
+    await dialog.getByLabel('E-mail').fill('wren@demo.test');
+    await dialog.getByLabel('Role').click();
+    await page.getByRole('option', { name: /machinist/i }).click();
+    await dialog.getByLabel(/password/i).first().fill('a-long-first-password');
+    await screenshot(page, 'foundation-add-user-dialog');
+    await dialog.getByRole('button', { name: /add|save|create/i }).click();
+    await page.getByRole('cell', { name: 'wren@demo.test' }).waitFor();
+    await page.locator('mat-dialog-container').waitFor({ state: 'detached' });
+    await screenshot(page, 'foundation-users');
+    expect(await seriousA11yViolations(page)).toEqual([]);
+
+    await page.context().clearCookies();
+    await signIn(page, env.baseUrl, 'wren@demo.test', 'a-long-first-password');
+    await page.getByText('Wren Castellan').first().waitFor();
+  });
+});

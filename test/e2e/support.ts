@@ -1,0 +1,215 @@
+// Browser-test harness: a database copied from the seeded demo template, the real server in its own
+// process, and Debian's Chromium driven by playwright-core. Nothing leaves 127.0.0.1.
+import { spawn, type ChildProcess } from 'node:child_process';
+import { mkdirSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import net from 'node:net';
+import os from 'node:os';
+import path from 'node:path';
+import { randomBytes } from 'node:crypto';
+import pg from 'pg';
+import { chromium, type BrowserContext, type Page } from 'playwright-core';
+
+export const REPO = path.resolve(__dirname, '..', '..');
+export const ARTIFACTS = path.join(REPO, 'test', 'artifacts');
+export const DEMO_PASSWORD = 'stepstock-demo';
+export const DEMO = {
+  owner: 'owner@demo.test',
+  buyer: 'buyer@demo.test',
+  machinist: 'machinist@demo.test',
+  staff: 'staff@demo.test',
+} as const;
+export type DemoRole = keyof typeof DEMO;
+
+function freePort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const srv = net.createServer();
+    srv.once('error', reject);
+    srv.listen(0, '127.0.0.1', () => {
+      const a = srv.address();
+      srv.close(() => resolve(typeof a === 'object' && a ? a.port : 0));
+    });
+  });
+}
+
+async function adminQuery(sql: string): Promise<void> {
+  const url = process.env.STEPSTOCK_PG_ADMIN_URL;
+  if (!url) throw new Error('STEPSTOCK_PG_ADMIN_URL is not set: run browser tests through npm test');
+  const client = new pg.Client({ connectionString: url });
+  await client.connect();
+  try {
+    await client.query(sql);
+  } finally {
+    await client.end();
+  }
+}
+
+/** A fresh copy of the seeded demo database (copying a template is much faster than seeding). */
+export async function demoDatabase(): Promise<{ url: string; drop(): Promise<void> }> {
+  const name = `e2e_${randomBytes(5).toString('hex')}`;
+  await adminQuery(`create database ${name} template stepstock_e2e_template owner stepstock`);
+  const admin = new URL(process.env.STEPSTOCK_PG_ADMIN_URL as string);
+  return {
+    url: `postgres://stepstock@127.0.0.1:${admin.port}/${name}`,
+    drop: () => adminQuery(`drop database if exists ${name} with (force)`),
+  };
+}
+
+export interface RunningServer {
+  url: string;
+  process: ChildProcess;
+  stop(): Promise<void>;
+}
+
+export async function startServerProcess(databaseUrl: string, extraEnv: NodeJS.ProcessEnv = {}): Promise<RunningServer> {
+  const port = await freePort();
+  const child = spawn(process.execPath, ['--import', 'tsx', 'server/main.ts'], {
+    cwd: REPO,
+    env: {
+      ...process.env,
+      NODE_ENV: 'production',
+      LOG_LEVEL: 'warn',
+      DATABASE_URL: databaseUrl,
+      PORT: String(port),
+      HOST: '127.0.0.1',
+      ...extraEnv,
+    },
+    stdio: ['ignore', 'pipe', 'pipe'],
+  });
+  let output = '';
+  child.stdout?.on('data', (d) => (output += d));
+  child.stderr?.on('data', (d) => (output += d));
+  const url = `http://127.0.0.1:${port}`;
+  const deadline = Date.now() + 60_000;
+  for (;;) {
+    if (child.exitCode !== null) throw new Error(`server exited early:\n${output}`);
+    try {
+      const res = await fetch(`${url}/api/health`);
+      if (res.status === 200) break;
+    } catch {
+      /* not listening yet */
+    }
+    if (Date.now() > deadline) throw new Error(`server did not answer /api/health:\n${output}`);
+    await new Promise((r) => setTimeout(r, 150));
+  }
+  return {
+    url,
+    process: child,
+    stop: () =>
+      new Promise<void>((resolve) => {
+        if (child.exitCode !== null) return resolve();
+        child.once('exit', () => resolve());
+        child.kill('SIGTERM');
+        setTimeout(() => child.kill('SIGKILL'), 5000).unref();
+      }),
+  };
+}
+
+export interface Browser {
+  context: BrowserContext;
+  page: Page;
+  close(): Promise<void>;
+}
+
+export async function openBrowser(): Promise<Browser> {
+  const userDataDir = mkdtempSync(path.join(os.tmpdir(), 'stepstock-chromium-'));
+  const context = await chromium.launchPersistentContext(userDataDir, {
+    executablePath: '/usr/bin/chromium',
+    headless: true,
+    viewport: { width: 1280, height: 860 },
+    acceptDownloads: true,
+    // Only so the accessibility checker can be injected; the app itself runs under its CSP.
+    bypassCSP: true,
+    args: [
+      '--headless',
+      '--no-sandbox',
+      '--disable-gpu',
+      '--disable-quic',
+      '--no-first-run',
+      '--disable-background-networking',
+      '--disable-component-update',
+      '--disable-sync',
+      '--disable-dev-shm-usage',
+    ],
+  });
+  // A test can never reach out: anything not on loopback is refused.
+  await context.route('**/*', (route) => {
+    const u = new URL(route.request().url());
+    if (u.hostname === '127.0.0.1' || u.protocol === 'data:' || u.protocol === 'blob:') return route.continue();
+    return route.abort();
+  });
+  const page = context.pages()[0] ?? (await context.newPage());
+  page.setDefaultTimeout(15_000);
+  return {
+    context,
+    page,
+    close: async () => {
+      await context.close();
+      rmSync(userDataDir, { recursive: true, force: true });
+    },
+  };
+}
+
+export async function screenshot(page: Page, name: string): Promise<string> {
+  const dir = path.join(ARTIFACTS, 'screenshots');
+  mkdirSync(dir, { recursive: true });
+  const file = path.join(dir, `${name}.png`);
+  await page.screenshot({ path: file, fullPage: true });
+  return file;
+}
+
+export async function signIn(page: Page, baseUrl: string, email: string, password = DEMO_PASSWORD) {
+  await page.goto(`${baseUrl}/sign-in`);
+  await page.getByLabel('E-mail').fill(email);
+  await page.getByLabel('Password', { exact: true }).fill(password);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.waitForURL((u) => !u.pathname.startsWith('/sign-in'));
+}
+
+export async function signOut(page: Page) {
+  await page.getByRole('button', { name: /account menu|user menu/i }).click();
+  await page.getByRole('menuitem', { name: /sign out/i }).click();
+  await page.waitForURL(/\/sign-in/);
+}
+
+const AXE_SOURCE = readFileSync(require.resolve('axe-core/axe.min.js'), 'utf8');
+
+export interface AxeViolation {
+  id: string;
+  impact: string | null;
+  help: string;
+  nodes: number;
+}
+
+/** axe-core scan of the current page; returns the serious and critical violations. */
+export async function seriousA11yViolations(page: Page): Promise<AxeViolation[]> {
+  await page.evaluate(AXE_SOURCE);
+  const result = await page.evaluate(async () => {
+    // Runs in the page: typed loosely because the test project has no DOM typings.
+    const g = globalThis as unknown as {
+      document: unknown;
+      axe: { run: (ctx: unknown, opts: object) => Promise<{ violations: Array<{ id: string; impact: string | null; help: string; nodes: unknown[] }> }> };
+    };
+    const r = await g.axe.run(g.document, { resultTypes: ['violations'] });
+    return r.violations.map((v) => ({ id: v.id, impact: v.impact, help: v.help, nodes: v.nodes.length }));
+  });
+  return result.filter((v) => v.impact === 'serious' || v.impact === 'critical');
+}
+
+/** Starts a demo database, the server and a browser for one test file. */
+export async function e2eEnvironment(extraEnv: NodeJS.ProcessEnv = {}) {
+  const database = await demoDatabase();
+  const server = await startServerProcess(database.url, extraEnv);
+  const browser = await openBrowser();
+  return {
+    baseUrl: server.url,
+    databaseUrl: database.url,
+    page: browser.page,
+    browser,
+    server,
+    async close() {
+      await browser.close().catch(() => undefined);
+      await server.stop();
+      await database.drop();
+    },
+  };
+}
