@@ -5,10 +5,12 @@ import { registerSessionRoutes } from './session/session-routes';
 import { registerUsersRoutes } from './users/users-routes';
 import { registerAccountRoutes } from './account/account-routes';
 import { registerSettingsRoutes } from './settings/settings-routes';
+import { registerOpenApiRoutes } from './openapi/openapi-routes';
 
 export function registerAllRoutes(api: Router): void {
   registerSessionRoutes(api);
   registerUsersRoutes(api);
   registerAccountRoutes(api);
   registerSettingsRoutes(api);
+  registerOpenApiRoutes(api);
 }

@@ -37,6 +37,10 @@ export interface DeclaredRoute {
   method: Method;
   path: string;
   access: Access;
+  body?: ZodType;
+  query?: ZodType;
+  params?: ZodType;
+  status?: number;
 }
 
 /** Every route declared in this process, for the route × role matrix and the API description. */
@@ -79,7 +83,15 @@ export function accessGuard(access: Access): AccessGuard {
 
 export function route<B, Q, P>(router: Router, spec: RouteSpec<B, Q, P>): void {
   if (!declaredRoutes.some((r) => r.method === spec.method && r.path === spec.path)) {
-    declaredRoutes.push({ method: spec.method, path: spec.path, access: spec.access });
+    declaredRoutes.push({
+      method: spec.method,
+      path: spec.path,
+      access: spec.access,
+      body: spec.body,
+      query: spec.query,
+      params: spec.params,
+      status: spec.status,
+    });
   }
   const run: RequestHandler = async (req, res) => {
     const input: RouteInput<B, Q, P> = {
