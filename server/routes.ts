@@ -5,12 +5,18 @@ import { registerSessionRoutes } from './session/session-routes';
 import { registerUsersRoutes } from './users/users-routes';
 import { registerAccountRoutes } from './account/account-routes';
 import { registerSettingsRoutes } from './settings/settings-routes';
+import { registerMailRoutes } from './mail/mail-routes';
 import { registerOpenApiRoutes } from './openapi/openapi-routes';
+import { registerCatalogRoutes } from './catalog/catalog-routes';
+import { registerStockRoutes } from './stock/stock-routes';
 
 export function registerAllRoutes(api: Router): void {
   registerSessionRoutes(api);
   registerUsersRoutes(api);
   registerAccountRoutes(api);
   registerSettingsRoutes(api);
+  registerMailRoutes(api);
   registerOpenApiRoutes(api);
+  registerCatalogRoutes(api);
+  registerStockRoutes(api);
 }

@@ -23,6 +23,31 @@ const EXPECTED: Record<string, Access> = {
   'POST /api/account/password': ALL,
   'GET /api/settings': ALL,
   'PATCH /api/settings': OWNER,
+  // Catalog and stock: everyone reads; owner and buyer keep the catalog; receiving, moves and bins
+  // are staff work too; anyone at the bench may measure a piston; adjustments stay with owner and buyer.
+  'GET /api/step-series': ALL,
+  'POST /api/step-series': ['owner', 'buyer'],
+  'GET /api/engine-families': ALL,
+  'POST /api/engine-families': ['owner', 'buyer'],
+  'GET /api/engine-families/:id': ALL,
+  'PATCH /api/engine-families/:id': ['owner', 'buyer'],
+  'GET /api/engine-families/:id/ladder': ALL,
+  'GET /api/exposure': ALL,
+  'GET /api/parts': ALL,
+  'POST /api/parts': ['owner', 'buyer'],
+  'GET /api/parts/:id': ALL,
+  'PATCH /api/parts/:id': ['owner', 'buyer'],
+  'GET /api/bins': ALL,
+  'POST /api/bins': ['owner', 'buyer', 'staff'],
+  'POST /api/stock/receipts': ['owner', 'buyer', 'staff'],
+  'POST /api/stock/adjustments': ['owner', 'buyer'],
+  'POST /api/stock/moves': ['owner', 'buyer', 'staff'],
+  'GET /api/stock/units': ALL,
+  'GET /api/stock/units/by-label/:label': ALL,
+  'GET /api/stock/units/:id': ALL,
+  'POST /api/stock/units/:id/scrap': ['owner', 'buyer', 'staff'],
+  'POST /api/stock/units/:id/measure': ['owner', 'buyer', 'staff', 'machinist'],
+  'GET /api/stock/ledger': ALL,
 };
 
 interface Found {

@@ -1,0 +1,133 @@
+// Catalog routes: engine families, step series, the step ladder, exposure and parts. Everyone
+// signed in reads; owner and buyer change the catalog.
+import type { Router } from 'express';
+import { z } from 'zod';
+import { pageQuery, route, uuidParam } from '../http/route';
+import {
+  familyInput,
+  familyPatch,
+  FAMILY_SORTS,
+  PART_KINDS,
+  PART_SORTS,
+  partInput,
+  partPatch,
+  stepSeriesInput,
+} from '../../shared/catalog-api';
+import type { Role } from '../../shared/session-types';
+import * as service from './catalog-service';
+
+const CATALOG_EDITORS: Role[] = ['owner', 'buyer'];
+const idParams = z.object({ id: uuidParam });
+const activeFilter = z
+  .enum(['true', 'false', 'all'], { error: 'must be true, false or all' })
+  .optional()
+  .transform((v) => (v === 'true' ? true : v === 'false' ? false : undefined));
+
+const familiesQuery = pageQuery.extend({
+  sort: z.enum(FAMILY_SORTS, { error: `must be one of ${FAMILY_SORTS.join(', ')}` }).optional(),
+  active: activeFilter,
+});
+
+const partsQuery = pageQuery.extend({
+  sort: z.enum(PART_SORTS, { error: `must be one of ${PART_SORTS.join(', ')}` }).optional(),
+  familyId: uuidParam.optional(),
+  stepId: uuidParam.optional(),
+  kind: z.enum(PART_KINDS, { error: 'must be piston, rings, kit or other' }).optional(),
+  active: activeFilter,
+});
+
+const exposureQuery = pageQuery.extend({ familyId: uuidParam.optional() });
+
+export function registerCatalogRoutes(router: Router): void {
+  route(router, {
+    method: 'get',
+    path: '/api/step-series',
+    access: 'signed-in',
+    handler: () => service.listStepSeries(),
+  });
+  route(router, {
+    method: 'post',
+    path: '/api/step-series',
+    access: CATALOG_EDITORS,
+    body: stepSeriesInput,
+    status: 201,
+    handler: ({ body, user }) => service.createStepSeries(user.id, body),
+  });
+
+  route(router, {
+    method: 'get',
+    path: '/api/engine-families',
+    access: 'signed-in',
+    query: familiesQuery,
+    handler: ({ query }) => service.listFamilies(query),
+  });
+  route(router, {
+    method: 'post',
+    path: '/api/engine-families',
+    access: CATALOG_EDITORS,
+    body: familyInput,
+    status: 201,
+    handler: ({ body, user }) => service.createFamily(user.id, body),
+  });
+  route(router, {
+    method: 'get',
+    path: '/api/engine-families/:id',
+    access: 'signed-in',
+    params: idParams,
+    handler: ({ params }) => service.getFamily(params.id),
+  });
+  route(router, {
+    method: 'patch',
+    path: '/api/engine-families/:id',
+    access: CATALOG_EDITORS,
+    params: idParams,
+    body: familyPatch,
+    handler: ({ params, body, user }) => service.updateFamily(user.id, params.id, body),
+  });
+  route(router, {
+    method: 'get',
+    path: '/api/engine-families/:id/ladder',
+    access: 'signed-in',
+    params: idParams,
+    handler: ({ params }) => service.ladder(params.id),
+  });
+
+  route(router, {
+    method: 'get',
+    path: '/api/exposure',
+    access: 'signed-in',
+    query: exposureQuery,
+    handler: ({ query }) => service.listExposure(query),
+  });
+
+  route(router, {
+    method: 'get',
+    path: '/api/parts',
+    access: 'signed-in',
+    query: partsQuery,
+    handler: ({ query }) => service.listParts(query),
+  });
+  route(router, {
+    method: 'post',
+    path: '/api/parts',
+    access: CATALOG_EDITORS,
+    body: partInput,
+    status: 201,
+    handler: ({ body, user }) => service.createPart(user.id, body),
+  });
+  route(router, {
+    method: 'get',
+    path: '/api/parts/:id',
+    access: 'signed-in',
+    params: idParams,
+    handler: ({ params }) => service.getPart(params.id),
+  });
+  route(router, {
+    method: 'patch',
+    path: '/api/parts/:id',
+    access: CATALOG_EDITORS,
+    params: idParams,
+    body: partPatch,
+    handler: ({ params, body, user }) => service.updatePart(user.id, params.id, body),
+  });
+}

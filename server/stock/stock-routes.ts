@@ -1,0 +1,138 @@
+// Stock routes: bins, receipts, adjustments, moves, scrapping and measuring pistons, units and the
+// ledger. Everyone signed in reads; each change names the roles that do it in the shop.
+import type { Router } from 'express';
+import { z } from 'zod';
+import { pageQuery, route, uuidParam } from '../http/route';
+import type { Role } from '../../shared/session-types';
+import {
+  adjustmentInput,
+  binInput,
+  LEDGER_KINDS,
+  measureInput,
+  moveInput,
+  receiptInput,
+  scrapInput,
+  UNIT_SORTS,
+  UNIT_STATUSES,
+} from '../../shared/stock-api';
+import * as service from './stock-service';
+
+const RECEIVERS: Role[] = ['owner', 'buyer', 'staff'];
+const MEASURERS: Role[] = ['owner', 'buyer', 'staff', 'machinist'];
+const ADJUSTERS: Role[] = ['owner', 'buyer'];
+const SCRAPPERS: Role[] = ['owner', 'buyer', 'staff'];
+
+const idParams = z.object({ id: uuidParam });
+
+const unitsQuery = pageQuery.extend({
+  sort: z.enum(UNIT_SORTS, { error: `must be one of ${UNIT_SORTS.join(', ')}` }).optional(),
+  partId: uuidParam.optional(),
+  familyId: uuidParam.optional(),
+  stepId: uuidParam.optional(),
+  binId: uuidParam.optional(),
+  receiptId: uuidParam.optional(),
+  status: z
+    .enum([...UNIT_STATUSES, 'on-shelf'], {
+      error: `must be one of ${UNIT_STATUSES.join(', ')} or on-shelf`,
+    })
+    .optional(),
+});
+
+const ledgerQuery = pageQuery.extend({
+  partId: uuidParam.optional(),
+  unitId: uuidParam.optional(),
+  kind: z.enum(LEDGER_KINDS, { error: `must be one of ${LEDGER_KINDS.join(', ')}` }).optional(),
+});
+
+export function registerStockRoutes(router: Router): void {
+  route(router, {
+    method: 'get',
+    path: '/api/bins',
+    access: 'signed-in',
+    query: pageQuery,
+    handler: ({ query }) => service.listBins(query),
+  });
+  route(router, {
+    method: 'post',
+    path: '/api/bins',
+    access: RECEIVERS,
+    body: binInput,
+    status: 201,
+    handler: ({ body, user }) => service.createBin(user.id, body),
+  });
+
+  route(router, {
+    method: 'post',
+    path: '/api/stock/receipts',
+    access: RECEIVERS,
+    body: receiptInput,
+    status: 201,
+    handler: ({ body, user }) => service.receive(user.id, body),
+  });
+  route(router, {
+    method: 'post',
+    path: '/api/stock/adjustments',
+    access: ADJUSTERS,
+    body: adjustmentInput,
+    status: 201,
+    handler: ({ body, user }) => service.adjust(user.id, body),
+  });
+  route(router, {
+    method: 'post',
+    path: '/api/stock/moves',
+    access: RECEIVERS,
+    body: moveInput,
+    handler: ({ body, user }) => service.move(user.id, body),
+  });
+
+  route(router, {
+    method: 'get',
+    path: '/api/stock/units',
+    access: 'signed-in',
+    query: unitsQuery,
+    handler: ({ query }) => {
+      const { status, ...rest } = query;
+      return service.listUnits(
+        status === 'on-shelf' ? { ...rest, onShelf: true } : { ...rest, status },
+      );
+    },
+  });
+  route(router, {
+    method: 'get',
+    path: '/api/stock/units/by-label/:label',
+    access: 'signed-in',
+    params: z.object({ label: z.string().trim().min(1).max(40) }),
+    handler: ({ params }) => service.unitByLabel(params.label),
+  });
+  route(router, {
+    method: 'get',
+    path: '/api/stock/units/:id',
+    access: 'signed-in',
+    params: idParams,
+    handler: ({ params }) => service.getUnit(params.id),
+  });
+  route(router, {
+    method: 'post',
+    path: '/api/stock/units/:id/scrap',
+    access: SCRAPPERS,
+    params: idParams,
+    body: scrapInput,
+    handler: ({ params, body, user }) => service.scrap(user.id, params.id, body.reason),
+  });
+  route(router, {
+    method: 'post',
+    path: '/api/stock/units/:id/measure',
+    access: MEASURERS,
+    params: idParams,
+    body: measureInput,
+    handler: ({ params, body, user }) => service.measure(user.id, params.id, body.skirt),
+  });
+
+  route(router, {
+    method: 'get',
+    path: '/api/stock/ledger',
+    access: 'signed-in',
+    query: ledgerQuery,
+    handler: ({ query }) => service.listLedger(query),
+  });
+}

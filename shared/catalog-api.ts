@@ -1,0 +1,305 @@
+// What the catalog API accepts and answers: engine families, step series, parts and the step
+// ladder. The zod schemas are used by the server routes and by the Angular forms, so both refuse
+// the same input with the same words.
+import { z } from 'zod';
+import { normalizeGtin, gtinProblem } from './gtin';
+import { parseLength, type LengthJson, type Nm, type ParseLengthOptions } from './lengths';
+
+export const STROKE_TYPES = ['two', 'four'] as const;
+export type StrokeType = (typeof STROKE_TYPES)[number];
+export const COOLING_TYPES = ['air', 'liquid'] as const;
+export type Cooling = (typeof COOLING_TYPES)[number];
+export const PART_KINDS = ['piston', 'rings', 'kit', 'other'] as const;
+export type PartKind = (typeof PART_KINDS)[number];
+export const PISTON_MATERIALS = ['cast', 'forged'] as const;
+export type PistonMaterial = (typeof PISTON_MATERIALS)[number];
+
+const LENGTH_HINT = 'must be text with its unit, for example "64.91 mm" or "2.5555 in"';
+
+/** A length typed with its unit ("2.5555 in"), read into exact nanometres or refused with a reason. */
+export function lengthField(opts: ParseLengthOptions = {}) {
+  return z.string({ error: LENGTH_HINT }).transform((text, ctx): Nm => {
+    const parsed = parseLength(text, opts);
+    if (!parsed.ok) {
+      ctx.addIssue({ code: 'custom', message: parsed.message });
+      return z.NEVER;
+    }
+    return parsed.nm;
+  });
+}
+
+/** A length that may be left out or cleared (null or ""): null means "not recorded". */
+export function optionalLengthField(opts: ParseLengthOptions = {}) {
+  return z
+    .union([z.null(), z.literal(''), lengthField(opts)])
+    .transform((v): Nm | null => (v === '' || v === null ? null : v));
+}
+
+/** Money as exact decimal text, 0 or more, at most 4 decimals ("12.50"). */
+export const moneyText = z
+  .string({ error: 'must be an amount written as text, e.g. "12.50"' })
+  .trim()
+  .regex(
+    /^\d{1,10}(\.\d{1,4})?$/,
+    'must be an amount, 0 or more, like "12.50" (at most 4 decimals)',
+  );
+
+/** A GTIN (EAN-13, UPC-A, GTIN-8 or GTIN-14) with a valid check digit, stored in its 14-digit form. */
+export const gtinField = z
+  .string({ error: 'must be the digits under the barcode' })
+  .transform((text, ctx): string => {
+    const problem = gtinProblem(text);
+    const normal = problem ? null : normalizeGtin(text);
+    if (problem || !normal) {
+      ctx.addIssue({ code: 'custom', message: problem ?? 'not a valid GTIN' });
+      return z.NEVER;
+    }
+    return normal;
+  });
+
+/** The shortest usual form of a stored 14-digit GTIN: UPC-A (12) or EAN-13 when the leading zeros allow. */
+export function displayGtin(gtin14: string): string {
+  if (gtin14.startsWith('00')) return gtin14.slice(2);
+  if (gtin14.startsWith('0')) return gtin14.slice(1);
+  return gtin14;
+}
+
+const code = z.string().trim().min(1, 'enter a code').max(24, 'at most 24 characters');
+const name = z.string().trim().min(1, 'enter a name').max(120, 'at most 120 characters');
+const uuid = z.string().uuid('must be a valid id');
+const bore = lengthField({ max: 500_000_000 });
+const smallLength = lengthField({ allowZero: true, max: 10_000_000 });
+const optionalSmallLength = optionalLengthField({ allowZero: true, max: 10_000_000 });
+
+export const familyInput = z
+  .object({
+    code,
+    name,
+    strokeType: z.enum(STROKE_TYPES, { error: 'must be "two" or "four"' }),
+    cylinders: z.number({ error: 'must be a whole number' }).int().min(1).max(24),
+    cooling: z.enum(COOLING_TYPES, { error: 'must be "air" or "liquid"' }),
+    standardBore: bore,
+    stroke: bore,
+    clearanceMin: smallLength,
+    clearanceMax: smallLength,
+    honeAllowance: smallLength,
+    cleanup: smallLength,
+    maxOversize: smallLength,
+    stepSeriesId: uuid,
+    maxTaper: optionalSmallLength.optional(),
+    maxOutOfRound: optionalSmallLength.optional(),
+    ringGapMin: optionalSmallLength.optional(),
+    ringGapMax: optionalSmallLength.optional(),
+    notes: z.string().max(2000).optional(),
+  })
+  .strict();
+export type FamilyInput = z.output<typeof familyInput>;
+
+export const familyPatch = familyInput
+  .partial()
+  .extend({ active: z.boolean().optional() })
+  .strict()
+  .refine((p) => Object.keys(p).length > 0, 'nothing to change');
+export type FamilyPatch = z.output<typeof familyPatch>;
+
+export const stepSeriesInput = z
+  .object({
+    code,
+    name,
+    unit: z.enum(['mm', 'in'], { error: 'must be "mm" or "in"' }),
+    /** Oversizes over the standard bore, ascending, in `unit` unless written with their own unit. */
+    offsets: z.array(z.string().max(30)).min(1, 'give at least one oversize').max(20),
+  })
+  .strict();
+export type StepSeriesInput = z.output<typeof stepSeriesInput>;
+
+const partFields = {
+  kind: z.enum(PART_KINDS, { error: 'must be piston, rings, kit or other' }),
+  sku: z
+    .string()
+    .trim()
+    .min(1, 'enter our part number')
+    .max(40, 'at most 40 characters')
+    .regex(/^[A-Za-z0-9][A-Za-z0-9._/+-]*$/, 'letters, digits and . _ / + - only'),
+  familyId: uuid.nullable().optional(),
+  stepId: uuid.nullable().optional(),
+  description: z.string().trim().min(1, 'enter a description').max(300),
+  material: z.enum(PISTON_MATERIALS, { error: 'must be cast or forged' }).nullable().optional(),
+  ringCount: z.number().int().min(1).max(6).nullable().optional(),
+  pinDiameter: optionalLengthField({ max: 100_000_000 }).optional(),
+  gtin: z.union([z.null(), z.literal(''), gtinField]).optional(),
+  salePrice: moneyText.optional(),
+  reorderPoint: z.number().int().min(0).max(1_000_000).nullable().optional(),
+  orderUpTo: z.number().int().min(0).max(1_000_000).nullable().optional(),
+  components: z
+    .array(z.object({ partId: uuid, quantity: z.number().int().min(1).max(1000) }).strict())
+    .max(20)
+    .optional(),
+};
+
+export const partInput = z.object(partFields).strict();
+export type PartInput = z.output<typeof partInput>;
+
+// The kind of a part never changes: a piston with units on the shelf cannot become a ring set.
+const { kind: _kind, ...patchableFields } = partFields;
+export const partPatch = z
+  .object({ ...patchableFields, active: z.boolean().optional() })
+  .partial()
+  .strict()
+  .refine((p) => Object.keys(p).length > 0, 'nothing to change');
+export type PartPatch = z.output<typeof partPatch>;
+
+// ---- Answers ----------------------------------------------------------------------------------
+
+export interface StepJson {
+  id: string;
+  position: number;
+  label: string;
+  offset: LengthJson;
+}
+
+export interface StepSeriesJson {
+  id: string;
+  code: string;
+  name: string;
+  unit: 'mm' | 'in';
+  custom: boolean;
+  steps: StepJson[];
+}
+
+export interface FamilyJson {
+  id: string;
+  code: string;
+  name: string;
+  strokeType: StrokeType;
+  cylinders: number;
+  cooling: Cooling;
+  standardBore: LengthJson;
+  stroke: LengthJson;
+  clearance: { min: LengthJson; max: LengthJson };
+  honeAllowance: LengthJson;
+  cleanup: LengthJson;
+  maxOversize: LengthJson;
+  maxTaper: LengthJson | null;
+  maxOutOfRound: LengthJson | null;
+  ringGap: { min: LengthJson | null; max: LengthJson | null };
+  stepSeriesId: string;
+  stepSeries: { id: string; code: string; name: string };
+  notes: string;
+  active: boolean;
+  /** Pistons of this family: on the shelf, free, and steps (within the largest oversize) with none free. */
+  stock: { pistonsOnHand: number; pistonsFree: number; emptySteps: number };
+  createdAt: string;
+  updatedAt: string;
+}
+
+export interface CountsJson {
+  onHand: number;
+  held: number;
+  free: number;
+  onOrder: number;
+}
+
+export type UnitStatus = 'free' | 'held' | 'issued' | 'returned' | 'scrapped';
+
+export interface LadderUnitJson {
+  id: string;
+  partId: string;
+  label: string;
+  skirt: LengthJson | null;
+  status: UnitStatus;
+  bin: string | null;
+  binId: string | null;
+}
+
+export interface LadderStepJson {
+  stepId: string;
+  label: string;
+  offset: LengthJson;
+  nominalBore: LengthJson;
+  pistons: CountsJson;
+  rings: CountsJson;
+  /** Kits that could be put together for this step from free parts. */
+  kitsFree: number;
+  /** No free piston at this step: a job needing it waits. */
+  nothingFree: boolean;
+  units: LadderUnitJson[];
+}
+
+export interface LadderJson {
+  family: FamilyJson;
+  steps: LadderStepJson[];
+}
+
+export interface ExposureItemJson {
+  familyId: string;
+  familyCode: string;
+  familyName: string;
+  stepId: string;
+  stepLabel: string;
+  offset: LengthJson;
+  nominalBore: LengthJson;
+  /** Piston part numbers the catalog has for this step (0: none listed yet). */
+  pistonParts: number;
+  pistonsOnHand: number;
+  pistonsHeld: number;
+  ringsFree: number;
+  /** Pistons of this step ever issued: how often it is asked for. */
+  issued: number;
+}
+
+export interface PartJson {
+  id: string;
+  sku: string;
+  kind: PartKind;
+  familyId: string | null;
+  familyCode: string | null;
+  stepId: string | null;
+  stepLabel: string | null;
+  description: string;
+  material: PistonMaterial | null;
+  ringCount: number | null;
+  pinDiameter: LengthJson | null;
+  gtin: string | null;
+  salePrice: string;
+  averageCost: string;
+  onHand: number;
+  held: number;
+  free: number;
+  reorderPoint: number | null;
+  orderUpTo: number | null;
+  binId: string | null;
+  bin: string | null;
+  active: boolean;
+}
+
+export interface PartDetailJson extends PartJson {
+  family: { id: string; code: string; name: string } | null;
+  step: { id: string; label: string; offset: LengthJson; nominalBore: LengthJson | null } | null;
+  components: {
+    partId: string;
+    sku: string;
+    description: string;
+    quantity: number;
+    free: number;
+  }[];
+  createdAt: string;
+  updatedAt: string;
+}
+
+export interface Page<T> {
+  items: T[];
+  total: number;
+}
+
+export const PART_SORTS = [
+  'sku',
+  'description',
+  'kind',
+  'family',
+  'step',
+  'onHand',
+  'free',
+  'salePrice',
+] as const;
+export const FAMILY_SORTS = ['code', 'name', 'standardBore', 'strokeType'] as const;

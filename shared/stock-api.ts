@@ -1,0 +1,169 @@
+// What the stock API accepts and answers: bins, receipts, adjustments, moves, scrapping, measuring,
+// piston units and the ledger. Shared by the server routes and the Angular forms.
+import { z } from 'zod';
+import { lengthField, moneyText, type UnitStatus } from './catalog-api';
+import type { LengthJson } from './lengths';
+
+export const UNIT_STATUSES = ['free', 'held', 'issued', 'returned', 'scrapped'] as const;
+export const LEDGER_KINDS = [
+  'receipt',
+  'adjustment',
+  'reservation',
+  'release',
+  'issue',
+  'return',
+  'scrap',
+  'transfer',
+  'measure',
+] as const;
+export type LedgerKind = (typeof LEDGER_KINDS)[number];
+
+/** Largest quantity one receipt or adjustment may move: a typo guard, far above any real delivery. */
+export const MAX_STOCK_QUANTITY = 10_000;
+/** Pistons in one receipt: each gets its own row, label and measurement. */
+export const MAX_PISTONS_PER_RECEIPT = 500;
+
+const uuid = z.string().uuid('must be a valid id');
+/** A measured piston skirt diameter: a piston is never larger than 500 mm across. */
+export const skirtField = lengthField({ max: 500_000_000 });
+const reason = z.string().trim().min(1, 'give a reason').max(500, 'at most 500 characters');
+
+export const binInput = z
+  .object({
+    code: z
+      .string()
+      .trim()
+      .min(1, 'enter a bin code')
+      .max(32, 'at most 32 characters')
+      .regex(/^[A-Za-z0-9][A-Za-z0-9._/-]*$/, 'letters, digits and . _ / - only, e.g. "A-03-2"'),
+    name: z.string().trim().max(120).optional(),
+  })
+  .strict();
+export type BinInput = z.output<typeof binInput>;
+
+export const receiptInput = z
+  .object({
+    partId: uuid,
+    quantity: z
+      .number({ error: 'must be a whole number' })
+      .int('must be a whole number')
+      .min(1, 'must be at least 1')
+      .max(MAX_STOCK_QUANTITY, `at most ${MAX_STOCK_QUANTITY} in one receipt`),
+    binId: uuid,
+    unitCost: moneyText,
+    note: z.string().trim().max(500).optional(),
+    /** Pistons only: one entry per piston; leave out skirt (or null) for "to measure". */
+    units: z
+      .array(z.object({ skirt: skirtField.nullable().optional() }).strict())
+      .max(MAX_PISTONS_PER_RECEIPT)
+      .optional(),
+  })
+  .strict();
+export type ReceiptInput = z.output<typeof receiptInput>;
+
+export const adjustmentInput = z
+  .object({
+    partId: uuid,
+    quantity: z
+      .number({ error: 'must be a whole number' })
+      .int('must be a whole number')
+      .min(-MAX_STOCK_QUANTITY)
+      .max(MAX_STOCK_QUANTITY)
+      .refine((q) => q !== 0, 'must not be 0: give the change, + to add, - to take away'),
+    reason,
+  })
+  .strict();
+export type AdjustmentInput = z.output<typeof adjustmentInput>;
+
+export const moveInput = z
+  .object({ unitId: uuid.optional(), partId: uuid.optional(), toBinId: uuid })
+  .strict()
+  .refine((m) => (m.unitId ? 1 : 0) + (m.partId ? 1 : 0) === 1, {
+    message: 'give either unitId (one piston) or partId (a counted part)',
+    path: ['unitId'],
+  });
+export type MoveInput = z.output<typeof moveInput>;
+
+export const scrapInput = z.object({ reason }).strict();
+export const measureInput = z.object({ skirt: skirtField }).strict();
+
+// ---- Answers ----------------------------------------------------------------------------------
+
+export interface BinJson {
+  id: string;
+  code: string;
+  name: string;
+  /** Piston units on the shelf in this bin. */
+  units: number;
+  /** Counted parts kept in this bin. */
+  parts: number;
+}
+
+export interface UnitJson {
+  id: string;
+  label: string;
+  partId: string;
+  sku: string;
+  description: string;
+  familyId: string | null;
+  familyCode: string | null;
+  familyName: string | null;
+  stepId: string | null;
+  stepLabel: string | null;
+  nominalBore: LengthJson | null;
+  skirt: LengthJson | null;
+  status: UnitStatus;
+  binId: string | null;
+  bin: string | null;
+  receivedAt: string;
+  measuredAt: string | null;
+  unitCost: string;
+  heldForJobId: string | null;
+  heldCylinder: number | null;
+  holdExpiresAt: string | null;
+}
+
+export interface LedgerJson {
+  id: number;
+  at: string;
+  userId: string | null;
+  userName: string | null;
+  partId: string;
+  sku: string;
+  unitId: string | null;
+  unitLabel: string | null;
+  kind: LedgerKind;
+  quantity: number;
+  heldDelta: number;
+  unitCost: string | null;
+  salePrice: string | null;
+  jobId: string | null;
+  reason: string | null;
+  fromBinId: string | null;
+  fromBin: string | null;
+  toBinId: string | null;
+  toBin: string | null;
+  ref: string | null;
+}
+
+export interface LevelsJson {
+  onHand: number;
+  held: number;
+  free: number;
+  averageCost: string;
+}
+
+export interface ReceiptJson {
+  receiptId: string;
+  ledger: LedgerJson[];
+  units: UnitJson[];
+  levels: LevelsJson;
+}
+
+export interface StockChangeJson {
+  ledger: LedgerJson[];
+  levels: LevelsJson;
+  unit?: UnitJson;
+}
+
+export const UNIT_SORTS = ['label', 'sku', 'skirt', 'status', 'bin', 'receivedAt'] as const;
