@@ -10,6 +10,8 @@ function say(msg: string) {
 }
 
 async function main() {
+  // The terminal shows the address and warnings; set LOG_LEVEL=info for every request as JSON lines.
+  process.env.LOG_LEVEL ??= 'warn';
   const external = Boolean(process.env.DATABASE_URL);
   const startedAt = Date.now();
   if (!external) process.env.DATABASE_URL = await localDatabaseUrl();

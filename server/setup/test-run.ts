@@ -5,6 +5,7 @@ import { execFileSync, spawnSync } from 'node:child_process';
 import { existsSync, mkdtempSync, rmSync } from 'node:fs';
 import path from 'node:path';
 import {
+  adminUrl,
   ensureDatabase,
   ensurePostgresInstalled,
   freePort,
@@ -103,7 +104,7 @@ async function main() {
       psql(cluster, 'alter role stepstock createdb');
       env.DATABASE_URL = url;
       env.STEPSTOCK_TEST_CLUSTER = JSON.stringify(cluster);
-      env.STEPSTOCK_PG_ADMIN_URL = `postgres://postgres@127.0.0.1:${cluster.port}/postgres`;
+      env.STEPSTOCK_PG_ADMIN_URL = adminUrl(cluster);
       const { createDb } = await import('../db/knex');
       const { migrateLatest } = await import('../db/migrate');
       const db = createDb(url);

@@ -47,9 +47,11 @@ async function adminQuery(sql: string): Promise<void> {
 export async function demoDatabase(): Promise<{ url: string; drop(): Promise<void> }> {
   const name = `e2e_${randomBytes(5).toString('hex')}`;
   await adminQuery(`create database ${name} template stepstock_e2e_template owner stepstock`);
-  const admin = new URL(process.env.STEPSTOCK_PG_ADMIN_URL as string);
+  // Same server and password as the test database, another database name.
+  const url = new URL(process.env.DATABASE_URL as string);
+  url.pathname = `/${name}`;
   return {
-    url: `postgres://stepstock@127.0.0.1:${admin.port}/${name}`,
+    url: url.toString(),
     drop: () => adminQuery(`drop database if exists ${name} with (force)`),
   };
 }
