@@ -31,8 +31,17 @@ export function lengthField(opts: ParseLengthOptions = {}) {
 /** A length that may be left out or cleared (null or ""): null means "not recorded". */
 export function optionalLengthField(opts: ParseLengthOptions = {}) {
   return z
-    .union([z.null(), z.literal(''), lengthField(opts)])
-    .transform((v): Nm | null => (v === '' || v === null ? null : v));
+    .string({ error: LENGTH_HINT })
+    .nullable()
+    .transform((text, ctx): Nm | null => {
+      if (text === null || text.trim() === '') return null;
+      const parsed = parseLength(text, opts);
+      if (!parsed.ok) {
+        ctx.addIssue({ code: 'custom', message: parsed.message });
+        return z.NEVER;
+      }
+      return parsed.nm;
+    });
 }
 
 /** Money as exact decimal text, 0 or more, at most 4 decimals ("12.50"). */
@@ -44,10 +53,15 @@ export const moneyText = z
     'must be an amount, 0 or more, like "12.50" (at most 4 decimals)',
   );
 
-/** A GTIN (EAN-13, UPC-A, GTIN-8 or GTIN-14) with a valid check digit, stored in its 14-digit form. */
+/**
+ * A GTIN (EAN-13, UPC-A, GTIN-8 or GTIN-14) with a valid check digit, stored in its 14-digit form;
+ * null or "" clears it.
+ */
 export const gtinField = z
   .string({ error: 'must be the digits under the barcode' })
-  .transform((text, ctx): string => {
+  .nullable()
+  .transform((text, ctx): string | null => {
+    if (text === null || text.trim() === '') return null;
     const problem = gtinProblem(text);
     const normal = problem ? null : normalizeGtin(text);
     if (problem || !normal) {
@@ -127,7 +141,7 @@ const partFields = {
   material: z.enum(PISTON_MATERIALS, { error: 'must be cast or forged' }).nullable().optional(),
   ringCount: z.number().int().min(1).max(6).nullable().optional(),
   pinDiameter: optionalLengthField({ max: 100_000_000 }).optional(),
-  gtin: z.union([z.null(), z.literal(''), gtinField]).optional(),
+  gtin: gtinField.optional(),
   salePrice: moneyText.optional(),
   reorderPoint: z.number().int().min(0).max(1_000_000).nullable().optional(),
   orderUpTo: z.number().int().min(0).max(1_000_000).nullable().optional(),

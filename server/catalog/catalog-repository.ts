@@ -316,6 +316,22 @@ export function familyStepLevels(familyId: string, k: Knex = db): Promise<StepLe
     ) as unknown as Promise<StepLevelsRow[]>;
 }
 
+/** What is on order per step, from the purchasing seam parts_on_order(). */
+export function familyStepOnOrder(
+  familyId: string,
+  k: Knex = db,
+): Promise<{ step_id: string; kind: 'piston' | 'rings'; quantity: number }[]> {
+  return k
+    .select('p.step_id', 'p.kind', k.raw('sum(o.quantity)::int as quantity'))
+    .from(k.raw('parts_on_order() as o'))
+    .join('parts as p', 'p.id', 'o.part_id')
+    .where('p.family_id', familyId)
+    .whereIn('p.kind', ['piston', 'rings'])
+    .groupBy('p.step_id', 'p.kind') as unknown as Promise<
+    { step_id: string; kind: 'piston' | 'rings'; quantity: number }[]
+  >;
+}
+
 export interface LadderUnitRow {
   id: string;
   part_id: string;

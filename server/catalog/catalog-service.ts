@@ -265,9 +265,10 @@ export async function updateFamily(
 export async function ladder(familyId: string, k: Conn = db): Promise<LadderJson> {
   const row = await repo.findFamily(familyId, k);
   if (!row) throw new NotFound('That engine family');
-  const [steps, levels, units, kits] = await Promise.all([
+  const [steps, levels, onOrder, units, kits] = await Promise.all([
     repo.stepsWithin(row.step_series_id, row.max_oversize_nm, k),
     repo.familyStepLevels(familyId, k),
+    repo.familyStepOnOrder(familyId, k),
     repo.familyShelfUnits(familyId, k),
     repo.familyKits(familyId, k),
   ]);
@@ -280,8 +281,8 @@ export async function ladder(familyId: string, k: Conn = db): Promise<LadderJson
     const l = levels.find((x) => x.step_id === stepId && x.kind === kind);
     const onHand = l?.on_hand ?? 0;
     const held = l?.held ?? 0;
-    // Nothing is on order until purchase orders are recorded; that feature fills this in.
-    return { onHand, held, free: onHand - held, onOrder: 0 };
+    const ordered = onOrder.find((x) => x.step_id === stepId && x.kind === kind)?.quantity ?? 0;
+    return { onHand, held, free: onHand - held, onOrder: ordered };
   };
 
   const ladderSteps: LadderStepJson[] = steps.map((step) => {
@@ -423,7 +424,7 @@ function partColumns(input: Partial<PartInput> & { active?: boolean }): Partial<
   if (input.material !== undefined) c.material = input.material;
   if (input.ringCount !== undefined) c.ring_count = input.ringCount;
   if (input.pinDiameter !== undefined) c.pin_diameter_nm = input.pinDiameter;
-  if (input.gtin !== undefined) c.gtin = input.gtin === '' ? null : input.gtin;
+  if (input.gtin !== undefined) c.gtin = input.gtin;
   if (input.salePrice !== undefined) c.sale_price = input.salePrice;
   if (input.reorderPoint !== undefined) c.reorder_point = input.reorderPoint;
   if (input.orderUpTo !== undefined) c.order_up_to = input.orderUpTo;
