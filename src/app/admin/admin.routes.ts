@@ -1,0 +1,11 @@
+import { Routes } from '@angular/router';
+
+/** Owner-only pages; the parent route in app.routes.ts holds the role guard. */
+export const adminRoutes: Routes = [
+  { path: '', pathMatch: 'full', redirectTo: 'users' },
+  {
+    path: 'users',
+    title: 'Users',
+    loadComponent: () => import('./user-list').then((m) => m.UserList),
+  },
+];

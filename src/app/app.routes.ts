@@ -1,0 +1,44 @@
+import { Routes } from '@angular/router';
+
+import { roleGuard } from './core/role-guard';
+import { signedInGuard } from './core/signed-in-guard';
+
+/**
+ * Every page is lazy. Signed-in pages are children of the shell; a page limited to some roles
+ * adds `canActivate: [roleGuard]` with `data: { roles: [...] }`, the same roles as its nav entry.
+ */
+export const routes: Routes = [
+  {
+    path: 'sign-in',
+    title: 'Sign in',
+    loadComponent: () => import('./core/sign-in/sign-in').then((m) => m.SignIn),
+  },
+  {
+    path: '',
+    canActivate: [signedInGuard],
+    loadComponent: () => import('./core/shell').then((m) => m.Shell),
+    children: [
+      {
+        path: '',
+        pathMatch: 'full',
+        title: 'Home',
+        loadComponent: () => import('./home/home').then((m) => m.Home),
+      },
+      {
+        path: 'admin',
+        canActivate: [roleGuard],
+        data: { roles: ['owner'] },
+        loadChildren: () => import('./admin/admin.routes').then((m) => m.adminRoutes),
+      },
+      {
+        path: 'account',
+        loadChildren: () => import('./account/account.routes').then((m) => m.accountRoutes),
+      },
+      {
+        path: '**',
+        title: 'Not found',
+        loadComponent: () => import('./core/not-found').then((m) => m.NotFound),
+      },
+    ],
+  },
+];
