@@ -424,7 +424,12 @@ function partColumns(input: Partial<PartInput> & { active?: boolean }): Partial<
   if (input.material !== undefined) c.material = input.material;
   if (input.ringCount !== undefined) c.ring_count = input.ringCount;
   if (input.pinDiameter !== undefined) c.pin_diameter_nm = input.pinDiameter;
-  if (input.gtin !== undefined) c.gtin = input.gtin;
+  if (input.gtin !== undefined) {
+    // The route's schema already gives the 14-digit form; callers inside the server (seeds) may not.
+    const gtin = input.gtin === null ? null : normalizeGtin(input.gtin);
+    if (input.gtin !== null && gtin === null) throw fieldError('gtin', 'not a valid GTIN');
+    c.gtin = gtin;
+  }
   if (input.salePrice !== undefined) c.sale_price = input.salePrice;
   if (input.reorderPoint !== undefined) c.reorder_point = input.reorderPoint;
   if (input.orderUpTo !== undefined) c.order_up_to = input.orderUpTo;
