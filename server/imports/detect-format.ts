@@ -70,9 +70,9 @@ export async function detectFileFormat(path: string): Promise<FormatSample> {
  */
 export async function detectFormat(head: Buffer, complete: boolean): Promise<FormatSample> {
   if (head.length === 0) throw new BadRequest('The file is empty.', [], 'empty_file');
-  await refuseKnownBinary(head);
   refuseWideText(head);
-  refuseControlBytes(head);
+  refuseTextDocuments(head);
+  await refuseBinary(head);
 
   const encoding = detectEncoding(head, complete);
   let text = iconv.decode(head, encoding === 'windows-1252' ? 'win1252' : 'utf8');
@@ -144,7 +144,8 @@ function refuseWideText(head: Buffer): void {
       'The file is saved as UTF-32 text. Save it as CSV in UTF-8 (or Windows-1252) and upload again.',
     );
   }
-  const bom16 = b.length >= 2 && ((b[0] === 0xff && b[1] === 0xfe) || (b[0] === 0xfe && b[1] === 0xff));
+  const bom16 =
+    b.length >= 2 && ((b[0] === 0xff && b[1] === 0xfe) || (b[0] === 0xfe && b[1] === 0xff));
   // UTF-16 text of Latin letters has a NUL in every other byte; look at one side only.
   let evenNuls = 0;
   let oddNuls = 0;
@@ -156,7 +157,10 @@ function refuseWideText(head: Buffer): void {
     }
   }
   const pairs = Math.floor(n / 2);
-  const wide = pairs >= 2 && Math.max(evenNuls, oddNuls) >= pairs * 0.3 && Math.min(evenNuls, oddNuls) <= pairs * 0.05;
+  const wide =
+    pairs >= 2 &&
+    Math.max(evenNuls, oddNuls) >= pairs * 0.3 &&
+    Math.min(evenNuls, oddNuls) <= pairs * 0.05;
   if (bom16 || wide) {
     throw new UnsupportedMediaType(
       'The file is saved as UTF-16 ("Unicode text"). Save it as CSV in UTF-8 (or Windows-1252) and ' +
@@ -165,8 +169,48 @@ function refuseWideText(head: Buffer): void {
   }
 }
 
-/** Names the format of a recognisable binary file (a spreadsheet, a PDF, an image) in the refusal. */
-async function refuseKnownBinary(head: Buffer): Promise<void> {
+/** Text files that are documents, not lists: a PDF, an RTF file, a web page or an XML file. */
+function refuseTextDocuments(head: Buffer): void {
+  const start = head
+    .subarray(0, 64)
+    .toString('latin1')
+    .replace(/^\ufeff|^\xef\xbb\xbf/, '')
+    .trimStart();
+  const kinds: [RegExp, string][] = [
+    [/^%PDF-/, 'a PDF document'],
+    [/^\{\\rtf/, 'an RTF document'],
+    [/^<!doctype html|^<html/i, 'a web page (HTML)'],
+    [/^<\?xml/, 'an XML file'],
+  ];
+  for (const [pattern, name] of kinds) {
+    if (pattern.test(start)) {
+      throw new UnsupportedMediaType(
+        `This is ${name}, not a delimited text list. Upload the CSV export.`,
+      );
+    }
+  }
+}
+
+/**
+ * Refuses bytes that are not text: any NUL, or more than a few control characters. A recognisable file
+ * (a spreadsheet workbook, an image) is named. The magic-number check runs only on such bytes, since a
+ * text list may start with letters that happen to match a binary signature.
+ */
+async function refuseBinary(head: Buffer): Promise<void> {
+  let controls = 0;
+  let firstNul = -1;
+  for (let i = 0; i < head.length; i++) {
+    const byte = head[i];
+    if (byte === 0 && firstNul < 0) firstNul = i;
+    // Tab, line feed, carriage return are text; a DOS end-of-file mark (0x1A) is tolerated.
+    if (
+      (byte < 0x20 && byte !== 0x09 && byte !== 0x0a && byte !== 0x0d && byte !== 0x1a) ||
+      byte === 0x7f
+    ) {
+      controls++;
+    }
+  }
+  if (firstNul < 0 && controls <= Math.max(2, head.length / 1000)) return;
   const kind = await FileType.fromBuffer(head);
   if (kind) {
     const spreadsheet = ['xlsx', 'cfb', 'zip', 'ods'].includes(kind.ext);
@@ -175,28 +219,12 @@ async function refuseKnownBinary(head: Buffer): Promise<void> {
         (spreadsheet ? ' Open it in the spreadsheet program and save it as CSV.' : ''),
     );
   }
-}
-
-function refuseControlBytes(head: Buffer): void {
-  let controls = 0;
-  for (let i = 0; i < head.length; i++) {
-    const byte = head[i];
-    if (byte === 0) {
-      throw new UnsupportedMediaType(
-        `The file holds binary data (a NUL byte at byte ${i + 1}), not delimited text.`,
-      );
-    }
-    // Tab, line feed, carriage return are text; a DOS end-of-file mark (0x1A) on its own is tolerated.
-    if ((byte < 0x20 && byte !== 0x09 && byte !== 0x0a && byte !== 0x0d && byte !== 0x1a) || byte === 0x7f) {
-      controls++;
-    }
-  }
-  if (controls > Math.max(2, head.length / 1000)) {
-    throw new UnsupportedMediaType(
-      `The file holds ${controls} control characters in its first ${head.length} bytes: it is binary, ` +
-        'not delimited text.',
-    );
-  }
+  throw new UnsupportedMediaType(
+    firstNul >= 0
+      ? `The file holds binary data (a NUL byte at byte ${firstNul + 1}), not delimited text.`
+      : `The file holds ${controls} control characters in its first ${head.length} bytes: it is binary, ` +
+          'not delimited text.',
+  );
 }
 
 function detectEncoding(head: Buffer, complete: boolean): TextEncoding {

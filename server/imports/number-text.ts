@@ -1,12 +1,12 @@
 // Numbers as suppliers write them in their lists: "12.50", "1.234,50", "€ 12,50", "54,25 mm", "(3.00)",
-// "2.5000\"". This file splits such a cell into the number and the text around it and turns the number
-// into a canonical decimal string ("1234.50") for one decimal mark, refusing anything ambiguous or mixed
-// rather than guessing.
+// "2.5000\"". This file splits such a cell into the number and the text around it, and tells from the
+// numbers of a list whether it writes a decimal comma or a decimal point. Amounts themselves are read by
+// shared/money; lengths by shared/lengths.
 import type { DecimalMark } from './detect-format';
 
 export interface NumberCell {
-  /** Canonical digits with '.' as the decimal point and no sign ("1234.50"). */
-  value: string;
+  /** The number as written, without sign or surrounding text ("1.234,50"). */
+  run: string;
   negative: boolean;
   /** Text before and after the number, trimmed (currency codes, symbols, units). */
   before: string;
@@ -22,8 +22,8 @@ const NUMBER_RUN = /\d[\d.,' ]*\d|\d|[.,]\d+/;
 /** Affixes a numeric cell may carry: currency codes and symbols, length units, a percent sign. */
 const AFFIX = /^(?:[A-Za-z]{3}|[€£$¥]|mm|in|in\.|inch|inches|"|\u2033|''|%)?$/;
 
-/** Splits a cell into number and surrounding text, and reads the number for the given decimal mark. */
-export function readNumberCell(raw: string, decimal: DecimalMark): NumberResult {
+/** Splits a cell into its number, its sign and the text around it ("€ -12,50" → "12,50", "-", "€"). */
+export function readNumberCell(raw: string): NumberResult {
   let text = raw.replace(SPACES, ' ').trim();
   let negative = false;
   if (/^\(.*\)$/.test(text)) {
@@ -43,20 +43,45 @@ export function readNumberCell(raw: string, decimal: DecimalMark): NumberResult 
   if (/^e[+-]?\d/i.test(after)) {
     return {
       ok: false,
-      message: `"${raw.trim()}" is in exponent form; a spreadsheet probably reformatted it — format the column as text`,
+      message: `"${raw.trim()}" is in exponent form (a spreadsheet probably reformatted it; format the column as text)`,
     };
   }
-  const value = canonical(match[0].trim(), decimal);
-  if (typeof value !== 'string') return { ok: false, message: `"${raw.trim()}" ${value.problem}` };
-  return { ok: true, cell: { value, negative, before, after } };
+  return { ok: true, cell: { run: match[0].trim(), negative, before, after } };
+}
+
+/**
+ * A length's number for the list's decimal mark: "54,25" → "54.25" in a decimal-comma list. Lengths never
+ * carry thousands separators, so the other mark is refused rather than guessed at.
+ */
+export function lengthDigits(run: string, decimal: DecimalMark): string | { problem: string } {
+  const other = decimal === ',' ? '.' : ',';
+  if (run.includes(other) || /[ ']/.test(run)) {
+    return {
+      problem: `uses a decimal ${markName(other)}, but this list writes decimals with a ${markName(decimal)}`,
+    };
+  }
+  if (run.indexOf(decimal) !== run.lastIndexOf(decimal)) {
+    return { problem: `has more than one decimal ${markName(decimal)}` };
+  }
+  return run.replace(decimal, '.');
+}
+
+export function markName(mark: DecimalMark): string {
+  return mark === ',' ? 'comma' : 'point';
 }
 
 /** True for a cell that is a number, possibly with a currency or unit: "12,50 €", "54.25 mm", "7". */
 export function looksLikeNumber(raw: string): boolean {
-  const text = raw.replace(SPACES, ' ').trim().replace(/^\((.*)\)$/, '$1');
+  const text = raw
+    .replace(SPACES, ' ')
+    .trim()
+    .replace(/^\((.*)\)$/, '$1');
   const match = NUMBER_RUN.exec(text);
   if (!match) return false;
-  const before = text.slice(0, match.index).replace(/[-+\u2212]/g, '').trim();
+  const before = text
+    .slice(0, match.index)
+    .replace(/[-+\u2212]/g, '')
+    .trim();
   const after = text.slice(match.index + match[0].length).trim();
   return AFFIX.test(before) && AFFIX.test(after);
 }
@@ -72,7 +97,8 @@ export function numberEvidence(raw: string): Evidence {
   const run = NUMBER_RUN.exec(raw.replace(SPACES, ' '))?.[0].replace(/[ ']/g, '') ?? '';
   const commas = count(run, ',');
   const points = count(run, '.');
-  if (commas > 0 && points > 0) return run.lastIndexOf(',') > run.lastIndexOf('.') ? 'comma' : 'point';
+  if (commas > 0 && points > 0)
+    return run.lastIndexOf(',') > run.lastIndexOf('.') ? 'comma' : 'point';
   if (commas > 1) return 'point';
   if (points > 1) return 'comma';
   const mark = commas === 1 ? ',' : points === 1 ? '.' : null;
@@ -87,43 +113,4 @@ function count(text: string, ch: string): number {
   let n = 0;
   for (const c of text) if (c === ch) n++;
   return n;
-}
-
-/**
- * "1.234,50" → "1234.50" when the decimal mark is a comma; "1,234.50" → "1234.50" for a point. Thousands
- * separators (the other mark, a space or an apostrophe) must sit between groups of exactly three digits.
- */
-function canonical(run: string, decimal: DecimalMark): string | { problem: string } {
-  const thousands = decimal === ',' ? '.' : ',';
-  const other = thousands;
-  const decimalIndex = run.lastIndexOf(decimal);
-  if (decimalIndex !== run.indexOf(decimal)) {
-    return { problem: `has more than one decimal ${decimal === ',' ? 'comma' : 'point'}` };
-  }
-  const whole = decimalIndex >= 0 ? run.slice(0, decimalIndex) : run;
-  const fraction = decimalIndex >= 0 ? run.slice(decimalIndex + 1) : '';
-  if (/[^\d]/.test(fraction) || (decimalIndex >= 0 && fraction === '')) {
-    return { problem: `is not a number written with a decimal ${decimal === ',' ? 'comma' : 'point'}` };
-  }
-  let digits = whole;
-  if (/[^\d]/.test(whole)) {
-    const groups = whole.split(/[ ']|\.|,/);
-    const separators = whole.replace(/\d/g, '');
-    const grouped =
-      new Set(separators).size === 1 &&
-      !separators.includes(decimal) &&
-      /^\d{1,3}$/.test(groups[0]) &&
-      groups.slice(1).every((g) => /^\d{3}$/.test(g));
-    if (!grouped) {
-      const usesOther = whole.includes(other) && decimalIndex < 0;
-      return {
-        problem: usesOther
-          ? `uses a decimal ${other === ',' ? 'comma' : 'point'}, but this list writes decimals with a ${decimal === ',' ? 'comma' : 'point'}`
-          : 'has separators in the wrong places',
-      };
-    }
-    digits = groups.join('');
-  }
-  if (digits === '') digits = '0';
-  return fraction ? `${digits}.${fraction}` : digits;
 }

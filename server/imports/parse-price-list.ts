@@ -1,0 +1,280 @@
+// Streams a supplier's price list from disk into validated rows and row errors: file stream → iconv-lite
+// decoder → csv-parse (strict RFC 4180 quoting, one column count for every row) → row validation. Rows
+// come out as they are read, so a caller writing them in batches never holds the whole file in memory.
+import { createReadStream } from 'node:fs';
+import { pipeline } from 'node:stream';
+import iconv from 'iconv-lite';
+import { parse, type CsvError, type InfoRecord, type Options } from 'csv-parse';
+import { BadRequest } from '../errors';
+import type { DetectedFormat } from './detect-format';
+import { resolveMapping, type ColumnMapping } from './propose-mapping';
+import { validateRow, type PriceListRow, type RowIssue, type RowContext } from './validate-row';
+
+export type { PriceListRow, RowIssue } from './validate-row';
+
+export type PriceListItem =
+  | { kind: 'row'; row: PriceListRow }
+  | { kind: 'error'; issue: RowIssue }
+  | { kind: 'warning'; issue: RowIssue }
+  /** A row given earlier must not be used after all: its SKU turned up again further down. */
+  | { kind: 'retract'; line: number; sku: string };
+
+export interface ReadOptions {
+  format: DetectedFormat;
+  mapping: ColumnMapping;
+  /** Currency of prices that name none (the supplier's currency). */
+  defaultCurrency: string;
+  /** Longest row accepted, in bytes. */
+  maxRecordBytes?: number;
+}
+
+export interface ParseCounts {
+  /** Data rows read (blank lines not counted). */
+  rows: number;
+  /** Rows that are valid and will be used. */
+  ok: number;
+  /** Rows with at least one error; they are not used. */
+  errors: number;
+  warnings: number;
+}
+
+/** No real price-list row comes near this; a longer one is a file without line breaks or an open quote. */
+export const MAX_RECORD_BYTES = 64 * 1024;
+
+const FATAL_CODES = new Set(['CSV_MAX_RECORD_SIZE', 'CSV_QUOTE_NOT_CLOSED']);
+
+interface ParsedRecord {
+  fields: string[];
+  /** 1-based line on which the record starts. */
+  line: number;
+}
+
+/**
+ * Reads the list row by row. Throws BadRequest when the file as a whole cannot be read (a quote never
+ * closed, a row too long, a missing required column); everything wrong with single rows comes out as
+ * 'error' items with the line number.
+ */
+export async function* readPriceList(
+  path: string,
+  options: ReadOptions,
+  counts: ParseCounts = { rows: 0, ok: 0, errors: 0, warnings: 0 },
+): AsyncGenerator<PriceListItem> {
+  const { format, mapping } = options;
+  const columns = resolveMapping(mapping, format.headers);
+  const width = format.headers.length;
+  const maxRecordBytes = options.maxRecordBytes ?? MAX_RECORD_BYTES;
+  const pending: PriceListItem[] = [];
+  let lastCompleteLine = format.headerLine - 1;
+
+  // csv-parse counts a CRLF inside a quoted field as two lines, so its line numbers drift by one after
+  // each; `drift` undoes that. Both callbacks run in file order, inside the parser.
+  let drift = 0;
+  const linesOf = (reportedEnd: number, record: string[]): { start: number; end: number } => {
+    const { breaks, crlf } = lineBreaksIn(record);
+    drift += crlf;
+    const end = reportedEnd - drift;
+    return { start: end - breaks, end };
+  };
+
+  const parserOptions: Options<ParsedRecord, string[]> = {
+    delimiter: format.delimiter,
+    record_delimiter: ['\r\n', '\n', '\r'],
+    from_line: format.headerLine,
+    relax_column_count: false,
+    // A quote that does not open a field is kept as text: lists write inch marks as 2.5000" unquoted.
+    relax_quotes: true,
+    skip_empty_lines: true,
+    skip_records_with_error: true,
+    max_record_size: maxRecordBytes,
+    on_record: (record: string[], info: InfoRecord): ParsedRecord => {
+      const { start, end } = linesOf(info.lines, record);
+      lastCompleteLine = end;
+      return { fields: record, line: start };
+    },
+    on_skip: (err: CsvError | undefined) => {
+      if (!err) return undefined;
+      if (FATAL_CODES.has(err.code)) throw fatalError(err, lastCompleteLine, maxRecordBytes);
+      const record = Array.isArray(err.record) ? (err.record as string[]) : [];
+      const { start, end } = linesOf(
+        typeof err.lines === 'number' ? err.lines : lastCompleteLine + 1,
+        record,
+      );
+      lastCompleteLine = end;
+      pending.push({
+        kind: 'error',
+        issue: {
+          line: start,
+          message:
+            err.code === 'CSV_RECORD_INCONSISTENT_FIELDS_LENGTH'
+              ? `This row has ${record.length} column${record.length === 1 ? '' : 's'}; the header has ${width}.`
+              : `This row cannot be read: ${err.message}`,
+        },
+      });
+      return undefined;
+    },
+  };
+  // The typings only let on_record return a row of strings; ours returns the row with its line.
+  const parser = parse(parserOptions as unknown as Options);
+
+  const decoder = iconv.decodeStream(format.encoding === 'windows-1252' ? 'win1252' : 'utf8');
+  // pipeline() destroys every stream when one fails, so a read error surfaces in the loop below.
+  pipeline(createReadStream(path), decoder, parser, () => undefined);
+
+  const context: RowContext = {
+    format,
+    mapping,
+    columns,
+    defaultCurrency: options.defaultCurrency,
+  };
+  const seen = new Map<string, { line: number; ok: boolean }>();
+  const flaggedTwice = new Set<string>();
+  let headerSeen = false;
+
+  const drain = function* (): Generator<PriceListItem> {
+    while (pending.length > 0) {
+      const item = pending.shift() as PriceListItem;
+      if (item.kind === 'error') {
+        counts.rows++;
+        counts.errors++;
+      }
+      yield item;
+    }
+  };
+
+  try {
+    for await (const { fields: record, line } of parser as AsyncIterable<ParsedRecord>) {
+      yield* drain();
+      if (!headerSeen) {
+        headerSeen = true;
+        continue; // the header line itself
+      }
+      if (record.every((cell) => cell.trim() === '')) continue; // a spreadsheet's padded blank row
+
+      counts.rows++;
+      const result = validateRow(record, line, context);
+      for (const warning of result.warnings) {
+        counts.warnings++;
+        yield { kind: 'warning', issue: warning };
+      }
+      const sku = result.sku;
+      const earlier = sku ? seen.get(sku) : undefined;
+      if (sku && earlier) {
+        counts.errors++;
+        yield {
+          kind: 'error',
+          issue: {
+            line,
+            field: 'sku',
+            message: `SKU "${sku}" is also on line ${earlier.line}; neither row is imported.`,
+          },
+        };
+        if (earlier.ok && !flaggedTwice.has(sku)) {
+          counts.ok--;
+          counts.errors++;
+          yield { kind: 'retract', line: earlier.line, sku };
+          yield {
+            kind: 'error',
+            issue: {
+              line: earlier.line,
+              field: 'sku',
+              message: `SKU "${sku}" appears again on line ${line}; neither row is imported.`,
+            },
+          };
+        }
+        flaggedTwice.add(sku);
+        continue;
+      }
+      if (sku) seen.set(sku, { line, ok: result.row !== null });
+      if (result.row) {
+        counts.ok++;
+        yield { kind: 'row', row: result.row };
+      } else {
+        counts.errors++;
+        for (const error of result.errors) yield { kind: 'error', issue: error };
+      }
+    }
+  } finally {
+    parser.destroy();
+  }
+  yield* drain();
+  if (counts.rows === 0) {
+    throw new BadRequest(
+      `The file has a header on line ${format.headerLine} but no rows below it.`,
+      [{ line: format.headerLine, message: 'Header only.' }],
+      'no_rows',
+    );
+  }
+}
+
+export interface PriceListBatch {
+  rows: PriceListRow[];
+  errors: RowIssue[];
+  warnings: RowIssue[];
+  retracted: { line: number; sku: string }[];
+}
+
+/** The same stream in batches, for callers that write rows to the database a batch at a time. */
+export async function* readPriceListBatches(
+  path: string,
+  options: ReadOptions,
+  counts: ParseCounts,
+  batchSize = 2000,
+): AsyncGenerator<PriceListBatch> {
+  let batch = emptyBatch();
+  for await (const item of readPriceList(path, options, counts)) {
+    if (item.kind === 'row') batch.rows.push(item.row);
+    else if (item.kind === 'error') batch.errors.push(item.issue);
+    else if (item.kind === 'warning') batch.warnings.push(item.issue);
+    else batch.retracted.push({ line: item.line, sku: item.sku });
+    if (batch.rows.length >= batchSize) {
+      yield batch;
+      batch = emptyBatch();
+    }
+  }
+  if (
+    batch.rows.length + batch.errors.length + batch.warnings.length + batch.retracted.length >
+    0
+  ) {
+    yield batch;
+  }
+}
+
+function emptyBatch(): PriceListBatch {
+  return { rows: [], errors: [], warnings: [], retracted: [] };
+}
+
+/** Line breaks inside a record's quoted fields (CRLF counted once, and apart as `crlf`). */
+function lineBreaksIn(record: string[]): { breaks: number; crlf: number } {
+  let breaks = 0;
+  let crlf = 0;
+  for (const cell of record) {
+    for (let i = 0; i < cell.length; i++) {
+      const ch = cell.charCodeAt(i);
+      if (ch === 10) breaks++;
+      else if (ch === 13) {
+        if (cell.charCodeAt(i + 1) === 10) crlf++;
+        else breaks++;
+      }
+    }
+  }
+  return { breaks, crlf };
+}
+
+/** A fault that leaves the rest of the file unreadable: the whole list is refused. */
+function fatalError(err: CsvError, lastComplete: number, maxBytes: number): BadRequest {
+  const start = lastComplete + 1;
+  if (err.code === 'CSV_MAX_RECORD_SIZE') {
+    return new BadRequest(
+      `The row starting on line ${start} is longer than ${maxBytes / 1024} kB: either the file has no ` +
+        'line breaks there or a quote is opened and never closed.',
+      [{ line: start, message: `Row longer than ${maxBytes / 1024} kB.` }],
+      'unreadable',
+    );
+  }
+  return new BadRequest(
+    `A quote opened in the row starting on line ${start} is never closed, so the rest of the file ` +
+      'cannot be split into rows. Every quoted field needs its closing quote (RFC 4180).',
+    [{ line: start, message: 'Quote never closed.' }],
+    'unreadable',
+  );
+}
