@@ -12,40 +12,40 @@ let serial = 1;
 const code = (prefix: string, len: number): string =>
   gtin(prefix + String(serial++).padStart(len - 1 - prefix.length, '0'));
 
+// The sizes follow the invented demo families of seeds/demo/catalog.ts: 2.1875, 2.9375 and 3.3750 in
+// (0.010 in steps, the last one on to +0.060 in); 54.00, 72.00 and 77.00 mm (0.25 mm steps); 66.40 mm
+// (0.50 mm steps). Tessaway also lists a 56.00 mm family the demo shop does not keep, so the mapping
+// queue has items no catalog part matches.
+
 // (a) Quillmark Piston Supply: comma, UTF-8, inches, LF line ends, quoted fields holding commas and
-// doubled quotes (2.5000"" bore), a price with a thousands separator.
+// doubled quotes (2.1875"" bore), a price with a thousands separator.
 {
-  const steps = [
-    ['STD', 0],
-    ['+.010', 0.01],
-    ['+.020', 0.02],
-    ['+.030', 0.03],
-    ['+.040', 0.04],
-  ] as const;
+  const imperial = ['STD', '+.010', '+.020', '+.030', '+.040'];
   const fams = [
-    ['2500', 2.5, '48.75', '21.40'],
-    ['3125', 3.125, '64.20', '27.90'],
+    ['2187', 2.1875, '44.60', '19.90', imperial],
+    ['2937', 2.9375, '52.30', '23.10', imperial],
+    ['3375', 3.375, '71.80', '31.40', [...imperial, '+.060']],
   ] as const;
   const lines = [
     'Part Number,Description,Bore (in),Oversize,Price,Qty Available,Lead Time (days),UPC',
   ];
   const qty = [4, 9, 2, 0, 1, 6, 3, 1, 0, 2];
   let q = 0;
-  for (const [tag, std, piston, rings] of fams) {
-    for (const [label, off] of steps) {
+  for (const [tag, std, piston, rings, steps] of fams) {
+    for (const label of steps) {
+      const off = label === 'STD' ? 0 : Number(label.replace('+', '0'));
       const bore = (std + off).toFixed(4);
-      const o = label === 'STD' ? 'STD' : label;
       const s = label === 'STD' ? 'STD' : label.slice(2);
       lines.push(
-        `QP-${tag}-${s},"Piston, cast, ${bore}"" bore, 3 rings, pin and clips",${bore},${o},${piston},${qty[q++ % qty.length]},14,${code('2', 12)}`,
+        `QP-${tag}-${s},"Piston, cast, ${bore}"" bore, pin and clips",${bore},${label},${piston},${qty[q++ % qty.length]},14,${code('2', 12)}`,
       );
       lines.push(
-        `QR-${tag}-${s},"Ring set ${bore}"" (one cylinder)",${bore},${o},${rings},${qty[q++ % qty.length] + 3},14,${code('2', 12)}`,
+        `QR-${tag}-${s},"Ring set ${bore}"" (one cylinder)",${bore},${label},${rings},${qty[q++ % qty.length] + 3},14,${code('2', 12)}`,
       );
     }
   }
   lines.push(
-    `QK-2500-SET4,"Piston set of 4, ${'2.5200'}"" bore, matched weights",2.5200,+.020,"1,089.00",1,30,${code('2', 12)}`,
+    `QK-3375-SET4,"Piston set of 4, 3.3950"" bore, matched weights",3.3950,+.020,"1,089.00",1,30,${code('2', 12)}`,
   );
   writeFileSync(`${out}/quillmark-pistons-2026-12.csv`, lines.join('\n') + '\n');
 }
@@ -56,9 +56,8 @@ const code = (prefix: string, len: number): string =>
   const steps = ['0,00', '0,25', '0,50', '0,75', '1,00'];
   const fams = [
     ['54', 54, '48,90', '19,80'],
-    ['56', 56, '51,40', '19,80'],
-    ['66', 66, '62,75', '24,60'],
     ['72', 72, '71,30', '26,10'],
+    ['77', 77, '83,40', '29,50'],
   ] as const;
   const lines = ['Art.-Nr.;Bezeichnung;Ø mm;Übermaß;Preis €;Bestand;Lieferzeit;EAN'];
   let n = 0;
@@ -77,13 +76,13 @@ const code = (prefix: string, len: number): string =>
         `MV-K${tag}-${stepTag};${desc};${size};${st};${piston};${(n * 7) % 11};${5 + (n % 3) * 5} Tage;${code('20', 13)}`,
       );
       lines.push(
-        `MV-R${tag}-${stepTag};Kolbenringsatz ø ${size} mm – 3 Ringe, Stoßspiel geprüft;${size};${st};${rings};${(n * 5) % 9};5 Tage;${code('20', 13)}`,
+        `MV-R${tag}-${stepTag};Kolbenringsatz ø ${size} mm – 2 Ringe, Stoßspiel geprüft;${size};${st};${rings};${(n * 5) % 9};5 Tage;${code('20', 13)}`,
       );
       n++;
     }
   }
   lines.push(
-    `MV-Z72-SET;"Zylinder-Satz 4× Kolben Ø 72,50 mm, Pfand 5 € je Kolben";72,50;0,50;1.234,50;1;3 Wochen;${code('20', 13)}`,
+    `MV-Z72-SET;"Zylinder-Satz 2× Kolben Ø 72,50 mm, Pfand 5 € je Kolben";72,50;0,50;1.234,50;1;3 Wochen;${code('20', 13)}`,
   );
   writeFileSync(
     `${out}/morvendt-motorteile-2026-12.csv`,
@@ -92,14 +91,13 @@ const code = (prefix: string, len: number): string =>
 }
 
 // (c) Tessaway Engine Spares: tab-separated, UTF-8 with a BOM, two title lines above the header, sizes
-// written with their unit ("66.25 mm"), prices with a pound sign, lead times in days or weeks.
+// written with their unit ("66.90 mm"), prices with a pound sign, lead times in days or weeks.
 {
   const fams = [
-    ['66', 66, '42.10'],
-    ['72', 72, '47.85'],
-    ['56', 56, '36.40'],
+    ['6640', 66.4, '58.10', ['STD', '+0.50', '+1.00', '+1.50']],
+    ['72', 72, '47.85', ['STD', '+0.25', '+0.50', '+0.75', '+1.00']],
+    ['56', 56, '36.40', ['STD', '+0.25', '+0.50', '+0.75', '+1.00']],
   ] as const;
-  const steps = ['STD', '+0.25', '+0.50', '+0.75', '+1.00'];
   const lines = [
     'Tessaway Engine Spares – trade price list',
     'Valid from 1 December 2026 · prices in GBP, carriage extra',
@@ -115,11 +113,11 @@ const code = (prefix: string, len: number): string =>
     ].join('\t'),
   ];
   let n = 0;
-  for (const [tag, std, price] of fams) {
+  for (const [tag, std, price, steps] of fams) {
     for (const st of steps) {
       const off = st === 'STD' ? 0 : Number(st);
       const size = (std + off).toFixed(2);
-      const s = st === 'STD' ? 'STD' : st.replace('+0.', '');
+      const s = st === 'STD' ? 'STD' : st.replace('+', '').replace('.', '');
       lines.push(
         [
           `TW-${tag}-${s}`,
@@ -147,17 +145,17 @@ const code = (prefix: string, len: number): string =>
     lines.push(`${sku},${d},${size},${os},${price},EUR,${avail},${code('22', 13)}`);
   ok('OP-54-050', 'Piston 54.50 new old stock (boxed)', '54.50', '0.50', '38.00', '1');
   ok('OP-54-075', 'Piston 54.75 new old stock (boxed)', '54.75', '0.75', '38.00', '2');
-  ok('OP-56-025', 'Piston 56.25 new old stock', '56.25', '0.25', '41.50', '1');
-  ok('OP-56-100', 'Piston 56.00 +1.00 last one', '57.00', '1.00', '45.00', '1');
-  lines.push(`OP-66-025,Piston 66.25 shelf-worn box,66.25,0.25,-12.00,EUR,1,${code('22', 13)}`);
-  lines.push(`OP-66-050,Piston 66.50 with rings,66.50,0.50,39.00,EUR,1`);
-  lines.push(`OP-66-075,Piston 66.75 with rings,66.75,0.75,44.00,EUR,2,2200000000018`);
-  ok('OP-72-025', 'Piston 72.25 forged', '72.25', '0.25', '52.00', '1');
+  ok('OP-72-025', 'Piston 72.25 new old stock', '72.25', '0.25', '41.50', '1');
+  ok('OP-72-100', 'Piston 72.00 +1.00 last one', '73.00', '1.00', '45.00', '1');
+  lines.push(`OP-6640-050,Piston 66.90 shelf-worn box,66.90,0.50,-12.00,EUR,1,${code('22', 13)}`);
+  lines.push(`OP-6640-100,Piston 67.40 with rings,67.40,1.00,39.00,EUR,1`);
+  lines.push(`OP-6640-150,Piston 67.90 with rings,67.90,1.50,44.00,EUR,2,2200000000018`);
+  ok('OP-54-025', 'Piston 54.25 forged', '54.25', '0.25', '52.00', '1');
   lines.push(`OP-72-050,Piston 72.50 forged,72.50,0.50,52.00,EUX,1,${code('22', 13)}`);
   lines.push(`OP-72-075,Piston 72.75 forged,72.75 cm,0.75,52.00,EUR,1,${code('22', 13)}`);
-  ok('OP-72-100', 'Piston 73.00 forged', '73.00', '1.00', '55.00', '1');
+  ok('OP-54-100', 'Piston 55.00 forged', '55.00', '1.00', '55.00', '1');
   lines.push(`OP-54-050,Piston 54.50 second box,54.50,0.50,36.00,EUR,1,${code('22', 13)}`);
-  lines.push(`OP-56-050,Piston 56.50 price on request,56.50,0.50,call,EUR,1,${code('22', 13)}`);
-  ok('OP-56-075', 'Piston 56.75 new old stock', '56.75', '0.75', '41.50', '3');
+  lines.push(`OP-54-000,Piston 54.00 price on request,54.00,0,call,EUR,1,${code('22', 13)}`);
+  ok('OP-6640-000', 'Piston 66.40 new old stock', '66.40', '0', '41.50', '3');
   writeFileSync(`${out}/orrinpike-old-stock-2026-11.csv`, lines.join('\n') + '\n');
 }

@@ -25,21 +25,23 @@ describe('the sample price lists in imports/', () => {
       currency: null,
       sizeUnit: 'in',
     });
-    expect(list.counts).toEqual({ rows: 21, ok: 21, errors: 0, warnings: 0 });
+    expect(list.counts).toEqual({ rows: 33, ok: 33, errors: 0, warnings: 0 });
     expect(list.rows[2]).toEqual({
       line: 4,
-      sku: 'QP-2500-010',
-      description: 'Piston, cast, 2.5100" bore, 3 rings, pin and clips',
-      // 2.5100 in and 0.010 in at 25.4 mm per inch exactly (NIST SP 811, appendix B).
-      sizeNm: 63_754_000,
+      sku: 'QP-2187-010',
+      description: 'Piston, cast, 2.1975" bore, pin and clips',
+      // 2.1975 in and 0.010 in at 25.4 mm per inch exactly (NIST SP 811, appendix B).
+      sizeNm: 55_816_500,
       oversizeNm: 254_000,
-      price: '48.75',
+      price: '44.60',
       currency: 'USD',
       available: 2,
       leadDays: 14,
       gtin: '200000000035',
     });
-    expect(list.rows.find((r) => r.sku === 'QK-2500-SET4')?.price).toBe('1089.00');
+    expect(list.rows.find((r) => r.sku === 'QK-3375-SET4')?.price).toBe('1089.00');
+    // +0.060 in = 1 524 000 nm over 3.3750 in = 85 725 000 nm.
+    expect(list.rows.find((r) => r.sku === 'QP-3375-060')).toMatchObject({ sizeNm: 87_249_000, oversizeNm: 1_524_000 });
   });
 
   it('when the semicolon list in Windows-1252 is read, then accents, € and – come through and decimal commas are read', async () => {
@@ -78,7 +80,7 @@ describe('the sample price lists in imports/', () => {
       gtin: 'EAN',
       sizeUnit: 'mm',
     });
-    expect(list.counts).toEqual({ rows: 41, ok: 41, errors: 0, warnings: 0 });
+    expect(list.counts).toEqual({ rows: 31, ok: 31, errors: 0, warnings: 0 });
     const descriptions = list.rows.map((r) => r.description).join('\n');
     for (const ch of ['µ', 'ø', 'Ø', 'é', '°', 'ß', '–', '€']) expect(descriptions).toContain(ch);
     expect(list.rows[0]).toMatchObject({
@@ -116,13 +118,13 @@ describe('the sample price lists in imports/', () => {
       gtin: 'EAN-13',
       sizeUnit: 'mm',
     });
-    expect(list.counts).toEqual({ rows: 15, ok: 15, errors: 0, warnings: 0 });
+    expect(list.counts).toEqual({ rows: 14, ok: 14, errors: 0, warnings: 0 });
     expect(list.rows[1]).toMatchObject({
       line: 5,
-      sku: 'TW-66-25',
-      sizeNm: 66_250_000,
-      oversizeNm: 250_000,
-      price: '42.10',
+      sku: 'TW-6640-050',
+      sizeNm: 66_900_000,
+      oversizeNm: 500_000,
+      price: '58.10',
       currency: 'GBP',
       leadDays: 14,
     });
@@ -156,11 +158,11 @@ describe('the sample price lists in imports/', () => {
     expect(list.counts).toEqual({ rows: 14, ok: 6, errors: 8, warnings: 0 });
     expect(list.rows.map((r) => r.sku)).toEqual([
       'OP-54-075',
-      'OP-56-025',
-      'OP-56-100',
       'OP-72-025',
       'OP-72-100',
-      'OP-56-075',
+      'OP-54-025',
+      'OP-54-100',
+      'OP-6640-000',
     ]);
   });
 });
