@@ -9,6 +9,7 @@ import { registerMailRoutes } from './mail/mail-routes';
 import { registerOpenApiRoutes } from './openapi/openapi-routes';
 import { registerCatalogRoutes } from './catalog/catalog-routes';
 import { registerStockRoutes } from './stock/stock-routes';
+import { registerInsightsRoutes } from './insights/insights-routes';
 
 export function registerAllRoutes(api: Router): void {
   registerSessionRoutes(api);
@@ -19,4 +20,5 @@ export function registerAllRoutes(api: Router): void {
   registerOpenApiRoutes(api);
   registerCatalogRoutes(api);
   registerStockRoutes(api);
+  registerInsightsRoutes(api);
 }

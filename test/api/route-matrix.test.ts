@@ -48,6 +48,23 @@ const EXPECTED: Record<string, Access> = {
   'POST /api/stock/units/:id/scrap': ['owner', 'buyer', 'staff'],
   'POST /api/stock/units/:id/measure': ['owner', 'buyer', 'staff', 'machinist'],
   'GET /api/stock/ledger': ALL,
+  // Insights: the owner sees everything; the buyer the stock side. Each table also as CSV.
+  'GET /api/insights/sales': OWNER,
+  'GET /api/insights/sales.csv': OWNER,
+  'GET /api/insights/sales/monthly': OWNER,
+  'GET /api/insights/sales/monthly.csv': OWNER,
+  'GET /api/insights/top-sellers': OWNER,
+  'GET /api/insights/top-sellers.csv': OWNER,
+  'GET /api/insights/stock-value': ['owner', 'buyer'],
+  'GET /api/insights/stock-value.csv': ['owner', 'buyer'],
+  'GET /api/insights/dead-stock': ['owner', 'buyer'],
+  'GET /api/insights/dead-stock.csv': ['owner', 'buyer'],
+  'GET /api/insights/abc': ['owner', 'buyer'],
+  'GET /api/insights/abc.csv': ['owner', 'buyer'],
+  'GET /api/insights/exposure': ['owner', 'buyer'],
+  'GET /api/insights/exposure.csv': ['owner', 'buyer'],
+  'GET /api/insights/supplier-reliability': ['owner', 'buyer'],
+  'GET /api/insights/supplier-reliability.csv': ['owner', 'buyer'],
 };
 
 interface Found {

