@@ -1,6 +1,6 @@
 import { HttpClient, HttpContext, HttpErrorResponse } from '@angular/common/http';
 import { computed, inject, Injectable, signal } from '@angular/core';
-import { firstValueFrom, map, Observable, tap } from 'rxjs';
+import { catchError, firstValueFrom, map, Observable, of, tap, throwError } from 'rxjs';
 
 import type { SessionResponse, SessionUser } from '../../../shared/session-types';
 import { HANDLES_OWN_401 } from './http-context';
@@ -62,8 +62,18 @@ export class Session {
       .pipe(map((response) => this.accept(response)));
   }
 
+  /** Ends the session; one that had already ended (401) counts as signed out too. */
   signOut(): Observable<void> {
-    return this.http.delete<void>('/api/session').pipe(tap(() => this.clear()));
+    return this.http
+      .delete<void>('/api/session', { context: new HttpContext().set(HANDLES_OWN_401, true) })
+      .pipe(
+        catchError((error: unknown) =>
+          error instanceof HttpErrorResponse && error.status === 401
+            ? of(undefined)
+            : throwError(() => error),
+        ),
+        tap(() => this.clear()),
+      );
   }
 
   /** Replaces the user after the server changed them (for example the display unit). */

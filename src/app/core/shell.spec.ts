@@ -84,4 +84,14 @@ describe('Shell', () => {
     expect(TestBed.inject(Session).user()).toBeNull();
     expect(navigate).toHaveBeenCalledWith('/sign-in');
   });
+
+  it('when the session had already ended (401 on sign out), then it still counts as signed out', async () => {
+    const { loader } = await render('owner');
+    const navigate = jest.spyOn(TestBed.inject(Router), 'navigateByUrl').mockResolvedValue(true);
+    const menu = await loader.getHarness(MatMenuHarness);
+    await menu.clickItem({ text: /Sign out$/ });
+    http.expectOne('/api/session').flush(null, { status: 401, statusText: 'Unauthorized' });
+    expect(TestBed.inject(Session).user()).toBeNull();
+    expect(navigate).toHaveBeenCalledWith('/sign-in');
+  });
 });
