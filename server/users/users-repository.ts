@@ -36,8 +36,25 @@ export function findUserById(id: string, q: Knex = db): Promise<UserRow | undefi
   return q<UserRow>('users').where({ id }).first();
 }
 
-export async function listUsers(q: Knex = db): Promise<UserRow[]> {
-  return q<UserRow>('users').orderBy([{ column: 'active', order: 'desc' }, 'name']);
+const SORTABLE = { name: 'name', email: 'email', role: 'role', createdAt: 'created_at', active: 'active' } as const;
+export type UserSort = keyof typeof SORTABLE;
+
+export async function listUsers(
+  opts: { sort?: UserSort; dir?: 'asc' | 'desc'; page?: number; pageSize?: number; q?: string } = {},
+  q: Knex = db,
+): Promise<{ rows: UserRow[]; total: number }> {
+  const base = q<UserRow>('users').modify((b) => {
+    if (opts.q) b.where((w) => w.whereILike('name', `%${opts.q}%`).orWhereILike('email', `%${opts.q}%`));
+  });
+  const [{ count }] = await base.clone().count<{ count: number }[]>('* as count');
+  const column = SORTABLE[opts.sort ?? 'name'];
+  const pageSize = opts.pageSize ?? 100;
+  const rows = await base
+    .clone()
+    .orderBy([{ column, order: opts.dir ?? 'asc' }, { column: 'id' }])
+    .limit(pageSize)
+    .offset(((opts.page ?? 1) - 1) * pageSize);
+  return { rows, total: Number(count) };
 }
 
 export async function insertUser(

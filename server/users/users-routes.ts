@@ -1,6 +1,6 @@
 import type { Router } from 'express';
 import { z } from 'zod';
-import { route, uuidParam } from '../http/route';
+import { pageQuery, route, uuidParam } from '../http/route';
 import { ROLES } from '../../shared/session-types';
 import { MIN_PASSWORD_LENGTH } from '../auth/passwords';
 import { changeUser, createUser, getUsers } from './users-service';
@@ -35,7 +35,8 @@ export function registerUsersRoutes(router: Router): void {
     method: 'get',
     path: '/api/users',
     access: ['owner'],
-    handler: () => getUsers(),
+    query: pageQuery.extend({ sort: z.enum(['name', 'email', 'role', 'createdAt', 'active']).optional() }),
+    handler: ({ query }) => getUsers(query),
   });
   route(router, {
     method: 'post',

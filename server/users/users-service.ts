@@ -21,9 +21,9 @@ function isUniqueViolation(e: unknown): boolean {
   return typeof e === 'object' && e !== null && (e as { code?: string }).code === '23505';
 }
 
-export async function getUsers() {
-  const rows = await listUsers();
-  return { items: rows.map(toUserJson), total: rows.length };
+export async function getUsers(opts: Parameters<typeof listUsers>[0] = {}) {
+  const { rows, total } = await listUsers(opts);
+  return { items: rows.map(toUserJson), total };
 }
 
 export async function createUser(

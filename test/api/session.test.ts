@@ -73,3 +73,23 @@ describe('sign-in and sign-out', () => {
     expect(res.body).toEqual({ status: 'ok', db: 'ok' });
   });
 });
+
+describe('the users list', () => {
+  it('when the owner asks for users sorted by e-mail descending, one page at a time, then the page and total are right', async () => {
+    const owner = await signedIn('owner');
+    const page1 = await owner.get('/api/users?sort=email&dir=desc&page=1&pageSize=2');
+    expect(page1.status).toBe(200);
+    expect(page1.body.items).toHaveLength(2);
+    expect(page1.body.total).toBeGreaterThanOrEqual(2);
+    const emails = page1.body.items.map((u: { email: string }) => u.email);
+    expect([...emails].sort().reverse()).toEqual(emails);
+    expect(page1.body.items[0]).not.toHaveProperty('password_hash');
+  });
+
+  it('when the sort field is unknown, then 400 names the query field', async () => {
+    const owner = await signedIn('owner');
+    const res = await owner.get('/api/users?sort=password_hash');
+    expect(res.status).toBe(400);
+    expect(res.body.error.details[0].field).toBe('sort');
+  });
+});
