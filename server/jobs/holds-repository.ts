@@ -1,0 +1,503 @@
+// Every Knex query of holds: claiming a piston unit, counting ring sets aside, ending holds, and
+// what is free per step. Lock order, the same as stock's: the hold row, then the piston unit row,
+// then the part's levels row. A claim is one conditional UPDATE (… WHERE status = 'free'), so when
+// many people reach for the last piston at once exactly one UPDATE finds it free.
+import type { Knex } from 'knex';
+import { db } from '../db/knex';
+import type { PartKind } from '../../shared/catalog-api';
+
+export type ReleaseReason = 'released' | 'moved' | 'expired' | 'cancelled' | 'issued';
+
+export interface HoldRow {
+  id: string;
+  job_id: string;
+  job_number: string;
+  cylinder: number;
+  part_id: string;
+  sku: string;
+  kind: 'piston' | 'rings' | 'other';
+  description: string;
+  step_id: string | null;
+  step_label: string | null;
+  unit_id: string | null;
+  unit_label: string | null;
+  skirt_nm: number | null;
+  bin_code: string | null;
+  quantity: number;
+  expires_at: Date | null;
+  created_at: Date;
+  released_at: Date | null;
+  release_reason: ReleaseReason | null;
+}
+
+export interface HoldPartRow {
+  id: string;
+  kind: PartKind;
+  sku: string;
+  description: string;
+  active: boolean;
+  family_id: string | null;
+  step_id: string | null;
+  step_label: string | null;
+  sale_price: string;
+  average_cost: string;
+  material: string | null;
+}
+
+export interface HoldUnitRow {
+  id: string;
+  label: string;
+  part_id: string;
+  status: 'free' | 'held' | 'issued' | 'returned' | 'scrapped';
+  skirt_nm: number | null;
+  held_for_job_id: string | null;
+  family_id: string | null;
+  step_id: string | null;
+  step_label: string | null;
+}
+
+export interface FreeUnitRow {
+  id: string;
+  label: string;
+  part_id: string;
+  sku: string;
+  skirt_nm: number;
+  bin_code: string | null;
+  step_label: string | null;
+}
+
+export interface StepStockRow {
+  step_id: string;
+  free_pistons: number;
+  free_rings: number;
+  on_order: number;
+}
+
+function holdBase(k: Knex) {
+  return (
+    k('holds as h')
+      .join('jobs as j', 'j.id', 'h.job_id')
+      .join('parts as p', 'p.id', 'h.part_id')
+      .leftJoin('series_steps as s', 's.id', 'p.step_id')
+      .leftJoin('piston_units as u', 'u.id', 'h.unit_id')
+      .leftJoin('part_levels as pl', 'pl.part_id', 'p.id')
+      // A piston has its own bin; counted parts sit in the part's bin.
+      .leftJoin('bins as b', 'b.id', k.raw('coalesce(u.bin_id, pl.bin_id)'))
+      .select(
+        'h.id',
+        'h.job_id',
+        'j.number as job_number',
+        'h.cylinder',
+        'h.part_id',
+        'p.sku',
+        'p.kind',
+        'p.description',
+        'p.step_id',
+        's.label as step_label',
+        'h.unit_id',
+        'u.label as unit_label',
+        'u.skirt_nm',
+        'b.code as bin_code',
+        'h.quantity',
+        'h.expires_at',
+        'h.created_at',
+        'h.released_at',
+        'h.release_reason',
+      )
+  );
+}
+
+export async function holdsOfJob(
+  jobId: string,
+  opts: { activeOnly: boolean },
+  k: Knex = db,
+): Promise<HoldRow[]> {
+  const q = holdBase(k).where('h.job_id', jobId);
+  if (opts.activeOnly) q.whereNull('h.released_at');
+  return (await q.orderBy([
+    { column: 'h.cylinder' },
+    { column: k.raw('(h.unit_id IS NULL)') as never },
+    { column: 'h.created_at' },
+  ])) as HoldRow[];
+}
+
+export async function findHold(id: string, k: Knex = db): Promise<HoldRow | undefined> {
+  return (await holdBase(k).where('h.id', id).first()) as HoldRow | undefined;
+}
+
+/** Locks the hold row; the caller re-checks released_at under the lock. */
+export async function lockHold(
+  trx: Knex,
+  id: string,
+): Promise<
+  | {
+      id: string;
+      job_id: string;
+      cylinder: number;
+      part_id: string;
+      unit_id: string | null;
+      quantity: number;
+      expires_at: Date | null;
+      released_at: Date | null;
+    }
+  | undefined
+> {
+  return trx('holds')
+    .select(
+      'id',
+      'job_id',
+      'cylinder',
+      'part_id',
+      'unit_id',
+      'quantity',
+      'expires_at',
+      'released_at',
+    )
+    .where({ id })
+    .forUpdate()
+    .first();
+}
+
+/** Active holds of a job, locked, pistons in unit order so two closers never cross. */
+export function lockActiveHoldsOfJob(
+  trx: Knex,
+  jobId: string,
+): Promise<
+  { id: string; cylinder: number; part_id: string; unit_id: string | null; quantity: number }[]
+> {
+  return trx('holds')
+    .select('id', 'cylinder', 'part_id', 'unit_id', 'quantity')
+    .where({ job_id: jobId })
+    .whereNull('released_at')
+    .orderBy([{ column: 'part_id' }, { column: 'unit_id' }, { column: 'id' }])
+    .forUpdate();
+}
+
+export async function activePistonHold(
+  trx: Knex,
+  jobId: string,
+  cylinder: number,
+  opts: { lock?: boolean } = {},
+): Promise<{ id: string; unit_id: string; part_id: string } | undefined> {
+  const q = trx('holds')
+    .select('id', 'unit_id', 'part_id')
+    .where({ job_id: jobId, cylinder })
+    .whereNotNull('unit_id')
+    .whereNull('released_at')
+    .first();
+  return opts.lock ? q.forUpdate() : q;
+}
+
+/** A piston whose cylinder is cut stays with it: its hold no longer lapses. */
+export async function clearExpiry(trx: Knex, holdId: string, unitId: string): Promise<void> {
+  await trx('holds').update({ expires_at: null }).where({ id: holdId });
+  await trx('piston_units').update({ hold_expires_at: null }).where({ id: unitId });
+}
+
+export async function insertHold(
+  trx: Knex,
+  hold: {
+    id: string;
+    job_id: string;
+    cylinder: number;
+    part_id: string;
+    unit_id: string | null;
+    quantity: number;
+    expires_at: Date | null;
+    created_by: string | null;
+    moved_from_hold_id?: string | null;
+  },
+): Promise<void> {
+  await trx('holds').insert(hold);
+}
+
+export async function endHold(
+  trx: Knex,
+  id: string,
+  reason: ReleaseReason,
+  userId: string | null,
+): Promise<void> {
+  await trx('holds')
+    .update({ released_at: trx.fn.now(), release_reason: reason, released_by: userId })
+    .where({ id })
+    .whereNull('released_at');
+}
+
+// ---- Units and parts --------------------------------------------------------------------------
+
+export async function holdUnit(
+  where: { id: string } | { label: string },
+  k: Knex = db,
+): Promise<HoldUnitRow | undefined> {
+  const q = k('piston_units as u')
+    .join('parts as p', 'p.id', 'u.part_id')
+    .leftJoin('series_steps as s', 's.id', 'p.step_id')
+    .select(
+      'u.id',
+      'u.label',
+      'u.part_id',
+      'u.status',
+      'u.skirt_nm',
+      'u.held_for_job_id',
+      'p.family_id',
+      'p.step_id',
+      's.label as step_label',
+    );
+  if ('id' in where) q.where('u.id', where.id);
+  else q.where('u.label', where.label.trim().toUpperCase());
+  return (await q.first()) as HoldUnitRow | undefined;
+}
+
+export async function holdPart(id: string, k: Knex = db): Promise<HoldPartRow | undefined> {
+  return k('parts as p')
+    .leftJoin('series_steps as s', 's.id', 'p.step_id')
+    .select(
+      'p.id',
+      'p.kind',
+      'p.sku',
+      'p.description',
+      'p.active',
+      'p.family_id',
+      'p.step_id',
+      's.label as step_label',
+      'p.sale_price',
+      'p.average_cost',
+      'p.material',
+    )
+    .where('p.id', id)
+    .first();
+}
+
+export function partsByIds(ids: string[], k: Knex = db): Promise<HoldPartRow[]> {
+  if (ids.length === 0) return Promise.resolve([]);
+  return k('parts as p')
+    .leftJoin('series_steps as s', 's.id', 'p.step_id')
+    .select(
+      'p.id',
+      'p.kind',
+      'p.sku',
+      'p.description',
+      'p.active',
+      'p.family_id',
+      'p.step_id',
+      's.label as step_label',
+      'p.sale_price',
+      'p.average_cost',
+      'p.material',
+    )
+    .whereIn('p.id', ids);
+}
+
+/**
+ * Claims a free piston for a job: the one statement that decides who gets a unit. Returns nothing
+ * when the unit was not free (someone else was first, or it left the shelf).
+ */
+export async function claimUnit(
+  trx: Knex,
+  unitId: string,
+  hold: { jobId: string; cylinder: number; holdId: string; expiresAt: Date | null },
+): Promise<{ id: string; part_id: string } | undefined> {
+  const [row] = await trx('piston_units')
+    .update({
+      status: 'held',
+      held_for_job_id: hold.jobId,
+      held_cylinder: hold.cylinder,
+      hold_id: hold.holdId,
+      hold_expires_at: hold.expiresAt,
+      updated_at: trx.fn.now(),
+    })
+    .where({ id: unitId, status: 'free' })
+    .returning<{ id: string; part_id: string }[]>(['id', 'part_id']);
+  return row;
+}
+
+/** Moves a held unit's marks to another job or cylinder (the unit stays held). */
+export async function remarkUnit(
+  trx: Knex,
+  unitId: string,
+  hold: { jobId: string; cylinder: number; holdId: string; expiresAt: Date | null },
+): Promise<boolean> {
+  const count = await trx('piston_units')
+    .update({
+      held_for_job_id: hold.jobId,
+      held_cylinder: hold.cylinder,
+      hold_id: hold.holdId,
+      hold_expires_at: hold.expiresAt,
+      updated_at: trx.fn.now(),
+    })
+    .where({ id: unitId, status: 'held' });
+  return count === 1;
+}
+
+export async function freeUnit(trx: Knex, unitId: string): Promise<boolean> {
+  const count = await trx('piston_units')
+    .update({
+      status: 'free',
+      held_for_job_id: null,
+      held_cylinder: null,
+      hold_id: null,
+      hold_expires_at: null,
+      updated_at: trx.fn.now(),
+    })
+    .where({ id: unitId, status: 'held' });
+  return count === 1;
+}
+
+/** The piston leaves with the job; it keeps the job and hold it went out with. */
+export async function issueUnit(trx: Knex, unitId: string): Promise<boolean> {
+  const count = await trx('piston_units')
+    .update({ status: 'issued', hold_expires_at: null, updated_at: trx.fn.now() })
+    .where({ id: unitId, status: 'held' });
+  return count === 1;
+}
+
+/**
+ * Sets counted parts aside: held grows only while enough are free. Nothing is returned when fewer
+ * than `quantity` are free (the CHECK on part_levels would refuse it anyway).
+ */
+export async function reserveCount(
+  trx: Knex,
+  partId: string,
+  quantity: number,
+): Promise<{ on_hand: number; held: number } | undefined> {
+  const [row] = await trx('part_levels')
+    .update({ held: trx.raw('held + ?', [quantity]), updated_at: trx.fn.now() })
+    .where({ part_id: partId })
+    .whereRaw('on_hand - held >= ?', [quantity])
+    .returning<{ on_hand: number; held: number }[]>(['on_hand', 'held']);
+  return row;
+}
+
+export async function changeLevels(
+  trx: Knex,
+  partId: string,
+  change: { onHand: number; held: number },
+): Promise<{ on_hand: number; held: number }> {
+  const [row] = await trx('part_levels')
+    .update({
+      on_hand: trx.raw('on_hand + ?', [change.onHand]),
+      held: trx.raw('held + ?', [change.held]),
+      updated_at: trx.fn.now(),
+    })
+    .where({ part_id: partId })
+    .returning<{ on_hand: number; held: number }[]>(['on_hand', 'held']);
+  return row;
+}
+
+export async function freeCount(partId: string, k: Knex = db): Promise<number> {
+  const row = await k('part_levels')
+    .select(k.raw('(on_hand - held)::int AS free'))
+    .where({ part_id: partId })
+    .first();
+  return Number(row?.free ?? 0);
+}
+
+export async function insertLedger(
+  trx: Knex,
+  rows: {
+    user_id: string | null;
+    part_id: string;
+    unit_id: string | null;
+    kind: 'reservation' | 'release' | 'issue';
+    quantity: number;
+    held_delta: number;
+    unit_cost?: string | null;
+    sale_price?: string | null;
+    job_id: string;
+    reason: string;
+    ref?: string | null;
+  }[],
+): Promise<void> {
+  if (rows.length > 0) await trx('stock_ledger').insert(rows);
+}
+
+/** Free measured pistons of a step, the skirt nearest the given size first. */
+export function nearestFreeUnits(
+  familyId: string,
+  stepId: string,
+  targetNm: number,
+  opts: { excludeId?: string; limit: number },
+  k: Knex = db,
+): Promise<FreeUnitRow[]> {
+  const q = k('piston_units as u')
+    .join('parts as p', 'p.id', 'u.part_id')
+    .leftJoin('series_steps as s', 's.id', 'p.step_id')
+    .leftJoin('bins as b', 'b.id', 'u.bin_id')
+    .select(
+      'u.id',
+      'u.label',
+      'u.part_id',
+      'p.sku',
+      'u.skirt_nm',
+      'b.code as bin_code',
+      's.label as step_label',
+    )
+    .where({ 'p.family_id': familyId, 'p.step_id': stepId, 'p.kind': 'piston', 'u.status': 'free' })
+    .whereNotNull('u.skirt_nm');
+  if (opts.excludeId) q.whereNot('u.id', opts.excludeId);
+  return q.orderByRaw('abs(u.skirt_nm::bigint - ?::bigint), u.label', [targetNm]).limit(opts.limit);
+}
+
+/** Ring sets (and other counted parts) of a step with how many are free, most first. */
+export function freeRingParts(
+  familyId: string,
+  stepId: string,
+  k: Knex = db,
+): Promise<{ id: string; sku: string; description: string; free: number }[]> {
+  return k('parts as p')
+    .join('part_levels as pl', 'pl.part_id', 'p.id')
+    .select('p.id', 'p.sku', 'p.description', k.raw('(pl.on_hand - pl.held)::int AS free'))
+    .where({ 'p.family_id': familyId, 'p.step_id': stepId, 'p.kind': 'rings', 'p.active': true })
+    .orderByRaw('(pl.on_hand - pl.held) DESC, p.sku');
+}
+
+/** Per step of a family: free measured pistons, free ring sets, pistons on order. */
+export function stepStock(familyId: string, k: Knex = db): Promise<StepStockRow[]> {
+  return k
+    .raw(
+      `SELECT p.step_id,
+              coalesce(sum(CASE WHEN p.kind = 'piston' THEN
+                (SELECT count(*) FROM piston_units u
+                  WHERE u.part_id = p.id AND u.status = 'free' AND u.skirt_nm IS NOT NULL) END), 0)::int
+                AS free_pistons,
+              coalesce(sum(CASE WHEN p.kind = 'rings' AND p.active THEN pl.on_hand - pl.held END), 0)::int
+                AS free_rings,
+              coalesce(sum(CASE WHEN p.kind = 'piston' THEN oo.quantity END), 0)::int AS on_order
+         FROM parts p
+         JOIN part_levels pl ON pl.part_id = p.id
+         LEFT JOIN (SELECT part_id, sum(quantity) AS quantity FROM parts_on_order() GROUP BY part_id) oo
+           ON oo.part_id = p.id
+        WHERE p.family_id = ? AND p.step_id IS NOT NULL
+        GROUP BY p.step_id`,
+      [familyId],
+    )
+    .then((r: { rows: StepStockRow[] }) => r.rows);
+}
+
+// ---- The expiry sweep -------------------------------------------------------------------------
+
+/**
+ * Only one process sweeps at a time: a transaction-scoped advisory lock, let go at commit. A
+ * process that does not get it skips this round.
+ */
+export async function trySweepLock(trx: Knex): Promise<boolean> {
+  const r = await trx.raw(
+    `SELECT pg_try_advisory_xact_lock(hashtext('stepstock:hold-sweep')) AS got`,
+  );
+  return Boolean(r.rows[0]?.got);
+}
+
+export function lockExpiredHolds(
+  trx: Knex,
+  limit: number,
+): Promise<{ id: string; job_id: string }[]> {
+  return trx('holds')
+    .select('id', 'job_id')
+    .whereNull('released_at')
+    .whereNotNull('expires_at')
+    .where('expires_at', '<=', trx.fn.now())
+    .orderBy([{ column: 'expires_at' }, { column: 'id' }])
+    .limit(limit)
+    .forUpdate()
+    .skipLocked();
+}

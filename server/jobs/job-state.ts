@@ -1,0 +1,50 @@
+// Where a job stands in the workshop: whether it may be marked as cutting, and the moves Stepstock
+// makes by itself after readings, holds and cuts (forward only).
+import type { Knex } from 'knex';
+import { isOpenState, JOB_STATE_LABELS, JOB_STATES, type JobState } from '../../shared/jobs-api';
+import * as repo from './jobs-repository';
+import * as holdsRepo from './holds-repository';
+
+type Conn = Knex;
+
+/**
+ * Why a job may not be marked as having its parts set aside or as cutting: every cylinder with a
+ * step to bore to must have its measured piston held for this job. Null when it may.
+ */
+export async function whyNotReadyToCut(trx: Conn, jobId: string): Promise<string | null> {
+  const cylinders = await repo.cylindersOf(jobId, trx);
+  const holds = await holdsRepo.holdsOfJob(jobId, { activeOnly: true }, trx);
+  const toBore = cylinders.filter((c) => c.chosen_step_id !== null);
+  if (toBore.length === 0) {
+    return 'No cylinder has a step to bore to yet: measure the bores and choose the oversize first.';
+  }
+  const missing = toBore.filter(
+    (c) => !holds.some((h) => h.cylinder === c.n && h.unit_id !== null),
+  );
+  if (missing.length > 0) {
+    const names = missing.map((c) => c.n).join(', ');
+    return `Cylinder ${names} ${missing.length === 1 ? 'has' : 'have'} no piston held for this job: hold the measured piston before cutting.`;
+  }
+  return null;
+}
+
+/** Moves an open job forward by itself (after readings, holds or a cut); never backward. */
+export async function advanceState(
+  trx: Conn,
+  job: { id: string; state: JobState },
+  to: JobState,
+  userId: string | null,
+): Promise<void> {
+  const order = (s: JobState) => JOB_STATES.indexOf(s);
+  if (!isOpenState(job.state) || order(job.state) >= order(to)) return;
+  if ((to === 'parts_set_aside' || to === 'on_the_bar') && (await whyNotReadyToCut(trx, job.id))) {
+    return;
+  }
+  await repo.setJobState(trx, job.id, to);
+  await repo.insertEvent(trx, {
+    jobId: job.id,
+    userId,
+    kind: 'state',
+    text: `${JOB_STATE_LABELS[job.state]} → ${JOB_STATE_LABELS[to]}.`,
+  });
+}

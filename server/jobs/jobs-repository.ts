@@ -1,0 +1,536 @@
+// Every Knex query of jobs: the job, its cylinders and readings, its notes and photos. Writers take
+// the caller's transaction. A job row is locked FOR NO KEY UPDATE by whoever changes its state
+// (collect, cancel, a state change) and FOR SHARE by whoever adds a hold, so a hold can never land
+// on a job that is being closed; NO KEY keeps inserts that reference the job (notes, ledger rows)
+// from waiting on it.
+import type { Knex } from 'knex';
+import { db } from '../db/knex';
+import { containsPattern } from '../catalog/catalog-repository';
+import type { Axis, Depth } from '../../shared/bore-wear';
+import type { LengthUnit } from '../../shared/lengths';
+import { OPEN_STATES, type JobState } from '../../shared/jobs-api';
+
+export interface FamilyRow {
+  id: string;
+  code: string;
+  name: string;
+  cylinders: number;
+  standard_bore_nm: number;
+  clearance_min_nm: number;
+  clearance_max_nm: number;
+  hone_allowance_nm: number;
+  cleanup_nm: number;
+  max_oversize_nm: number;
+  max_taper_nm: number | null;
+  max_out_of_round_nm: number | null;
+  ring_gap_min_nm: number | null;
+  ring_gap_max_nm: number | null;
+  step_series_id: string;
+  active: boolean;
+}
+
+export interface JobRow {
+  id: string;
+  number: string;
+  customer_name: string;
+  customer_phone: string | null;
+  customer_email: string | null;
+  family_id: string;
+  cylinders: number;
+  asked_for: string;
+  due_date: string | null;
+  notes: string;
+  state: JobState;
+  notify_customer: boolean;
+  created_by: string | null;
+  created_by_name: string | null;
+  created_at: Date;
+  updated_at: Date;
+  state_changed_at: Date;
+  closed_at: Date | null;
+}
+
+export interface JobListRow {
+  id: string;
+  number: string;
+  state: JobState;
+  customer_name: string;
+  family_id: string;
+  family_code: string;
+  family_name: string;
+  cylinders: number;
+  asked_for: string;
+  due_date: string | null;
+  overdue: boolean;
+  waiting_for_parts: boolean;
+  pistons_held: number;
+  cylinders_cut: number;
+  created_at: Date;
+}
+
+export interface CylinderRow {
+  job_id: string;
+  n: number;
+  largest_nm: number | null;
+  taper_nm: number | null;
+  out_of_round_nm: number | null;
+  measured_at: Date | null;
+  chosen_step_id: string | null;
+  step_label: string | null;
+  step_offset_nm: number | null;
+  clearance_nm: number | null;
+  cut_at: Date | null;
+  measured_after_hone_nm: number | null;
+  ring_gap_nm: number | null;
+}
+
+export interface ReadingRow {
+  n: number;
+  depth: Depth;
+  axis: Axis;
+  diameter_nm: number;
+  unit: LengthUnit;
+}
+
+export interface EventRow {
+  id: number;
+  at: Date;
+  kind: 'note' | 'state' | 'hold' | 'work' | 'system';
+  text: string;
+  user_name: string | null;
+}
+
+export interface PhotoMetaRow {
+  id: string;
+  job_id: string;
+  content_type: string;
+  size_bytes: number;
+  has_thumbnail: boolean;
+  original_name: string;
+  created_at: Date;
+}
+
+export interface StepRow {
+  id: string;
+  label: string;
+  offset_nm: number;
+  position: number;
+}
+
+// ---- Families and steps -----------------------------------------------------------------------
+
+const FAMILY_COLUMNS = [
+  'id',
+  'code',
+  'name',
+  'cylinders',
+  'standard_bore_nm',
+  'clearance_min_nm',
+  'clearance_max_nm',
+  'hone_allowance_nm',
+  'cleanup_nm',
+  'max_oversize_nm',
+  'max_taper_nm',
+  'max_out_of_round_nm',
+  'ring_gap_min_nm',
+  'ring_gap_max_nm',
+  'step_series_id',
+  'active',
+];
+
+export async function findFamily(id: string, k: Knex = db): Promise<FamilyRow | undefined> {
+  return k('engine_families').select(FAMILY_COLUMNS).where({ id }).first();
+}
+
+export function stepsOfSeries(seriesId: string, k: Knex = db): Promise<StepRow[]> {
+  return k('series_steps')
+    .select('id', 'label', 'offset_nm', 'position')
+    .where({ series_id: seriesId })
+    .orderBy('offset_nm');
+}
+
+export async function findStep(
+  id: string,
+  k: Knex = db,
+): Promise<(StepRow & { series_id: string }) | undefined> {
+  return k('series_steps')
+    .select('id', 'label', 'offset_nm', 'position', 'series_id')
+    .where({ id })
+    .first();
+}
+
+// ---- Jobs -------------------------------------------------------------------------------------
+
+export interface NewJob {
+  customer_name: string;
+  customer_phone: string | null;
+  customer_email: string | null;
+  family_id: string;
+  cylinders: number;
+  asked_for: string;
+  due_date: string | null;
+  notes: string;
+  notify_customer: boolean;
+  created_by: string | null;
+}
+
+export async function insertJob(trx: Knex, job: NewJob): Promise<{ id: string; number: string }> {
+  const [row] = await trx('jobs')
+    .insert(job)
+    .returning<{ id: string; number: string }[]>(['id', 'number']);
+  const cylinders = Array.from({ length: job.cylinders }, (_, i) => ({ job_id: row.id, n: i + 1 }));
+  await trx('job_cylinders').insert(cylinders);
+  return row;
+}
+
+function jobBase(k: Knex) {
+  return k('jobs as j')
+    .leftJoin('users as u', 'u.id', 'j.created_by')
+    .select(
+      'j.id',
+      'j.number',
+      'j.customer_name',
+      'j.customer_phone',
+      'j.customer_email',
+      'j.family_id',
+      'j.cylinders',
+      'j.asked_for',
+      k.raw(`to_char(j.due_date, 'YYYY-MM-DD') AS due_date`),
+      'j.notes',
+      'j.state',
+      'j.notify_customer',
+      'j.created_by',
+      'u.name as created_by_name',
+      'j.created_at',
+      'j.updated_at',
+      'j.state_changed_at',
+      'j.closed_at',
+    );
+}
+
+export async function findJob(id: string, k: Knex = db): Promise<JobRow | undefined> {
+  return (await jobBase(k).where('j.id', id).first()) as JobRow | undefined;
+}
+
+/**
+ * Locks the job row: 'change' (FOR NO KEY UPDATE) to change its state or close it, 'share'
+ * (FOR SHARE) to add holds to it while nobody closes it.
+ */
+export async function lockJob(
+  trx: Knex,
+  id: string,
+  mode: 'change' | 'share',
+): Promise<JobRow | undefined> {
+  const query = jobBase(trx).where('j.id', id);
+  const locked = mode === 'change' ? query.forNoKeyUpdate('j') : query.forShare('j');
+  return (await locked.first()) as JobRow | undefined;
+}
+
+export async function updateJob(
+  trx: Knex,
+  id: string,
+  changes: Record<string, unknown>,
+): Promise<void> {
+  await trx('jobs')
+    .update({ ...changes, updated_at: trx.fn.now() })
+    .where({ id });
+}
+
+export async function setJobState(trx: Knex, id: string, state: JobState): Promise<void> {
+  const closing = state === 'handed_back' || state === 'called_off';
+  await trx('jobs')
+    .update({
+      state,
+      state_changed_at: trx.fn.now(),
+      updated_at: trx.fn.now(),
+      closed_at: closing ? trx.fn.now() : null,
+    })
+    .where({ id });
+}
+
+const LIST_SORTS: Record<string, string> = {
+  due: 'j.due_date',
+  number: 'j.number',
+  customer: 'lower(j.customer_name)',
+  created: 'j.created_at',
+  state: `array_position(ARRAY['booked_in','gauged','parts_set_aside','on_the_bar','at_the_hone','ready_to_go','handed_back','called_off'], j.state)`,
+};
+
+export interface JobFilter {
+  states?: JobState[];
+  q?: string;
+  familyId?: string;
+  waiting?: boolean;
+  sort?: string;
+  dir?: 'asc' | 'desc';
+  page: number;
+  pageSize: number;
+  /** The shop's local date, for "overdue". */
+  today: string;
+}
+
+/** Some cylinder of an open job has a step chosen, no piston held, and none free on the shelf. */
+const WAITING_SQL = `(j.state IN (${OPEN_STATES.map((s) => `'${s}'`).join(', ')}) AND EXISTS (
+  SELECT 1 FROM job_cylinders c
+  WHERE c.job_id = j.id AND c.chosen_step_id IS NOT NULL AND c.cut_at IS NULL
+    AND NOT EXISTS (SELECT 1 FROM holds h WHERE h.job_id = j.id AND h.cylinder = c.n
+                    AND h.unit_id IS NOT NULL AND h.released_at IS NULL)
+    AND NOT EXISTS (SELECT 1 FROM piston_units pu JOIN parts p ON p.id = pu.part_id
+                    WHERE p.family_id = j.family_id AND p.step_id = c.chosen_step_id
+                      AND pu.status = 'free' AND pu.skirt_nm IS NOT NULL)))`;
+
+export async function listJobs(
+  f: JobFilter,
+  k: Knex = db,
+): Promise<{ rows: JobListRow[]; total: number }> {
+  const base = k('jobs as j').join('engine_families as f', 'f.id', 'j.family_id');
+  if (f.states && f.states.length > 0) base.whereIn('j.state', f.states);
+  if (f.familyId) base.where('j.family_id', f.familyId);
+  if (f.waiting) base.whereRaw(WAITING_SQL);
+  if (f.q) {
+    const q = f.q.trim();
+    const like = containsPattern(q);
+    base.where((w) =>
+      w
+        .whereILike('j.number', like)
+        .orWhereILike('j.customer_name', like)
+        .orWhereILike('j.customer_phone', like)
+        .orWhereILike('j.customer_email', like)
+        .orWhereILike('f.code', like)
+        .orWhereILike('f.name', like),
+    );
+  }
+  const [{ count }] = await base.clone().count<{ count: number }[]>('* as count');
+  const column = LIST_SORTS[f.sort ?? 'due'] ?? LIST_SORTS.due;
+  const order = f.dir === 'desc' ? 'DESC' : 'ASC';
+  const rows = await base
+    .clone()
+    .select(
+      'j.id',
+      'j.number',
+      'j.state',
+      'j.customer_name',
+      'j.family_id',
+      'f.code as family_code',
+      'f.name as family_name',
+      'j.cylinders',
+      'j.asked_for',
+      k.raw(`to_char(j.due_date, 'YYYY-MM-DD') AS due_date`),
+      k.raw(
+        `(j.due_date IS NOT NULL AND j.due_date < ?::date AND j.state IN (${OPEN_STATES.map((s) => `'${s}'`).join(', ')})) AS overdue`,
+        [f.today],
+      ),
+      k.raw(`${WAITING_SQL} AS waiting_for_parts`),
+      k.raw(
+        `(SELECT count(*) FROM holds h WHERE h.job_id = j.id AND h.unit_id IS NOT NULL
+            AND h.released_at IS NULL)::int AS pistons_held`,
+      ),
+      k.raw(
+        `(SELECT count(*) FROM job_cylinders c WHERE c.job_id = j.id AND c.cut_at IS NOT NULL)::int
+          AS cylinders_cut`,
+      ),
+      'j.created_at',
+    )
+    .orderByRaw(`${column} ${order} NULLS LAST, j.number ASC`)
+    .limit(f.pageSize)
+    .offset((f.page - 1) * f.pageSize);
+  return { rows: rows as JobListRow[], total: Number(count) };
+}
+
+export async function jobListRow(id: string, today: string, k: Knex = db): Promise<JobListRow> {
+  const found = await k('jobs as j')
+    .join('engine_families as f', 'f.id', 'j.family_id')
+    .select(
+      k.raw(`${WAITING_SQL} AS waiting_for_parts`),
+      k.raw(
+        `(j.due_date IS NOT NULL AND j.due_date < ?::date AND j.state IN (${OPEN_STATES.map((s) => `'${s}'`).join(', ')})) AS overdue`,
+        [today],
+      ),
+      k.raw(
+        `(SELECT count(*) FROM holds h WHERE h.job_id = j.id AND h.unit_id IS NOT NULL
+            AND h.released_at IS NULL)::int AS pistons_held`,
+      ),
+      k.raw(
+        `(SELECT count(*) FROM job_cylinders c WHERE c.job_id = j.id AND c.cut_at IS NOT NULL)::int
+          AS cylinders_cut`,
+      ),
+      'f.code as family_code',
+      'f.name as family_name',
+    )
+    .where('j.id', id)
+    .first();
+  return found as JobListRow;
+}
+
+// ---- Cylinders and readings -------------------------------------------------------------------
+
+export function cylindersOf(jobId: string, k: Knex = db): Promise<CylinderRow[]> {
+  return k('job_cylinders as c')
+    .leftJoin('series_steps as s', 's.id', 'c.chosen_step_id')
+    .select(
+      'c.job_id',
+      'c.n',
+      'c.largest_nm',
+      'c.taper_nm',
+      'c.out_of_round_nm',
+      'c.measured_at',
+      'c.chosen_step_id',
+      's.label as step_label',
+      's.offset_nm as step_offset_nm',
+      'c.clearance_nm',
+      'c.cut_at',
+      'c.measured_after_hone_nm',
+      'c.ring_gap_nm',
+    )
+    .where('c.job_id', jobId)
+    .orderBy('c.n');
+}
+
+/** Locks one cylinder row: readings, the step, the cut and the after-hone sizes queue here. */
+export async function lockCylinder(
+  trx: Knex,
+  jobId: string,
+  n: number,
+): Promise<CylinderRow | undefined> {
+  const locked = await trx('job_cylinders')
+    .select('n')
+    .where({ job_id: jobId, n })
+    .forNoKeyUpdate()
+    .first();
+  if (!locked) return undefined;
+  return (await cylindersOf(jobId, trx)).find((c) => c.n === n);
+}
+
+export function readingsOf(jobId: string, k: Knex = db): Promise<ReadingRow[]> {
+  return k('bore_readings')
+    .select('n', 'depth', 'axis', 'diameter_nm', 'unit')
+    .where({ job_id: jobId })
+    .orderBy([
+      'n',
+      { column: k.raw(`array_position(ARRAY['top','middle','bottom'], depth)`) as never },
+      'axis',
+    ]);
+}
+
+export async function replaceReadings(
+  trx: Knex,
+  jobId: string,
+  n: number,
+  readings: { depth: Depth; axis: Axis; nm: number; unit: LengthUnit }[],
+  wear: { largest: number; taper: number; outOfRound: number },
+  userId: string | null,
+): Promise<void> {
+  await trx('bore_readings').where({ job_id: jobId, n }).delete();
+  await trx('bore_readings').insert(
+    readings.map((r) => ({
+      job_id: jobId,
+      n,
+      depth: r.depth,
+      axis: r.axis,
+      diameter_nm: r.nm,
+      unit: r.unit,
+    })),
+  );
+  await trx('job_cylinders')
+    .update({
+      largest_nm: wear.largest,
+      taper_nm: wear.taper,
+      out_of_round_nm: wear.outOfRound,
+      measured_at: trx.fn.now(),
+      measured_by: userId,
+    })
+    .where({ job_id: jobId, n });
+}
+
+export async function updateCylinder(
+  trx: Knex,
+  jobId: string,
+  n: number,
+  changes: Record<string, unknown>,
+): Promise<void> {
+  await trx('job_cylinders').update(changes).where({ job_id: jobId, n });
+}
+
+// ---- Events -----------------------------------------------------------------------------------
+
+export async function insertEvent(
+  trx: Knex,
+  e: { jobId: string; userId: string | null; kind: EventRow['kind']; text: string },
+): Promise<void> {
+  await trx('job_events').insert({
+    job_id: e.jobId,
+    user_id: e.userId,
+    kind: e.kind,
+    text: e.text.slice(0, 2000),
+  });
+}
+
+export function eventsOf(jobId: string, k: Knex = db): Promise<EventRow[]> {
+  return k('job_events as e')
+    .leftJoin('users as u', 'u.id', 'e.user_id')
+    .select('e.id', 'e.at', 'e.kind', 'e.text', 'u.name as user_name')
+    .where('e.job_id', jobId)
+    .orderBy([
+      { column: 'e.at', order: 'desc' },
+      { column: 'e.id', order: 'desc' },
+    ]);
+}
+
+// ---- Photos -----------------------------------------------------------------------------------
+
+export function photosOf(jobId: string, k: Knex = db): Promise<PhotoMetaRow[]> {
+  return k('job_photos')
+    .select(
+      'id',
+      'job_id',
+      'content_type',
+      'size_bytes',
+      k.raw('(thumbnail IS NOT NULL) AS has_thumbnail'),
+      'original_name',
+      'created_at',
+    )
+    .where({ job_id: jobId })
+    .orderBy([{ column: 'created_at' }, { column: 'id' }]);
+}
+
+export async function countPhotos(trx: Knex, jobId: string): Promise<number> {
+  const [{ count }] = await trx('job_photos')
+    .where({ job_id: jobId })
+    .count<{ count: number }[]>('* as count');
+  return Number(count);
+}
+
+export async function insertPhoto(
+  trx: Knex,
+  photo: {
+    job_id: string;
+    content_type: string;
+    size_bytes: number;
+    data: Buffer;
+    thumbnail_type: string | null;
+    thumbnail: Buffer | null;
+    original_name: string;
+    created_by: string | null;
+  },
+): Promise<string> {
+  const [row] = await trx('job_photos').insert(photo).returning<{ id: string }[]>('id');
+  return row.id;
+}
+
+export async function photoBytes(
+  jobId: string,
+  photoId: string,
+  which: 'photo' | 'thumbnail',
+  k: Knex = db,
+): Promise<{ contentType: string; data: Buffer } | undefined> {
+  const row = await k('job_photos')
+    .select(
+      which === 'photo'
+        ? ['content_type as contentType', 'data']
+        : ['thumbnail_type as contentType', 'thumbnail as data'],
+    )
+    .where({ id: photoId, job_id: jobId })
+    .first();
+  if (!row || row.data === null) return undefined;
+  return row as { contentType: string; data: Buffer };
+}

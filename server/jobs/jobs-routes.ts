@@ -1,0 +1,271 @@
+// Job routes: intake, the board, readings, the step, holds, the bore sheet, the cut, photos,
+// handing back and calling off. Everyone signed in reads jobs; intake is for the counter and the
+// workshop; readings, holds, cuts and the bore sheet are machine work (machinist and owner).
+import type { Router } from 'express';
+import multer from 'multer';
+import { z } from 'zod';
+import { pageQuery, route, uuidParam } from '../http/route';
+import type { Role } from '../../shared/session-types';
+import {
+  cylinderPatch,
+  holdInput,
+  holdMoveInput,
+  jobInput,
+  jobPatch,
+  JOB_SORTS,
+  JOB_STATES,
+  MAX_PHOTO_BYTES,
+  noteInput,
+  OPEN_STATES,
+  readingsInput,
+  type JobState,
+} from '../../shared/jobs-api';
+import * as jobs from './jobs-service';
+import * as cylinders from './cylinder-service';
+import * as holds from './holds-service';
+import * as photos from './photos-service';
+
+const COUNTER: Role[] = ['owner', 'machinist', 'staff'];
+const MACHINE: Role[] = ['owner', 'machinist'];
+
+const idParams = z.object({ id: uuidParam });
+const cylinderParams = z.object({
+  id: uuidParam,
+  n: z.coerce
+    .number({ error: 'must be a cylinder number' })
+    .int('must be a whole number')
+    .min(1, 'cylinders are numbered from 1')
+    .max(24, 'at most 24'),
+});
+const photoParams = z.object({ id: uuidParam, photoId: uuidParam });
+
+const CLOSED_STATES: JobState[] = ['handed_back', 'called_off'];
+const stateFilter = z
+  .string()
+  .max(200)
+  .optional()
+  .transform((text, ctx): JobState[] | undefined => {
+    if (text === undefined || text.trim() === '' || text === 'all') return undefined;
+    const states: JobState[] = [];
+    for (const word of text.split(',').map((w) => w.trim())) {
+      if (word === 'open') states.push(...OPEN_STATES);
+      else if (word === 'closed') states.push(...CLOSED_STATES);
+      else if ((JOB_STATES as readonly string[]).includes(word)) states.push(word as JobState);
+      else {
+        ctx.addIssue({
+          code: 'custom',
+          message: `"${word}" is not a job state; use open, closed, all or one of ${JOB_STATES.join(', ')}`,
+        });
+        return z.NEVER;
+      }
+    }
+    return [...new Set(states)];
+  });
+
+const jobsQuery = pageQuery.extend({
+  state: stateFilter,
+  sort: z.enum(JOB_SORTS, { error: `must be one of ${JOB_SORTS.join(', ')}` }).optional(),
+  familyId: uuidParam.optional(),
+  waiting: z
+    .enum(['true', 'false'], { error: 'must be true or false' })
+    .optional()
+    .transform((v) => (v === undefined ? undefined : v === 'true')),
+});
+
+const proposalQuery = z.object({ stepId: uuidParam.optional() }).strict();
+
+const photoUpload = multer({
+  storage: multer.memoryStorage(),
+  limits: { fileSize: MAX_PHOTO_BYTES, files: 2, fields: 10, parts: 12 },
+}).fields([
+  { name: 'photo', maxCount: 1 },
+  { name: 'thumbnail', maxCount: 1 },
+]);
+
+export function registerJobsRoutes(router: Router): void {
+  route(router, {
+    method: 'post',
+    path: '/api/jobs',
+    access: COUNTER,
+    body: jobInput,
+    status: 201,
+    handler: ({ body, user }) => jobs.createJob(user.id, body, user.unit),
+  });
+  route(router, {
+    method: 'get',
+    path: '/api/jobs',
+    access: 'signed-in',
+    query: jobsQuery,
+    handler: ({ query }) => {
+      const { state, ...rest } = query;
+      return jobs.listJobs({ ...rest, states: state });
+    },
+  });
+  route(router, {
+    method: 'get',
+    path: '/api/jobs/:id',
+    access: 'signed-in',
+    params: idParams,
+    handler: ({ params, user }) => jobs.getJob(params.id, user.unit),
+  });
+  route(router, {
+    method: 'patch',
+    path: '/api/jobs/:id',
+    access: COUNTER,
+    params: idParams,
+    body: jobPatch,
+    handler: ({ params, body, user }) => jobs.patchJob(user, params.id, body, user.unit),
+  });
+  route(router, {
+    method: 'post',
+    path: '/api/jobs/:id/notes',
+    access: COUNTER,
+    params: idParams,
+    body: noteInput,
+    status: 201,
+    handler: ({ params, body, user }) => jobs.addNote(user.id, params.id, body.text, user.unit),
+  });
+  route(router, {
+    method: 'post',
+    path: '/api/jobs/:id/collect',
+    access: COUNTER,
+    params: idParams,
+    handler: ({ params, user }) => jobs.collectJob(user.id, params.id, user.unit),
+  });
+  route(router, {
+    method: 'post',
+    path: '/api/jobs/:id/cancel',
+    access: COUNTER,
+    params: idParams,
+    handler: ({ params, user }) => jobs.cancelJob(user.id, params.id, user.unit),
+  });
+
+  // ---- Cylinders --------------------------------------------------------------------------------
+  route(router, {
+    method: 'put',
+    path: '/api/jobs/:id/cylinders/:n/readings',
+    access: MACHINE,
+    params: cylinderParams,
+    body: readingsInput,
+    handler: ({ params, body, user }) =>
+      cylinders.putReadings(user.id, params.id, params.n, body, user.unit),
+  });
+  route(router, {
+    method: 'patch',
+    path: '/api/jobs/:id/cylinders/:n',
+    access: MACHINE,
+    params: cylinderParams,
+    body: cylinderPatch,
+    handler: ({ params, body, user }) =>
+      cylinders.patchCylinder(user.id, params.id, params.n, body, user.unit),
+  });
+  route(router, {
+    method: 'get',
+    path: '/api/jobs/:id/cylinders/:n/recommendation',
+    access: 'signed-in',
+    params: cylinderParams,
+    handler: ({ params, user }) => cylinders.recommendation(params.id, params.n, user.unit),
+  });
+  route(router, {
+    method: 'get',
+    path: '/api/jobs/:id/cylinders/:n/proposal',
+    access: MACHINE,
+    params: cylinderParams,
+    query: proposalQuery,
+    handler: ({ params, query }) => holds.proposal(params.id, params.n, query.stepId),
+  });
+  route(router, {
+    method: 'get',
+    path: '/api/jobs/:id/cylinders/:n/bore-sheet',
+    access: MACHINE,
+    params: cylinderParams,
+    handler: ({ params }) => cylinders.boreSheet(params.id, params.n),
+  });
+  route(router, {
+    method: 'post',
+    path: '/api/jobs/:id/cylinders/:n/cut',
+    access: MACHINE,
+    params: cylinderParams,
+    body: z.object({}).strict(),
+    handler: ({ params, user }) => cylinders.markCut(user.id, params.id, params.n, user.unit),
+  });
+
+  // ---- Holds ------------------------------------------------------------------------------------
+  route(router, {
+    method: 'post',
+    path: '/api/jobs/:id/holds',
+    access: MACHINE,
+    params: idParams,
+    body: holdInput,
+    status: 201,
+    handler: ({ params, body, user }) => holds.placeHold(user.id, params.id, body, user.unit),
+  });
+  route(router, {
+    method: 'delete',
+    path: '/api/holds/:id',
+    access: MACHINE,
+    params: idParams,
+    handler: async ({ params, user }) => {
+      await holds.releaseHold(user.id, params.id);
+    },
+  });
+  route(router, {
+    method: 'post',
+    path: '/api/holds/:id/move',
+    access: MACHINE,
+    params: idParams,
+    body: holdMoveInput,
+    handler: ({ params, body, user }) => holds.moveHold(user.id, params.id, body),
+  });
+  route(router, {
+    method: 'post',
+    path: '/api/holds/sweep',
+    access: ['owner'],
+    body: z.object({}).strict(),
+    handler: ({ user }) => holds.sweepExpiredHolds(user.id),
+  });
+
+  // ---- Photos -----------------------------------------------------------------------------------
+  route(router, {
+    method: 'post',
+    path: '/api/jobs/:id/photos',
+    access: COUNTER,
+    before: [photoUpload],
+    params: idParams,
+    status: 201,
+    handler: ({ params, user, req }) =>
+      photos.addPhoto(
+        user.id,
+        params.id,
+        req.files as Record<string, photos.UploadedFile[]> | undefined,
+      ),
+  });
+  route(router, {
+    method: 'get',
+    path: '/api/jobs/:id/photos/:photoId',
+    access: 'signed-in',
+    params: photoParams,
+    handler: async ({ params, res }) =>
+      sendImage(res, await photos.photoFile(params.id, params.photoId, 'photo')),
+  });
+  route(router, {
+    method: 'get',
+    path: '/api/jobs/:id/photos/:photoId/thumbnail',
+    access: 'signed-in',
+    params: photoParams,
+    handler: async ({ params, res }) =>
+      sendImage(res, await photos.photoFile(params.id, params.photoId, 'thumbnail')),
+  });
+}
+
+/** Photos never change once stored, so the browser may keep them (privately: they are a customer's). */
+function sendImage(
+  res: import('express').Response,
+  file: { contentType: string; data: Buffer },
+): undefined {
+  res.setHeader('Content-Type', file.contentType);
+  res.setHeader('Cache-Control', 'private, max-age=86400, immutable');
+  res.setHeader('Content-Disposition', 'inline');
+  res.status(200).end(file.data);
+  return undefined;
+}

@@ -1,0 +1,436 @@
+// What the jobs API accepts and answers: intake, bore readings, the step choice, holds, the bore
+// sheet and closing a job. The zod schemas are used by the server routes and the Angular forms, so
+// both refuse the same input with the same words.
+import { z } from 'zod';
+import { optionalLengthField, type Page } from './catalog-api';
+import { parseLength, type LengthJson, type LengthUnit } from './lengths';
+import type { Axis, Depth } from './bore-wear';
+
+export type { Page };
+
+/** A job's states in workshop order; the last two close the job. */
+export const JOB_STATES = [
+  'booked_in',
+  'gauged',
+  'parts_set_aside',
+  'on_the_bar',
+  'at_the_hone',
+  'ready_to_go',
+  'handed_back',
+  'called_off',
+] as const;
+export type JobState = (typeof JOB_STATES)[number];
+
+/** States a person may move a job between; handing back and calling off have their own commands. */
+export const OPEN_STATES = [
+  'booked_in',
+  'gauged',
+  'parts_set_aside',
+  'on_the_bar',
+  'at_the_hone',
+  'ready_to_go',
+] as const satisfies readonly JobState[];
+export type OpenState = (typeof OPEN_STATES)[number];
+
+export const JOB_STATE_LABELS: Record<JobState, string> = {
+  booked_in: 'Booked in',
+  gauged: 'Gauged',
+  parts_set_aside: 'Parts set aside',
+  on_the_bar: 'On the bar',
+  at_the_hone: 'At the hone',
+  ready_to_go: 'Ready to go',
+  handed_back: 'Handed back',
+  called_off: 'Called off',
+};
+
+export const JOB_STATE_HINTS: Record<JobState, string> = {
+  booked_in: 'Taken in; bores not measured yet.',
+  gauged: 'Bores measured; choose the step and set the piston aside.',
+  parts_set_aside: 'Each measured piston is held for its cylinder.',
+  on_the_bar: 'Boring.',
+  at_the_hone: 'Honing, chamfering ports, measuring, cleaning.',
+  ready_to_go: 'Finished; waiting for the customer.',
+  handed_back: 'Collected; the held parts were issued.',
+  called_off: 'Cancelled; every hold was released.',
+};
+
+export function isOpenState(state: string): state is OpenState {
+  return (OPEN_STATES as readonly string[]).includes(state);
+}
+
+export const READING_DEPTHS = ['top', 'middle', 'bottom'] as const satisfies readonly Depth[];
+export const READING_AXES = ['pin', 'thrust'] as const satisfies readonly Axis[];
+export const DEPTH_LABELS: Record<Depth, string> = {
+  top: 'Top of ring travel',
+  middle: 'Middle',
+  bottom: 'Bottom of travel',
+};
+export const AXIS_LABELS: Record<Axis, string> = {
+  pin: 'Along the pin',
+  thrust: 'Across (thrust)',
+};
+
+/** Most photos one job keeps; intake needs a handful, not an album. */
+export const MAX_PHOTOS_PER_JOB = 24;
+/** Largest photo accepted, in bytes (10 MB). */
+export const MAX_PHOTO_BYTES = 10 * 1024 * 1024;
+/** Largest thumbnail the browser may send with a photo. */
+export const MAX_THUMBNAIL_BYTES = 512 * 1024;
+export const PHOTO_TYPES = ['image/jpeg', 'image/png', 'image/webp'] as const;
+
+const uuid = z.string().uuid('must be a valid id');
+/** Optional text: left out stays undefined (no change), "" or null become null (cleared). */
+const optionalText = (max: number) =>
+  z
+    .union([z.null(), z.string().trim().max(max, `at most ${max} characters`)])
+    .optional()
+    .transform((v) => (v === '' ? null : v));
+
+/** A calendar date written as YYYY-MM-DD, and a real one (no 31 April). */
+export const isoDate = z
+  .string({ error: 'must be a date written as YYYY-MM-DD' })
+  .regex(/^\d{4}-\d{2}-\d{2}$/, 'must be a date written as YYYY-MM-DD')
+  .refine((text) => {
+    const [y, m, d] = text.split('-').map(Number);
+    const date = new Date(Date.UTC(y, m - 1, d));
+    return (
+      y >= 2000 &&
+      y <= 2200 &&
+      date.getUTCFullYear() === y &&
+      date.getUTCMonth() === m - 1 &&
+      date.getUTCDate() === d
+    );
+  }, 'is not a date on the calendar');
+
+const customerFields = {
+  customerName: z
+    .string({ error: "enter the customer's name" })
+    .trim()
+    .min(1, "enter the customer's name")
+    .max(120, 'at most 120 characters'),
+  customerPhone: optionalText(40).refine(
+    (v) => v === null || v === undefined || /^[0-9+()\-./\s]{3,40}$/.test(v),
+    'digits, spaces and + ( ) - . / only',
+  ),
+  customerEmail: optionalText(254).refine(
+    (v) => v === null || v === undefined || z.string().email().safeParse(v).success,
+    'is not an e-mail address',
+  ),
+  askedFor: z.string().trim().max(300, 'at most 300 characters').optional(),
+  dueDate: isoDate.nullable().optional(),
+  notes: z.string().trim().max(2000, 'at most 2000 characters').optional(),
+  notifyCustomer: z.boolean().optional(),
+};
+
+export const jobInput = z
+  .object({
+    ...customerFields,
+    familyId: uuid,
+    cylinders: z
+      .number({ error: 'must be a whole number' })
+      .int('must be a whole number')
+      .min(1, 'at least 1')
+      .max(24, 'at most 24'),
+  })
+  .strict();
+export type JobInput = z.output<typeof jobInput>;
+
+export const jobPatch = z
+  .object({
+    ...customerFields,
+    state: z.enum(OPEN_STATES, {
+      error: `must be one of ${OPEN_STATES.join(', ')} (collect and cancel have their own commands)`,
+    }),
+  })
+  .partial()
+  .strict()
+  .refine((p) => Object.values(p).some((v) => v !== undefined), 'nothing to change');
+export type JobPatch = z.output<typeof jobPatch>;
+
+export const JOB_SORTS = ['due', 'number', 'customer', 'created', 'state'] as const;
+
+/** A bore diameter as typed ("2.5260 in"), read into nm and the unit it was typed in. */
+export const diameterField = z
+  .string({ error: 'must be text with its unit, for example "64.91 mm" or "2.5555 in"' })
+  .transform((text, ctx): { nm: number; unit: LengthUnit } => {
+    const parsed = parseLength(text, { max: 500_000_000 });
+    if (!parsed.ok) {
+      ctx.addIssue({ code: 'custom', message: parsed.message });
+      return z.NEVER;
+    }
+    return { nm: parsed.nm, unit: parsed.unit };
+  });
+
+export const readingsInput = z
+  .object({
+    readings: z
+      .array(
+        z
+          .object({
+            depth: z.enum(READING_DEPTHS, { error: 'must be top, middle or bottom' }),
+            axis: z.enum(READING_AXES, { error: 'must be pin or thrust' }),
+            diameter: diameterField,
+          })
+          .strict(),
+      )
+      .min(1, 'enter at least one reading')
+      .max(6, 'at most 6 readings: three depths on two axes'),
+  })
+  .strict();
+export type ReadingsInput = z.output<typeof readingsInput>;
+
+const smallLength = optionalLengthField({ allowZero: true, max: 10_000_000 });
+
+export const cylinderPatch = z
+  .object({
+    stepId: uuid.nullable(),
+    clearance: smallLength,
+    measuredAfterHone: optionalLengthField({ max: 500_000_000 }),
+    ringGap: smallLength,
+  })
+  .partial()
+  .strict()
+  .refine((p) => Object.values(p).some((v) => v !== undefined), 'nothing to change');
+export type CylinderPatch = z.output<typeof cylinderPatch>;
+
+const cylinderNumber = z
+  .number({ error: 'must be the cylinder number' })
+  .int('must be a whole number')
+  .min(1, 'at least 1')
+  .max(24, 'at most 24');
+
+export const holdInput = z
+  .object({
+    cylinder: cylinderNumber,
+    unitId: uuid.optional(),
+    partId: uuid.optional(),
+    quantity: z.number().int('must be a whole number').min(1).max(24).optional(),
+    /** Days until the hold lapses; null for no expiry; left out: the shop's default. */
+    expiresInDays: z.number().int().min(1).max(365).nullable().optional(),
+  })
+  .strict()
+  .refine((h) => (h.unitId ? 1 : 0) + (h.partId ? 1 : 0) === 1, {
+    message: 'give either unitId (one measured piston) or partId with a quantity (ring sets)',
+    path: ['unitId'],
+  })
+  .refine((h) => !(h.unitId && h.quantity !== undefined && h.quantity !== 1), {
+    message: 'a piston unit is held one at a time',
+    path: ['quantity'],
+  });
+export type HoldInput = z.output<typeof holdInput>;
+
+export const holdMoveInput = z.object({ jobId: uuid, cylinder: cylinderNumber }).strict();
+export type HoldMoveInput = z.output<typeof holdMoveInput>;
+
+export const noteInput = z
+  .object({
+    text: z.string().trim().min(1, 'write the note').max(2000, 'at most 2000 characters'),
+  })
+  .strict();
+
+export const cutInput = z.object({}).strict();
+
+// ---- Answers ----------------------------------------------------------------------------------
+
+export interface ReadingJson {
+  depth: Depth;
+  axis: Axis;
+  diameter: LengthJson;
+  /** The unit the reading was typed in. */
+  unit: LengthUnit;
+}
+
+export interface WearJson {
+  largest: LengthJson;
+  taper: LengthJson;
+  outOfRound: LengthJson;
+}
+
+/** Answer of PUT …/readings. */
+export interface ReadingsResultJson {
+  wear: WearJson;
+  overStandard: LengthJson | null;
+  taperKnown: boolean;
+  outOfRoundKnown: boolean;
+  warnings: string[];
+  cylinder: CylinderJson;
+}
+
+export interface HoldJson {
+  id: string;
+  jobId: string;
+  jobNumber: string;
+  cylinder: number;
+  partId: string;
+  sku: string;
+  kind: 'piston' | 'rings' | 'other';
+  description: string;
+  stepLabel: string | null;
+  unitId: string | null;
+  unitLabel: string | null;
+  skirt: LengthJson | null;
+  bin: string | null;
+  quantity: number;
+  expiresAt: string | null;
+  createdAt: string;
+  releasedAt: string | null;
+  releaseReason: 'released' | 'moved' | 'expired' | 'cancelled' | 'issued' | null;
+}
+
+export interface CylinderJson {
+  n: number;
+  readings: ReadingJson[];
+  wear: (WearJson & { overStandard: LengthJson | null }) | null;
+  warnings: string[];
+  measuredAt: string | null;
+  step: { id: string; label: string; nominalBore: LengthJson } | null;
+  /** Clearance set for this cylinder; null: the shop's policy applies. */
+  clearance: LengthJson | null;
+  piston: HoldJson | null;
+  rings: HoldJson[];
+  cutAt: string | null;
+  measuredAfterHone: LengthJson | null;
+  ringGap: LengthJson | null;
+  /** The recorded ring end gap is within the family's range (null: not recorded or no range). */
+  ringGapOk: boolean | null;
+}
+
+export interface PhotoJson {
+  id: string;
+  contentType: string;
+  size: number;
+  url: string;
+  /** null when no thumbnail was sent with the photo: show the photo scaled down. */
+  thumbnailUrl: string | null;
+  originalName: string;
+  createdAt: string;
+}
+
+export interface JobEventJson {
+  id: number;
+  at: string;
+  kind: 'note' | 'state' | 'hold' | 'work' | 'system';
+  text: string;
+  userName: string | null;
+}
+
+export interface JobFamilyJson {
+  id: string;
+  code: string;
+  name: string;
+  cylinders: number;
+  standardBore: LengthJson;
+  clearance: { min: LengthJson; max: LengthJson };
+  honeAllowance: LengthJson;
+  cleanup: LengthJson;
+  maxOversize: LengthJson;
+  maxTaper: LengthJson | null;
+  maxOutOfRound: LengthJson | null;
+  ringGap: { min: LengthJson | null; max: LengthJson | null };
+}
+
+export interface JobListItemJson {
+  id: string;
+  number: string;
+  state: JobState;
+  customerName: string;
+  family: { id: string; code: string; name: string };
+  cylinders: number;
+  askedFor: string;
+  dueDate: string | null;
+  overdue: boolean;
+  /** Some cylinder's chosen step has no piston held and none free on the shelf. */
+  waitingForParts: boolean;
+  pistonsHeld: number;
+  cylindersCut: number;
+  createdAt: string;
+}
+
+export interface JobJson extends Omit<JobListItemJson, 'family'> {
+  customerPhone: string | null;
+  customerEmail: string | null;
+  family: JobFamilyJson;
+  notes: string;
+  notifyCustomer: boolean;
+  createdBy: string | null;
+  updatedAt: string;
+  stateChangedAt: string;
+  closedAt: string | null;
+  cylinderDetails: CylinderJson[];
+  holds: HoldJson[];
+  photos: PhotoJson[];
+  events: JobEventJson[];
+}
+
+export interface StepChoiceJson {
+  stepId: string;
+  label: string;
+  finishedBore: LengthJson;
+  /** Finished bore minus the largest worn diameter (negative: the step does not reach the wear). */
+  cleanup: LengthJson;
+  freePistons: number;
+  freeRings: number;
+  onOrder: number;
+  suitable: boolean;
+  reason: string;
+}
+
+export interface RecommendationJson {
+  steps: StepChoiceJson[];
+  choice: string | null;
+  warning?: string;
+  largestWorn: LengthJson;
+  chosenStepId: string | null;
+}
+
+export interface ProposalJson {
+  step: { id: string; label: string; nominalBore: LengthJson };
+  /** The free measured piston whose skirt is nearest the step's nominal size. */
+  unit: ProposedUnitJson | null;
+  /** Other free measured pistons of the step, nearest first. */
+  others: ProposedUnitJson[];
+  rings: { partId: string; sku: string; description: string; free: number }[];
+  piston: HoldJson | null;
+}
+
+export interface ProposedUnitJson {
+  id: string;
+  label: string;
+  partId: string;
+  sku: string;
+  skirt: LengthJson;
+  bin: string | null;
+  stepLabel: string | null;
+}
+
+export interface BoreSheetJson {
+  job: { id: string; number: string; customerName: string; state: JobState };
+  family: { id: string; code: string; name: string };
+  cylinder: number;
+  step: { id: string; label: string; nominalBore: LengthJson } | null;
+  piston: { unitId: string; label: string; sku: string; material: string | null };
+  skirt: LengthJson;
+  clearance: LengthJson;
+  clearanceRange: { min: LengthJson; max: LengthJson };
+  clearanceFrom: 'cylinder' | 'policy';
+  finishedBore: LengthJson;
+  boreTo: LengthJson;
+  honeStock: LengthJson;
+  largestWorn: LengthJson;
+  maxCutPerPass: LengthJson;
+  finishPass: LengthJson | null;
+  passes: LengthJson[];
+  /** Why no passes are listed (the bore is already past the bore-to size, …). */
+  passesNote: string | null;
+  ringGap: { min: LengthJson | null; max: LengthJson | null };
+  cutAt: string | null;
+  measuredAfterHone: LengthJson | null;
+  ringGapMeasured: LengthJson | null;
+  cautions: string[];
+}
+
+export interface SweepResultJson {
+  /** False when another server process was sweeping at the same moment. */
+  ran: boolean;
+  released: number;
+}
