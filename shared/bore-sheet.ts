@@ -32,6 +32,8 @@ export interface BoreSheet {
 export const BORE_SHEET_CAUTIONS: readonly string[] = Object.freeze([
   "Follow the machine maker's instructions; the engine maker's sizes and clearances override these figures.",
   'Wear eye and hearing protection; keep guards in place; hot chips fly from the boring bar.',
+  'Chips and freshly cut parts are sharp and hot: let them cool, and clear chips with a brush, not compressed air.',
+  'Wear gloves where suitable for handling parts and solvents, never near a turning spindle or hone.',
   'Honing oil mists and cleaning solvents are flammable: ventilate, and keep ignition sources away.',
   'Measure the bore again before honing and after, and check the ring end gap in the bore.',
   'Local codes and licensed practice come before anything on this sheet.',
