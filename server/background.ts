@@ -1,13 +1,15 @@
 // Work the server does besides answering requests (the outbox worker, the daily hold sweep). Each
 // feature that needs it adds a starter here. Everything coordinates through PostgreSQL, so several
 // server processes may run these side by side.
+import { startHoldSweep } from './jobs/hold-sweep';
+
 export interface Background {
   stop(): Promise<void>;
 }
 
 type Starter = () => Promise<Background> | Background;
 
-const starters: Starter[] = [];
+const starters: Starter[] = [startHoldSweep];
 
 export async function startBackgroundWork(): Promise<Background> {
   if (process.env.STEPSTOCK_NO_BACKGROUND === '1') return { stop: async () => undefined };

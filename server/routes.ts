@@ -9,6 +9,7 @@ import { registerMailRoutes } from './mail/mail-routes';
 import { registerOpenApiRoutes } from './openapi/openapi-routes';
 import { registerCatalogRoutes } from './catalog/catalog-routes';
 import { registerStockRoutes } from './stock/stock-routes';
+import { registerJobsRoutes } from './jobs/jobs-routes';
 import { registerInsightsRoutes } from './insights/insights-routes';
 
 export function registerAllRoutes(api: Router): void {
@@ -20,5 +21,6 @@ export function registerAllRoutes(api: Router): void {
   registerOpenApiRoutes(api);
   registerCatalogRoutes(api);
   registerStockRoutes(api);
+  registerJobsRoutes(api);
   registerInsightsRoutes(api);
 }
