@@ -1,6 +1,6 @@
 // npm test: a throwaway PostgreSQL cluster (never the demo's data), then typecheck, unit, client,
 // API, fault-drill and browser tests. Exits non-zero on any failure.
-//   node --import tsx server/setup/test-run.ts [stage] [jest args…]   stage: typecheck|unit|client|api|drills|e2e
+//   node --import tsx server/setup/test-run.ts [stage] [jest args…]   stage: lint|typecheck|unit|client|api|drills|e2e
 import { execFileSync, spawnSync } from 'node:child_process';
 import { existsSync, mkdtempSync, rmSync } from 'node:fs';
 import path from 'node:path';
@@ -19,7 +19,7 @@ import {
 import { REPO_ROOT } from './local-env';
 import { buildClient } from './build';
 
-const STAGES = ['typecheck', 'unit', 'client', 'api', 'drills', 'e2e'] as const;
+const STAGES = ['lint', 'typecheck', 'unit', 'client', 'api', 'drills', 'e2e'] as const;
 type Stage = (typeof STAGES)[number];
 
 function say(msg: string) {
@@ -71,6 +71,12 @@ async function seedE2eTemplate(c: Cluster): Promise<void> {
   }
 }
 
+function lint(): boolean {
+  const eslint = path.join(REPO_ROOT, 'node_modules', 'eslint', 'bin', 'eslint.js');
+  const globs = ['src/**/*.{ts,html}', 'server/**/*.ts', 'shared/**/*.ts', 'test/**/*.ts', 'migrations/**/*.ts', 'seeds/**/*.ts'];
+  return spawnSync(process.execPath, [eslint, '-c', '.eslint.config.mjs', ...globs], { cwd: REPO_ROOT, stdio: 'inherit' }).status === 0;
+}
+
 async function main() {
   const [first, ...rest] = process.argv.slice(2);
   const only = STAGES.includes(first as Stage) ? (first as Stage) : null;
@@ -116,7 +122,8 @@ async function main() {
     for (const stage of stages) {
       say(`stage: ${stage}`);
       let ok = true;
-      if (stage === 'typecheck') ok = typecheck();
+      if (stage === 'lint') ok = lint();
+      else if (stage === 'typecheck') ok = typecheck();
       else if (stage === 'unit' || stage === 'client') ok = jest(['--selectProjects', stage, ...jestArgs], env);
       else if (stage === 'api' || stage === 'drills') ok = jest(['--selectProjects', stage, '-i', ...jestArgs], env);
       else if (stage === 'e2e') {
