@@ -17,6 +17,7 @@ import { errorHandler } from './http/error-handler';
 import { registerAllRoutes } from './routes';
 import { registerHealthRoutes } from './health/health-routes';
 import { NotFound } from './errors';
+import { assertEveryRouteDeclared } from './http/route';
 
 export interface CreatedApp {
   app: Express;
@@ -82,6 +83,7 @@ export function createApp(opts: { databaseUrl?: string; serveClient?: boolean } 
 
   const api = express.Router();
   registerAllRoutes(api);
+  assertEveryRouteDeclared([early, api]);
   app.use(api);
   app.use('/api', (_req, _res, next) => next(new NotFound('That API route')));
 

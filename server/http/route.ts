@@ -124,3 +124,19 @@ export const pageQuery = z.object({
 export type PageQuery = z.infer<typeof pageQuery>;
 
 export const uuidParam = z.string().uuid('must be a valid id');
+
+/**
+ * Deny by default: refuses to build an app with a route that was not declared through `route()`
+ * (its first handler would carry no access declaration, so nothing would check who calls it).
+ */
+export function assertEveryRouteDeclared(routers: Router[]): void {
+  for (const router of routers) {
+    for (const layer of router.stack as unknown as Array<{
+      route?: { path: string; stack: Array<{ handle: { access?: Access } }> };
+    }>) {
+      if (layer.route && layer.route.stack[0]?.handle.access === undefined) {
+        throw new Error(`Route ${layer.route.path} has no access declaration: declare it with route().`);
+      }
+    }
+  }
+}
