@@ -1,8 +1,8 @@
 // Walks every route registered on the Express app with every role and signed out, against the
 // table below. A route added without an access declaration, or missing from this table, fails.
-import type { Router } from 'express';
+import express, { type Router } from 'express';
 import { createApp } from '../../server/app';
-import type { Access } from '../../server/http/route';
+import { assertEveryRouteDeclared, type Access } from '../../server/http/route';
 import { closeTestApp, Client, signedIn } from '../support/api';
 import { ROLES, type Role } from '../../shared/session-types';
 
@@ -167,5 +167,15 @@ describe('route × role matrix', () => {
         });
       }
     }
+  });
+});
+
+describe('deny by default', () => {
+  it('when a route is registered without an access declaration, then the app refuses to start', () => {
+    const rogue = express.Router();
+    rogue.get('/api/rogue', (_req, res) => {
+      res.json({ leaked: true });
+    });
+    expect(() => assertEveryRouteDeclared([rogue])).toThrow(/no access declaration/);
   });
 });
