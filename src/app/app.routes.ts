@@ -31,6 +31,14 @@ export const routes: Routes = [
         loadChildren: () => import('./admin/admin.routes').then((m) => m.adminRoutes),
       },
       {
+        path: 'catalog',
+        loadChildren: () => import('./catalog/catalog.routes').then((m) => m.catalogRoutes),
+      },
+      {
+        path: 'stock',
+        loadChildren: () => import('./stock/stock.routes').then((m) => m.stockRoutes),
+      },
+      {
         path: 'account',
         loadChildren: () => import('./account/account.routes').then((m) => m.accountRoutes),
       },

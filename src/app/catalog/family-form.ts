@@ -1,0 +1,325 @@
+import {
+  ChangeDetectionStrategy,
+  Component,
+  computed,
+  effect,
+  inject,
+  input,
+  signal,
+} from '@angular/core';
+import { toSignal } from '@angular/core/rxjs-interop';
+import {
+  FormControl,
+  NonNullableFormBuilder,
+  ReactiveFormsModule,
+  Validators,
+} from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatButtonToggleModule } from '@angular/material/button-toggle';
+import { MatCheckboxModule } from '@angular/material/checkbox';
+import { MatDialog } from '@angular/material/dialog';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatSelectModule } from '@angular/material/select';
+import { Router, RouterLink } from '@angular/router';
+import { catchError, map, of, startWith, Subject, switchMap } from 'rxjs';
+
+import type { FamilyJson, StepSeriesJson } from '../../../shared/catalog-api';
+import { apiErrorBody, apiErrorMessage, apiFieldErrors } from '../core/api-error';
+import { Notifier } from '../core/notifier';
+import { Session } from '../core/session';
+import { lengthForField, lengthText, lengthValidator, otherUnitHint } from '../ui/length-input';
+import { CatalogApi, type FamilyBody } from './catalog-api';
+import { StepSeriesDialog } from './step-series-dialog';
+
+/** The length fields, in form order, with what each one means at the bench. */
+const LENGTHS = [
+  {
+    key: 'standardBore',
+    label: 'Standard bore',
+    hint: 'Nominal STD bore diameter',
+    required: true,
+  },
+  { key: 'stroke', label: 'Stroke', hint: '', required: true },
+  {
+    key: 'clearanceMin',
+    label: 'Clearance, least',
+    hint: 'Piston-to-wall, new piston',
+    required: true,
+  },
+  {
+    key: 'clearanceMax',
+    label: 'Clearance, most',
+    hint: 'Piston-to-wall, new piston',
+    required: true,
+  },
+  {
+    key: 'honeAllowance',
+    label: 'Hone allowance',
+    hint: 'Left on the diameter for the hone',
+    required: true,
+  },
+  {
+    key: 'cleanup',
+    label: 'Clean-up allowance',
+    hint: 'Beyond the worst wear, on the diameter',
+    required: true,
+  },
+  {
+    key: 'maxOversize',
+    label: 'Largest oversize',
+    hint: 'Past it: sleeve or replace',
+    required: true,
+  },
+  { key: 'maxTaper', label: 'Largest taper', hint: 'Leave empty if not known', required: false },
+  {
+    key: 'maxOutOfRound',
+    label: 'Largest out-of-round',
+    hint: 'Leave empty if not known',
+    required: false,
+  },
+  {
+    key: 'ringGapMin',
+    label: 'Ring end gap, least',
+    hint: 'Leave empty if not known',
+    required: false,
+  },
+  {
+    key: 'ringGapMax',
+    label: 'Ring end gap, most',
+    hint: 'Leave empty if not known',
+    required: false,
+  },
+] as const;
+type LengthKey = (typeof LENGTHS)[number]['key'];
+
+type Loaded =
+  | { state: 'loading' }
+  | { state: 'ok'; family: FamilyJson | null }
+  | { state: 'error'; message: string };
+
+/** Adds or edits an engine family: its sizes, the maker's limits and the step series it uses. */
+@Component({
+  selector: 'app-family-form',
+  imports: [
+    MatButtonModule,
+    MatButtonToggleModule,
+    MatCheckboxModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatInputModule,
+    MatProgressBarModule,
+    MatSelectModule,
+    ReactiveFormsModule,
+    RouterLink,
+  ],
+  templateUrl: './family-form.html',
+  styleUrl: './family-form.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class FamilyForm {
+  private readonly api = inject(CatalogApi);
+  private readonly dialog = inject(MatDialog);
+  private readonly notifier = inject(Notifier);
+  private readonly router = inject(Router);
+  private readonly session = inject(Session);
+  private readonly fb = inject(NonNullableFormBuilder);
+
+  /** The family id from the route when editing; absent for a new family. */
+  readonly id = input<string>();
+
+  protected readonly lengths = LENGTHS;
+  protected readonly unit = this.session.unit;
+
+  protected readonly form = this.fb.group({
+    code: ['', [Validators.required, Validators.maxLength(24)]],
+    name: ['', [Validators.required, Validators.maxLength(120)]],
+    strokeType: this.fb.control<'two' | 'four'>('two'),
+    cylinders: this.fb.control(1, [Validators.required, Validators.min(1), Validators.max(24)]),
+    cooling: this.fb.control<'air' | 'liquid'>('air'),
+    stepSeriesId: ['', Validators.required],
+    notes: ['', Validators.maxLength(2000)],
+    active: [true],
+    lengths: this.fb.group(
+      Object.fromEntries(
+        LENGTHS.map((l) => [
+          l.key,
+          new FormControl('', {
+            nonNullable: true,
+            validators: [
+              ...(l.required ? [Validators.required] : []),
+              lengthValidator(() => this.unit(), {
+                allowZero: l.key !== 'standardBore' && l.key !== 'stroke',
+              }),
+            ],
+          }),
+        ]),
+      ) as Record<LengthKey, FormControl<string>>,
+    ),
+  });
+
+  private readonly seriesReloads = new Subject<void>();
+  protected readonly series = toSignal(
+    this.seriesReloads.pipe(
+      startWith(undefined),
+      switchMap(() =>
+        this.api.stepSeries().pipe(
+          map((page) => page.items),
+          catchError(() => of<StepSeriesJson[]>([])),
+        ),
+      ),
+    ),
+    { initialValue: [] as StepSeriesJson[] },
+  );
+
+  protected readonly loaded = signal<Loaded>({ state: 'loading' });
+  protected readonly busy = signal(false);
+  protected readonly problem = signal('');
+  protected readonly serverErrors = signal<Record<string, string>>({});
+  protected readonly editing = computed(() => Boolean(this.id()));
+
+  constructor() {
+    effect(() => {
+      const id = this.id();
+      if (!id) {
+        this.loaded.set({ state: 'ok', family: null });
+        return;
+      }
+      this.loaded.set({ state: 'loading' });
+      this.api.family(id).subscribe({
+        next: (family) => {
+          this.fill(family);
+          this.loaded.set({ state: 'ok', family });
+        },
+        error: (error: unknown) =>
+          this.loaded.set({ state: 'error', message: apiErrorMessage(error) }),
+      });
+    });
+  }
+
+  protected hint(key: LengthKey): string {
+    return otherUnitHint(this.form.controls.lengths.controls[key].value, this.unit());
+  }
+
+  protected lengthError(key: LengthKey): string {
+    const control = this.form.controls.lengths.controls[key];
+    if (control.hasError('required')) return 'Enter this size, e.g. "64.00" or "2.5000 in".';
+    const message = control.getError('length') as string | null;
+    return message ?? this.serverErrors()[key] ?? '';
+  }
+
+  protected addSeries(): void {
+    this.dialog
+      .open<StepSeriesDialog, void, StepSeriesJson>(StepSeriesDialog, {
+        autoFocus: 'first-tabbable',
+      })
+      .afterClosed()
+      .subscribe((series) => {
+        if (series) {
+          this.seriesReloads.next();
+          this.form.controls.stepSeriesId.setValue(series.id);
+          this.form.controls.stepSeriesId.markAsDirty();
+          this.notifier.success(`Step series ${series.code} added.`);
+        }
+      });
+  }
+
+  protected submit(): void {
+    if (this.busy()) return;
+    if (this.form.invalid) {
+      this.form.markAllAsTouched();
+      return;
+    }
+    const body = this.body();
+    const id = this.id();
+    if (id && Object.keys(body).length === 0) {
+      void this.router.navigate(['/catalog/families', id, 'ladder']);
+      return;
+    }
+    this.busy.set(true);
+    this.problem.set('');
+    this.serverErrors.set({});
+    const request = id
+      ? this.api.updateFamily(id, body)
+      : this.api.createFamily(body as FamilyBody);
+    request.subscribe({
+      next: (family) => {
+        this.notifier.success(id ? `${family.code} saved.` : `${family.code} added.`);
+        void this.router.navigate(['/catalog/families', family.id, 'ladder']);
+      },
+      error: (error: unknown) => {
+        this.busy.set(false);
+        const fields = apiFieldErrors(error);
+        this.serverErrors.set(fields);
+        for (const [field, message] of Object.entries(fields)) {
+          const control =
+            (this.form.controls.lengths.controls as Record<string, FormControl<string>>)[field] ??
+            (this.form.controls as unknown as Record<string, FormControl<unknown>>)[field];
+          if (control) {
+            control.setErrors({ server: message });
+            control.markAsTouched();
+          }
+        }
+        this.problem.set(apiErrorBody(error)?.error.message ?? apiErrorMessage(error));
+      },
+    });
+  }
+
+  /** A new family sends everything; an edit sends only what was changed, so nothing drifts. */
+  private body(): Partial<FamilyBody> {
+    const editing = this.editing();
+    const v = this.form.getRawValue();
+    const body: Partial<FamilyBody> = {};
+    const take = <K extends keyof FamilyBody>(key: K, dirty: boolean, value: FamilyBody[K]) => {
+      if (!editing || dirty) body[key] = value;
+    };
+    const c = this.form.controls;
+    take('code', c.code.dirty, v.code.trim());
+    take('name', c.name.dirty, v.name.trim());
+    take('strokeType', c.strokeType.dirty, v.strokeType);
+    take('cylinders', c.cylinders.dirty, Number(v.cylinders));
+    take('cooling', c.cooling.dirty, v.cooling);
+    take('stepSeriesId', c.stepSeriesId.dirty, v.stepSeriesId);
+    take('notes', c.notes.dirty, v.notes);
+    if (editing) take('active', c.active.dirty, v.active);
+    for (const l of LENGTHS) {
+      const control = c.lengths.controls[l.key];
+      const text = control.value.trim();
+      const value = text === '' ? null : lengthText(text, this.unit());
+      if (!editing || control.dirty) {
+        if (l.required) (body as Record<string, unknown>)[l.key] = value ?? '';
+        else if (value !== null || editing) (body as Record<string, unknown>)[l.key] = value;
+      }
+    }
+    return body;
+  }
+
+  private fill(f: FamilyJson): void {
+    const unit = this.unit();
+    this.form.reset({
+      code: f.code,
+      name: f.name,
+      strokeType: f.strokeType,
+      cylinders: f.cylinders,
+      cooling: f.cooling,
+      stepSeriesId: f.stepSeriesId,
+      notes: f.notes,
+      active: f.active,
+      lengths: {
+        standardBore: lengthForField(f.standardBore, unit),
+        stroke: lengthForField(f.stroke, unit),
+        clearanceMin: lengthForField(f.clearance.min, unit),
+        clearanceMax: lengthForField(f.clearance.max, unit),
+        honeAllowance: lengthForField(f.honeAllowance, unit),
+        cleanup: lengthForField(f.cleanup, unit),
+        maxOversize: lengthForField(f.maxOversize, unit),
+        maxTaper: lengthForField(f.maxTaper, unit),
+        maxOutOfRound: lengthForField(f.maxOutOfRound, unit),
+        ringGapMin: lengthForField(f.ringGap.min, unit),
+        ringGapMax: lengthForField(f.ringGap.max, unit),
+      },
+    });
+  }
+}

@@ -1,0 +1,337 @@
+import {
+  ChangeDetectionStrategy,
+  Component,
+  computed,
+  effect,
+  inject,
+  input,
+  signal,
+} from '@angular/core';
+import { toObservable, toSignal } from '@angular/core/rxjs-interop';
+import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
+import { MatAutocompleteModule } from '@angular/material/autocomplete';
+import { MatButtonModule } from '@angular/material/button';
+import { MatCheckboxModule } from '@angular/material/checkbox';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatSelectModule } from '@angular/material/select';
+import { Router, RouterLink } from '@angular/router';
+import { catchError, debounceTime, distinctUntilChanged, map, of, switchMap } from 'rxjs';
+
+import {
+  PART_KINDS,
+  type FamilyJson,
+  type PartDetailJson,
+  type PartJson,
+  type PartKind,
+  type StepSeriesJson,
+} from '../../../shared/catalog-api';
+import { gtinProblem } from '../../../shared/gtin';
+import { apiErrorBody, apiErrorMessage, apiFieldErrors } from '../core/api-error';
+import { LengthPipe } from '../core/length-pipe';
+import { Notifier } from '../core/notifier';
+import { Session } from '../core/session';
+import { lengthForField, lengthText, lengthValidator, otherUnitHint } from '../ui/length-input';
+import { CatalogApi, type PartBody } from './catalog-api';
+import { KIND_LABELS } from './part-words';
+
+interface Component_ {
+  partId: string;
+  sku: string;
+  description: string;
+  quantity: number;
+}
+
+type Loaded =
+  | { state: 'loading' }
+  | { state: 'ok'; part: PartDetailJson | null }
+  | { state: 'error'; message: string };
+
+/**
+ * One part: owner and buyer add and edit it (kind, sizes, barcode, price, reorder rule, a kit's
+ * contents); everyone else reads it, with its stock and where to find its movements.
+ */
+@Component({
+  selector: 'app-part-form',
+  imports: [
+    LengthPipe,
+    MatAutocompleteModule,
+    MatButtonModule,
+    MatCheckboxModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatInputModule,
+    MatProgressBarModule,
+    MatSelectModule,
+    ReactiveFormsModule,
+    RouterLink,
+  ],
+  templateUrl: './part-form.html',
+  styleUrl: './part-form.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class PartForm {
+  private readonly api = inject(CatalogApi);
+  private readonly notifier = inject(Notifier);
+  private readonly router = inject(Router);
+  private readonly session = inject(Session);
+  private readonly fb = inject(NonNullableFormBuilder);
+
+  /** The part id from the route; absent for a new part. */
+  readonly id = input<string>();
+
+  protected readonly kinds = PART_KINDS;
+  protected readonly kindLabels = KIND_LABELS;
+  protected readonly unit = this.session.unit;
+  protected readonly canEdit = computed(() => {
+    const role = this.session.user()?.role;
+    return role === 'owner' || role === 'buyer';
+  });
+  protected readonly canReceive = computed(() => {
+    const role = this.session.user()?.role;
+    return role === 'owner' || role === 'buyer' || role === 'staff';
+  });
+
+  protected readonly form = this.fb.group({
+    kind: this.fb.control<PartKind>('piston', Validators.required),
+    sku: [
+      '',
+      [
+        Validators.required,
+        Validators.maxLength(40),
+        Validators.pattern(/^[A-Za-z0-9][A-Za-z0-9._/+-]*$/),
+      ],
+    ],
+    description: ['', [Validators.required, Validators.maxLength(300)]],
+    familyId: [''],
+    stepId: [''],
+    material: this.fb.control<'cast' | 'forged' | ''>(''),
+    ringCount: this.fb.control<number | null>(null, [Validators.min(1), Validators.max(6)]),
+    pinDiameter: ['', lengthValidator(() => this.unit())],
+    gtin: [
+      '',
+      (c: { value: string }) =>
+        c.value.trim() && gtinProblem(c.value) ? { gtin: gtinProblem(c.value) } : null,
+    ],
+    salePrice: ['0.00', [Validators.required, Validators.pattern(/^\d{1,10}(\.\d{1,4})?$/)]],
+    reorderPoint: this.fb.control<number | null>(null, [Validators.min(0)]),
+    orderUpTo: this.fb.control<number | null>(null, [Validators.min(0)]),
+    active: [true],
+  });
+  protected readonly components = signal<Component_[]>([]);
+  private componentsChanged = false;
+
+  private readonly formValue = toSignal(this.form.valueChanges, {
+    initialValue: this.form.getRawValue(),
+  });
+  protected readonly kind = computed(() => this.formValue().kind ?? 'piston');
+
+  protected readonly families = toSignal(
+    this.api.families({ page: 1, pageSize: 500 }).pipe(
+      map((page) => page.items),
+      catchError(() => of<FamilyJson[]>([])),
+    ),
+    { initialValue: [] as FamilyJson[] },
+  );
+  private readonly series = toSignal(
+    this.api.stepSeries().pipe(
+      map((page) => page.items),
+      catchError(() => of<StepSeriesJson[]>([])),
+    ),
+    { initialValue: [] as StepSeriesJson[] },
+  );
+  protected readonly steps = computed(() => {
+    const family = this.families().find((f) => f.id === this.formValue().familyId);
+    return family ? (this.series().find((s) => s.id === family.stepSeriesId)?.steps ?? []) : [];
+  });
+
+  /** Part search for a kit's contents. */
+  protected readonly componentSearch = signal('');
+  protected readonly componentOptions = toSignal(
+    toObservable(this.componentSearch).pipe(
+      debounceTime(200),
+      distinctUntilChanged(),
+      switchMap((q) =>
+        q.trim().length < 2
+          ? of<PartJson[]>([])
+          : this.api.parts({ q, page: 1, pageSize: 10 }).pipe(
+              map((page) => page.items.filter((p) => p.kind !== 'kit' && p.id !== this.id())),
+              catchError(() => of<PartJson[]>([])),
+            ),
+      ),
+    ),
+    { initialValue: [] as PartJson[] },
+  );
+
+  protected readonly loaded = signal<Loaded>({ state: 'loading' });
+  protected readonly part = computed(() => {
+    const loaded = this.loaded();
+    return loaded.state === 'ok' ? loaded.part : null;
+  });
+  protected readonly busy = signal(false);
+  protected readonly problem = signal('');
+  protected readonly serverErrors = signal<Record<string, string>>({});
+
+  constructor() {
+    effect(() => {
+      const id = this.id();
+      if (!this.canEdit()) this.form.disable();
+      if (!id) {
+        this.loaded.set({ state: 'ok', part: null });
+        return;
+      }
+      this.form.controls.kind.disable();
+      this.loaded.set({ state: 'loading' });
+      this.api.part(id).subscribe({
+        next: (part) => {
+          this.fill(part);
+          this.loaded.set({ state: 'ok', part });
+        },
+        error: (error: unknown) =>
+          this.loaded.set({ state: 'error', message: apiErrorMessage(error) }),
+      });
+    });
+  }
+
+  protected pinHint(): string {
+    return otherUnitHint(this.form.controls.pinDiameter.value, this.unit());
+  }
+
+  protected onFamily(): void {
+    this.form.controls.stepId.setValue('');
+    this.form.controls.stepId.markAsDirty();
+  }
+
+  protected addComponent(part: PartJson): void {
+    if (this.components().some((c) => c.partId === part.id)) return;
+    this.components.update((list) => [
+      ...list,
+      { partId: part.id, sku: part.sku, description: part.description, quantity: 1 },
+    ]);
+    this.componentsChanged = true;
+    this.componentSearch.set('');
+  }
+
+  protected setQuantity(partId: string, value: string): void {
+    const quantity = Math.max(1, Math.min(1000, Math.floor(Number(value) || 1)));
+    this.components.update((list) =>
+      list.map((c) => (c.partId === partId ? { ...c, quantity } : c)),
+    );
+    this.componentsChanged = true;
+  }
+
+  protected removeComponent(partId: string): void {
+    this.components.update((list) => list.filter((c) => c.partId !== partId));
+    this.componentsChanged = true;
+  }
+
+  protected error(field: string): string {
+    const control = this.form.get(field);
+    if (!control) return '';
+    if (control.hasError('required')) return 'This is needed.';
+    if (control.hasError('pattern') && field === 'sku')
+      return 'Letters, digits and . _ / + - only.';
+    if (control.hasError('pattern')) return 'An amount like 12.50.';
+    if (control.hasError('gtin')) return String(control.getError('gtin'));
+    if (control.hasError('length')) return String(control.getError('length'));
+    if (control.hasError('min') || control.hasError('max')) return 'Out of range.';
+    return this.serverErrors()[field] ?? '';
+  }
+
+  protected submit(): void {
+    if (this.busy() || !this.canEdit()) return;
+    if (this.form.invalid) {
+      this.form.markAllAsTouched();
+      return;
+    }
+    const id = this.id();
+    const body = this.body(Boolean(id));
+    this.busy.set(true);
+    this.problem.set('');
+    this.serverErrors.set({});
+    const request = id ? this.api.updatePart(id, body) : this.api.createPart(body);
+    request.subscribe({
+      next: (part) => {
+        this.busy.set(false);
+        this.notifier.success(id ? `${part.sku} saved.` : `${part.sku} added.`);
+        if (id) {
+          this.fill(part);
+          this.loaded.set({ state: 'ok', part });
+        } else {
+          void this.router.navigate(['/catalog/parts', part.id]);
+        }
+      },
+      error: (error: unknown) => {
+        this.busy.set(false);
+        const fields = apiFieldErrors(error);
+        this.serverErrors.set(fields);
+        for (const [field, message] of Object.entries(fields)) {
+          const control = this.form.get(field);
+          if (control) {
+            control.setErrors({ server: message });
+            control.markAsTouched();
+          }
+        }
+        this.problem.set(apiErrorBody(error)?.error.message ?? apiErrorMessage(error));
+      },
+    });
+  }
+
+  private body(editing: boolean): PartBody {
+    const v = this.form.getRawValue();
+    const c = this.form.controls;
+    const body: PartBody = {};
+    const changed = (control: { dirty: boolean }) => !editing || control.dirty;
+    const kind = v.kind;
+    if (!editing) body.kind = kind;
+    if (changed(c.sku)) body.sku = v.sku.trim();
+    if (changed(c.description)) body.description = v.description.trim();
+    if (changed(c.familyId)) body.familyId = v.familyId || null;
+    if (changed(c.stepId)) body.stepId = v.stepId || null;
+    if (kind === 'piston') {
+      if (changed(c.material)) body.material = v.material || null;
+      if (changed(c.ringCount)) body.ringCount = v.ringCount ?? null;
+    }
+    if (changed(c.pinDiameter)) {
+      body.pinDiameter = v.pinDiameter.trim() ? lengthText(v.pinDiameter, this.unit()) : null;
+    }
+    if (changed(c.gtin)) body.gtin = v.gtin.trim() || null;
+    if (changed(c.salePrice)) body.salePrice = v.salePrice.trim();
+    if (changed(c.reorderPoint)) body.reorderPoint = v.reorderPoint ?? null;
+    if (changed(c.orderUpTo)) body.orderUpTo = v.orderUpTo ?? null;
+    if (editing && c.active.dirty) body.active = v.active;
+    if (kind === 'kit' && (!editing || this.componentsChanged)) {
+      body.components = this.components().map((x) => ({ partId: x.partId, quantity: x.quantity }));
+    }
+    return body;
+  }
+
+  private fill(p: PartDetailJson): void {
+    this.form.reset({
+      kind: p.kind,
+      sku: p.sku,
+      description: p.description,
+      familyId: p.familyId ?? '',
+      stepId: p.stepId ?? '',
+      material: p.material ?? '',
+      ringCount: p.ringCount,
+      pinDiameter: lengthForField(p.pinDiameter, this.unit()),
+      gtin: p.gtin ?? '',
+      salePrice: p.salePrice,
+      reorderPoint: p.reorderPoint,
+      orderUpTo: p.orderUpTo,
+      active: p.active,
+    });
+    this.components.set(
+      p.components.map((c) => ({
+        partId: c.partId,
+        sku: c.sku,
+        description: c.description,
+        quantity: c.quantity,
+      })),
+    );
+    this.componentsChanged = false;
+  }
+}

@@ -1,0 +1,9 @@
+import type { PartKind } from '../../../shared/catalog-api';
+
+/** How each kind of part reads on screen. */
+export const KIND_LABELS: Record<PartKind, string> = {
+  piston: 'Piston',
+  rings: 'Ring set',
+  kit: 'Kit',
+  other: 'Small part',
+};

@@ -1,0 +1,107 @@
+import {
+  ChangeDetectionStrategy,
+  Component,
+  computed,
+  inject,
+  input,
+  linkedSignal,
+  signal,
+} from '@angular/core';
+import { toObservable, toSignal } from '@angular/core/rxjs-interop';
+import { MatButtonModule } from '@angular/material/button';
+import { MatButtonToggleModule } from '@angular/material/button-toggle';
+import { MatIconModule } from '@angular/material/icon';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatTooltipModule } from '@angular/material/tooltip';
+import { RouterLink } from '@angular/router';
+import { catchError, combineLatest, map, of, startWith, switchMap } from 'rxjs';
+
+import type { LadderJson, LadderStepJson, LadderUnitJson } from '../../../shared/catalog-api';
+import type { LengthUnit } from '../../../shared/lengths';
+import { apiErrorMessage } from '../core/api-error';
+import { LengthPipe } from '../core/length-pipe';
+import { Session } from '../core/session';
+import { CatalogApi } from './catalog-api';
+
+type Loaded =
+  { state: 'loading' } | { state: 'ok'; ladder: LadderJson } | { state: 'error'; message: string };
+
+/**
+ * One engine family, every step as a row: what is on the shelf, what is held for jobs, what is
+ * free (each free piston with its measured size) and what is on order. A step with no free piston
+ * stands out by an icon, a word and a heavy edge, so it reads without colour.
+ */
+@Component({
+  selector: 'app-step-ladder',
+  imports: [
+    LengthPipe,
+    MatButtonModule,
+    MatButtonToggleModule,
+    MatIconModule,
+    MatProgressBarModule,
+    MatTooltipModule,
+    RouterLink,
+  ],
+  templateUrl: './step-ladder.html',
+  styleUrl: './step-ladder.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class StepLadder {
+  private readonly api = inject(CatalogApi);
+  private readonly session = inject(Session);
+
+  /** The family id, from the route. */
+  readonly id = input.required<string>();
+
+  private readonly reloads = signal(0);
+  private readonly loaded = toSignal(
+    combineLatest([toObservable(this.id), toObservable(this.reloads)]).pipe(
+      switchMap(([id]) =>
+        this.api.ladder(id).pipe(
+          map((ladder): Loaded => ({ state: 'ok', ladder })),
+          catchError((error: unknown) =>
+            of<Loaded>({ state: 'error', message: apiErrorMessage(error) }),
+          ),
+          startWith<Loaded>({ state: 'loading' }),
+        ),
+      ),
+    ),
+    { initialValue: { state: 'loading' } as Loaded },
+  );
+
+  protected readonly loading = computed(() => this.loaded().state === 'loading');
+  protected readonly error = computed(() => {
+    const loaded = this.loaded();
+    return loaded.state === 'error' ? loaded.message : '';
+  });
+  protected readonly ladder = computed(() => {
+    const loaded = this.loaded();
+    return loaded.state === 'ok' ? loaded.ladder : null;
+  });
+  protected readonly emptySteps = computed(
+    () => this.ladder()?.steps.filter((step) => step.nothingFree).length ?? 0,
+  );
+
+  /** Starts in the person's own unit; the toggle switches this page only. */
+  protected readonly unit = linkedSignal<LengthUnit>(() => this.session.unit());
+  protected readonly canReceive = computed(() => {
+    const role = this.session.user()?.role;
+    return role === 'owner' || role === 'buyer' || role === 'staff';
+  });
+
+  protected freeUnits(step: LadderStepJson): LadderUnitJson[] {
+    return step.units.filter((unit) => unit.status === 'free');
+  }
+
+  protected heldUnits(step: LadderStepJson): LadderUnitJson[] {
+    return step.units.filter((unit) => unit.status === 'held');
+  }
+
+  protected setUnit(value: unknown): void {
+    if (value === 'mm' || value === 'in') this.unit.set(value);
+  }
+
+  protected reload(): void {
+    this.reloads.update((n) => n + 1);
+  }
+}

@@ -1,0 +1,122 @@
+import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
+import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+
+import type { PartJson } from '../../../shared/catalog-api';
+import type { StockChangeJson } from '../../../shared/stock-api';
+import { apiErrorMessage } from '../core/api-error';
+import { PartPicker } from './part-picker';
+import { StockApi } from './stock-api';
+
+/** Corrects a counted part's on-hand after a count (+ found, − missing), with the reason. */
+@Component({
+  selector: 'app-adjust-dialog',
+  imports: [
+    MatButtonModule,
+    MatDialogModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatInputModule,
+    PartPicker,
+    ReactiveFormsModule,
+  ],
+  template: `
+    <h2 mat-dialog-title>Correct a count</h2>
+    <form [formGroup]="form" (ngSubmit)="submit()" novalidate>
+      <mat-dialog-content class="dialog-form">
+        @if (problem()) {
+          <div class="form-alert" role="alert">
+            <mat-icon>error</mat-icon><span>{{ problem() }}</span>
+          </div>
+        }
+        @if (part(); as p) {
+          <p>
+            <strong>{{ p.sku }}</strong> {{ p.description }}<br />
+            On hand {{ p.onHand }}, held {{ p.held }}, free {{ p.free }}
+            @if (!data) {
+              <button mat-button type="button" (click)="part.set(null)">Change</button>
+            }
+          </p>
+          @if (p.kind === 'piston') {
+            <p class="note">
+              Pistons are counted one by one: scrap a missing one from its row under Pistons, or
+              receive a found one.
+            </p>
+          }
+        } @else {
+          <app-part-picker label="Part counted" (picked)="part.set($event)" />
+        }
+        <mat-form-field appearance="outline">
+          <mat-label>Change</mat-label>
+          <input matInput type="number" formControlName="quantity" required />
+          <mat-hint>+2 when two more were found, −3 when three are missing</mat-hint>
+          <mat-error>A whole number other than 0.</mat-error>
+        </mat-form-field>
+        <mat-form-field appearance="outline">
+          <mat-label>Reason</mat-label>
+          <input matInput formControlName="reason" autocomplete="off" required />
+          <mat-error>Say why the count changes.</mat-error>
+        </mat-form-field>
+      </mat-dialog-content>
+      <mat-dialog-actions align="end">
+        <button mat-button type="button" mat-dialog-close>Cancel</button>
+        <button
+          mat-flat-button
+          type="submit"
+          [disabled]="busy() || !part() || part()?.kind === 'piston'"
+        >
+          Save
+        </button>
+      </mat-dialog-actions>
+    </form>
+  `,
+  styles: `
+    .note {
+      color: var(--mat-sys-on-surface-variant);
+    }
+  `,
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class AdjustDialog {
+  private readonly api = inject(StockApi);
+  private readonly dialogRef = inject<MatDialogRef<AdjustDialog, StockChangeJson>>(MatDialogRef);
+  protected readonly data = inject<PartJson | null>(MAT_DIALOG_DATA, { optional: true });
+
+  private readonly fb = inject(NonNullableFormBuilder);
+
+  protected readonly part = signal<PartJson | null>(this.data);
+  protected readonly form = this.fb.group({
+    quantity: this.fb.control<number | null>(null, [
+      Validators.required,
+      (c) => (c.value === 0 || !Number.isInteger(Number(c.value)) ? { zero: true } : null),
+    ]),
+    reason: ['', [Validators.required, Validators.maxLength(500)]],
+  });
+  protected readonly busy = signal(false);
+  protected readonly problem = signal('');
+
+  protected submit(): void {
+    const part = this.part();
+    if (this.busy() || !part) return;
+    if (this.form.invalid) {
+      this.form.markAllAsTouched();
+      return;
+    }
+    const v = this.form.getRawValue();
+    this.busy.set(true);
+    this.problem.set('');
+    this.api
+      .adjust({ partId: part.id, quantity: Number(v.quantity), reason: v.reason.trim() })
+      .subscribe({
+        next: (change) => this.dialogRef.close(change),
+        error: (error: unknown) => {
+          this.busy.set(false);
+          this.problem.set(apiErrorMessage(error));
+        },
+      });
+  }
+}

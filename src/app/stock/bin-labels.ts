@@ -1,0 +1,101 @@
+import { ChangeDetectionStrategy, Component, computed, inject, input } from '@angular/core';
+import { toSignal } from '@angular/core/rxjs-interop';
+import { MatButtonModule } from '@angular/material/button';
+import { MatIconModule } from '@angular/material/icon';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { RouterLink } from '@angular/router';
+import { catchError, map, of, startWith } from 'rxjs';
+
+import type { BinJson } from '../../../shared/stock-api';
+import { apiErrorMessage } from '../core/api-error';
+import { Barcode } from '../ui/barcode';
+import { printPageRule } from '../ui/print-page';
+import { StockApi } from './stock-api';
+
+type Loaded =
+  { state: 'loading' } | { state: 'ok'; bins: BinJson[] } | { state: 'error'; message: string };
+
+/** Bin labels on the same sticker sheet as piston labels: the code large, and as Code 128. */
+@Component({
+  selector: 'app-bin-labels',
+  imports: [Barcode, MatButtonModule, MatIconModule, MatProgressBarModule, RouterLink],
+  template: `
+    <section class="page labels-page">
+      <header class="page-header no-print">
+        <h1>Bin labels</h1>
+        <button mat-flat-button type="button" [disabled]="bins().length === 0" (click)="print()">
+          <mat-icon>print</mat-icon>Print
+        </button>
+      </header>
+      <p class="intro no-print">
+        62 × 35 mm stickers, three across and seven down, for A4 or Letter. Print at 100 %.
+      </p>
+      @if (loaded().state === 'loading') {
+        <mat-progress-bar mode="indeterminate" aria-label="Loading bins" />
+      }
+      @if (error(); as message) {
+        <div class="form-alert" role="alert">
+          <mat-icon>error</mat-icon><span>{{ message }}</span>
+        </div>
+      }
+      @if (loaded().state === 'ok' && bins().length === 0) {
+        <p class="empty">No bins to label. Add bins first.</p>
+      }
+      @for (sheet of sheets(); track $index) {
+        <div class="sheet">
+          @for (b of sheet; track b.id) {
+            <article class="label bin" [attr.aria-label]="'Label for bin ' + b.code">
+              <p class="bin-code">{{ b.code }}</p>
+              <app-barcode class="code" [value]="b.code" />
+              <p class="bin-name">{{ b.name }}</p>
+            </article>
+          }
+        </div>
+      }
+      <p class="no-print back"><a routerLink="/stock/bins">Bins</a></p>
+    </section>
+  `,
+  styleUrl: './bin-labels.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class BinLabels {
+  private readonly api = inject(StockApi);
+
+  /** ?ids=a,b,c for chosen bins; all bins without it. */
+  readonly ids = input<string>();
+
+  protected readonly loaded = toSignal(
+    this.api.bins({ page: 1, pageSize: 500 }).pipe(
+      map((page): Loaded => ({ state: 'ok', bins: page.items })),
+      catchError((error: unknown) =>
+        of<Loaded>({ state: 'error', message: apiErrorMessage(error) }),
+      ),
+      startWith<Loaded>({ state: 'loading' }),
+    ),
+    { initialValue: { state: 'loading' } as Loaded },
+  );
+  protected readonly bins = computed(() => {
+    const loaded = this.loaded();
+    if (loaded.state !== 'ok') return [];
+    const wanted = (this.ids() ?? '').split(',').filter(Boolean);
+    return wanted.length ? loaded.bins.filter((b) => wanted.includes(b.id)) : loaded.bins;
+  });
+  protected readonly sheets = computed(() => {
+    const bins = this.bins();
+    const sheets: BinJson[][] = [];
+    for (let i = 0; i < bins.length; i += 21) sheets.push(bins.slice(i, i + 21));
+    return sheets;
+  });
+  protected readonly error = computed(() => {
+    const loaded = this.loaded();
+    return loaded.state === 'error' ? loaded.message : '';
+  });
+
+  constructor() {
+    printPageRule()('margin: 10mm;');
+  }
+
+  protected print(): void {
+    window.print();
+  }
+}

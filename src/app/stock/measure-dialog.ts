@@ -1,0 +1,126 @@
+import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
+import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+
+import type { StockChangeJson, UnitJson } from '../../../shared/stock-api';
+import { apiErrorMessage, apiFieldErrors } from '../core/api-error';
+import { LengthPipe } from '../core/length-pipe';
+import { Session } from '../core/session';
+import { lengthText, lengthValidator, otherUnitHint } from '../ui/length-input';
+import { StockApi } from './stock-api';
+
+/** Records a piston's measured skirt diameter; closes with the change. */
+@Component({
+  selector: 'app-measure-dialog',
+  imports: [
+    LengthPipe,
+    MatButtonModule,
+    MatDialogModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatInputModule,
+    ReactiveFormsModule,
+  ],
+  template: `
+    <h2 mat-dialog-title>Measure {{ unit.label }}</h2>
+    <form [formGroup]="form" (ngSubmit)="submit()" novalidate>
+      <mat-dialog-content class="dialog-form">
+        @if (problem()) {
+          <div class="form-alert" role="alert">
+            <mat-icon>error</mat-icon><span>{{ problem() }}</span>
+          </div>
+        }
+        <p>
+          {{ unit.sku }} · {{ unit.stepLabel }}
+          @if (unit.nominalBore) {
+            · bore {{ unit.nominalBore | length }}
+          }
+          @if (unit.skirt) {
+            · measured before: {{ unit.skirt | length }}
+          }
+        </p>
+        <p class="note">Across the skirt at the maker's height, at 90° to the pin.</p>
+        <mat-form-field appearance="outline">
+          <mat-label>Skirt diameter</mat-label>
+          <input
+            matInput
+            formControlName="skirt"
+            inputmode="decimal"
+            autocomplete="off"
+            required
+            cdkFocusInitial
+          />
+          <span matTextSuffix>{{ session.unit() }}</span>
+          @if (hint(); as h) {
+            <mat-hint>{{ h }}</mat-hint>
+          }
+          <mat-error>{{ error() }}</mat-error>
+        </mat-form-field>
+      </mat-dialog-content>
+      <mat-dialog-actions align="end">
+        <button mat-button type="button" mat-dialog-close>Cancel</button>
+        <button mat-flat-button type="submit" [disabled]="busy()">Save size</button>
+      </mat-dialog-actions>
+    </form>
+  `,
+  styles: `
+    .note {
+      color: var(--mat-sys-on-surface-variant);
+    }
+  `,
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class MeasureDialog {
+  private readonly api = inject(StockApi);
+  private readonly dialogRef = inject<MatDialogRef<MeasureDialog, StockChangeJson>>(MatDialogRef);
+  protected readonly unit = inject<UnitJson>(MAT_DIALOG_DATA);
+  protected readonly session = inject(Session);
+
+  protected readonly form = inject(NonNullableFormBuilder).group({
+    skirt: [
+      '',
+      [Validators.required, lengthValidator(() => this.session.unit(), { max: 500_000_000 })],
+    ],
+  });
+  protected readonly busy = signal(false);
+  protected readonly problem = signal('');
+  private readonly serverError = signal('');
+
+  protected hint(): string {
+    return otherUnitHint(this.form.controls.skirt.value, this.session.unit());
+  }
+
+  protected error(): string {
+    const c = this.form.controls.skirt;
+    if (c.hasError('required')) return 'Type the measured size.';
+    if (c.hasError('length')) return String(c.getError('length'));
+    return this.serverError();
+  }
+
+  protected submit(): void {
+    if (this.busy()) return;
+    if (this.form.invalid) {
+      this.form.markAllAsTouched();
+      return;
+    }
+    this.busy.set(true);
+    this.problem.set('');
+    const skirt = lengthText(this.form.getRawValue().skirt, this.session.unit());
+    this.api.measure(this.unit.id, skirt).subscribe({
+      next: (change) => this.dialogRef.close(change),
+      error: (error: unknown) => {
+        this.busy.set(false);
+        const field = apiFieldErrors(error)['skirt'];
+        if (field) {
+          this.serverError.set(field);
+          this.form.controls.skirt.setErrors({ server: field });
+        }
+        this.problem.set(apiErrorMessage(error));
+      },
+    });
+  }
+}

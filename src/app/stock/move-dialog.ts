@@ -1,0 +1,108 @@
+import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
+import { toSignal } from '@angular/core/rxjs-interop';
+import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatSelectModule } from '@angular/material/select';
+import { catchError, map, of } from 'rxjs';
+
+import type { BinJson, StockChangeJson } from '../../../shared/stock-api';
+import { apiErrorMessage } from '../core/api-error';
+import { StockApi } from './stock-api';
+
+/** What moves: one piston (by its unit) or all of a counted part. */
+export interface MoveTarget {
+  unitId?: string;
+  partId?: string;
+  /** "PU-000123" or the part number, for the title. */
+  name: string;
+  binId: string | null;
+}
+
+/** Moves a piston, or all of a counted part, to another bin; closes with the change. */
+@Component({
+  selector: 'app-move-dialog',
+  imports: [
+    MatButtonModule,
+    MatDialogModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatSelectModule,
+    ReactiveFormsModule,
+  ],
+  template: `
+    <h2 mat-dialog-title>Move {{ data.name }}</h2>
+    <form [formGroup]="form" (ngSubmit)="submit()" novalidate>
+      <mat-dialog-content class="dialog-form">
+        @if (problem()) {
+          <div class="form-alert" role="alert">
+            <mat-icon>error</mat-icon><span>{{ problem() }}</span>
+          </div>
+        }
+        <mat-form-field appearance="outline">
+          <mat-label>To bin</mat-label>
+          <mat-select formControlName="toBinId" required>
+            @for (b of bins(); track b.id) {
+              <mat-option [value]="b.id" [disabled]="b.id === data.binId">
+                {{ b.code }}
+                @if (b.name) {
+                  — {{ b.name }}
+                }
+                @if (b.id === data.binId) {
+                  (here now)
+                }
+              </mat-option>
+            }
+          </mat-select>
+          <mat-error>Choose the bin it goes to.</mat-error>
+        </mat-form-field>
+      </mat-dialog-content>
+      <mat-dialog-actions align="end">
+        <button mat-button type="button" mat-dialog-close>Cancel</button>
+        <button mat-flat-button type="submit" [disabled]="busy()">Move</button>
+      </mat-dialog-actions>
+    </form>
+  `,
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class MoveDialog {
+  private readonly api = inject(StockApi);
+  private readonly dialogRef = inject<MatDialogRef<MoveDialog, StockChangeJson>>(MatDialogRef);
+  protected readonly data = inject<MoveTarget>(MAT_DIALOG_DATA);
+
+  protected readonly form = inject(NonNullableFormBuilder).group({
+    toBinId: ['', Validators.required],
+  });
+  protected readonly bins = toSignal(
+    this.api.bins({ page: 1, pageSize: 500 }).pipe(
+      map((page) => page.items),
+      catchError(() => of<BinJson[]>([])),
+    ),
+    { initialValue: [] as BinJson[] },
+  );
+  protected readonly busy = signal(false);
+  protected readonly problem = signal('');
+
+  protected submit(): void {
+    if (this.busy()) return;
+    if (this.form.invalid) {
+      this.form.markAllAsTouched();
+      return;
+    }
+    this.busy.set(true);
+    this.problem.set('');
+    const toBinId = this.form.getRawValue().toBinId;
+    const body = this.data.unitId
+      ? { unitId: this.data.unitId, toBinId }
+      : { partId: this.data.partId, toBinId };
+    this.api.move(body).subscribe({
+      next: (change) => this.dialogRef.close(change),
+      error: (error: unknown) => {
+        this.busy.set(false);
+        this.problem.set(apiErrorMessage(error));
+      },
+    });
+  }
+}

@@ -1,0 +1,129 @@
+import { ChangeDetectionStrategy, Component, inject, input, output, signal } from '@angular/core';
+import { toObservable, toSignal } from '@angular/core/rxjs-interop';
+import { MatAutocompleteModule } from '@angular/material/autocomplete';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+import { catchError, debounce, map, Observable, of, switchMap, timer } from 'rxjs';
+
+import type { PartJson } from '../../../shared/catalog-api';
+import { apiErrorMessage } from '../core/api-error';
+import { StockApi } from './stock-api';
+
+type Found = { parts: PartJson[]; message: string; text: string; scan: boolean };
+
+/**
+ * Finds a part by number, words, GTIN or piston label. A scanner types digits and Enter: a scan
+ * that finds exactly one part picks it at once.
+ */
+@Component({
+  selector: 'app-part-picker',
+  imports: [MatAutocompleteModule, MatFormFieldModule, MatIconModule, MatInputModule],
+  template: `
+    <mat-form-field appearance="outline" class="picker" subscriptSizing="dynamic">
+      <mat-label>{{ label() }}</mat-label>
+      <mat-icon matPrefix>barcode_scanner</mat-icon>
+      <input
+        matInput
+        type="search"
+        autocomplete="off"
+        [value]="text()"
+        [matAutocomplete]="auto"
+        (input)="onType($any($event.target).value)"
+        (keydown.enter)="onEnter($event)"
+      />
+      <mat-autocomplete #auto="matAutocomplete" (optionSelected)="choose($event.option.value)">
+        @for (p of found().parts; track p.id) {
+          <mat-option [value]="p">
+            <strong>{{ p.sku }}</strong> — {{ p.description }}
+            @if (p.stepLabel) {
+              · {{ p.stepLabel }}
+            }
+          </mat-option>
+        }
+      </mat-autocomplete>
+      @if (found().message) {
+        <mat-hint class="problem">{{ found().message }}</mat-hint>
+      } @else {
+        <mat-hint>Part number or words, or scan the box's barcode</mat-hint>
+      }
+    </mat-form-field>
+  `,
+  styles: `
+    .picker {
+      width: 100%;
+    }
+    .problem {
+      color: var(--mat-sys-error);
+    }
+  `,
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class PartPicker {
+  private readonly api = inject(StockApi);
+
+  readonly label = input('Part');
+  /** Kits are never counted, so receiving and counting leave them out. */
+  readonly countedOnly = input(true);
+  readonly picked = output<PartJson>();
+
+  protected readonly text = signal('');
+  private readonly search = signal({ text: '', scan: false });
+
+  protected readonly found = toSignal(
+    toObservable(this.search).pipe(
+      debounce((s) => timer(s.scan ? 0 : 200)),
+      switchMap((s): Observable<Found> =>
+        s.text.trim().length < 2
+          ? of({ parts: [], message: '', text: s.text, scan: s.scan })
+          : this.api.findParts(s.text.trim()).pipe(
+              map((page) => {
+                const parts = this.countedOnly()
+                  ? page.items.filter((p) => p.kind !== 'kit')
+                  : page.items;
+                return {
+                  parts,
+                  message: parts.length === 0 ? `Nothing found for “${s.text.trim()}”.` : '',
+                  text: s.text,
+                  scan: s.scan,
+                };
+              }),
+              catchError((error: unknown) =>
+                of({ parts: [], message: apiErrorMessage(error), text: s.text, scan: s.scan }),
+              ),
+            ),
+      ),
+    ),
+    { initialValue: { parts: [], message: '', text: '', scan: false } as Found },
+  );
+
+  constructor() {
+    // A scan that finds one part picks it: no mouse needed at the receiving bench.
+    toObservable(this.found).subscribe((f) => {
+      if (f.scan && f.parts.length === 1 && f.text === this.text()) this.choose(f.parts[0]);
+    });
+  }
+
+  protected onType(value: string): void {
+    this.text.set(value);
+    this.search.set({ text: value, scan: false });
+  }
+
+  protected onEnter(event: Event): void {
+    event.preventDefault();
+    const value = this.text();
+    const f = this.found();
+    if (f.text === value && f.parts.length === 1) {
+      this.choose(f.parts[0]);
+      return;
+    }
+    // Enter searches at once, and a single match is picked (what a scanner's Enter expects).
+    this.search.set({ text: value, scan: true });
+  }
+
+  protected choose(part: PartJson): void {
+    this.text.set('');
+    this.search.set({ text: '', scan: false });
+    this.picked.emit(part);
+  }
+}

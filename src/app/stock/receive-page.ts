@@ -1,0 +1,254 @@
+import {
+  ChangeDetectionStrategy,
+  Component,
+  computed,
+  effect,
+  inject,
+  input,
+  signal,
+} from '@angular/core';
+import { toSignal } from '@angular/core/rxjs-interop';
+import {
+  FormArray,
+  FormControl,
+  FormGroup,
+  NonNullableFormBuilder,
+  ReactiveFormsModule,
+  Validators,
+} from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatCheckboxModule } from '@angular/material/checkbox';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatSelectModule } from '@angular/material/select';
+import { RouterLink } from '@angular/router';
+import { catchError, map, of } from 'rxjs';
+
+import type { PartDetailJson, PartJson } from '../../../shared/catalog-api';
+import { formatLength, mmToNm, parseLength } from '../../../shared/lengths';
+import { MAX_PISTONS_PER_RECEIPT, type BinJson, type ReceiptJson } from '../../../shared/stock-api';
+import { apiErrorBody, apiErrorMessage, apiFieldErrors } from '../core/api-error';
+import { LengthPipe } from '../core/length-pipe';
+import { Notifier } from '../core/notifier';
+import { Session } from '../core/session';
+import { lengthText, lengthValidator, otherUnitHint } from '../ui/length-input';
+import { PartPicker } from './part-picker';
+import { StockApi } from './stock-api';
+
+type UnitRow = FormGroup<{ skirt: FormControl<string>; toMeasure: FormControl<boolean> }>;
+
+/** Half a millimetre off the step's bore is worth a second look before saving (our own threshold). */
+const LOOK_AGAIN_NM = 500_000;
+
+/**
+ * Takes a delivery in: which part, how many, which bin, the unit cost, and for pistons each one's
+ * measured skirt in the person's unit (or "to measure"). Then prints the labels.
+ */
+@Component({
+  selector: 'app-receive-page',
+  imports: [
+    LengthPipe,
+    MatButtonModule,
+    MatCheckboxModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatInputModule,
+    MatProgressBarModule,
+    MatSelectModule,
+    PartPicker,
+    ReactiveFormsModule,
+    RouterLink,
+  ],
+  templateUrl: './receive-page.html',
+  styleUrl: './receive-page.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class ReceivePage {
+  private readonly api = inject(StockApi);
+  private readonly notifier = inject(Notifier);
+  private readonly session = inject(Session);
+  private readonly fb = inject(NonNullableFormBuilder);
+
+  /** A part to start with, from the address (?partId=…). */
+  readonly partId = input<string>();
+
+  protected readonly unit = this.session.unit;
+  protected readonly part = signal<PartDetailJson | null>(null);
+  protected readonly partLoading = signal(false);
+  protected readonly isPiston = computed(() => this.part()?.kind === 'piston');
+
+  protected readonly bins = toSignal(
+    this.api.bins({ page: 1, pageSize: 500 }).pipe(
+      map((page) => page.items),
+      catchError(() => of<BinJson[]>([])),
+    ),
+    { initialValue: [] as BinJson[] },
+  );
+
+  protected readonly form = this.fb.group({
+    quantity: this.fb.control(1, [Validators.required, Validators.min(1), Validators.max(10000)]),
+    binId: ['', Validators.required],
+    unitCost: ['', [Validators.required, Validators.pattern(/^\d{1,10}(\.\d{1,4})?$/)]],
+    note: ['', Validators.maxLength(500)],
+    units: new FormArray<UnitRow>([]),
+  });
+
+  protected readonly busy = signal(false);
+  protected readonly problem = signal('');
+  protected readonly serverErrors = signal<Record<string, string>>({});
+  protected readonly done = signal<ReceiptJson | null>(null);
+  protected readonly receivedCount = computed(
+    () => this.done()?.ledger.reduce((sum, row) => sum + row.quantity, 0) ?? 0,
+  );
+  protected readonly maxPistons = MAX_PISTONS_PER_RECEIPT;
+
+  constructor() {
+    effect(() => {
+      const id = this.partId();
+      if (id) this.loadPart(id);
+    });
+    this.form.controls.quantity.valueChanges.subscribe(() => this.sizeUnits());
+  }
+
+  protected pick(part: PartJson): void {
+    this.loadPart(part.id);
+  }
+
+  protected clearPart(): void {
+    this.part.set(null);
+    this.form.controls.units.clear();
+  }
+
+  private loadPart(id: string): void {
+    this.partLoading.set(true);
+    this.problem.set('');
+    this.api.part(id).subscribe({
+      next: (part) => {
+        this.partLoading.set(false);
+        if (part.kind === 'kit') {
+          this.problem.set(`${part.sku} is a kit: receive the parts in it one by one.`);
+          return;
+        }
+        this.part.set(part);
+        this.done.set(null);
+        if (part.binId) this.form.controls.binId.setValue(part.binId);
+        if (!this.form.controls.unitCost.value && Number(part.averageCost) > 0) {
+          this.form.controls.unitCost.setValue(part.averageCost);
+        }
+        this.sizeUnits();
+      },
+      error: (error: unknown) => {
+        this.partLoading.set(false);
+        this.problem.set(apiErrorMessage(error));
+      },
+    });
+  }
+
+  /** One skirt field per piston, kept in step with the quantity. */
+  private sizeUnits(): void {
+    const units = this.form.controls.units;
+    const wanted = this.isPiston()
+      ? Math.max(
+          0,
+          Math.min(
+            MAX_PISTONS_PER_RECEIPT,
+            Math.floor(Number(this.form.controls.quantity.value) || 0),
+          ),
+        )
+      : 0;
+    while (units.length > wanted) units.removeAt(units.length - 1);
+    while (units.length < wanted) {
+      const row: UnitRow = this.fb.group({
+        skirt: [
+          '',
+          [Validators.required, lengthValidator(() => this.unit(), { max: 500_000_000 })],
+        ],
+        toMeasure: [false],
+      });
+      row.controls.toMeasure.valueChanges.subscribe((later) => {
+        if (later) row.controls.skirt.disable();
+        else row.controls.skirt.enable();
+      });
+      units.push(row);
+    }
+  }
+
+  protected skirtHint(index: number): string {
+    const control = this.form.controls.units.at(index).controls.skirt;
+    const text = control.value;
+    const other = otherUnitHint(text, this.unit());
+    const bore = this.part()?.step?.nominalBore;
+    if (!other || !bore) return other;
+    const parsed = parseLength(text, { defaultUnit: this.unit() });
+    if (parsed.ok && Math.abs(parsed.nm - mmToNm(bore.mm)) > LOOK_AGAIN_NM) {
+      return `${other} — far from this step's ${formatLength(mmToNm(bore.mm), this.unit())} bore: check the unit`;
+    }
+    return other;
+  }
+
+  protected skirtError(index: number): string {
+    const control = this.form.controls.units.at(index).controls.skirt;
+    if (control.hasError('required')) return 'Type the measured skirt, or tick “to measure”.';
+    if (control.hasError('length')) return String(control.getError('length'));
+    return this.serverErrors()[`units.${index}.skirt`] ?? '';
+  }
+
+  protected submit(): void {
+    const part = this.part();
+    if (this.busy() || !part) return;
+    if (this.form.invalid) {
+      this.form.markAllAsTouched();
+      return;
+    }
+    const v = this.form.getRawValue();
+    const unit = this.unit();
+    this.busy.set(true);
+    this.problem.set('');
+    this.serverErrors.set({});
+    this.api
+      .receive({
+        partId: part.id,
+        quantity: Number(v.quantity),
+        binId: v.binId,
+        unitCost: v.unitCost.trim(),
+        note: v.note.trim() || undefined,
+        units:
+          part.kind === 'piston'
+            ? v.units.map((u) => ({ skirt: u.toMeasure ? null : lengthText(u.skirt, unit) }))
+            : undefined,
+      })
+      .subscribe({
+        next: (receipt) => {
+          this.busy.set(false);
+          this.done.set(receipt);
+          this.notifier.success(
+            `${v.quantity} × ${part.sku} received; ${receipt.levels.onHand} on hand.`,
+          );
+        },
+        error: (error: unknown) => {
+          this.busy.set(false);
+          const fields = apiFieldErrors(error);
+          this.serverErrors.set(fields);
+          for (const [field, message] of Object.entries(fields)) {
+            const control = this.form.get(field);
+            if (control) {
+              control.setErrors({ server: message });
+              control.markAsTouched();
+            }
+          }
+          this.problem.set(apiErrorBody(error)?.error.message ?? apiErrorMessage(error));
+        },
+      });
+  }
+
+  /** Ready for the next delivery of the same part: the count and sizes go, bin and cost stay. */
+  protected another(): void {
+    this.done.set(null);
+    this.form.controls.quantity.setValue(1);
+    this.form.controls.note.setValue('');
+    this.form.controls.units.clear();
+    this.sizeUnits();
+  }
+}

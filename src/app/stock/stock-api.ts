@@ -1,0 +1,134 @@
+import { HttpClient, HttpParams } from '@angular/common/http';
+import { inject, Injectable } from '@angular/core';
+import { Observable } from 'rxjs';
+
+import type {
+  ExposureItemJson,
+  Page,
+  PartDetailJson,
+  PartJson,
+  UnitStatus,
+} from '../../../shared/catalog-api';
+import type {
+  BinJson,
+  LedgerJson,
+  LedgerKind,
+  ReceiptJson,
+  StockChangeJson,
+  UnitJson,
+} from '../../../shared/stock-api';
+
+export interface UnitQuery {
+  q?: string;
+  partId?: string;
+  familyId?: string;
+  binId?: string;
+  receiptId?: string;
+  status?: UnitStatus | 'on-shelf';
+  sort?: string;
+  dir?: 'asc' | 'desc';
+  page: number;
+  pageSize: number;
+}
+
+export interface LedgerQuery {
+  partId?: string;
+  unitId?: string;
+  kind?: LedgerKind;
+  page: number;
+  pageSize: number;
+}
+
+/** A delivery as the receive page sends it; skirts typed with their unit, null for "to measure". */
+export interface ReceiptBody {
+  partId: string;
+  quantity: number;
+  binId: string;
+  unitCost: string;
+  note?: string;
+  units?: { skirt: string | null }[];
+}
+
+function params(query: object): HttpParams {
+  let result = new HttpParams();
+  for (const [key, value] of Object.entries(query)) {
+    if (value !== undefined && value !== null && value !== '') {
+      result = result.set(key, String(value));
+    }
+  }
+  return result;
+}
+
+/** Stock's one door to the server: bins, receipts, units, movements and the exposure list. */
+@Injectable({ providedIn: 'root' })
+export class StockApi {
+  private readonly http = inject(HttpClient);
+
+  /** Part search for receiving and counting (the catalog's list, filtered by text). */
+  findParts(q: string, pageSize = 10): Observable<Page<PartJson>> {
+    return this.http.get<Page<PartJson>>('/api/parts', {
+      params: params({ q, active: 'true', page: 1, pageSize }),
+    });
+  }
+
+  part(id: string): Observable<PartDetailJson> {
+    return this.http.get<PartDetailJson>(`/api/parts/${encodeURIComponent(id)}`);
+  }
+
+  bins(query: { q?: string; page: number; pageSize: number }): Observable<Page<BinJson>> {
+    return this.http.get<Page<BinJson>>('/api/bins', { params: params(query) });
+  }
+
+  createBin(body: { code: string; name?: string }): Observable<BinJson> {
+    return this.http.post<BinJson>('/api/bins', body);
+  }
+
+  receive(body: ReceiptBody): Observable<ReceiptJson> {
+    return this.http.post<ReceiptJson>('/api/stock/receipts', body);
+  }
+
+  adjust(body: { partId: string; quantity: number; reason: string }): Observable<StockChangeJson> {
+    return this.http.post<StockChangeJson>('/api/stock/adjustments', body);
+  }
+
+  move(body: { unitId?: string; partId?: string; toBinId: string }): Observable<StockChangeJson> {
+    return this.http.post<StockChangeJson>('/api/stock/moves', body);
+  }
+
+  scrap(unitId: string, reason: string): Observable<StockChangeJson> {
+    return this.http.post<StockChangeJson>(`/api/stock/units/${encodeURIComponent(unitId)}/scrap`, {
+      reason,
+    });
+  }
+
+  measure(unitId: string, skirt: string): Observable<StockChangeJson> {
+    return this.http.post<StockChangeJson>(
+      `/api/stock/units/${encodeURIComponent(unitId)}/measure`,
+      { skirt },
+    );
+  }
+
+  units(query: UnitQuery): Observable<Page<UnitJson>> {
+    return this.http.get<Page<UnitJson>>('/api/stock/units', { params: params(query) });
+  }
+
+  unit(id: string): Observable<UnitJson> {
+    return this.http.get<UnitJson>(`/api/stock/units/${encodeURIComponent(id)}`);
+  }
+
+  unitByLabel(label: string): Observable<UnitJson> {
+    return this.http.get<UnitJson>(`/api/stock/units/by-label/${encodeURIComponent(label.trim())}`);
+  }
+
+  ledger(query: LedgerQuery): Observable<Page<LedgerJson>> {
+    return this.http.get<Page<LedgerJson>>('/api/stock/ledger', { params: params(query) });
+  }
+
+  exposure(query: {
+    q?: string;
+    page: number;
+    pageSize: number;
+  }): Observable<Page<ExposureItemJson>> {
+    return this.http.get<Page<ExposureItemJson>>('/api/exposure', { params: params(query) });
+  }
+}
