@@ -19,9 +19,13 @@ describe('navItemsFor', () => {
   });
 
   it('when the shipped list is read, then Users is for owners only and Home and My account for all', () => {
-    expect(navItemsFor('owner').map((item) => item.label)).toEqual(['Home', 'Users', 'My account']);
+    expect(navItemsFor('owner').map((item) => item.label)).toEqual(
+      expect.arrayContaining(['Home', 'Users', 'My account']),
+    );
     for (const role of ROLES.filter((r) => r !== 'owner')) {
-      expect(navItemsFor(role).map((item) => item.label)).toEqual(['Home', 'My account']);
+      const labels = navItemsFor(role).map((item) => item.label);
+      expect(labels).toEqual(expect.arrayContaining(['Home', 'My account']));
+      expect(labels).not.toContain('Users');
     }
   });
 
