@@ -1,0 +1,195 @@
+import { DatePipe } from '@angular/common';
+import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
+import { toObservable, toSignal } from '@angular/core/rxjs-interop';
+import { MatButtonModule } from '@angular/material/button';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { RouterLink } from '@angular/router';
+import { catchError, map, of, switchMap, tap } from 'rxjs';
+
+import { isOpenState, type BoreSheetJson } from '../../../shared/jobs-api';
+import {
+  formatIn,
+  formatMm,
+  mmToNm,
+  parseLength,
+  toLengthJson,
+  type LengthJson,
+  type LengthUnit,
+  type Nm,
+} from '../../../shared/lengths';
+import { apiErrorMessage } from '../core/api-error';
+import { LengthPipe } from '../core/length-pipe';
+import { Notifier } from '../core/notifier';
+import { Session } from '../core/session';
+import { JobsApi, type CylinderChanges } from './jobs-api';
+
+type Loaded = { ok: true; sheet: BoreSheetJson } | { ok: false; message: string };
+
+/**
+ * The sheet that goes to the boring machine: every size worked out from the held piston, the
+ * passes, the hone stock and the ring gap to check, with the cautions. Prints on one page.
+ */
+@Component({
+  selector: 'app-bore-sheet-page',
+  imports: [
+    DatePipe,
+    LengthPipe,
+    MatButtonModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatInputModule,
+    MatProgressBarModule,
+    RouterLink,
+  ],
+  templateUrl: './bore-sheet-page.html',
+  styleUrl: './bore-sheet-page.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class BoreSheetPage {
+  private readonly api = inject(JobsApi);
+  private readonly notifier = inject(Notifier);
+  private readonly session = inject(Session);
+
+  readonly id = input.required<string>();
+  readonly n = input.required<string>();
+  protected readonly cylinderNo = computed(() => Number(this.n()));
+  protected readonly unit = this.session.unit;
+  protected readonly other = computed((): LengthUnit => (this.unit() === 'mm' ? 'in' : 'mm'));
+  protected readonly printedAt = new Date();
+
+  private readonly reloads = signal(0);
+  protected readonly loading = signal(true);
+  private readonly loaded = toSignal(
+    toObservable(computed(() => ({ id: this.id(), n: this.cylinderNo(), r: this.reloads() }))).pipe(
+      tap(() => this.loading.set(true)),
+      switchMap(({ id, n }) =>
+        this.api.boreSheet(id, n).pipe(
+          map((sheet): Loaded => ({ ok: true, sheet })),
+          catchError((error: unknown) =>
+            of<Loaded>({ ok: false, message: apiErrorMessage(error) }),
+          ),
+        ),
+      ),
+      tap(() => this.loading.set(false)),
+    ),
+  );
+  protected readonly sheet = computed(() => {
+    const loaded = this.loaded();
+    return loaded?.ok ? loaded.sheet : null;
+  });
+  protected readonly loadError = computed(() => {
+    const loaded = this.loaded();
+    return loaded && !loaded.ok ? loaded.message : '';
+  });
+  protected readonly open = computed(() => {
+    const sheet = this.sheet();
+    return sheet ? isOpenState(sheet.job.state) : false;
+  });
+
+  /** Each pass with the depth of its cut (on the diameter), from the worn size onward. */
+  protected readonly passes = computed(() => {
+    const sheet = this.sheet();
+    if (!sheet) return [];
+    let previous = this.nm(sheet.largestWorn);
+    return sheet.passes.map((size, i) => {
+      const nm = this.nm(size);
+      const cut = nm - previous;
+      previous = nm;
+      return { number: i + 1, size, cut: toLengthJson(cut) };
+    });
+  });
+
+  protected readonly busy = signal(false);
+  protected readonly clearanceText = signal('');
+  protected readonly honedText = signal('');
+  protected readonly gapText = signal('');
+
+  protected print(): void {
+    window.print();
+  }
+
+  protected setClearance(text: string | null): void {
+    let clearance: string | null = null;
+    if (text !== null) {
+      const parsed = parseLength(text, { defaultUnit: this.unit(), allowZero: true });
+      if (!parsed.ok) {
+        this.notifier.error(`Clearance: ${parsed.message}`);
+        return;
+      }
+      clearance = exact(parsed.nm, parsed.unit);
+    }
+    this.save(
+      { clearance },
+      clearance === null ? "Clearance from the shop's policy." : 'Clearance set.',
+      () => this.clearanceText.set(''),
+    );
+  }
+
+  protected markCut(): void {
+    const sheet = this.sheet();
+    if (!sheet || this.busy()) return;
+    this.busy.set(true);
+    this.api.markCut(sheet.job.id, sheet.cylinder).subscribe({
+      next: () => {
+        this.busy.set(false);
+        this.notifier.success(`Cylinder ${sheet.cylinder} marked as cut.`);
+        this.reloads.update((n) => n + 1);
+      },
+      error: (error: unknown) => {
+        this.busy.set(false);
+        this.notifier.error(apiErrorMessage(error));
+      },
+    });
+  }
+
+  protected saveAfterHone(): void {
+    const changes: CylinderChanges = {};
+    for (const [key, text] of [
+      ['measuredAfterHone', this.honedText()],
+      ['ringGap', this.gapText()],
+    ] as const) {
+      if (!text.trim()) continue;
+      const parsed = parseLength(text, { defaultUnit: this.unit() });
+      if (!parsed.ok) {
+        this.notifier.error(parsed.message);
+        return;
+      }
+      changes[key] = exact(parsed.nm, parsed.unit);
+    }
+    if (Object.keys(changes).length === 0) return;
+    this.save(changes, 'Sizes after honing recorded.', () => {
+      this.honedText.set('');
+      this.gapText.set('');
+    });
+  }
+
+  private save(changes: CylinderChanges, success: string, after?: () => void): void {
+    const sheet = this.sheet();
+    if (!sheet || this.busy()) return;
+    this.busy.set(true);
+    this.api.updateCylinder(sheet.job.id, sheet.cylinder, changes).subscribe({
+      next: () => {
+        this.busy.set(false);
+        this.notifier.success(success);
+        after?.();
+        this.reloads.update((n) => n + 1);
+      },
+      error: (error: unknown) => {
+        this.busy.set(false);
+        this.notifier.error(apiErrorMessage(error));
+      },
+    });
+  }
+
+  private nm(value: LengthJson): number {
+    return mmToNm(value.mm);
+  }
+}
+
+/** A length as the API reads it back exactly, in the unit it was typed in. */
+function exact(nm: Nm, unit: LengthUnit): string {
+  return unit === 'in' ? `${formatIn(nm)} in` : `${formatMm(nm)} mm`;
+}

@@ -1,0 +1,329 @@
+import {
+  ChangeDetectionStrategy,
+  Component,
+  computed,
+  inject,
+  input,
+  linkedSignal,
+  signal,
+} from '@angular/core';
+import { toObservable, toSignal } from '@angular/core/rxjs-interop';
+import { MatButtonModule } from '@angular/material/button';
+import { MatDialog } from '@angular/material/dialog';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { RouterLink } from '@angular/router';
+import { catchError, map, of, switchMap, tap } from 'rxjs';
+
+import { assessBore, type BoreAssessment } from '../../../shared/bore-assessment';
+import { ReadingsError, type Axis, type Depth, type Reading } from '../../../shared/bore-wear';
+import {
+  AXIS_LABELS,
+  DEPTH_LABELS,
+  isOpenState,
+  READING_AXES,
+  READING_DEPTHS,
+  type HoldJson,
+  type JobJson,
+  type RecommendationJson,
+} from '../../../shared/jobs-api';
+import {
+  formatIn,
+  formatLength,
+  formatMm,
+  mmToNm,
+  parseLength,
+  type LengthUnit,
+} from '../../../shared/lengths';
+import { apiErrorMessage } from '../core/api-error';
+import { LengthPipe } from '../core/length-pipe';
+import { Notifier } from '../core/notifier';
+import { Session } from '../core/session';
+import { HoldDialog, type HoldDialogData } from './hold-dialog';
+import { JobsApi, type ReadingBody } from './jobs-api';
+
+type Loaded = { ok: true; job: JobJson } | { ok: false; message: string };
+type RecLoaded = { ok: true; rec: RecommendationJson } | { ok: false; message: string } | null;
+
+type CellKey = `${Depth}-${Axis}`;
+interface Cell {
+  key: CellKey;
+  depth: Depth;
+  axis: Axis;
+  label: string;
+}
+
+const CELLS: Cell[] = READING_DEPTHS.flatMap((depth) =>
+  READING_AXES.map((axis) => ({
+    key: `${depth}-${axis}` as CellKey,
+    depth,
+    axis,
+    label: `${DEPTH_LABELS[depth]}, ${AXIS_LABELS[axis].toLowerCase()}`,
+  })),
+);
+
+/** A bore beyond 500 mm is no cylinder Stepstock is for; the server uses the same limit. */
+const MAX_BORE_NM = 500_000_000;
+
+interface Preview {
+  errors: Partial<Record<CellKey, string>>;
+  readings: Reading[];
+  assessment: BoreAssessment | null;
+  problem: string;
+}
+
+/**
+ * One cylinder at the machine: type the six bore readings (a live preview computed by the same
+ * shared functions the server uses), take the suggested step, and set the measured piston aside.
+ */
+@Component({
+  selector: 'app-cylinder-page',
+  imports: [
+    LengthPipe,
+    MatButtonModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatInputModule,
+    MatProgressBarModule,
+    RouterLink,
+  ],
+  templateUrl: './cylinder-page.html',
+  styleUrl: './cylinder-page.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class CylinderPage {
+  private readonly api = inject(JobsApi);
+  private readonly dialog = inject(MatDialog);
+  private readonly notifier = inject(Notifier);
+  private readonly session = inject(Session);
+
+  /** From the route: /jobs/:id/cylinders/:n. */
+  readonly id = input.required<string>();
+  readonly n = input.required<string>();
+  protected readonly cylinderNo = computed(() => Number(this.n()));
+
+  protected readonly axes = READING_AXES;
+  protected readonly axisLabels = AXIS_LABELS;
+  protected readonly unit = this.session.unit;
+
+  private readonly reloads = signal(0);
+  protected readonly loading = signal(true);
+  private readonly loaded = toSignal(
+    toObservable(computed(() => ({ id: this.id(), reload: this.reloads() }))).pipe(
+      tap(() => this.loading.set(true)),
+      switchMap(({ id }) =>
+        this.api.get(id).pipe(
+          map((job): Loaded => ({ ok: true, job })),
+          catchError((error: unknown) =>
+            of<Loaded>({ ok: false, message: apiErrorMessage(error) }),
+          ),
+        ),
+      ),
+      tap(() => this.loading.set(false)),
+    ),
+  );
+  protected readonly job = computed(() => {
+    const loaded = this.loaded();
+    return loaded?.ok ? loaded.job : null;
+  });
+  protected readonly loadError = computed(() => {
+    const loaded = this.loaded();
+    return loaded && !loaded.ok ? loaded.message : '';
+  });
+  protected readonly cylinder = computed(
+    () => this.job()?.cylinderDetails.find((c) => c.n === this.cylinderNo()) ?? null,
+  );
+  protected readonly open = computed(() => {
+    const job = this.job();
+    return job ? isOpenState(job.state) : false;
+  });
+  protected readonly editable = computed(() => this.open() && !this.cylinder()?.cutAt);
+
+  /** The six fields, filled from the saved readings in the unit each was typed in. */
+  protected readonly cells = linkedSignal<Record<CellKey, string>>(() => {
+    const values = Object.fromEntries(CELLS.map((c) => [c.key, ''])) as Record<CellKey, string>;
+    const unit = this.unit();
+    for (const r of this.cylinder()?.readings ?? []) {
+      const text = r.unit === 'in' ? r.diameter.in : r.diameter.mm;
+      values[`${r.depth}-${r.axis}`] = r.unit === unit ? text : `${text} ${r.unit}`;
+    }
+    return values;
+  });
+  /** The grid: one row per depth, one field per axis. */
+  protected readonly rows = READING_DEPTHS.map((depth) => ({
+    depth,
+    label: DEPTH_LABELS[depth],
+    cells: CELLS.filter((c) => c.depth === depth),
+  }));
+
+  /** Recomputed at every keystroke with the server's own functions. */
+  protected readonly preview = computed((): Preview => {
+    const job = this.job();
+    const unit = this.unit();
+    const errors: Partial<Record<CellKey, string>> = {};
+    const readings: Reading[] = [];
+    for (const cell of CELLS) {
+      const text = this.cells()[cell.key].trim();
+      if (!text) continue;
+      const parsed = parseLength(text, { defaultUnit: unit, max: MAX_BORE_NM });
+      if (parsed.ok) readings.push({ depth: cell.depth, axis: cell.axis, nm: parsed.nm });
+      else errors[cell.key] = parsed.message;
+    }
+    if (!job || readings.length === 0 || Object.keys(errors).length > 0) {
+      return { errors, readings, assessment: null, problem: '' };
+    }
+    try {
+      const f = job.family;
+      const assessment = assessBore(
+        readings,
+        {
+          standardBoreNm: mmToNm(f.standardBore.mm),
+          cleanupNm: mmToNm(f.cleanup.mm),
+          maxOversizeNm: mmToNm(f.maxOversize.mm),
+          maxTaperNm: f.maxTaper ? mmToNm(f.maxTaper.mm) : null,
+          maxOutOfRoundNm: f.maxOutOfRound ? mmToNm(f.maxOutOfRound.mm) : null,
+        },
+        unit,
+      );
+      return { errors, readings, assessment, problem: '' };
+    } catch (e) {
+      const problem =
+        e instanceof ReadingsError ? e.message : 'These readings cannot be worked out.';
+      return { errors, readings, assessment: null, problem };
+    }
+  });
+
+  protected show(nm: number, unit: LengthUnit = this.unit()): string {
+    return formatLength(nm, unit);
+  }
+
+  private readonly recReloads = signal(0);
+  private readonly recLoaded = toSignal(
+    toObservable(
+      computed(() => ({
+        id: this.id(),
+        n: this.cylinderNo(),
+        measured: this.cylinder()?.measuredAt ?? null,
+        reload: this.recReloads(),
+      })),
+    ).pipe(
+      switchMap(({ id, n, measured }) =>
+        measured
+          ? this.api.recommendation(id, n).pipe(
+              map((rec): RecLoaded => ({ ok: true, rec })),
+              catchError((error: unknown) =>
+                of<RecLoaded>({ ok: false, message: apiErrorMessage(error) }),
+              ),
+            )
+          : of<RecLoaded>(null),
+      ),
+    ),
+    { initialValue: null },
+  );
+  protected readonly recommendation = computed(() => {
+    const loaded = this.recLoaded();
+    return loaded?.ok ? loaded.rec : null;
+  });
+  protected readonly recError = computed(() => {
+    const loaded = this.recLoaded();
+    return loaded && !loaded.ok ? loaded.message : '';
+  });
+  protected readonly suggested = computed(() => {
+    const rec = this.recommendation();
+    return rec?.choice ? (rec.steps.find((s) => s.stepId === rec.choice) ?? null) : null;
+  });
+
+  protected readonly busy = signal(false);
+
+  protected setCell(key: CellKey, value: string): void {
+    this.cells.update((cells) => ({ ...cells, [key]: value }));
+  }
+
+  protected saveReadings(): void {
+    const job = this.job();
+    const preview = this.preview();
+    if (!job || this.busy() || !preview.assessment) return;
+    const unit = this.unit();
+    const body: ReadingBody[] = [];
+    for (const cell of CELLS) {
+      const text = this.cells()[cell.key].trim();
+      if (!text) continue;
+      const parsed = parseLength(text, { defaultUnit: unit, max: MAX_BORE_NM });
+      if (!parsed.ok) return;
+      // Sent exactly as read, in the unit it was typed in.
+      const diameter =
+        parsed.unit === 'in' ? `${formatIn(parsed.nm)} in` : `${formatMm(parsed.nm)} mm`;
+      body.push({ depth: cell.depth, axis: cell.axis, diameter });
+    }
+    this.busy.set(true);
+    this.api.saveReadings(job.id, this.cylinderNo(), body).subscribe({
+      next: () => {
+        this.busy.set(false);
+        this.notifier.success(`Readings for cylinder ${this.cylinderNo()} saved.`);
+        this.reloads.update((n) => n + 1);
+        this.recReloads.update((n) => n + 1);
+      },
+      error: (error: unknown) => {
+        this.busy.set(false);
+        this.notifier.error(apiErrorMessage(error));
+      },
+    });
+  }
+
+  protected chooseStep(stepId: string, label: string): void {
+    const job = this.job();
+    if (!job || this.busy()) return;
+    this.busy.set(true);
+    this.api.updateCylinder(job.id, this.cylinderNo(), { stepId }).subscribe({
+      next: () => {
+        this.busy.set(false);
+        this.notifier.success(`Cylinder ${this.cylinderNo()} goes to ${label}.`);
+        this.reloads.update((n) => n + 1);
+        this.recReloads.update((n) => n + 1);
+      },
+      error: (error: unknown) => {
+        this.busy.set(false);
+        this.notifier.error(apiErrorMessage(error));
+      },
+    });
+  }
+
+  protected openHold(): void {
+    const job = this.job();
+    if (!job) return;
+    this.dialog
+      .open<HoldDialog, HoldDialogData, HoldJson>(HoldDialog, {
+        data: { jobId: job.id, jobNumber: job.number, cylinder: this.cylinderNo() },
+        autoFocus: 'dialog',
+      })
+      .afterClosed()
+      .subscribe((hold) => {
+        if (hold) {
+          this.notifier.success(
+            `${hold.unitLabel ?? hold.sku} is held for cylinder ${hold.cylinder}.`,
+          );
+          this.reloads.update((n) => n + 1);
+          this.recReloads.update((n) => n + 1);
+        }
+      });
+  }
+
+  protected release(hold: HoldJson): void {
+    if (this.busy()) return;
+    this.busy.set(true);
+    this.api.release(hold.id).subscribe({
+      next: () => {
+        this.busy.set(false);
+        this.notifier.success(`${hold.unitLabel ?? hold.sku} is back on the shelf.`);
+        this.reloads.update((n) => n + 1);
+        this.recReloads.update((n) => n + 1);
+      },
+      error: (error: unknown) => {
+        this.busy.set(false);
+        this.notifier.error(apiErrorMessage(error));
+      },
+    });
+  }
+}

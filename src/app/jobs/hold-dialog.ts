@@ -1,0 +1,151 @@
+import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
+import { toSignal } from '@angular/core/rxjs-interop';
+import { MatButtonModule } from '@angular/material/button';
+import { MatCheckboxModule } from '@angular/material/checkbox';
+import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { catchError, map, of } from 'rxjs';
+
+import type { HoldJson, ProposalJson, ProposedUnitJson } from '../../../shared/jobs-api';
+import { apiErrorBody, apiErrorMessage } from '../core/api-error';
+import { LengthPipe } from '../core/length-pipe';
+import { JobsApi } from './jobs-api';
+
+export interface HoldDialogData {
+  jobId: string;
+  jobNumber: string;
+  cylinder: number;
+}
+
+type Loaded = { ok: true; proposal: ProposalJson } | { ok: false; message: string };
+
+/**
+ * Sets a measured piston aside for one cylinder: Stepstock proposes the free one nearest the
+ * step's size; a scanned or typed label picks another. A ring set of the step goes with it.
+ * Closes with the piston's hold.
+ */
+@Component({
+  selector: 'app-hold-dialog',
+  imports: [
+    LengthPipe,
+    MatButtonModule,
+    MatCheckboxModule,
+    MatDialogModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatInputModule,
+    MatProgressBarModule,
+  ],
+  templateUrl: './hold-dialog.html',
+  styleUrl: './hold-dialog.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class HoldDialog {
+  private readonly api = inject(JobsApi);
+  private readonly dialogRef = inject<MatDialogRef<HoldDialog, HoldJson>>(MatDialogRef);
+  protected readonly data = inject<HoldDialogData>(MAT_DIALOG_DATA);
+
+  private readonly loaded = toSignal(
+    this.api.proposal(this.data.jobId, this.data.cylinder).pipe(
+      map((proposal): Loaded => ({ ok: true, proposal })),
+      catchError((error: unknown) => of<Loaded>({ ok: false, message: apiErrorMessage(error) })),
+    ),
+  );
+  protected readonly proposal = computed(() => {
+    const loaded = this.loaded();
+    return loaded?.ok ? loaded.proposal : null;
+  });
+  protected readonly loadError = computed(() => {
+    const loaded = this.loaded();
+    return loaded && !loaded.ok ? loaded.message : '';
+  });
+
+  /** The piston about to be held: the proposal, or one picked from the list or by label. */
+  protected readonly picked = signal<ProposedUnitJson | null>(null);
+  protected readonly choice = computed(() => this.picked() ?? this.proposal()?.unit ?? null);
+  protected readonly ringSet = computed(
+    () => this.proposal()?.rings.find((r) => r.free > 0) ?? null,
+  );
+  protected readonly withRings = signal(true);
+
+  protected readonly label = signal('');
+  protected readonly busy = signal(false);
+  protected readonly problem = signal('');
+
+  protected pick(unit: ProposedUnitJson): void {
+    this.picked.set(unit);
+    this.problem.set('');
+  }
+
+  /** A label from the scanner (it types the label and Enter) or the keyboard. */
+  protected findLabel(): void {
+    const label = this.label().trim();
+    if (!label || this.busy()) return;
+    this.busy.set(true);
+    this.problem.set('');
+    this.api.unitByLabel(label).subscribe({
+      next: (unit) => {
+        this.busy.set(false);
+        const step = this.proposal()?.step;
+        if (unit.status !== 'free') {
+          this.problem.set(`${unit.label} is not free (it is ${unit.status}).`);
+        } else if (!unit.skirt) {
+          this.problem.set(`${unit.label} has not been measured yet; measure its skirt first.`);
+        } else if (step && unit.stepId !== step.id) {
+          this.problem.set(
+            `${unit.label} is a ${unit.stepLabel ?? 'different'} piston; this cylinder goes to ${step.label}.`,
+          );
+        } else {
+          this.pick({
+            id: unit.id,
+            label: unit.label,
+            partId: unit.partId,
+            sku: unit.sku,
+            skirt: unit.skirt,
+            bin: unit.bin,
+            stepLabel: unit.stepLabel,
+          });
+        }
+      },
+      error: (error: unknown) => {
+        this.busy.set(false);
+        this.problem.set(apiErrorMessage(error));
+      },
+    });
+  }
+
+  protected hold(): void {
+    const unit = this.choice();
+    if (!unit || this.busy()) return;
+    this.busy.set(true);
+    this.problem.set('');
+    const cylinder = this.data.cylinder;
+    const piston = this.api.hold(this.data.jobId, { cylinder, unitId: unit.id });
+    const rings = this.ringSet();
+    piston.subscribe({
+      next: (held) => {
+        if (!rings || !this.withRings()) {
+          this.dialogRef.close(held);
+          return;
+        }
+        // The piston is what matters; a ring set taken meanwhile is seen on the cylinder page.
+        this.api.hold(this.data.jobId, { cylinder, partId: rings.partId, quantity: 1 }).subscribe({
+          next: () => this.dialogRef.close(held),
+          error: () => this.dialogRef.close(held),
+        });
+      },
+      error: (error: unknown) => {
+        this.busy.set(false);
+        const body = apiErrorBody(error) as {
+          error: { nextBest?: ProposedUnitJson | null };
+        } | null;
+        const next = body?.error.nextBest ?? null;
+        this.problem.set(apiErrorMessage(error));
+        if (next) this.picked.set(next);
+      },
+    });
+  }
+}

@@ -1,0 +1,145 @@
+import { DatePipe, NgTemplateOutlet } from '@angular/common';
+import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
+import { toObservable, toSignal } from '@angular/core/rxjs-interop';
+import { MatButtonModule } from '@angular/material/button';
+import { MatButtonToggleModule } from '@angular/material/button-toggle';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatSlideToggleModule } from '@angular/material/slide-toggle';
+import { RouterLink } from '@angular/router';
+import { catchError, debounceTime, distinctUntilChanged, map, of, switchMap, tap } from 'rxjs';
+
+import {
+  JOB_STATE_HINTS,
+  JOB_STATE_LABELS,
+  OPEN_STATES,
+  type JobListItemJson,
+  type Page,
+} from '../../../shared/jobs-api';
+import { apiErrorMessage } from '../core/api-error';
+import { Session } from '../core/session';
+import { JobsApi, type JobListQuery } from './jobs-api';
+
+type Loaded = { ok: true; page: Page<JobListItemJson> } | { ok: false; message: string };
+
+/** Enough for every open job a shop has on the go; more than this shows a note to search. */
+const BOARD_SIZE = 300;
+
+/**
+ * The job bench: every open job in a column for its stage, due date first, with the jobs that wait
+ * for parts marked. Closed jobs are one switch away.
+ */
+@Component({
+  selector: 'app-job-board',
+  imports: [
+    DatePipe,
+    MatButtonModule,
+    MatButtonToggleModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatInputModule,
+    MatProgressBarModule,
+    MatSlideToggleModule,
+    NgTemplateOutlet,
+    RouterLink,
+  ],
+  templateUrl: './job-board.html',
+  styleUrl: './job-board.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class JobBoard {
+  private readonly api = inject(JobsApi);
+  private readonly session = inject(Session);
+
+  protected readonly labels = JOB_STATE_LABELS;
+  protected readonly hints = JOB_STATE_HINTS;
+  protected readonly canTakeIn = computed(() => {
+    const role = this.session.user()?.role;
+    return role === 'owner' || role === 'machinist' || role === 'staff';
+  });
+
+  protected readonly text = signal('');
+  protected readonly show = signal<'open' | 'closed'>('open');
+  protected readonly waitingOnly = signal(false);
+  private readonly reloads = signal(0);
+
+  private readonly q = toSignal(
+    toObservable(this.text).pipe(debounceTime(250), distinctUntilChanged()),
+    { initialValue: '' },
+  );
+
+  private readonly query = computed(
+    () =>
+      ({
+        state: this.show(),
+        q: this.q().trim() || undefined,
+        waiting: this.show() === 'open' && this.waitingOnly() ? true : undefined,
+        sort: this.show() === 'open' ? 'due' : 'created',
+        dir: this.show() === 'open' ? 'asc' : 'desc',
+        page: 1,
+        pageSize: BOARD_SIZE,
+        reload: this.reloads(),
+      }) satisfies JobListQuery & { reload: number },
+  );
+
+  protected readonly loading = signal(true);
+  private readonly loaded = toSignal(
+    toObservable(this.query).pipe(
+      tap(() => this.loading.set(true)),
+      switchMap(({ reload: _reload, ...query }) =>
+        this.api.list(query).pipe(
+          map((page): Loaded => ({ ok: true, page })),
+          catchError((error: unknown) =>
+            of<Loaded>({ ok: false, message: apiErrorMessage(error) }),
+          ),
+        ),
+      ),
+      tap(() => this.loading.set(false)),
+    ),
+  );
+
+  protected readonly jobs = computed(() => {
+    const loaded = this.loaded();
+    return loaded?.ok ? loaded.page.items : [];
+  });
+  protected readonly total = computed(() => {
+    const loaded = this.loaded();
+    return loaded?.ok ? loaded.page.total : 0;
+  });
+  protected readonly loadError = computed(() => {
+    const loaded = this.loaded();
+    return loaded && !loaded.ok ? loaded.message : '';
+  });
+
+  /** One column per open stage, each keeping the server's order (due date first). */
+  protected readonly columns = computed(() =>
+    OPEN_STATES.map((state) => ({
+      state,
+      jobs: this.jobs().filter((job) => job.state === state),
+    })),
+  );
+  protected readonly waitingCount = computed(
+    () => this.jobs().filter((job) => job.waitingForParts).length,
+  );
+
+  protected readonly summary = computed(() => {
+    const total = this.total();
+    const s = total === 1 ? '' : 's';
+    const head =
+      this.show() === 'open'
+        ? `${total} open job${s}${this.waitingCount() > 0 ? `, ${this.waitingCount()} waiting for parts` : ''}.`
+        : `${total} closed job${s}, newest first.`;
+    const shown = this.jobs().length;
+    return total > shown ? `${head} Showing the first ${shown}: search to narrow it.` : head;
+  });
+
+  protected stateLabel(job: JobListItemJson): string {
+    return JOB_STATE_LABELS[job.state];
+  }
+
+  protected reload(): void {
+    this.reloads.update((n) => n + 1);
+  }
+}

@@ -1,0 +1,210 @@
+import { DatePipe } from '@angular/common';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  computed,
+  inject,
+  input,
+  linkedSignal,
+  signal,
+} from '@angular/core';
+import { toObservable, toSignal } from '@angular/core/rxjs-interop';
+import { MatButtonModule } from '@angular/material/button';
+import { MatDialog } from '@angular/material/dialog';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatSlideToggleModule } from '@angular/material/slide-toggle';
+import { RouterLink } from '@angular/router';
+import { catchError, map, of, switchMap, tap } from 'rxjs';
+
+import {
+  isOpenState,
+  JOB_STATE_HINTS,
+  JOB_STATE_LABELS,
+  MAX_PHOTO_BYTES,
+  OPEN_STATES,
+  PHOTO_TYPES,
+  type JobJson,
+  type OpenState,
+} from '../../../shared/jobs-api';
+import { apiErrorMessage } from '../core/api-error';
+import { LengthPipe } from '../core/length-pipe';
+import { Notifier } from '../core/notifier';
+import { Session } from '../core/session';
+import { JobCloseDialog, type JobCloseData } from './job-close-dialog';
+import { JobsApi } from './jobs-api';
+import { makeThumbnail } from './make-thumbnail';
+
+type Loaded = { ok: true; job: JobJson } | { ok: false; message: string };
+
+/** One job: the customer, each cylinder's state, its photos and history, and what to do next. */
+@Component({
+  selector: 'app-job-page',
+  imports: [
+    DatePipe,
+    LengthPipe,
+    MatButtonModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatInputModule,
+    MatProgressBarModule,
+    MatSlideToggleModule,
+    RouterLink,
+  ],
+  templateUrl: './job-page.html',
+  styleUrl: './job-page.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class JobPage {
+  private readonly api = inject(JobsApi);
+  private readonly dialog = inject(MatDialog);
+  private readonly notifier = inject(Notifier);
+  private readonly session = inject(Session);
+
+  /** From the route: /jobs/:id. */
+  readonly id = input.required<string>();
+
+  protected readonly labels = JOB_STATE_LABELS;
+  protected readonly hints = JOB_STATE_HINTS;
+  protected readonly openStates = OPEN_STATES;
+  protected readonly photoTypes = PHOTO_TYPES.join(',');
+
+  private readonly role = computed(() => this.session.user()?.role);
+  protected readonly machine = computed(
+    () => this.role() === 'owner' || this.role() === 'machinist',
+  );
+  protected readonly counter = computed(() => this.machine() || this.role() === 'staff');
+
+  private readonly reloads = signal(0);
+  protected readonly loading = signal(true);
+  private readonly loaded = toSignal(
+    toObservable(computed(() => ({ id: this.id(), reload: this.reloads() }))).pipe(
+      tap(() => this.loading.set(true)),
+      switchMap(({ id }) =>
+        this.api.get(id).pipe(
+          map((job): Loaded => ({ ok: true, job })),
+          catchError((error: unknown) =>
+            of<Loaded>({ ok: false, message: apiErrorMessage(error) }),
+          ),
+        ),
+      ),
+      tap(() => this.loading.set(false)),
+    ),
+  );
+  /** The job on screen; an action's answer replaces it without another request. */
+  protected readonly job = linkedSignal(() => {
+    const loaded = this.loaded();
+    return loaded?.ok ? loaded.job : null;
+  });
+  protected readonly loadError = computed(() => {
+    const loaded = this.loaded();
+    return loaded && !loaded.ok ? loaded.message : '';
+  });
+  protected readonly open = computed(() => {
+    const job = this.job();
+    return job ? isOpenState(job.state) : false;
+  });
+  protected readonly nextState = computed((): OpenState | null => {
+    const job = this.job();
+    if (!job || !isOpenState(job.state)) return null;
+    const index = OPEN_STATES.indexOf(job.state);
+    return OPEN_STATES[index + 1] ?? null;
+  });
+
+  protected readonly busy = signal(false);
+  protected readonly uploading = signal(false);
+  protected readonly noteText = signal('');
+
+  protected reload(): void {
+    this.reloads.update((n) => n + 1);
+  }
+
+  protected moveTo(state: OpenState): void {
+    const job = this.job();
+    if (!job || this.busy()) return;
+    this.run(
+      this.api.update(job.id, { state }),
+      `${job.number} is now ${JOB_STATE_LABELS[state].toLowerCase()}.`,
+    );
+  }
+
+  protected setNotify(notifyCustomer: boolean): void {
+    const job = this.job();
+    if (!job) return;
+    this.run(
+      this.api.update(job.id, { notifyCustomer }),
+      notifyCustomer
+        ? 'The customer will be told when it is ready.'
+        : 'The customer will not be contacted.',
+    );
+  }
+
+  protected close(mode: 'collect' | 'cancel'): void {
+    const job = this.job();
+    if (!job) return;
+    this.dialog
+      .open<JobCloseDialog, JobCloseData, boolean>(JobCloseDialog, { data: { job, mode } })
+      .afterClosed()
+      .subscribe((confirmed) => {
+        if (!confirmed) return;
+        this.run(
+          mode === 'collect' ? this.api.collect(job.id) : this.api.cancel(job.id),
+          mode === 'collect' ? `${job.number} handed back.` : `${job.number} called off.`,
+        );
+      });
+  }
+
+  protected addNote(): void {
+    const job = this.job();
+    const text = this.noteText().trim();
+    if (!job || !text) return;
+    this.run(this.api.addNote(job.id, text), 'Note added.', () => this.noteText.set(''));
+  }
+
+  protected async upload(event: Event): Promise<void> {
+    const job = this.job();
+    const target = event.target as HTMLInputElement;
+    const file = target.files?.[0];
+    target.value = '';
+    if (!job || !file) return;
+    if (file.size > MAX_PHOTO_BYTES) {
+      this.notifier.error(`${file.name} is larger than 10 MB; take a smaller photo.`);
+      return;
+    }
+    this.uploading.set(true);
+    const thumbnail = await makeThumbnail(file);
+    this.api.uploadPhoto(job.id, file, thumbnail).subscribe({
+      next: () => {
+        this.uploading.set(false);
+        this.notifier.success('Photo added.');
+        this.reload();
+      },
+      error: (error: unknown) => {
+        this.uploading.set(false);
+        this.notifier.error(apiErrorMessage(error));
+      },
+    });
+  }
+
+  private run(
+    request: import('rxjs').Observable<JobJson>,
+    success: string,
+    after?: () => void,
+  ): void {
+    this.busy.set(true);
+    request.subscribe({
+      next: (job) => {
+        this.busy.set(false);
+        this.job.set(job);
+        this.notifier.success(success);
+        after?.();
+      },
+      error: (error: unknown) => {
+        this.busy.set(false);
+        this.notifier.error(apiErrorMessage(error));
+      },
+    });
+  }
+}

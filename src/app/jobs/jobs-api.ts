@@ -1,0 +1,172 @@
+import { HttpClient, HttpParams } from '@angular/common/http';
+import { inject, Injectable } from '@angular/core';
+import { map, Observable } from 'rxjs';
+
+import type { FamilyJson } from '../../../shared/catalog-api';
+import type {
+  BoreSheetJson,
+  CylinderJson,
+  HoldJson,
+  JobJson,
+  JobListItemJson,
+  JobState,
+  OpenState,
+  Page,
+  PhotoJson,
+  ProposalJson,
+  ReadingsResultJson,
+  RecommendationJson,
+} from '../../../shared/jobs-api';
+import type { UnitJson } from '../../../shared/stock-api';
+
+export interface JobListQuery {
+  /** 'open', 'closed', 'all' or one state. */
+  state: 'open' | 'closed' | 'all' | JobState;
+  q?: string;
+  waiting?: boolean;
+  sort?: 'due' | 'number' | 'customer' | 'created' | 'state';
+  dir?: 'asc' | 'desc';
+  page: number;
+  pageSize: number;
+}
+
+/** A new job as the intake form sends it. */
+export interface NewJob {
+  customerName: string;
+  customerPhone?: string | null;
+  customerEmail?: string | null;
+  familyId: string;
+  cylinders: number;
+  askedFor?: string;
+  dueDate?: string | null;
+  notes?: string;
+  notifyCustomer?: boolean;
+}
+
+export interface JobChanges {
+  customerName?: string;
+  customerPhone?: string | null;
+  customerEmail?: string | null;
+  askedFor?: string;
+  dueDate?: string | null;
+  notes?: string;
+  notifyCustomer?: boolean;
+  state?: OpenState;
+}
+
+/** One bore-gauge reading, the diameter as typed with its unit ("2.5260 in"). */
+export interface ReadingBody {
+  depth: 'top' | 'middle' | 'bottom';
+  axis: 'pin' | 'thrust';
+  diameter: string;
+}
+
+export interface CylinderChanges {
+  stepId?: string | null;
+  clearance?: string | null;
+  measuredAfterHone?: string | null;
+  ringGap?: string | null;
+}
+
+export type HoldBody =
+  { cylinder: number; unitId: string } | { cylinder: number; partId: string; quantity: number };
+
+/** The jobs feature's one door to the server. */
+@Injectable({ providedIn: 'root' })
+export class JobsApi {
+  private readonly http = inject(HttpClient);
+
+  list(query: JobListQuery): Observable<Page<JobListItemJson>> {
+    let params = new HttpParams()
+      .set('state', query.state)
+      .set('page', query.page)
+      .set('pageSize', query.pageSize);
+    if (query.q) params = params.set('q', query.q);
+    if (query.waiting) params = params.set('waiting', 'true');
+    if (query.sort) params = params.set('sort', query.sort);
+    if (query.dir) params = params.set('dir', query.dir);
+    return this.http.get<Page<JobListItemJson>>('/api/jobs', { params });
+  }
+
+  get(id: string): Observable<JobJson> {
+    return this.http.get<JobJson>(`/api/jobs/${encodeURIComponent(id)}`);
+  }
+
+  create(job: NewJob): Observable<JobJson> {
+    return this.http.post<JobJson>('/api/jobs', job);
+  }
+
+  update(id: string, changes: JobChanges): Observable<JobJson> {
+    return this.http.patch<JobJson>(`/api/jobs/${encodeURIComponent(id)}`, changes);
+  }
+
+  addNote(id: string, text: string): Observable<JobJson> {
+    return this.http.post<JobJson>(`/api/jobs/${encodeURIComponent(id)}/notes`, { text });
+  }
+
+  collect(id: string): Observable<JobJson> {
+    return this.http.post<JobJson>(`/api/jobs/${encodeURIComponent(id)}/collect`, {});
+  }
+
+  cancel(id: string): Observable<JobJson> {
+    return this.http.post<JobJson>(`/api/jobs/${encodeURIComponent(id)}/cancel`, {});
+  }
+
+  saveReadings(id: string, n: number, readings: ReadingBody[]): Observable<ReadingsResultJson> {
+    return this.http.put<ReadingsResultJson>(`${this.cylinder(id, n)}/readings`, { readings });
+  }
+
+  updateCylinder(id: string, n: number, changes: CylinderChanges): Observable<CylinderJson> {
+    return this.http.patch<CylinderJson>(this.cylinder(id, n), changes);
+  }
+
+  recommendation(id: string, n: number): Observable<RecommendationJson> {
+    return this.http.get<RecommendationJson>(`${this.cylinder(id, n)}/recommendation`);
+  }
+
+  proposal(id: string, n: number): Observable<ProposalJson> {
+    return this.http.get<ProposalJson>(`${this.cylinder(id, n)}/proposal`);
+  }
+
+  boreSheet(id: string, n: number): Observable<BoreSheetJson> {
+    return this.http.get<BoreSheetJson>(`${this.cylinder(id, n)}/bore-sheet`);
+  }
+
+  markCut(id: string, n: number): Observable<CylinderJson> {
+    return this.http.post<CylinderJson>(`${this.cylinder(id, n)}/cut`, {});
+  }
+
+  hold(id: string, body: HoldBody): Observable<HoldJson> {
+    return this.http.post<HoldJson>(`/api/jobs/${encodeURIComponent(id)}/holds`, body);
+  }
+
+  release(holdId: string): Observable<void> {
+    return this.http.delete<void>(`/api/holds/${encodeURIComponent(holdId)}`);
+  }
+
+  uploadPhoto(id: string, photo: File, thumbnail: Blob | null): Observable<PhotoJson> {
+    const form = new FormData();
+    form.append('photo', photo, photo.name);
+    if (thumbnail) form.append('thumbnail', thumbnail, 'thumbnail.webp');
+    return this.http.post<PhotoJson>(`/api/jobs/${encodeURIComponent(id)}/photos`, form);
+  }
+
+  /** Engine families a job can be taken in for. */
+  families(): Observable<FamilyJson[]> {
+    const params = new HttpParams().set('active', 'true').set('pageSize', 500).set('sort', 'code');
+    return this.http
+      .get<Page<FamilyJson>>('/api/engine-families', { params })
+      .pipe(map((page) => page.items));
+  }
+
+  /** A piston found by the label on its bag, as a scanner types it. */
+  unitByLabel(label: string): Observable<UnitJson> {
+    return this.http.get<UnitJson>(
+      `/api/stock/units/by-label/${encodeURIComponent(label.trim().toUpperCase())}`,
+    );
+  }
+
+  private cylinder(id: string, n: number): string {
+    return `/api/jobs/${encodeURIComponent(id)}/cylinders/${n}`;
+  }
+}
