@@ -39,6 +39,10 @@ export const routes: Routes = [
         loadChildren: () => import('./stock/stock.routes').then((m) => m.stockRoutes),
       },
       {
+        path: 'jobs',
+        loadChildren: () => import('./jobs/jobs.routes').then((m) => m.jobsRoutes),
+      },
+      {
         path: 'account',
         loadChildren: () => import('./account/account.routes').then((m) => m.accountRoutes),
       },

@@ -76,6 +76,20 @@ export const NAV_ITEMS: NavItem[] = [
     hint: 'Every receipt, count, move and write-off, with who and why.',
   },
   {
+    path: '/jobs',
+    label: 'Job bench',
+    icon: 'view_kanban',
+    roles: [...ROLES],
+    hint: 'Every open job by stage, due date first, and which are waiting for parts.',
+  },
+  {
+    path: '/jobs/new',
+    label: 'Take in a job',
+    icon: 'add_box',
+    roles: ['owner', 'machinist', 'staff'],
+    hint: 'Book a cylinder in: customer, engine, cylinders, what they want and by when.',
+  },
+  {
     path: '/account',
     label: 'My account',
     icon: 'manage_accounts',
