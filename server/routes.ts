@@ -11,6 +11,9 @@ import { registerCatalogRoutes } from './catalog/catalog-routes';
 import { registerStockRoutes } from './stock/stock-routes';
 import { registerJobsRoutes } from './jobs/jobs-routes';
 import { registerInsightsRoutes } from './insights/insights-routes';
+import { registerSuppliersRoutes } from './suppliers/suppliers-routes';
+import { registerImportsRoutes } from './imports/imports-routes';
+import { registerExportsRoutes } from './exports/exports-routes';
 
 export function registerAllRoutes(api: Router): void {
   registerSessionRoutes(api);
@@ -23,4 +26,7 @@ export function registerAllRoutes(api: Router): void {
   registerStockRoutes(api);
   registerJobsRoutes(api);
   registerInsightsRoutes(api);
+  registerSuppliersRoutes(api);
+  registerImportsRoutes(api);
+  registerExportsRoutes(api);
 }

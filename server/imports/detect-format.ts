@@ -263,12 +263,13 @@ interface DelimiterChoice {
 }
 
 /**
- * The delimiter is the one that splits the most lines into the same number of columns (more than one).
- * A decimal comma in a semicolon list splits lines too, but the header line has none, so the semicolon
- * wins by at least that line; ties go to the wider split.
+ * The delimiter and the column count are the pair that has a header line (a line of labels) and splits
+ * the most lines into that many columns (more than one). A decimal comma in a semicolon list splits
+ * lines too, but no line of labels comes out of it; ragged rows may outnumber the good ones, but the
+ * header tells the real width. Ties go to the wider split.
  */
 function chooseDelimiter(text: string): DelimiterChoice {
-  let best: (DelimiterChoice & { score: number }) | null = null;
+  let best: (DelimiterChoice & { key: number[] }) | null = null;
   for (const delimiter of DELIMITERS) {
     const records = splitRecords(text, delimiter);
     const counts = new Map<number, number>();
@@ -277,17 +278,10 @@ function chooseDelimiter(text: string): DelimiterChoice {
         counts.set(r.fields.length, (counts.get(r.fields.length) ?? 0) + 1);
       }
     }
-    let width = 0;
-    let score = 0;
-    for (const [w, n] of counts) {
-      if (n > score || (n === score && w > width)) {
-        width = w;
-        score = n;
-      }
-    }
-    if (score === 0) continue;
-    if (!best || score > best.score || (score === best.score && width > best.width)) {
-      best = { delimiter, records, width, score };
+    for (const [width, lines] of counts) {
+      const labelled = records.some((r) => r.fields.length === width && looksLikeLabels(r));
+      const key = [labelled ? 1 : 0, lines, width];
+      if (!best || compareKeys(key, best.key) > 0) best = { delimiter, records, width, key };
     }
   }
   if (!best) {
@@ -299,6 +293,11 @@ function chooseDelimiter(text: string): DelimiterChoice {
     );
   }
   return best;
+}
+
+function compareKeys(a: number[], b: number[]): number {
+  for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return a[i] - b[i];
+  return 0;
 }
 
 function isBlank(r: HeadRecord): boolean {

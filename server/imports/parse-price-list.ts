@@ -14,7 +14,8 @@ export type { PriceListRow, RowIssue } from './validate-row';
 
 export type PriceListItem =
   | { kind: 'row'; row: PriceListRow }
-  | { kind: 'error'; issue: RowIssue }
+  /** `sku` is the row's SKU when it could be read: such a SKU is not missing from the list. */
+  | { kind: 'error'; issue: RowIssue; sku?: string }
   | { kind: 'warning'; issue: RowIssue }
   /** A row given earlier must not be used after all: its SKU turned up again further down. */
   | { kind: 'retract'; line: number; sku: string };
@@ -100,8 +101,10 @@ export async function* readPriceList(
         record,
       );
       lastCompleteLine = end;
+      const sku = columns.sku === null ? '' : (record[columns.sku] ?? '').trim();
       pending.push({
         kind: 'error',
+        ...(sku ? { sku } : {}),
         issue: {
           line: start,
           message:
@@ -162,6 +165,7 @@ export async function* readPriceList(
         counts.errors++;
         yield {
           kind: 'error',
+          sku,
           issue: {
             line,
             field: 'sku',
@@ -174,6 +178,7 @@ export async function* readPriceList(
           yield { kind: 'retract', line: earlier.line, sku };
           yield {
             kind: 'error',
+            sku,
             issue: {
               line: earlier.line,
               field: 'sku',
@@ -190,7 +195,9 @@ export async function* readPriceList(
         yield { kind: 'row', row: result.row };
       } else {
         counts.errors++;
-        for (const error of result.errors) yield { kind: 'error', issue: error };
+        for (const error of result.errors) {
+          yield { kind: 'error', issue: error, ...(sku ? { sku } : {}) };
+        }
       }
     }
   } finally {
@@ -211,6 +218,8 @@ export interface PriceListBatch {
   errors: RowIssue[];
   warnings: RowIssue[];
   retracted: { line: number; sku: string }[];
+  /** SKUs of rows with errors (repeated when a row has several errors). */
+  skippedSkus: string[];
 }
 
 /** The same stream in batches, for callers that write rows to the database a batch at a time. */
@@ -223,8 +232,10 @@ export async function* readPriceListBatches(
   let batch = emptyBatch();
   for await (const item of readPriceList(path, options, counts)) {
     if (item.kind === 'row') batch.rows.push(item.row);
-    else if (item.kind === 'error') batch.errors.push(item.issue);
-    else if (item.kind === 'warning') batch.warnings.push(item.issue);
+    else if (item.kind === 'error') {
+      batch.errors.push(item.issue);
+      if (item.sku) batch.skippedSkus.push(item.sku);
+    } else if (item.kind === 'warning') batch.warnings.push(item.issue);
     else batch.retracted.push({ line: item.line, sku: item.sku });
     if (batch.rows.length >= batchSize) {
       yield batch;
@@ -240,7 +251,7 @@ export async function* readPriceListBatches(
 }
 
 function emptyBatch(): PriceListBatch {
-  return { rows: [], errors: [], warnings: [], retracted: [] };
+  return { rows: [], errors: [], warnings: [], retracted: [], skippedSkus: [] };
 }
 
 /** Line breaks inside a record's quoted fields (CRLF counted once, and apart as `crlf`). */

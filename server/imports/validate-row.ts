@@ -19,7 +19,7 @@ export interface PriceListRow {
   currency: string;
   available: number | null;
   leadDays: number | null;
-  /** The GTIN's digits as written (8, 12, 13 or 14), check digit verified; or null. */
+  /** The GTIN in its 14-digit form (zeros on the left), check digit verified; or null. */
   gtin: string | null;
 }
 
@@ -437,6 +437,6 @@ function readGtin(raw: string, fail: (m: string) => void): string | null {
     fail(`The GTIN "${shown}": ${problem}`);
     return null;
   }
-  // Kept as the digits written, like the catalog's GTINs; comparisons go through the 14-digit form.
-  return normalizeGtin(shown) === null ? null : shown.replace(/[\s-]/g, '');
+  // The 14-digit form, as the catalog stores GTINs, so an EAN-13 and a UPC-A of one box compare equal.
+  return normalizeGtin(shown);
 }

@@ -87,6 +87,24 @@ const EXPECTED: Record<string, Access> = {
   'GET /api/insights/exposure.csv': ['owner', 'buyer'],
   'GET /api/insights/supplier-reliability': ['owner', 'buyer'],
   'GET /api/insights/supplier-reliability.csv': ['owner', 'buyer'],
+  // Suppliers: buyer and owner keep them and map their items; staff, who bring price lists in, read.
+  // Price-list imports: staff, buyer, owner. Exports: the ladder for everyone, the rest for the counter.
+  'GET /api/suppliers': ['owner', 'buyer', 'staff'],
+  'POST /api/suppliers': ['owner', 'buyer'],
+  'GET /api/suppliers/:id': ['owner', 'buyer', 'staff'],
+  'PATCH /api/suppliers/:id': ['owner', 'buyer'],
+  'GET /api/suppliers/:id/items': ['owner', 'buyer', 'staff'],
+  'GET /api/suppliers/:id/items/:itemId/prices': ['owner', 'buyer', 'staff'],
+  'GET /api/supplier-items/unmapped': ['owner', 'buyer', 'staff'],
+  'PATCH /api/supplier-items/:id': ['owner', 'buyer'],
+  'POST /api/suppliers/:id/price-lists': ['owner', 'buyer', 'staff'],
+  'POST /api/price-list-imports/:id/commit': ['owner', 'buyer', 'staff'],
+  'GET /api/price-list-imports': ['owner', 'buyer', 'staff'],
+  'GET /api/price-list-imports/progress/:token': ['owner', 'buyer', 'staff'],
+  'GET /api/price-list-imports/:id': ['owner', 'buyer', 'staff'],
+  'GET /api/exports/stock.csv': ['owner', 'buyer', 'staff'],
+  'GET /api/exports/families/:id/ladder.csv': ALL,
+  'GET /api/exports/price-comparison.csv': ['owner', 'buyer', 'staff'],
 };
 
 interface Found {

@@ -27,6 +27,15 @@ describe('delimiter detection', () => {
     expect(f.delimiter).toBe('\t');
   });
 
+  it('when ragged rows outnumber good ones, then the header line still sets the number of columns', async () => {
+    const f = await detect('SKU,Description,Price\nA,1.00\nB,2.00\nC,Piston,3.00\n');
+    expect(f).toMatchObject({
+      delimiter: ',',
+      headerLine: 1,
+      headers: ['SKU', 'Description', 'Price'],
+    });
+  });
+
   it('when title lines padded with delimiters sit above the header, then the header is the first labelled line', async () => {
     // Spreadsheets pad every exported line to the same number of columns.
     const f = await detect(

@@ -217,10 +217,10 @@ describe('values as suppliers write them', () => {
     ]);
   });
 
-  it('when a GTIN is valid, then its digits are kept as written', async () => {
+  it('when a GTIN is valid, then it is kept in its 14-digit form', async () => {
     // 4006381333931 is the EAN-13 worked example on the GS1 check digit calculator page (from memory);
     // shared/gtin checks the digit per GS1 General Specifications section 7.9.
     const list = await parseText(`${header}\nA,54.25 mm,,12.00,,,400-6381-333931\n`);
-    expect(list.rows[0].gtin).toBe('4006381333931');
+    expect(list.rows[0].gtin).toBe('04006381333931');
   });
 });

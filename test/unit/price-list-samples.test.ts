@@ -37,11 +37,14 @@ describe('the sample price lists in imports/', () => {
       currency: 'USD',
       available: 2,
       leadDays: 14,
-      gtin: '200000000035',
+      gtin: '00200000000035',
     });
     expect(list.rows.find((r) => r.sku === 'QK-3375-SET4')?.price).toBe('1089.00');
     // +0.060 in = 1 524 000 nm over 3.3750 in = 85 725 000 nm.
-    expect(list.rows.find((r) => r.sku === 'QP-3375-060')).toMatchObject({ sizeNm: 87_249_000, oversizeNm: 1_524_000 });
+    expect(list.rows.find((r) => r.sku === 'QP-3375-060')).toMatchObject({
+      sizeNm: 87_249_000,
+      oversizeNm: 1_524_000,
+    });
   });
 
   it('when the semicolon list in Windows-1252 is read, then accents, € and – come through and decimal commas are read', async () => {

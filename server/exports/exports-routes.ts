@@ -1,0 +1,34 @@
+// CSV exports: the stock list and the price comparison for the people who buy and receive; a family's
+// step ladder for everyone who may read the ladder.
+import type { Router } from 'express';
+import { z } from 'zod';
+import { route, uuidParam } from '../http/route';
+import { sendCsv } from '../insights/insights-csv';
+import type { Role } from '../../shared/session-types';
+import * as service from './exports-service';
+
+const STOCK_READERS: Role[] = ['owner', 'buyer', 'staff'];
+
+export function registerExportsRoutes(router: Router): void {
+  route(router, {
+    method: 'get',
+    path: '/api/exports/stock.csv',
+    access: STOCK_READERS,
+    handler: async ({ res }) => sendCsv(res, await service.stockTable()),
+  });
+  route(router, {
+    method: 'get',
+    path: '/api/exports/families/:id/ladder.csv',
+    access: 'signed-in',
+    params: z.object({ id: uuidParam }),
+    handler: async ({ params, res }) => sendCsv(res, await service.ladderTable(params.id)),
+  });
+  route(router, {
+    method: 'get',
+    path: '/api/exports/price-comparison.csv',
+    access: STOCK_READERS,
+    query: z.object({ familyId: uuidParam.optional() }).strict(),
+    handler: async ({ query, res }) =>
+      sendCsv(res, await service.priceComparisonTable(query.familyId)),
+  });
+}

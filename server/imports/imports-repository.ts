@@ -1,0 +1,480 @@
+// The only database code of the price-list import: the import log, the staging rows (written with
+// COPY, the fastest way into PostgreSQL), the comparison with what the supplier offered so far, and
+// the set-based commit.
+import { once } from 'node:events';
+import { finished } from 'node:stream/promises';
+import type { Knex } from 'knex';
+import type { PoolClient } from 'pg';
+import { from as copyFrom, type CopyStreamQuery } from 'pg-copy-streams';
+import { db } from '../db/knex';
+import type { PriceListRow } from './parse-price-list';
+
+export interface ImportRow {
+  id: string;
+  supplier_id: string;
+  supplier_name: string;
+  user_id: string | null;
+  user_name: string | null;
+  file_name: string;
+  file_bytes: string | number;
+  sha256: string;
+  status: 'previewed' | 'committed' | 'duplicate' | 'failed';
+  detected: Record<string, unknown>;
+  headers: string[];
+  mapping: Record<string, unknown>;
+  counts: Record<string, number>;
+  errors: unknown[];
+  warnings: unknown[];
+  sample: unknown[];
+  price_changes: Record<string, unknown>;
+  failure: string | null;
+  duplicate_of: string | null;
+  created_at: Date;
+  committed_by: string | null;
+  committed_by_name: string | null;
+  committed_at: Date | null;
+}
+
+export type ImportColumns = Partial<
+  Omit<ImportRow, 'id' | 'supplier_name' | 'user_name' | 'committed_by_name' | 'committed_at'>
+> & { committed_at?: Date | Knex.Raw };
+
+/** Marks the transaction's connection so the progress endpoint can find it (application_name). */
+export async function markProgress(
+  k: Knex,
+  token: string | undefined,
+  phase: string,
+): Promise<void> {
+  if (!token) return;
+  await k.raw(`SELECT set_config('application_name', ?, true)`, [`ssi:${token}:${phase}`]);
+}
+
+/** Imports of large lists run longer than the default statement timeout of a request. */
+export async function allowLongStatements(k: Knex): Promise<void> {
+  await k.raw(`SET LOCAL statement_timeout = '15min'`);
+}
+
+export interface ProgressRow {
+  application_name: string;
+  rows: number;
+  bytes: number;
+}
+
+export async function progress(token: string, k: Knex = db): Promise<ProgressRow | undefined> {
+  const result = await k.raw<{ rows: ProgressRow[] }>(
+    `SELECT a.application_name,
+            coalesce(p.tuples_processed, 0)::bigint AS rows,
+            coalesce(p.bytes_processed, 0)::bigint AS bytes
+       FROM pg_stat_activity a
+       LEFT JOIN pg_stat_progress_copy p ON p.pid = a.pid
+      WHERE a.application_name LIKE ?
+      LIMIT 1`,
+    [`ssi:${token}:%`],
+  );
+  return result.rows[0];
+}
+
+function importBase(k: Knex) {
+  return k('price_list_imports as m')
+    .join('suppliers as s', 's.id', 'm.supplier_id')
+    .leftJoin('users as u', 'u.id', 'm.user_id')
+    .leftJoin('users as c', 'c.id', 'm.committed_by');
+}
+
+const IMPORT_COLUMNS = [
+  'm.*',
+  's.name as supplier_name',
+  'u.name as user_name',
+  'c.name as committed_by_name',
+];
+
+export async function findImport(id: string, k: Knex = db): Promise<ImportRow | undefined> {
+  return (await importBase(k).select(IMPORT_COLUMNS).where('m.id', id).first()) as
+    ImportRow | undefined;
+}
+
+export async function listImports(
+  opts: { supplierId?: string; status?: string; page: number; pageSize: number },
+  k: Knex = db,
+): Promise<{ rows: ImportRow[]; total: number }> {
+  const base = importBase(k);
+  if (opts.supplierId) base.where('m.supplier_id', opts.supplierId);
+  if (opts.status) base.where('m.status', opts.status);
+  const [{ count }] = await base.clone().count<{ count: number }[]>('* as count');
+  const rows = (await base
+    .clone()
+    .select([
+      'm.id',
+      'm.supplier_id',
+      'm.user_id',
+      'm.file_name',
+      'm.status',
+      'm.counts',
+      'm.created_at',
+      'm.committed_by',
+      'm.committed_at',
+      's.name as supplier_name',
+      'u.name as user_name',
+      'c.name as committed_by_name',
+    ])
+    .orderBy('m.created_at', 'desc')
+    .orderBy('m.id', 'desc')
+    .limit(opts.pageSize)
+    .offset((opts.page - 1) * opts.pageSize)) as ImportRow[];
+  return { rows, total: Number(count) };
+}
+
+export async function lockImport(k: Knex, id: string): Promise<ImportRow | undefined> {
+  return (await k('price_list_imports').where('id', id).forUpdate().first()) as
+    ImportRow | undefined;
+}
+
+export async function findCommittedBySha(
+  supplierId: string,
+  sha256: string,
+  k: Knex = db,
+): Promise<{ id: string; committed_at: Date } | undefined> {
+  return k('price_list_imports')
+    .select('id', 'committed_at')
+    .where({ supplier_id: supplierId, sha256, status: 'committed' })
+    .first();
+}
+
+/** Earlier previews of the same file for the supplier are replaced by a new one. */
+export async function deleteStalePreviews(
+  k: Knex,
+  supplierId: string,
+  sha256: string,
+): Promise<void> {
+  await k('price_list_imports')
+    .where({ supplier_id: supplierId, sha256 })
+    .whereIn('status', ['previewed', 'failed'])
+    .delete();
+}
+
+function jsonColumns(columns: ImportColumns): Record<string, unknown> {
+  const out: Record<string, unknown> = { ...columns };
+  for (const key of [
+    'detected',
+    'headers',
+    'mapping',
+    'counts',
+    'errors',
+    'warnings',
+    'sample',
+    'price_changes',
+  ]) {
+    if (key in out) out[key] = JSON.stringify(out[key]);
+  }
+  return out;
+}
+
+export async function insertImport(k: Knex, columns: ImportColumns): Promise<string> {
+  const [row] = await k('price_list_imports').insert(jsonColumns(columns)).returning('id');
+  return row.id as string;
+}
+
+export async function updateImport(k: Knex, id: string, columns: ImportColumns): Promise<void> {
+  await k('price_list_imports').where('id', id).update(jsonColumns(columns));
+}
+
+// ---- Staging -----------------------------------------------------------------------------------
+
+/** COPY text format: backslash, tab and line breaks escaped; \N is NULL. */
+function copyText(value: string | number | null): string {
+  if (value === null) return '\\N';
+  if (typeof value === 'number') return String(value);
+  return value.replace(/[\\\t\n\r]/g, (c) =>
+    c === '\\' ? '\\\\' : c === '\t' ? '\\t' : c === '\n' ? '\\n' : '\\r',
+  );
+}
+
+export interface StagingWriter {
+  write(rows: PriceListRow[]): Promise<void>;
+  end(): Promise<void>;
+  abort(error: Error): Promise<void>;
+}
+
+/**
+ * Opens one COPY … FROM STDIN on the transaction's own connection and streams the rows of a list into
+ * the staging table, batch by batch, waiting whenever PostgreSQL asks the writer to slow down.
+ */
+export async function openStagingWriter(
+  trx: Knex.Transaction,
+  importId: string,
+): Promise<StagingWriter> {
+  const connection = (await trx.client.acquireConnection()) as PoolClient;
+  const stream: CopyStreamQuery = connection.query(
+    copyFrom(
+      `COPY price_list_import_rows (import_id, sku, ok, line, description, size_nm, oversize_nm,
+         price, currency, available, lead_days, gtin) FROM STDIN`,
+    ),
+  );
+  let failure: Error | null = null;
+  stream.on('error', (e: Error) => {
+    failure ??= e;
+  });
+  const id = copyText(importId);
+  return {
+    async write(rows) {
+      if (failure) throw failure;
+      let chunk = '';
+      for (const r of rows) {
+        chunk +=
+          [
+            id,
+            copyText(r.sku),
+            't',
+            r.line,
+            copyText(r.description),
+            copyText(r.sizeNm),
+            copyText(r.oversizeNm),
+            r.price,
+            r.currency,
+            copyText(r.available),
+            copyText(r.leadDays),
+            copyText(r.gtin),
+          ].join('\t') + '\n';
+      }
+      if (!stream.write(chunk)) await Promise.race([once(stream, 'drain'), once(stream, 'error')]);
+      if (failure) throw failure;
+    },
+    async end() {
+      stream.end();
+      await finished(stream);
+      if (failure) throw failure;
+    },
+    async abort(error) {
+      stream.destroy(error);
+      await finished(stream).catch(() => undefined);
+    },
+  };
+}
+
+export async function deleteStaged(k: Knex, importId: string, skus: string[]): Promise<void> {
+  if (skus.length === 0) return;
+  await k('price_list_import_rows').where('import_id', importId).whereIn('sku', skus).delete();
+}
+
+/** SKUs of rows with errors: kept so the comparison does not count them as missing from the list. */
+export async function stageSkipped(k: Knex, importId: string, skus: string[]): Promise<void> {
+  for (let i = 0; i < skus.length; i += 5000) {
+    await k.raw(
+      `INSERT INTO price_list_import_rows (import_id, sku, ok, line)
+       SELECT ?, sku, false, 0 FROM unnest(CAST(? AS text[])) AS sku
+       ON CONFLICT (import_id, sku) DO NOTHING`,
+      [importId, skus.slice(i, i + 5000)],
+    );
+  }
+}
+
+export async function countStaged(k: Knex, importId: string): Promise<number> {
+  const [{ count }] = await k('price_list_import_rows')
+    .where({ import_id: importId, ok: true })
+    .count<{ count: number }[]>('* as count');
+  return Number(count);
+}
+
+export async function clearStaging(k: Knex, importId: string): Promise<void> {
+  await k('price_list_import_rows').where('import_id', importId).delete();
+}
+
+export interface StagedRow {
+  line: number;
+  sku: string;
+  description: string;
+  size_nm: number | null;
+  oversize_nm: number | null;
+  price: string;
+  currency: string;
+  available: number | null;
+  lead_days: number | null;
+  gtin: string | null;
+}
+
+export async function firstStaged(k: Knex, importId: string, limit: number): Promise<StagedRow[]> {
+  return (await k('price_list_import_rows')
+    .select(
+      'line',
+      'sku',
+      'description',
+      'size_nm',
+      'oversize_nm',
+      'price',
+      'currency',
+      'available',
+      'lead_days',
+      'gtin',
+    )
+    .where({ import_id: importId, ok: true })
+    .orderBy('line')
+    .limit(limit)) as StagedRow[];
+}
+
+// ---- Comparison with what the supplier offers now -------------------------------------------------
+
+// Catalog parts by the 14-digit form of their GTIN, for mapping new supplier items automatically.
+const GTIN_PARTS = `SELECT DISTINCT ON (lpad(gtin, 14, '0')) lpad(gtin, 14, '0') AS g14, id
+                      FROM parts WHERE gtin IS NOT NULL ORDER BY lpad(gtin, 14, '0'), id`;
+
+export interface Comparison {
+  new: number;
+  up: number;
+  down: number;
+  unchanged: number;
+  missing: number;
+  unmapped: number;
+}
+
+export async function compare(k: Knex, importId: string, supplierId: string): Promise<Comparison> {
+  const result = await k.raw<{ rows: Comparison[] }>(
+    `WITH gp AS (${GTIN_PARTS}),
+          s AS (SELECT * FROM price_list_import_rows WHERE import_id = :imp AND ok)
+     SELECT
+       count(*) FILTER (WHERE si.id IS NULL)::int AS new,
+       count(*) FILTER (WHERE si.id IS NOT NULL
+                          AND (s.currency <> si.currency OR s.price > si.price))::int AS up,
+       count(*) FILTER (WHERE si.id IS NOT NULL AND s.currency = si.currency
+                          AND s.price < si.price)::int AS down,
+       count(*) FILTER (WHERE si.id IS NOT NULL AND s.currency = si.currency
+                          AND s.price = si.price)::int AS unchanged,
+       (SELECT count(*) FROM supplier_items x
+         WHERE x.supplier_id = :sup AND NOT x.dropped
+           AND NOT EXISTS (SELECT 1 FROM price_list_import_rows r
+                            WHERE r.import_id = :imp AND r.sku = x.sku))::int AS missing,
+       count(*) FILTER (WHERE si.part_id IS NULL AND gp.id IS NULL)::int AS unmapped
+       FROM s
+       LEFT JOIN supplier_items si ON si.supplier_id = :sup AND si.sku = s.sku
+       LEFT JOIN gp ON gp.g14 = lpad(s.gtin, 14, '0')`,
+    { imp: importId, sup: supplierId },
+  );
+  return result.rows[0];
+}
+
+export interface PriceChangeRow {
+  line: number;
+  sku: string;
+  description: string;
+  old_price: string;
+  new_price: string;
+  currency: string;
+  percent: string;
+}
+
+export async function priceChanges(
+  k: Knex,
+  importId: string,
+  supplierId: string,
+  limit: number,
+): Promise<{ upAverage: string | null; downAverage: string | null; largest: PriceChangeRow[] }> {
+  const changed = `FROM price_list_import_rows s
+                   JOIN supplier_items si ON si.supplier_id = :sup AND si.sku = s.sku
+                  WHERE s.import_id = :imp AND s.ok AND s.currency = si.currency
+                    AND s.price <> si.price`;
+  const averages = await k.raw<{ rows: { up: string | null; down: string | null }[] }>(
+    `SELECT round(avg((s.price - si.price) / si.price * 100)
+                  FILTER (WHERE s.price > si.price), 1)::text AS up,
+            round(avg((s.price - si.price) / si.price * 100)
+                  FILTER (WHERE s.price < si.price), 1)::text AS down
+       ${changed}`,
+    { imp: importId, sup: supplierId },
+  );
+  const largest = await k.raw<{ rows: PriceChangeRow[] }>(
+    `SELECT s.line, s.sku, s.description, si.price::text AS old_price, s.price::text AS new_price,
+            s.currency, round((s.price - si.price) / si.price * 100, 1)::text AS percent
+       ${changed}
+      ORDER BY abs(s.price - si.price) / si.price DESC, s.line
+      LIMIT :limit`,
+    { imp: importId, sup: supplierId, limit },
+  );
+  return {
+    upAverage: averages.rows[0]?.up ?? null,
+    downAverage: averages.rows[0]?.down ?? null,
+    largest: largest.rows,
+  };
+}
+
+// ---- The commit ----------------------------------------------------------------------------------
+
+/**
+ * Applies the staged rows in one statement: a history row for every price that changes, an upsert of
+ * every item (new ones mapped by GTIN when the catalog knows it), and a first history row for new items.
+ */
+export async function applyStaged(k: Knex, importId: string, supplierId: string): Promise<number> {
+  const result = await k.raw(
+    `WITH gp AS (${GTIN_PARTS}),
+          s AS (SELECT * FROM price_list_import_rows WHERE import_id = :imp AND ok),
+          old AS (SELECT si.id, si.sku, si.price, si.currency
+                    FROM supplier_items si JOIN s ON s.sku = si.sku
+                   WHERE si.supplier_id = :sup),
+          changed AS (
+            INSERT INTO supplier_item_prices (item_id, price, currency, effective_from, import_id)
+            SELECT old.id, s.price, s.currency, now(), :imp
+              FROM old JOIN s ON s.sku = old.sku
+             WHERE s.price <> old.price OR s.currency <> old.currency),
+          up AS (
+            INSERT INTO supplier_items AS si (supplier_id, sku, description, size_nm, oversize_nm,
+                   part_id, price, currency, available, lead_days, gtin, last_import_id, dropped)
+            SELECT :sup, s.sku, s.description, s.size_nm, s.oversize_nm, gp.id, s.price, s.currency,
+                   s.available, s.lead_days, s.gtin, :imp, false
+              FROM s LEFT JOIN gp ON gp.g14 = lpad(s.gtin, 14, '0')
+            ON CONFLICT (supplier_id, sku) DO UPDATE SET
+              description = EXCLUDED.description,
+              size_nm = EXCLUDED.size_nm,
+              oversize_nm = EXCLUDED.oversize_nm,
+              part_id = coalesce(si.part_id, EXCLUDED.part_id),
+              price = EXCLUDED.price,
+              currency = EXCLUDED.currency,
+              available = EXCLUDED.available,
+              lead_days = EXCLUDED.lead_days,
+              gtin = EXCLUDED.gtin,
+              last_import_id = EXCLUDED.last_import_id,
+              dropped = false,
+              updated_at = now()
+            RETURNING si.id, si.sku, si.price, si.currency)
+     INSERT INTO supplier_item_prices (item_id, price, currency, effective_from, import_id)
+     SELECT up.id, up.price, up.currency, now(), :imp
+       FROM up WHERE NOT EXISTS (SELECT 1 FROM old WHERE old.sku = up.sku)`,
+    { imp: importId, sup: supplierId },
+  );
+  return (result as { rowCount: number }).rowCount;
+}
+
+/** A full list: the supplier's items it no longer holds (not even as a row with errors) are dropped. */
+export async function markDropped(k: Knex, importId: string, supplierId: string): Promise<number> {
+  const result = await k.raw(
+    `UPDATE supplier_items si SET dropped = true, updated_at = now()
+      WHERE si.supplier_id = :sup AND NOT si.dropped
+        AND NOT EXISTS (SELECT 1 FROM price_list_import_rows r
+                         WHERE r.import_id = :imp AND r.sku = si.sku)`,
+    { imp: importId, sup: supplierId },
+  );
+  return (result as { rowCount: number }).rowCount;
+}
+
+export async function rememberedMapping(
+  supplierId: string,
+  k: Knex = db,
+): Promise<{ mapping: Record<string, unknown>; headers: string[] } | undefined> {
+  return k('supplier_mappings')
+    .select('mapping', 'headers')
+    .where('supplier_id', supplierId)
+    .first();
+}
+
+export async function rememberMapping(
+  k: Knex,
+  supplierId: string,
+  mapping: unknown,
+  headers: string[],
+  userId: string | null,
+): Promise<void> {
+  await k.raw(
+    `INSERT INTO supplier_mappings (supplier_id, mapping, headers, user_id, updated_at)
+     VALUES (?, CAST(? AS jsonb), CAST(? AS jsonb), ?, now())
+     ON CONFLICT (supplier_id) DO UPDATE SET
+       mapping = EXCLUDED.mapping, headers = EXCLUDED.headers, user_id = EXCLUDED.user_id,
+       updated_at = now()`,
+    [supplierId, JSON.stringify(mapping), JSON.stringify(headers), userId],
+  );
+}

@@ -1,0 +1,161 @@
+// Price-list import routes: staff, buyers and the owner upload a supplier's list (multipart, field
+// "file", optional field "mapping" as JSON), look at the preview, commit it, and read the import log.
+import { unlink } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { basename, extname, join } from 'node:path';
+import type { RequestHandler, Router } from 'express';
+import multer from 'multer';
+import { z } from 'zod';
+import { pageQuery, route, uuidParam, zodDetails } from '../http/route';
+import { BadRequest, UnsupportedMediaType } from '../errors';
+import type { Role } from '../../shared/session-types';
+import { IMPORT_STATUSES, commitInput, mappingInput } from '../../shared/suppliers-api';
+import type { ColumnMapping } from './propose-mapping';
+import * as service from './imports-service';
+
+export const IMPORTERS: Role[] = ['owner', 'buyer', 'staff'];
+export const MAX_UPLOAD_BYTES = 50 * 1024 * 1024;
+const ALLOWED_EXTENSIONS = ['.csv', '.tsv', '.txt'];
+
+const idParams = z.object({ id: uuidParam });
+const progressQuery = z.object({ progress: uuidParam.optional() }).strict();
+const importsQuery = pageQuery.pick({ page: true, pageSize: true }).extend({
+  supplierId: uuidParam.optional(),
+  status: z
+    .enum(IMPORT_STATUSES, { error: `must be one of ${IMPORT_STATUSES.join(', ')}` })
+    .optional(),
+});
+
+const upload = multer({
+  dest: join(tmpdir(), 'stepstock-uploads'),
+  limits: { fileSize: MAX_UPLOAD_BYTES, files: 1, fields: 4, fieldSize: 64 * 1024, parts: 6 },
+  fileFilter: (_req, file, accept) => {
+    const extension = extname(file.originalname).toLowerCase();
+    if (!ALLOWED_EXTENSIONS.includes(extension)) {
+      accept(
+        new UnsupportedMediaType(
+          `Upload the price list as a .csv, .tsv or .txt file; "${cleanName(file.originalname)}" is not one. ` +
+            'A spreadsheet can save its sheet as CSV.',
+        ),
+      );
+      return;
+    }
+    accept(null, true);
+  },
+});
+
+/** Only multipart uploads reach multer; anything else is told how to send the file. */
+const requireMultipart: RequestHandler = (req, _res, next) => {
+  if (!req.is('multipart/form-data')) {
+    next(
+      new UnsupportedMediaType(
+        'Send the price list as multipart/form-data with the file in the field "file".',
+      ),
+    );
+    return;
+  }
+  next();
+};
+
+/** The uploaded temporary file goes once the answer is sent, whatever the answer was. */
+const removeUploadAfterwards: RequestHandler = (req, res, next) => {
+  const path = req.file?.path;
+  if (path) res.on('close', () => unlink(path, () => undefined));
+  next();
+};
+
+/** A file name fit for the import log: no folders, no control characters, at most 255 characters. */
+function cleanName(name: string): string {
+  const cleaned = basename(name.replace(/\\/g, '/'))
+    .replace(/\p{Cc}/gu, '')
+    .trim()
+    .slice(0, 255);
+  return cleaned || 'price-list.csv';
+}
+
+function mappingField(raw: unknown): ColumnMapping | undefined {
+  if (raw === undefined || raw === '') return undefined;
+  if (typeof raw !== 'string')
+    throw new BadRequest('mapping: send the column mapping once, as JSON.');
+  let value: unknown;
+  try {
+    value = JSON.parse(raw);
+  } catch {
+    throw new BadRequest('mapping: the column mapping is not valid JSON.', [
+      { field: 'mapping', message: 'not valid JSON' },
+    ]);
+  }
+  const parsed = mappingInput.safeParse(value);
+  if (!parsed.success) {
+    const details = zodDetails(parsed.error, 'mapping').map((d) => ({
+      ...d,
+      field: `mapping.${d.field}`,
+    }));
+    throw new BadRequest(`${details[0].field}: ${details[0].message}`, details);
+  }
+  return parsed.data;
+}
+
+export function registerImportsRoutes(router: Router): void {
+  route(router, {
+    method: 'post',
+    path: '/api/suppliers/:id/price-lists',
+    access: IMPORTERS,
+    params: idParams,
+    query: progressQuery,
+    before: [requireMultipart, upload.single('file'), removeUploadAfterwards],
+    status: 201,
+    handler: async ({ params, query, user, req, res }) => {
+      const file = req.file;
+      if (!file) {
+        throw new BadRequest('Attach the price list in the form field "file".', [
+          { field: 'file', message: 'missing' },
+        ]);
+      }
+      const body = (req.body ?? {}) as Record<string, unknown>;
+      const answer = await service.previewPriceList({
+        user,
+        supplierId: params.id,
+        file: { path: file.path, originalName: cleanName(file.originalname), size: file.size },
+        mapping: mappingField(body.mapping),
+        progressToken: query.progress,
+      });
+      if (answer.status === 'duplicate') {
+        res.status(200).json(answer);
+        return undefined;
+      }
+      return answer;
+    },
+  });
+  route(router, {
+    method: 'post',
+    path: '/api/price-list-imports/:id/commit',
+    access: IMPORTERS,
+    params: idParams,
+    query: progressQuery,
+    body: commitInput,
+    handler: ({ params, query, body, user }) =>
+      service.commitImport(user, params.id, body, query.progress),
+  });
+  route(router, {
+    method: 'get',
+    path: '/api/price-list-imports',
+    access: IMPORTERS,
+    query: importsQuery,
+    handler: ({ query }) => service.listImports(query),
+  });
+  route(router, {
+    method: 'get',
+    path: '/api/price-list-imports/progress/:token',
+    access: IMPORTERS,
+    params: z.object({ token: uuidParam }),
+    handler: ({ params }) => service.progress(params.token),
+  });
+  route(router, {
+    method: 'get',
+    path: '/api/price-list-imports/:id',
+    access: IMPORTERS,
+    params: idParams,
+    handler: ({ params }) => service.getImport(params.id),
+  });
+}

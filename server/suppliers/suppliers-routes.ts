@@ -1,0 +1,105 @@
+// Supplier routes: buyers and the owner keep suppliers and map their items to catalog parts; staff,
+// who bring price lists in, read them too.
+import type { Router } from 'express';
+import { z } from 'zod';
+import { pageQuery, route, uuidParam } from '../http/route';
+import type { Role } from '../../shared/session-types';
+import {
+  ITEM_SORTS,
+  SUPPLIER_SORTS,
+  itemMappingInput,
+  supplierInput,
+  supplierPatch,
+} from '../../shared/suppliers-api';
+import * as service from './suppliers-service';
+
+export const SUPPLIER_EDITORS: Role[] = ['owner', 'buyer'];
+export const SUPPLIER_READERS: Role[] = ['owner', 'buyer', 'staff'];
+
+const idParams = z.object({ id: uuidParam });
+const itemParams = z.object({ id: uuidParam, itemId: uuidParam });
+
+const booleanFilter = z
+  .enum(['true', 'false', 'all'], { error: 'must be true, false or all' })
+  .optional()
+  .transform((v) => (v === 'true' ? true : v === 'false' ? false : undefined));
+
+const suppliersQuery = pageQuery.extend({
+  sort: z.enum(SUPPLIER_SORTS, { error: `must be one of ${SUPPLIER_SORTS.join(', ')}` }).optional(),
+});
+
+const itemsQuery = pageQuery.extend({
+  sort: z.enum(ITEM_SORTS, { error: `must be one of ${ITEM_SORTS.join(', ')}` }).optional(),
+  mapped: booleanFilter,
+  dropped: booleanFilter,
+});
+
+const historyQuery = pageQuery.pick({ page: true, pageSize: true });
+
+const unmappedQuery = pageQuery.pick({ q: true, page: true, pageSize: true }).extend({
+  supplierId: uuidParam.optional(),
+});
+
+export function registerSuppliersRoutes(router: Router): void {
+  route(router, {
+    method: 'get',
+    path: '/api/suppliers',
+    access: SUPPLIER_READERS,
+    query: suppliersQuery,
+    handler: ({ query }) => service.listSuppliers(query),
+  });
+  route(router, {
+    method: 'post',
+    path: '/api/suppliers',
+    access: SUPPLIER_EDITORS,
+    body: supplierInput,
+    status: 201,
+    handler: ({ body, user }) => service.createSupplier(user.id, body),
+  });
+  route(router, {
+    method: 'get',
+    path: '/api/suppliers/:id',
+    access: SUPPLIER_READERS,
+    params: idParams,
+    handler: ({ params }) => service.getSupplier(params.id),
+  });
+  route(router, {
+    method: 'patch',
+    path: '/api/suppliers/:id',
+    access: SUPPLIER_EDITORS,
+    params: idParams,
+    body: supplierPatch,
+    handler: ({ params, body, user }) => service.updateSupplier(user.id, params.id, body),
+  });
+  route(router, {
+    method: 'get',
+    path: '/api/suppliers/:id/items',
+    access: SUPPLIER_READERS,
+    params: idParams,
+    query: itemsQuery,
+    handler: ({ params, query }) => service.listItems(params.id, query),
+  });
+  route(router, {
+    method: 'get',
+    path: '/api/suppliers/:id/items/:itemId/prices',
+    access: SUPPLIER_READERS,
+    params: itemParams,
+    query: historyQuery,
+    handler: ({ params, query }) => service.priceHistory(params.id, params.itemId, query),
+  });
+  route(router, {
+    method: 'get',
+    path: '/api/supplier-items/unmapped',
+    access: SUPPLIER_READERS,
+    query: unmappedQuery,
+    handler: ({ query }) => service.listUnmapped(query),
+  });
+  route(router, {
+    method: 'patch',
+    path: '/api/supplier-items/:id',
+    access: SUPPLIER_EDITORS,
+    params: idParams,
+    body: itemMappingInput,
+    handler: ({ params, body, user }) => service.mapItem(user.id, params.id, body.partId),
+  });
+}

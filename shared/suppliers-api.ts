@@ -1,0 +1,274 @@
+// What the suppliers and price-list import API accepts and answers. The zod schemas serve the server
+// routes and the Angular forms alike.
+import { z } from 'zod';
+import type { LengthJson } from './lengths';
+import { isCurrencyCode } from './money';
+
+export const currencyCode = z
+  .string({ error: 'must be a three-letter ISO 4217 code, e.g. "EUR"' })
+  .trim()
+  .transform((v) => v.toUpperCase())
+  .refine((v) => isCurrencyCode(v), {
+    message: 'is not an ISO 4217 currency code (e.g. EUR, USD, GBP)',
+  });
+
+const amount = z
+  .string({ error: 'must be an amount written as text, e.g. "12.50"' })
+  .trim()
+  .regex(
+    /^\d{1,10}(\.\d{1,4})?$/,
+    'must be an amount, 0 or more, like "12.50" (at most 4 decimals)',
+  );
+
+const email = z
+  .string()
+  .trim()
+  .toLowerCase()
+  .max(200, 'at most 200 characters')
+  .refine((v) => /^[^\s@]+@[^\s@]+\.[^\s@]+$/.test(v), { message: 'is not an e-mail address' });
+
+export const supplierInput = z.strictObject({
+  name: z.string().trim().min(1, 'enter a name').max(120, 'at most 120 characters'),
+  email: z.union([email, z.literal('').transform(() => null), z.null()]).optional(),
+  currency: currencyCode,
+  leadDays: z
+    .number({ error: 'must be a whole number of days' })
+    .int('must be whole days')
+    .min(0)
+    .max(365),
+  contacts: z.string().max(2000, 'at most 2000 characters').optional(),
+  minOrder: amount.optional(),
+  shippingCost: amount.optional(),
+  notes: z.string().max(4000, 'at most 4000 characters').optional(),
+  active: z.boolean().optional(),
+});
+export type SupplierInput = z.input<typeof supplierInput>;
+export type SupplierData = z.output<typeof supplierInput>;
+
+export const supplierPatch = supplierInput.partial();
+export type SupplierPatch = z.output<typeof supplierPatch>;
+
+export const SUPPLIER_SORTS = ['name', 'currency', 'leadDays', 'items', 'lastImport'] as const;
+export const ITEM_SORTS = ['sku', 'description', 'size', 'price', 'available', 'updated'] as const;
+
+export interface SupplierJson {
+  id: string;
+  name: string;
+  contacts: string;
+  email: string | null;
+  currency: string;
+  leadDays: number;
+  minOrder: string;
+  shippingCost: string;
+  notes: string;
+  active: boolean;
+  /** Items not dropped from the last full list. */
+  items: number;
+  unmapped: number;
+  lastImportAt: string | null;
+  createdAt: string;
+  updatedAt: string;
+}
+
+export interface PartRefJson {
+  id: string;
+  sku: string;
+  description: string;
+  kind: string;
+  familyCode: string | null;
+  stepLabel: string | null;
+}
+
+export interface SupplierItemJson {
+  id: string;
+  supplierId: string;
+  sku: string;
+  description: string;
+  size: LengthJson | null;
+  oversize: LengthJson | null;
+  part: PartRefJson | null;
+  price: string;
+  currency: string;
+  available: number | null;
+  leadDays: number | null;
+  gtin: string | null;
+  lastImportId: string | null;
+  lastSeenAt: string | null;
+  dropped: boolean;
+  updatedAt: string;
+}
+
+export interface PriceHistoryJson {
+  price: string;
+  currency: string;
+  effectiveFrom: string;
+  importId: string | null;
+  fileName: string | null;
+}
+
+export interface SuggestionJson extends PartRefJson {
+  /** Why it is suggested: same size, family named in the description, same SKU or GTIN. */
+  reasons: string[];
+  score: number;
+}
+
+export interface UnmappedItemJson extends SupplierItemJson {
+  supplierName: string;
+  suggestions: SuggestionJson[];
+}
+
+export const itemMappingInput = z.strictObject({
+  partId: z.string().uuid('must be a valid id').nullable(),
+});
+
+// ---- Price-list imports ------------------------------------------------------------------------
+
+export const IMPORT_STATUSES = ['previewed', 'committed', 'duplicate', 'failed'] as const;
+export type ImportStatus = (typeof IMPORT_STATUSES)[number];
+
+export interface DetectedJson {
+  encoding: 'utf-8' | 'utf-8-bom' | 'windows-1252';
+  delimiter: ',' | ';' | '\t';
+  decimal: '.' | ',';
+  headerLine: number;
+}
+
+export const MAPPING_FIELD_NAMES = [
+  'sku',
+  'description',
+  'size',
+  'oversize',
+  'price',
+  'available',
+  'leadDays',
+  'gtin',
+  'currency',
+] as const;
+export type MappingFieldName = (typeof MAPPING_FIELD_NAMES)[number];
+
+export type MappingJson = Record<MappingFieldName, string | null> & { sizeUnit: 'mm' | 'in' };
+
+/** A column mapping as the client sends it: field → column name (or null), and the size unit. */
+export const mappingInput = z.strictObject({
+  sku: z.string().max(200).nullable(),
+  description: z.string().max(200).nullable().default(null),
+  size: z.string().max(200).nullable().default(null),
+  oversize: z.string().max(200).nullable().default(null),
+  price: z.string().max(200).nullable(),
+  available: z.string().max(200).nullable().default(null),
+  leadDays: z.string().max(200).nullable().default(null),
+  gtin: z.string().max(200).nullable().default(null),
+  currency: z.string().max(200).nullable().default(null),
+  sizeUnit: z.enum(['mm', 'in'], { error: 'must be mm or in' }),
+});
+
+export interface ImportCountsJson {
+  rows: number;
+  ok: number;
+  errors: number;
+  new: number;
+  up: number;
+  down: number;
+  unchanged: number;
+  missing: number;
+  unmapped: number;
+}
+
+export interface RowIssueJson {
+  line: number;
+  field?: string;
+  message: string;
+}
+
+export interface SampleRowJson {
+  line: number;
+  sku: string;
+  description: string;
+  size: LengthJson | null;
+  oversize: LengthJson | null;
+  price: string;
+  currency: string;
+  available: number | null;
+  leadDays: number | null;
+  gtin: string | null;
+}
+
+export interface PriceChangeJson {
+  line: number;
+  sku: string;
+  description: string;
+  oldPrice: string;
+  newPrice: string;
+  currency: string;
+  /** Change in percent of the old price, one decimal ("-4.5"). */
+  percent: string;
+}
+
+export interface PriceChangesJson {
+  /** Average change of the rows going up and going down, in percent (null when none). */
+  upAveragePercent: string | null;
+  downAveragePercent: string | null;
+  /** The largest changes first. */
+  largest: PriceChangeJson[];
+}
+
+export interface ImportJson {
+  importId: string;
+  status: ImportStatus;
+  supplierId: string;
+  supplierName: string;
+  fileName: string;
+  fileBytes: number;
+  sha256: string;
+  detected: DetectedJson;
+  headers: string[];
+  mapping: MappingJson;
+  counts: ImportCountsJson;
+  errors: RowIssueJson[];
+  warnings: RowIssueJson[];
+  sample: SampleRowJson[];
+  priceChanges: PriceChangesJson;
+  uploadedBy: { id: string; name: string } | null;
+  uploadedAt: string;
+  committedBy: { id: string; name: string } | null;
+  committedAt: string | null;
+  failure: string | null;
+  duplicateOf: string | null;
+}
+
+export interface ImportLogEntryJson {
+  importId: string;
+  status: ImportStatus;
+  supplierId: string;
+  supplierName: string;
+  fileName: string;
+  counts: ImportCountsJson;
+  uploadedBy: { id: string; name: string } | null;
+  uploadedAt: string;
+  committedBy: { id: string; name: string } | null;
+  committedAt: string | null;
+}
+
+export interface DuplicateJson {
+  status: 'duplicate';
+  importId: string;
+  message: string;
+}
+
+export interface CommitJson {
+  status: 'committed';
+  importId: string;
+  counts: ImportCountsJson;
+}
+
+/** What the server is doing with an upload or a commit, read while it runs. */
+export interface ImportProgressJson {
+  phase: 'waiting' | 'reading' | 'comparing' | 'committing' | 'done';
+  rows: number;
+  bytes: number;
+}
+
+export const commitInput = z.strictObject({
+  /** A full list marks items it no longer holds as dropped; a partial list (false) leaves them. */
+  dropMissing: z.boolean().default(true),
+});
