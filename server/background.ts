@@ -1,6 +1,7 @@
 // Work the server does besides answering requests (the outbox worker, the daily hold sweep). Each
 // feature that needs it adds a starter here. Everything coordinates through PostgreSQL, so several
 // server processes may run these side by side.
+import { startMailBackground } from './mail/mail-background';
 import { startHoldSweep } from './jobs/hold-sweep';
 
 export interface Background {
@@ -9,7 +10,7 @@ export interface Background {
 
 type Starter = () => Promise<Background> | Background;
 
-const starters: Starter[] = [startHoldSweep];
+const starters: Starter[] = [startMailBackground, startHoldSweep];
 
 export async function startBackgroundWork(): Promise<Background> {
   if (process.env.STEPSTOCK_NO_BACKGROUND === '1') return { stop: async () => undefined };

@@ -1,9 +1,20 @@
-// The demo and the tests send e-mail to a fake SMTP server on loopback unless SMTP_URL names a real
-// one. Filled in by the mail feature; until then no mail server is started.
+// The demo sends e-mail to a local SMTP server on a free loopback port unless SMTP_URL names a real
+// one; the owner reads what it received on the Mailbox page.
+import { startLocalSmtp } from '../mail/fake-smtp';
+import { realSmtpConfigured, useLocalSmtp } from '../mail/smtp-target';
+
 export interface DemoMail {
   stop(): Promise<void>;
 }
 
 export async function startMailForDemo(): Promise<DemoMail | null> {
-  return null;
+  if (realSmtpConfigured()) return null;
+  const local = await startLocalSmtp();
+  useLocalSmtp(local.url);
+  return {
+    stop: async () => {
+      useLocalSmtp(null);
+      await local.stop();
+    },
+  };
 }

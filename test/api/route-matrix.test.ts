@@ -105,6 +105,8 @@ const EXPECTED: Record<string, Access> = {
   'GET /api/exports/stock.csv': ['owner', 'buyer', 'staff'],
   'GET /api/exports/families/:id/ladder.csv': ALL,
   'GET /api/exports/price-comparison.csv': ['owner', 'buyer', 'staff'],
+  // Mail: the local mailbox (demo and tests) is the owner's.
+  'GET /api/mailbox': OWNER,
 };
 
 interface Found {

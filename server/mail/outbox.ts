@@ -1,0 +1,73 @@
+// Writing e-mail: always inside the caller's transaction, so the message exists exactly when the
+// event that caused it does. The worker (mail-worker.ts) sends it later.
+import type { Knex } from 'knex';
+
+export interface MailAttachment {
+  filename: string;
+  contentType: string;
+  /** Text content (CSV, plain text); binary attachments are not needed by any mail we send. */
+  content: string;
+}
+
+export interface OutgoingMail {
+  to: string;
+  subject: string;
+  text: string;
+  html?: string;
+  attachments?: MailAttachment[];
+  /** One message per key, ever: a second enqueue with the same key writes nothing. */
+  dedupeKey?: string;
+}
+
+export interface TemplatedMail {
+  to: string;
+  template: string;
+  data: Record<string, unknown>;
+  dedupeKey?: string;
+}
+
+const EMAIL = /^[^@\s<>]+@[^@\s<>]+$/;
+
+function checkAddress(to: string): string {
+  const address = to.trim().toLowerCase();
+  if (!EMAIL.test(address)) throw new Error(`Not an e-mail address: "${to}"`);
+  return address;
+}
+
+/** Queues one message; returns its outbox id, or null when its dedupe key was already used. */
+export async function enqueueMail(
+  trx: Knex.Transaction | Knex,
+  mail: OutgoingMail,
+): Promise<string | null> {
+  const rows = await trx('outbox')
+    .insert({
+      to_address: checkAddress(mail.to),
+      subject: mail.subject,
+      body_text: mail.text,
+      body_html: mail.html ?? null,
+      attachments: JSON.stringify(mail.attachments ?? []),
+      dedupe_key: mail.dedupeKey ?? null,
+    })
+    .onConflict(trx.raw('(dedupe_key) WHERE dedupe_key IS NOT NULL'))
+    .ignore()
+    .returning('id');
+  return (rows[0] as { id: string } | undefined)?.id ?? null;
+}
+
+/** Queues a message the worker renders from a named template just before sending. */
+export async function enqueueTemplated(
+  trx: Knex.Transaction | Knex,
+  mail: TemplatedMail,
+): Promise<string | null> {
+  const rows = await trx('outbox')
+    .insert({
+      to_address: checkAddress(mail.to),
+      template: mail.template,
+      data: JSON.stringify(mail.data),
+      dedupe_key: mail.dedupeKey ?? null,
+    })
+    .onConflict(trx.raw('(dedupe_key) WHERE dedupe_key IS NOT NULL'))
+    .ignore()
+    .returning('id');
+  return (rows[0] as { id: string } | undefined)?.id ?? null;
+}

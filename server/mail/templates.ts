@@ -1,0 +1,1 @@
+// Every template an outbox row may name. Importing a feature's mail module registers its templates.
