@@ -181,6 +181,8 @@ export interface SalesAnswer {
   totals: SalesTotals;
   by: SalesGroup[];
   period: Period;
+  /** ISO 4217 code of the shop's home currency, in which every amount is given. */
+  currency: string;
 }
 
 export interface MonthRow {
@@ -194,6 +196,8 @@ export interface MonthRow {
 export interface MonthlyAnswer {
   months: MonthRow[];
   period: Period;
+  /** ISO 4217 code of the shop's home currency, in which every amount is given. */
+  currency: string;
 }
 
 export interface TopSeller {
@@ -214,6 +218,8 @@ export interface TopSellersAnswer {
   items: TopSeller[];
   rank: TopSellerRank;
   period: Period;
+  /** ISO 4217 code of the shop's home currency, in which every amount is given. */
+  currency: string;
 }
 
 export interface FamilyStockValue {
@@ -240,6 +246,8 @@ export interface StockValueAnswer {
   totalCostOfIssues: string;
   totalTurnover: string | null;
   months: number;
+  /** ISO 4217 code of the shop's home currency, in which every amount is given. */
+  currency: string;
 }
 
 export interface DeadStockItem {
@@ -264,6 +272,8 @@ export interface DeadStockAnswer {
   months: number;
   /** Parts counted as dead: not issued since this moment. */
   since: string;
+  /** ISO 4217 code of the shop's home currency, in which every amount is given. */
+  currency: string;
 }
 
 export type AbcClass = 'A' | 'B' | 'C';
@@ -293,6 +303,8 @@ export interface AbcAnswer {
   classes: AbcClassSummary[];
   totalValue: string;
   months: number;
+  /** ISO 4217 code of the shop's home currency, in which every amount is given. */
+  currency: string;
 }
 
 export interface ExposureItem {

@@ -37,12 +37,16 @@ function iso(value: Date | null | undefined): string | null {
   return value ? value.toISOString() : null;
 }
 
-/** The shop's time zone; an unknown zone in the settings falls back to UTC rather than failing. */
-export async function shopZone(k: Knex = db): Promise<string> {
-  const zone = (await getSettings(k)).timeZone;
-  if (IANAZone.isValidZone(zone)) return zone;
+/**
+ * The shop's time zone and home currency. An unknown zone in the settings falls back to UTC rather
+ * than failing every page.
+ */
+export async function shopContext(k: Knex = db): Promise<{ timeZone: string; currency: string }> {
+  const settings = await getSettings(k);
+  const zone = settings.timeZone;
+  if (IANAZone.isValidZone(zone)) return { timeZone: zone, currency: settings.homeCurrency };
   logger.warn({ zone }, 'insights: the shop time zone is not known; using UTC');
-  return 'UTC';
+  return { timeZone: 'UTC', currency: settings.homeCurrency };
 }
 
 /** The period asked for, or by default the last twelve calendar months up to today. */
@@ -52,15 +56,20 @@ export function resolvePeriod(query: { from?: string; to?: string }, timeZone: s
 }
 
 async function periodArgs(query: { from?: string; to?: string }, k: Knex) {
-  const period = resolvePeriod(query, await shopZone(k));
-  return { period, args: { fromDay: period.from, toDay: period.to, tz: period.timeZone } };
+  const shop = await shopContext(k);
+  const period = resolvePeriod(query, shop.timeZone);
+  return {
+    period,
+    currency: shop.currency,
+    args: { fromDay: period.from, toDay: period.to, tz: period.timeZone },
+  };
 }
 
 export async function sales(
   query: { from?: string; to?: string; by: SalesGroup[] },
   k: Knex = db,
 ): Promise<SalesAnswer> {
-  const { period, args } = await periodArgs(query, k);
+  const { period, currency, args } = await periodArgs(query, k);
   const rows = await repo.salesBy(
     { ...args, byFamily: query.by.includes('family'), byStep: query.by.includes('step') },
     k,
@@ -88,6 +97,7 @@ export async function sales(
     },
     by: query.by,
     period,
+    currency,
   };
 }
 
@@ -95,7 +105,7 @@ export async function monthly(
   query: { from?: string; to?: string },
   k: Knex = db,
 ): Promise<MonthlyAnswer> {
-  const { period, args } = await periodArgs(query, k);
+  const { period, currency, args } = await periodArgs(query, k);
   const rows = await repo.salesByMonth(args, k);
   return {
     months: rows.map((r) => ({
@@ -105,6 +115,7 @@ export async function monthly(
       margin: moneyOut(r.margin),
     })),
     period,
+    currency,
   };
 }
 
@@ -112,7 +123,7 @@ export async function topSellers(
   query: { from?: string; to?: string; rank: TopSellerRank; limit: number },
   k: Knex = db,
 ): Promise<TopSellersAnswer> {
-  const { period, args } = await periodArgs(query, k);
+  const { period, currency, args } = await periodArgs(query, k);
   const rows = await repo.topSellers({ ...args, rank: query.rank, limit: query.limit }, k);
   return {
     items: rows.map((r) => ({
@@ -130,11 +141,12 @@ export async function topSellers(
     })),
     rank: query.rank,
     period,
+    currency,
   };
 }
 
 export async function stockValue(months: number, k: Knex = db): Promise<StockValueAnswer> {
-  const rows = await repo.stockValue(months, k);
+  const [rows, { currency }] = await Promise.all([repo.stockValue(months, k), shopContext(k)]);
   const grand = rows.find((r) => r.grand === 1);
   if (!grand) throw new Error('insights: the stock value total row is missing');
   return {
@@ -156,11 +168,12 @@ export async function stockValue(months: number, k: Knex = db): Promise<StockVal
     totalCostOfIssues: moneyOut(grand.cost_of_issues),
     totalTurnover: grand.turnover,
     months,
+    currency,
   };
 }
 
 export async function deadStock(months: number, k: Knex = db): Promise<DeadStockAnswer> {
-  const rows = await repo.deadStock(months, k);
+  const [rows, { currency }] = await Promise.all([repo.deadStock(months, k), shopContext(k)]);
   const since = rows[0]?.since;
   if (!since) throw new Error('insights: the dead-stock cut-off is missing');
   const items = rows.filter((r) => r.part_id !== null);
@@ -183,11 +196,12 @@ export async function deadStock(months: number, k: Knex = db): Promise<DeadStock
     totalValue: moneyOut(items[0]?.total_value ?? '0'),
     months,
     since: since.toISOString(),
+    currency,
   };
 }
 
 export async function abc(months: number, k: Knex = db): Promise<AbcAnswer> {
-  const rows = await repo.abc(months, k);
+  const [rows, { currency }] = await Promise.all([repo.abc(months, k), shopContext(k)]);
   const classes = (['A', 'B', 'C'] as AbcClass[]).map((cls) => {
     const first = rows.find((r) => r.class === cls);
     return {
@@ -213,6 +227,7 @@ export async function abc(months: number, k: Knex = db): Promise<AbcAnswer> {
     classes,
     totalValue: moneyOut(rows[0]?.total_value ?? '0'),
     months,
+    currency,
   };
 }
 
