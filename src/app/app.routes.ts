@@ -43,6 +43,12 @@ export const routes: Routes = [
         loadChildren: () => import('./jobs/jobs.routes').then((m) => m.jobsRoutes),
       },
       {
+        path: 'insights',
+        canActivate: [roleGuard],
+        data: { roles: ['owner', 'buyer'] },
+        loadChildren: () => import('./insights/insights.routes').then((m) => m.insightsRoutes),
+      },
+      {
         path: 'account',
         loadChildren: () => import('./account/account.routes').then((m) => m.accountRoutes),
       },

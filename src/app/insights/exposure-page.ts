@@ -1,0 +1,76 @@
+import { DatePipe } from '@angular/common';
+import { ChangeDetectionStrategy, Component, computed, inject, input } from '@angular/core';
+import { MatButtonToggleModule } from '@angular/material/button-toggle';
+import { MatTableModule } from '@angular/material/table';
+import { Router } from '@angular/router';
+
+import { InsightChart } from './insight-chart';
+import { loadEach } from './insight-loader';
+import { InsightPanel } from './insight-panel';
+import { InsightsApi } from './insights-api';
+import { exposureChart, supplierChart } from './insights-charts';
+import { formatCount, formatShare } from './insights-format';
+import { MONTH_CHOICES, monthsFrom } from './stock-page';
+
+/**
+ * Where the shop ran short: steps asked for with no measured piston free, the jobs that waited and
+ * for how long; and which suppliers deliver when they said they would.
+ */
+@Component({
+  selector: 'app-exposure-page',
+  imports: [DatePipe, InsightChart, InsightPanel, MatButtonToggleModule, MatTableModule],
+  templateUrl: './exposure-page.html',
+  styleUrl: './exposure-page.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class ExposurePage {
+  private readonly api = inject(InsightsApi);
+  private readonly router = inject(Router);
+
+  readonly months = input<string>();
+  protected readonly window = computed(() => monthsFrom(this.months()));
+  protected readonly choices = MONTH_CHOICES;
+
+  protected readonly exposure = loadEach(this.window, (m) => this.api.exposure(m));
+  protected readonly suppliers = loadEach(this.window, (m) => this.api.supplierReliability(m));
+
+  protected readonly shortChart = computed(() => {
+    const answer = this.exposure.value();
+    return answer ? exposureChart(answer) : null;
+  });
+  protected readonly supplyChart = computed(() => {
+    const answer = this.suppliers.value();
+    return answer && answer.items.length ? supplierChart(answer) : null;
+  });
+  protected readonly totals = computed(() => {
+    const items = this.exposure.value()?.items ?? [];
+    return {
+      steps: items.length,
+      stillWaiting: items.reduce((n, i) => n + i.stillWaiting, 0),
+    };
+  });
+
+  protected readonly shortColumns = ['step', 'times', 'jobs', 'days', 'waiting', 'last'];
+  protected readonly supplierColumns = [
+    'supplier',
+    'orders',
+    'promised',
+    'actual',
+    'late',
+    'onTime',
+  ];
+  protected readonly count = formatCount;
+  protected readonly share = formatShare;
+  protected readonly csv = computed(() => ({
+    exposure: this.api.csvUrl('exposure', { months: this.window() }),
+    suppliers: this.api.csvUrl('supplier-reliability', { months: this.window() }),
+  }));
+
+  protected setMonths(months: number): void {
+    void this.router.navigate([], {
+      queryParams: { months },
+      queryParamsHandling: 'merge',
+      replaceUrl: true,
+    });
+  }
+}

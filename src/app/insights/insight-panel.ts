@@ -1,0 +1,30 @@
+import { ChangeDetectionStrategy, Component, input, output } from '@angular/core';
+import { MatButtonModule } from '@angular/material/button';
+import { MatIconModule } from '@angular/material/icon';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+
+/**
+ * A figure of the insights pages: a heading, its chart and its table side by side (stacked on a
+ * narrow screen and on paper), a CSV download, and designed loading, error and empty states.
+ */
+@Component({
+  selector: 'app-insight-panel',
+  imports: [MatButtonModule, MatIconModule, MatProgressBarModule],
+  templateUrl: './insight-panel.html',
+  styleUrl: './insight-panel.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  host: { role: 'region', '[attr.aria-label]': 'heading()' },
+})
+export class InsightPanel {
+  readonly heading = input.required<string>();
+  readonly note = input('');
+  readonly csvHref = input<string | null>(null);
+  readonly csvName = input('');
+  readonly loading = input(false);
+  readonly error = input('');
+  readonly empty = input(false);
+  readonly emptyText = input('Nothing to show for this period.');
+  /** Chart and table side by side (false: the table alone, full width). */
+  readonly withChart = input(true);
+  readonly retry = output<void>();
+}
