@@ -345,8 +345,9 @@ export interface SupplierReliabilityRow {
 
 export interface SupplierReliabilityAnswer {
   items: SupplierReliabilityRow[];
-  /** False until the shop has received anything against a purchase order. */
+  /** False until the shop has received anything against a purchase order (the list is empty). */
   ordersReceived: boolean;
+  /** Why the list is empty, or null when it is not. */
   message: string | null;
   months: number;
 }

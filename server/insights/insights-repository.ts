@@ -445,15 +445,52 @@ export interface SupplierReliabilityDb {
   on_time_share: string | null;
 }
 
-/** Promised against actual lead time per supplier; null while the shop has no purchase orders. */
+/**
+ * Promised against actual lead time per supplier, over order lines received in the last :months
+ * months. Days run from the day the order was sent to the day promised (the order's expected date,
+ * or the supplier's usual lead time when the order named none) and to the day each delivery came
+ * in, as calendar days in the shop's time zone. A delivery in two parts counts each part.
+ */
 export async function supplierReliability(
-  months: number,
+  args: { months: number; tz: string },
   k: Knex = db,
-): Promise<SupplierReliabilityDb[] | null> {
-  const found = await k.raw<{ rows: { present: boolean }[] }>(
-    `SELECT to_regclass('purchase_orders') IS NOT NULL AS present`,
+): Promise<{ rows: SupplierReliabilityDb[]; anyEver: boolean }> {
+  const result = await k.raw<{ rows: (SupplierReliabilityDb & { any_ever: boolean })[] }>(
+    `
+    WITH ever AS (
+      SELECT EXISTS (SELECT 1 FROM purchase_order_receipt_lines) AS any_ever
+    ), lines AS (
+      SELECT o.supplier_id, o.id AS order_id,
+             (r.received_at AT TIME ZONE :tz)::date - (o.sent_at AT TIME ZONE :tz)::date AS actual,
+             coalesce(o.expected_on, (o.sent_at AT TIME ZONE :tz)::date + s.lead_days)
+               - (o.sent_at AT TIME ZONE :tz)::date AS promised
+        FROM purchase_order_receipt_lines rl
+        JOIN purchase_order_receipts r ON r.id = rl.receipt_id
+        JOIN purchase_orders o ON o.id = r.order_id
+        JOIN suppliers s ON s.id = o.supplier_id
+       WHERE o.sent_at IS NOT NULL
+         AND r.received_at >= now() - make_interval(months => :months)
+    ), per_supplier AS (
+      SELECT l.supplier_id, count(DISTINCT l.order_id)::int AS orders_received,
+             count(*)::int AS lines_received,
+             round(avg(l.promised), 1) AS promised_days,
+             round(avg(l.actual), 1) AS actual_days,
+             round(avg(l.actual - l.promised), 1) AS average_days_late,
+             round(avg(CASE WHEN l.actual <= l.promised THEN 1 ELSE 0 END), 4) AS on_time_share
+        FROM lines l
+       GROUP BY l.supplier_id
+    )
+    SELECT ever.any_ever, p.*, s.id AS supplier_id, s.name AS supplier_name
+      FROM ever
+      LEFT JOIN per_supplier p ON true
+      LEFT JOIN suppliers s ON s.id = p.supplier_id
+     ORDER BY p.average_days_late DESC NULLS LAST, s.name
+    `,
+    { months: args.months, tz: args.tz },
   );
-  if (!found.rows[0].present) return null;
-  void months;
-  return [];
+  const rows = result.rows;
+  return {
+    anyEver: rows[0]?.any_ever ?? false,
+    rows: rows.filter((r) => r.supplier_id !== null),
+  };
 }

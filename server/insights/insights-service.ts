@@ -255,15 +255,8 @@ export async function supplierReliability(
   months: number,
   k: Knex = db,
 ): Promise<SupplierReliabilityAnswer> {
-  const rows = await repo.supplierReliability(months, k);
-  if (rows === null) {
-    return {
-      items: [],
-      ordersReceived: false,
-      message: 'No purchase orders are recorded yet, so there is nothing to compare.',
-      months,
-    };
-  }
+  const { timeZone } = await shopContext(k);
+  const { rows, anyEver } = await repo.supplierReliability({ months, tz: timeZone }, k);
   return {
     items: rows.map((r) => ({
       supplierId: r.supplier_id,
@@ -275,11 +268,12 @@ export async function supplierReliability(
       averageDaysLate: r.average_days_late,
       onTimeShare: r.on_time_share,
     })),
-    ordersReceived: rows.length > 0,
-    message:
-      rows.length > 0
-        ? null
-        : `No order lines were received in the last ${months} months, so there is nothing to compare yet.`,
+    ordersReceived: anyEver,
+    message: !anyEver
+      ? 'No orders received yet: once a delivery is taken in against a purchase order, its promised and actual lead times show here.'
+      : rows.length === 0
+        ? `Nothing was received against a purchase order in the last ${months} months.`
+        : null,
     months,
   };
 }

@@ -5,7 +5,7 @@
 import Decimal from 'decimal.js';
 import { DateTime } from 'luxon';
 import { db } from '../../server/db/knex';
-import { recordShortage } from '../../server/insights/insights-service';
+import { recordShortage, supplierReliability } from '../../server/insights/insights-service';
 import { abcClassify } from '../../shared/abc';
 import { issueAtCost, receiveAtCost, type CostState } from '../../shared/average-cost';
 import { neutralizeCell } from '../../shared/csv-safety';
@@ -691,12 +691,104 @@ describe('who may see insights', () => {
 });
 
 describe('supplier reliability', () => {
-  it('when nothing has been received against a purchase order, then the list is empty and says so', async () => {
-    const res = await buyer.get('/api/insights/supplier-reliability');
+  it('when deliveries came in against purchase orders, then promised and actual lead times compare per supplier', async () => {
+    const family = await makeFamily(owner);
+    const piston = (await makePart(owner, family, 'piston', 1)).id;
+    const rings = (await makePart(owner, family, 'rings', 1)).id;
+    const [supplier] = await db('suppliers')
+      .insert({ name: `Test supplier ${family.familyCode}`, currency: 'EUR', lead_days: 10 })
+      .returning(['id']);
+    // Calendar days in the shop's zone: sent at 10:00, received at 15:00 local.
+    const today = DateTime.now().setZone(ZONE).startOf('day');
+    const at = (days: number, hour: number) => today.plus({ days, hours: hour }).toUTC().toISO();
+    const order = async (sentDay: number, expectedAfter: number | null) => {
+      const [o] = await db('purchase_orders')
+        .insert({
+          supplier_id: supplier.id,
+          currency: 'EUR',
+          state: 'all_in',
+          sent_at: at(sentDay, 10),
+          closed_at: at(0, 0),
+          expected_on:
+            expectedAfter === null
+              ? null
+              : today.plus({ days: sentDay + expectedAfter }).toISODate(),
+        })
+        .returning(['id']);
+      return o.id as string;
+    };
+    const line = async (orderId: string, lineNo: number, partId: string, quantity: number) => {
+      const [l] = await db('purchase_order_lines')
+        .insert({
+          order_id: orderId,
+          line_no: lineNo,
+          part_id: partId,
+          quantity,
+          unit_price: '10.00',
+          received_quantity: quantity,
+        })
+        .returning(['id']);
+      return l.id as string;
+    };
+    const receive = async (orderId: string, day: number, lines: [string, number][]) => {
+      const [r] = await db('purchase_order_receipts')
+        .insert({ order_id: orderId, received_at: at(day, 15) })
+        .returning(['id']);
+      await db('purchase_order_receipt_lines').insert(
+        lines.map(([lineId, quantity]) => ({
+          receipt_id: r.id,
+          line_id: lineId,
+          quantity,
+          stock_receipt_id: r.id,
+        })),
+      );
+    };
+    // Order 1: sent 40 days ago, promised in 14 days; one line came early (day 12), one late (day 20).
+    const first = await order(-40, 14);
+    const firstPiston = await line(first, 1, piston, 2);
+    const firstRings = await line(first, 2, rings, 4);
+    await receive(first, -40 + 12, [[firstPiston, 2]]);
+    await receive(first, -40 + 20, [[firstRings, 4]]);
+    // Order 2: sent 30 days ago with no date named: the supplier's usual 10 days; came on day 13.
+    const second = await order(-30, null);
+    await receive(second, -30 + 13, [[await line(second, 1, piston, 1), 1]]);
+
+    const res = await buyer.get('/api/insights/supplier-reliability?months=12');
     expect(res.status).toBe(200);
-    if (res.body.items.length === 0) {
-      expect(res.body.ordersReceived).toBe(false);
-      expect(res.body.message).toMatch(/nothing to compare/);
-    }
+    expect(res.body.ordersReceived).toBe(true);
+    const row = res.body.items.find((i: { supplierId: string }) => i.supplierId === supplier.id);
+    // Promised 14, 14, 10 → 12.7; actual 12, 20, 13 → 15.0; late −2, 6, 3 → 2.3; on time 1 of 3.
+    expect(row).toEqual({
+      supplierId: supplier.id,
+      supplierName: `Test supplier ${family.familyCode}`,
+      ordersReceived: 2,
+      linesReceived: 3,
+      promisedDays: '12.7',
+      actualDays: '15.0',
+      averageDaysLate: '2.3',
+      onTimeShare: '0.3333',
+    });
+  });
+
+  it('when nothing has been received against a purchase order, then the list is empty and says so', async () => {
+    // Rolled back: the other tests' deliveries are hidden only inside this transaction.
+    await db
+      .transaction(async (trx) => {
+        await trx('purchase_order_receipt_lines').del();
+        await trx('purchase_order_receipts').del();
+        const answer = await supplierReliability(12, trx);
+        expect(answer).toEqual({
+          items: [],
+          ordersReceived: false,
+          message: expect.stringMatching(/^No orders received yet/),
+          months: 12,
+        });
+        throw new Error('roll back');
+      })
+      .catch((e: Error) => {
+        if (e.message !== 'roll back') throw e;
+      });
+    const res = await buyer.get('/api/insights/supplier-reliability?months=12');
+    expect(res.body.ordersReceived).toBe(true);
   });
 });
