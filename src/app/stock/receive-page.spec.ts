@@ -1,0 +1,153 @@
+import { provideHttpClient } from '@angular/common/http';
+import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { HarnessLoader } from '@angular/cdk/testing';
+import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
+import { ComponentFixture, TestBed } from '@angular/core/testing';
+import { MatButtonHarness } from '@angular/material/button/testing';
+import { MatCheckboxHarness } from '@angular/material/checkbox/testing';
+import { MatInputHarness } from '@angular/material/input/testing';
+import { MatSelectHarness } from '@angular/material/select/testing';
+import { provideRouter } from '@angular/router';
+
+import type { PartDetailJson } from '../../../shared/catalog-api';
+import { toLengthJson } from '../../../shared/lengths';
+import type { SessionUser } from '../../../shared/session-types';
+import { Notifier } from '../core/notifier';
+import { Session } from '../core/session';
+import { ReceivePage } from './receive-page';
+
+const STAFF: SessionUser = {
+  id: 'u1',
+  email: 's@example.test',
+  name: 'Ned Quarrie',
+  role: 'staff',
+  unit: 'in',
+};
+
+const PISTON = {
+  id: 'p1',
+  sku: 'TR-2-PC-010',
+  kind: 'piston',
+  familyId: 'f1',
+  familyCode: 'TR-2',
+  stepId: 'st1',
+  stepLabel: '+0.010 in',
+  description: 'Piston +0.010 in',
+  material: 'cast',
+  ringCount: 2,
+  pinDiameter: null,
+  gtin: null,
+  salePrice: '60.00',
+  averageCost: '0.00',
+  onHand: 0,
+  held: 0,
+  free: 0,
+  reorderPoint: null,
+  orderUpTo: null,
+  binId: null,
+  bin: null,
+  active: true,
+  family: { id: 'f1', code: 'TR-2', name: 'Test twin' },
+  // 2.5100 in bore = 63 754 000 nm
+  step: {
+    id: 'st1',
+    label: '+0.010 in',
+    offset: toLengthJson(254_000),
+    nominalBore: toLengthJson(63_754_000),
+  },
+  components: [],
+  createdAt: '2026-01-01T00:00:00.000Z',
+  updatedAt: '2026-01-01T00:00:00.000Z',
+} as PartDetailJson;
+
+describe('ReceivePage', () => {
+  let http: HttpTestingController;
+  let fixture: ComponentFixture<ReceivePage>;
+  let loader: HarnessLoader;
+
+  beforeEach(async () => {
+    TestBed.configureTestingModule({
+      providers: [
+        provideRouter([]),
+        provideHttpClient(),
+        provideHttpClientTesting(),
+        { provide: Notifier, useValue: { success: jest.fn(), error: jest.fn() } },
+      ],
+    });
+    http = TestBed.inject(HttpTestingController);
+    const loading = TestBed.inject(Session).load();
+    http.expectOne('/api/session').flush({ user: STAFF });
+    await loading;
+    fixture = TestBed.createComponent(ReceivePage);
+    loader = TestbedHarnessEnvironment.loader(fixture);
+    fixture.componentRef.setInput('partId', 'p1');
+    await fixture.whenStable();
+    http
+      .expectOne((r) => r.url === '/api/bins')
+      .flush({ items: [{ id: 'b1', code: 'A-1', name: 'Pistons', units: 0, parts: 0 }], total: 1 });
+    http.expectOne('/api/parts/p1').flush(PISTON);
+    await fixture.whenStable();
+  });
+
+  afterEach(() => http.verify());
+
+  async function fill(selector: string, value: string): Promise<void> {
+    await (await loader.getHarness(MatInputHarness.with({ selector }))).setValue(value);
+  }
+
+  async function fillDelivery(): Promise<void> {
+    await fill('[formControlName=quantity]', '2');
+    await fixture.whenStable();
+    await fill('[data-unit-index="0"]', '2.5083');
+    const later = await loader.getAllHarnesses(MatCheckboxHarness.with({ label: 'To measure' }));
+    expect(later).toHaveLength(2);
+    await later[1].check();
+    await (await loader.getHarness(MatSelectHarness)).clickOptions({ text: /A-1/ });
+    await fill('[formControlName=unitCost]', '41.00');
+  }
+
+  it('when pistons are typed in inches, then each is sent with its unit and "to measure" as null', async () => {
+    await fillDelivery();
+    // 2.5083 in × 25.4 = 63.71082 mm, shown at 0.001 mm under the field.
+    expect((fixture.nativeElement as HTMLElement).textContent).toContain('= 63.711 mm');
+    await (await loader.getHarness(MatButtonHarness.with({ text: /Receive into stock/ }))).click();
+    const request = http.expectOne('/api/stock/receipts');
+    expect(request.request.body).toEqual({
+      partId: 'p1',
+      quantity: 2,
+      binId: 'b1',
+      unitCost: '41.00',
+      note: undefined,
+      units: [{ skirt: '2.5083 in' }, { skirt: null }],
+    });
+    request.flush({
+      receiptId: 'r1',
+      ledger: [{ quantity: 1 }, { quantity: 1 }],
+      units: [],
+      levels: { onHand: 2, held: 0, free: 2, averageCost: '41.00' },
+    });
+    await fixture.whenStable();
+    expect((fixture.nativeElement as HTMLElement).querySelector('.done')?.textContent).toContain(
+      '2 × TR-2-PC-010',
+    );
+  });
+
+  it('when the server refuses one skirt, then its message shows under that piston', async () => {
+    await fillDelivery();
+    await (await loader.getHarness(MatButtonHarness.with({ text: /Receive into stock/ }))).click();
+    http.expectOne('/api/stock/receipts').flush(
+      {
+        error: {
+          code: 'invalid',
+          message: 'units.0.skirt: far from the bore',
+          details: [{ field: 'units.0.skirt', message: 'far from the bore' }],
+        },
+      },
+      { status: 400, statusText: 'Bad Request' },
+    );
+    await fixture.whenStable();
+    const text = (fixture.nativeElement as HTMLElement).textContent ?? '';
+    expect(text).toContain('far from the bore');
+    expect((fixture.nativeElement as HTMLElement).querySelector('[role=alert]')).not.toBeNull();
+  });
+});
