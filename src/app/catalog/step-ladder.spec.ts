@@ -140,7 +140,7 @@ describe('StepLadder', () => {
   });
 
   it('when a step has free pistons, then each shows as a chip with its measured size or "to measure"', () => {
-    const chips = [...el().querySelectorAll('li.step')[1].querySelectorAll('.chip')];
+    const chips = Array.from(el().querySelectorAll('li.step')[1].querySelectorAll('.chip'));
     // 2.5083 in × 25.4 = 63.71082 mm → 63.711 mm at the trade's 0.001 mm.
     expect(chips.map((c) => c.getAttribute('aria-label'))).toEqual([
       '63.711 mm, free, PU-000002, bin A-2',
