@@ -2,6 +2,7 @@
 // feature that needs it adds a starter here. Everything coordinates through PostgreSQL, so several
 // server processes may run these side by side.
 import { startMailBackground } from './mail/mail-background';
+import { startDigestSweep } from './alerts/digest-sweep';
 import { startHoldSweep } from './jobs/hold-sweep';
 
 export interface Background {
@@ -10,7 +11,7 @@ export interface Background {
 
 type Starter = () => Promise<Background> | Background;
 
-const starters: Starter[] = [startMailBackground, startHoldSweep];
+const starters: Starter[] = [startMailBackground, startDigestSweep, startHoldSweep];
 
 export async function startBackgroundWork(): Promise<Background> {
   if (process.env.STEPSTOCK_NO_BACKGROUND === '1') return { stop: async () => undefined };

@@ -6,6 +6,8 @@ import { registerUsersRoutes } from './users/users-routes';
 import { registerAccountRoutes } from './account/account-routes';
 import { registerSettingsRoutes } from './settings/settings-routes';
 import { registerMailRoutes } from './mail/mail-routes';
+import { registerAlertsRoutes } from './alerts/alerts-routes';
+import { registerPurchasingRoutes } from './purchasing/purchasing-routes';
 import { registerOpenApiRoutes } from './openapi/openapi-routes';
 import { registerCatalogRoutes } from './catalog/catalog-routes';
 import { registerStockRoutes } from './stock/stock-routes';
@@ -21,6 +23,8 @@ export function registerAllRoutes(api: Router): void {
   registerAccountRoutes(api);
   registerSettingsRoutes(api);
   registerMailRoutes(api);
+  registerAlertsRoutes(api);
+  registerPurchasingRoutes(api);
   registerOpenApiRoutes(api);
   registerCatalogRoutes(api);
   registerStockRoutes(api);

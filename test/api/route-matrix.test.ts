@@ -107,6 +107,34 @@ const EXPECTED: Record<string, Access> = {
   'GET /api/exports/price-comparison.csv': ['owner', 'buyer', 'staff'],
   // Mail: the local mailbox (demo and tests) is the owner's.
   'GET /api/mailbox': OWNER,
+  // Alerts and purchasing: buyer and owner reorder, source and order; staff read orders and receive
+  // against them; machinists may set a cylinder to wait for a piston on order; the owner keeps rates.
+  'GET /api/alerts': ['owner', 'buyer'],
+  'POST /api/alerts/:id/acknowledge': ['owner', 'buyer'],
+  'GET /api/parts/:id/reorder-rule': ['owner', 'buyer'],
+  'PUT /api/parts/:id/reorder-rule': ['owner', 'buyer'],
+  'GET /api/parts/:id/reorder-suggestion': ['owner', 'buyer'],
+  'GET /api/reorder': ['owner', 'buyer'],
+  'GET /api/reorder-defaults': ['owner', 'buyer'],
+  'PUT /api/reorder-defaults': ['owner', 'buyer'],
+  'DELETE /api/reorder-defaults/:id': ['owner', 'buyer'],
+  'GET /api/sourcing': ['owner', 'buyer'],
+  'GET /api/exchange-rates': ['owner', 'buyer'],
+  'PUT /api/exchange-rates/:currency': OWNER,
+  'DELETE /api/exchange-rates/:currency': OWNER,
+  'GET /api/purchase-orders': ['owner', 'buyer', 'staff'],
+  'POST /api/purchase-orders': ['owner', 'buyer'],
+  'POST /api/purchase-orders/drafts': ['owner', 'buyer'],
+  'GET /api/purchase-orders/open-lines': ['owner', 'buyer', 'staff'],
+  'GET /api/purchase-orders/:id': ['owner', 'buyer', 'staff'],
+  'PATCH /api/purchase-orders/:id': ['owner', 'buyer'],
+  'POST /api/purchase-orders/:id/send': ['owner', 'buyer'],
+  'POST /api/purchase-orders/:id/cancel': ['owner', 'buyer'],
+  'POST /api/purchase-orders/:id/receipts': ['owner', 'buyer', 'staff'],
+  'GET /api/order-waits': ALL,
+  'POST /api/order-waits': ['owner', 'buyer', 'machinist'],
+  'DELETE /api/order-waits/:id': ['owner', 'buyer', 'machinist'],
+  'GET /api/order-lines/:id/wait-candidates': ['owner', 'buyer', 'machinist'],
 };
 
 interface Found {

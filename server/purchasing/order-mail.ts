@@ -1,0 +1,124 @@
+// The e-mail purchasing sends: the order to the supplier (lines as a CSV attachment), and the news
+// that a piston a job waited for has arrived and is held for it, to the machinists and the customer.
+import { stringify } from 'csv-stringify/sync';
+import { config } from '../config';
+import { composeMail, type MailContent } from '../mail/mail-layout';
+import type { MailAttachment } from '../mail/outbox';
+import { neutralizeCell } from '../../shared/csv-safety';
+import type { LengthJson } from '../../shared/lengths';
+import { D, moneyOut } from './money-math';
+import type { LineRow, OrderRow } from './orders-repository';
+
+export function orderCsv(order: OrderRow, lines: LineRow[]): string {
+  return stringify([
+    [
+      'line',
+      'supplier_sku',
+      'our_sku',
+      'description',
+      'quantity',
+      'unit_price',
+      'currency',
+      'line_total',
+    ],
+    ...lines.map((l) => [
+      String(l.line_no),
+      neutralizeCell(l.supplier_sku ?? ''),
+      neutralizeCell(l.sku),
+      neutralizeCell(l.description),
+      String(l.quantity),
+      moneyOut(l.unit_price),
+      order.currency,
+      moneyOut(new D(l.unit_price).times(l.quantity)),
+    ]),
+  ]);
+}
+
+export function orderMail(
+  shopName: string,
+  order: OrderRow,
+  lines: LineRow[],
+  expectedOn: string | null,
+): MailContent & { attachments: MailAttachment[] } {
+  const total = lines.reduce((sum, l) => sum.plus(new D(l.unit_price).times(l.quantity)), new D(0));
+  const content = composeMail({
+    shopName,
+    appUrl: config.appUrl,
+    subject: `Purchase order ${order.number} from ${shopName}`,
+    heading: `Purchase order ${order.number}`,
+    paragraphs: [
+      `Please supply the ${lines.length === 1 ? 'line' : `${lines.length} lines`} below; the same lines are attached as a CSV file.`,
+      ...lines.map(
+        (l) =>
+          `${l.line_no}. ${l.quantity} × ${l.supplier_sku ?? l.sku} — ${l.description} at ${moneyOut(l.unit_price)} ${order.currency}`,
+      ),
+      ...(order.notes ? [`Note: ${order.notes}`] : []),
+      'Please quote our order number on the delivery note and reply if anything cannot be supplied.',
+    ],
+    facts: [
+      ['Order', order.number],
+      ['Total', `${moneyOut(total)} ${order.currency}`],
+      ['Wanted by', expectedOn ?? 'as soon as possible'],
+    ],
+  });
+  return {
+    ...content,
+    attachments: [
+      { filename: `${order.number}.csv`, contentType: 'text/csv', content: orderCsv(order, lines) },
+    ],
+  };
+}
+
+export interface ArrivalFacts {
+  jobId: string;
+  jobNumber: string;
+  customerName: string;
+  cylinder: number;
+  unitLabel: string;
+  sku: string;
+  skirt: LengthJson | null;
+  orderNumber: string;
+}
+
+function skirtText(skirt: LengthJson | null): string {
+  return skirt === null ? 'not measured' : `${skirt.mm} mm (${skirt.in} in)`;
+}
+
+export function arrivalMailForMachinist(shopName: string, a: ArrivalFacts): MailContent {
+  return composeMail({
+    shopName,
+    appUrl: config.appUrl,
+    subject: `Piston in for job ${a.jobNumber}, cylinder ${a.cylinder}: ${a.unitLabel} is held`,
+    heading: `The piston job ${a.jobNumber} waited for has arrived`,
+    paragraphs: [
+      `${a.unitLabel} (${a.sku}) came in on order ${a.orderNumber} and is now held for cylinder ${a.cylinder} of job ${a.jobNumber} (${a.customerName}).`,
+      'Check its skirt against the bore sheet before cutting; the machine maker\u2019s instructions come first.',
+    ],
+    facts: [
+      ['Job', a.jobNumber],
+      ['Cylinder', String(a.cylinder)],
+      ['Piston', `${a.unitLabel} (${a.sku})`],
+      ['Measured skirt', skirtText(a.skirt)],
+    ],
+    link: { label: 'Open the job', path: `/jobs/${a.jobId}` },
+  });
+}
+
+export function arrivalMailForCustomer(
+  shopName: string,
+  shopHours: string,
+  a: ArrivalFacts,
+): MailContent {
+  return composeMail({
+    shopName,
+    appUrl: config.appUrl,
+    subject: `${shopName}: the part for job ${a.jobNumber} has arrived`,
+    heading: `Good news about job ${a.jobNumber}`,
+    paragraphs: [
+      `Dear ${a.customerName}, the piston your cylinder was waiting for has arrived and is set aside for your job. We can now carry on with the work.`,
+      'We will let you know when everything is ready to collect.',
+    ],
+    facts: [['Job number', a.jobNumber]],
+    closing: shopHours ? `Our hours: ${shopHours}` : undefined,
+  });
+}

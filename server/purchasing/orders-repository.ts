@@ -1,0 +1,552 @@
+// Queries for purchase orders, their lines and receipts, and jobs waiting on order lines.
+import type { Knex } from 'knex';
+import { db } from '../db/knex';
+import type { OrderState, OrdersQuery } from '../../shared/purchasing-api';
+
+export interface OrderRow {
+  id: string;
+  number: string;
+  supplier_id: string;
+  supplier_name: string;
+  supplier_email: string | null;
+  supplier_lead_days: number;
+  currency: string;
+  state: OrderState;
+  expected_on: string | null;
+  notes: string;
+  created_at: Date;
+  created_by_name: string | null;
+  sent_at: Date | null;
+  closed_at: Date | null;
+}
+
+export interface LineRow {
+  id: string;
+  order_id: string;
+  line_no: number;
+  part_id: string;
+  sku: string;
+  description: string;
+  part_kind: string;
+  family_id: string | null;
+  step_id: string | null;
+  family_code: string | null;
+  step_label: string | null;
+  part_gtin: string | null;
+  supplier_sku: string | null;
+  supplier_gtin: string | null;
+  quantity: number;
+  unit_price: string;
+  received_quantity: number;
+}
+
+export interface WaitRow {
+  id: string;
+  line_id: string;
+  order_id: string;
+  order_number: string;
+  job_id: string;
+  job_number: string;
+  customer_name: string;
+  cylinder: number;
+  sku: string;
+  created_at: Date;
+  fulfilled_at: Date | null;
+  cancelled_at: Date | null;
+  unit_label: string | null;
+}
+
+function ordersBase(k: Knex) {
+  return k('purchase_orders as o')
+    .join('suppliers as s', 's.id', 'o.supplier_id')
+    .leftJoin('users as u', 'u.id', 'o.created_by')
+    .select(
+      'o.id',
+      'o.number',
+      'o.supplier_id',
+      's.name as supplier_name',
+      's.email as supplier_email',
+      's.lead_days as supplier_lead_days',
+      'o.currency',
+      'o.state',
+      k.raw(`to_char(o.expected_on, 'YYYY-MM-DD') AS expected_on`),
+      'o.notes',
+      'o.created_at',
+      'u.name as created_by_name',
+      'o.sent_at',
+      'o.closed_at',
+    );
+}
+
+export async function findOrder(id: string, k: Knex = db): Promise<OrderRow | undefined> {
+  return (await ordersBase(k).where('o.id', id).first()) as OrderRow | undefined;
+}
+
+export async function lockOrder(k: Knex, id: string): Promise<OrderRow | undefined> {
+  const locked = await k('purchase_orders').where({ id }).forUpdate().first('id');
+  if (!locked) return undefined;
+  return findOrder(id, k);
+}
+
+export async function orderLines(orderIds: string[], k: Knex = db): Promise<LineRow[]> {
+  if (orderIds.length === 0) return [];
+  return k('purchase_order_lines as l')
+    .join('purchase_orders as o', 'o.id', 'l.order_id')
+    .join('parts as p', 'p.id', 'l.part_id')
+    .leftJoin('engine_families as f', 'f.id', 'p.family_id')
+    .leftJoin('series_steps as st', 'st.id', 'p.step_id')
+    .leftJoin(
+      k.raw(
+        `LATERAL (SELECT i.sku, i.gtin FROM supplier_items i
+                   WHERE i.supplier_id = o.supplier_id AND i.part_id = l.part_id
+                   ORDER BY i.dropped, i.updated_at DESC LIMIT 1) AS si ON true`,
+      ),
+    )
+    .whereIn('l.order_id', orderIds)
+    .select(
+      'l.id',
+      'l.order_id',
+      'l.line_no',
+      'l.part_id',
+      'p.sku',
+      'p.description',
+      'p.kind as part_kind',
+      'p.family_id',
+      'p.step_id',
+      'f.code as family_code',
+      'st.label as step_label',
+      'p.gtin as part_gtin',
+      'si.sku as supplier_sku',
+      'si.gtin as supplier_gtin',
+      'l.quantity',
+      'l.unit_price',
+      'l.received_quantity',
+    )
+    .orderBy([{ column: 'l.order_id' }, { column: 'l.line_no' }]);
+}
+
+export async function lockLines(k: Knex, orderId: string): Promise<void> {
+  await k('purchase_order_lines').where({ order_id: orderId }).forUpdate().select('id');
+}
+
+const ORDER_SORTS: Record<string, string> = {
+  number: 'o.number',
+  createdAt: 'o.created_at',
+  expectedOn: 'o.expected_on',
+  supplier: 'lower(s.name)',
+  state: 'o.state',
+};
+
+export interface OrderListRow extends OrderRow {
+  lines: number;
+  quantity: number;
+  received: number;
+  total: string;
+}
+
+export async function listOrders(
+  q: OrdersQuery,
+  k: Knex = db,
+): Promise<{ rows: OrderListRow[]; total: number }> {
+  const base = ordersBase(k).modify((qb) => {
+    if (q.state === 'open') qb.whereIn('o.state', ['sent_out', 'partly_in']);
+    else if (q.state) qb.where('o.state', q.state);
+    if (q.supplierId) qb.where('o.supplier_id', q.supplierId);
+    if (q.q) {
+      const like = `%${q.q.replace(/[\\%_]/g, '\\$&')}%`;
+      qb.where((w) => w.whereILike('o.number', like).orWhereILike('s.name', like));
+    }
+  });
+  const [{ count }] = await k.from(base.clone().as('x')).count<{ count: number }[]>('* as count');
+  const sort = ORDER_SORTS[q.sort ?? 'createdAt'];
+  const rows = await base
+    .clone()
+    .select(
+      k.raw(`(SELECT count(*)::int FROM purchase_order_lines l WHERE l.order_id = o.id) AS lines`),
+      k.raw(
+        `(SELECT coalesce(sum(l.quantity), 0)::int FROM purchase_order_lines l WHERE l.order_id = o.id) AS quantity`,
+      ),
+      k.raw(
+        `(SELECT coalesce(sum(l.received_quantity), 0)::int FROM purchase_order_lines l WHERE l.order_id = o.id) AS received`,
+      ),
+      k.raw(
+        `(SELECT coalesce(sum(l.quantity * l.unit_price), 0)::text FROM purchase_order_lines l WHERE l.order_id = o.id) AS total`,
+      ),
+    )
+    .orderByRaw(`${sort} ${q.dir === 'asc' ? 'ASC' : 'DESC'} NULLS LAST, o.number DESC`)
+    .limit(q.pageSize)
+    .offset((q.page - 1) * q.pageSize);
+  return { rows: rows as OrderListRow[], total: Number(count) };
+}
+
+export async function insertOrder(
+  k: Knex,
+  o: {
+    supplier_id: string;
+    currency: string;
+    expected_on: string | null;
+    notes: string;
+    created_by: string;
+  },
+): Promise<string> {
+  const [row] = await k('purchase_orders').insert(o).returning('id');
+  return (row as { id: string }).id;
+}
+
+export async function replaceLines(
+  k: Knex,
+  orderId: string,
+  lines: { part_id: string; quantity: number; unit_price: string }[],
+): Promise<void> {
+  await k('purchase_order_lines').where({ order_id: orderId }).delete();
+  await k('purchase_order_lines').insert(
+    lines.map((l, i) => ({ ...l, order_id: orderId, line_no: i + 1 })),
+  );
+}
+
+export async function updateOrder(
+  k: Knex,
+  id: string,
+  patch: Partial<{
+    state: OrderState;
+    expected_on: string | null;
+    notes: string;
+    sent_at: Date | Knex.Raw;
+    sent_by: string;
+    closed_at: Date | Knex.Raw | null;
+  }>,
+): Promise<void> {
+  await k('purchase_orders')
+    .where({ id })
+    .update({ ...patch, updated_at: k.fn.now() });
+}
+
+export async function addReceived(k: Knex, lineId: string, quantity: number): Promise<void> {
+  await k('purchase_order_lines').where({ id: lineId }).increment('received_quantity', quantity);
+}
+
+export async function lineTotals(
+  k: Knex,
+  orderId: string,
+): Promise<{ quantity: number; received: number }> {
+  const row = await k('purchase_order_lines')
+    .where({ order_id: orderId })
+    .first(
+      k.raw('coalesce(sum(quantity), 0)::int AS quantity'),
+      k.raw('coalesce(sum(received_quantity), 0)::int AS received'),
+    );
+  return row as { quantity: number; received: number };
+}
+
+export async function insertReceipt(
+  k: Knex,
+  r: { id: string; order_id: string; received_by: string; note: string },
+): Promise<void> {
+  await k('purchase_order_receipts').insert(r);
+}
+
+export async function insertReceiptLine(
+  k: Knex,
+  r: { receipt_id: string; line_id: string; quantity: number; stock_receipt_id: string },
+): Promise<void> {
+  await k('purchase_order_receipt_lines').insert(r);
+}
+
+export interface SupplierRef {
+  id: string;
+  name: string;
+  email: string | null;
+  currency: string;
+  lead_days: number;
+  active: boolean;
+}
+
+export async function findSupplier(id: string, k: Knex = db): Promise<SupplierRef | undefined> {
+  return k('suppliers')
+    .where({ id })
+    .first('id', 'name', 'email', 'currency', 'lead_days', 'active');
+}
+
+export interface PartRef {
+  id: string;
+  sku: string;
+  kind: string;
+  active: boolean;
+}
+
+export async function partsByIds(ids: string[], k: Knex = db): Promise<PartRef[]> {
+  if (ids.length === 0) return [];
+  return k('parts').whereIn('id', ids).select('id', 'sku', 'kind', 'active');
+}
+
+/** Parts already on an order being drafted: drafting them again would order them twice. */
+export async function partsOnDrafts(partIds: string[], k: Knex = db): Promise<Set<string>> {
+  if (partIds.length === 0) return new Set();
+  const rows = await k('purchase_order_lines as l')
+    .join('purchase_orders as o', 'o.id', 'l.order_id')
+    .where('o.state', 'drafting')
+    .whereIn('l.part_id', partIds)
+    .distinct('l.part_id');
+  return new Set(rows.map((r: { part_id: string }) => r.part_id));
+}
+
+/** Open lines (on orders sent out or partly in) whose part or supplier item has the GTIN. */
+export async function openLinesByGtin(
+  gtin14: string,
+  k: Knex = db,
+): Promise<{ order_id: string; line_id: string }[]> {
+  return k('purchase_order_lines as l')
+    .join('purchase_orders as o', 'o.id', 'l.order_id')
+    .join('parts as p', 'p.id', 'l.part_id')
+    .whereIn('o.state', ['sent_out', 'partly_in'])
+    .andWhereRaw('l.received_quantity < l.quantity')
+    .andWhere((w) =>
+      w
+        .where('p.gtin', gtin14)
+        .orWhereExists(
+          k('supplier_items as i')
+            .whereRaw('i.supplier_id = o.supplier_id AND i.part_id = l.part_id')
+            .andWhere('i.gtin', gtin14),
+        ),
+    )
+    .select('o.id as order_id', 'l.id as line_id')
+    .orderBy([{ column: 'o.expected_on', nulls: 'last' }, { column: 'o.number' }]);
+}
+
+/** What is on order per part (open lines of orders sent out), for the step ladder. */
+export async function onOrderByPart(partIds: string[], k: Knex = db): Promise<Map<string, number>> {
+  if (partIds.length === 0) return new Map();
+  const rows = await k
+    .from(k.raw('parts_on_order() AS oo'))
+    .whereIn('oo.part_id', partIds)
+    .groupBy('oo.part_id')
+    .select('oo.part_id', k.raw('sum(oo.quantity)::int AS quantity'));
+  return new Map(rows.map((r: { part_id: string; quantity: number }) => [r.part_id, r.quantity]));
+}
+
+// ---- Receiving helpers --------------------------------------------------------------------------
+
+export async function rateFor(currency: string, k: Knex = db): Promise<string | null> {
+  const row = await k('exchange_rates').where({ currency }).first('rate');
+  return (row?.rate as string | undefined) ?? null;
+}
+
+/** Where a received part goes when the receiver names no bin: where it already lives. */
+export async function usualBin(partId: string, k: Knex = db): Promise<string | null> {
+  const level = await k('part_levels').where({ part_id: partId }).first('bin_id');
+  if (level?.bin_id) return level.bin_id as string;
+  const unit = await k('piston_units')
+    .where({ part_id: partId })
+    .whereNotNull('bin_id')
+    .orderBy('received_at', 'desc')
+    .first('bin_id');
+  return (unit?.bin_id as string | undefined) ?? null;
+}
+
+export async function binByCode(code: string, k: Knex = db): Promise<string | null> {
+  const row = await k('bins').whereRaw('upper(code) = upper(?)', [code]).first('id');
+  return (row?.id as string | undefined) ?? null;
+}
+
+// ---- Waits --------------------------------------------------------------------------------------
+
+function waitsBase(k: Knex) {
+  return k('order_line_waits as w')
+    .join('purchase_order_lines as l', 'l.id', 'w.line_id')
+    .join('purchase_orders as o', 'o.id', 'l.order_id')
+    .join('parts as p', 'p.id', 'l.part_id')
+    .join('jobs as j', 'j.id', 'w.job_id')
+    .leftJoin('holds as h', 'h.id', 'w.hold_id')
+    .leftJoin('piston_units as pu', 'pu.id', 'h.unit_id')
+    .select(
+      'w.id',
+      'w.line_id',
+      'o.id as order_id',
+      'o.number as order_number',
+      'w.job_id',
+      'j.number as job_number',
+      'j.customer_name',
+      'w.cylinder',
+      'p.sku',
+      'w.created_at',
+      'w.fulfilled_at',
+      'w.cancelled_at',
+      'pu.label as unit_label',
+    );
+}
+
+export async function listWaits(
+  f: { jobId?: string; lineId?: string; lineIds?: string[]; active: boolean },
+  k: Knex = db,
+): Promise<WaitRow[]> {
+  return (await waitsBase(k)
+    .modify((qb) => {
+      if (f.jobId) qb.where('w.job_id', f.jobId);
+      if (f.lineId) qb.where('w.line_id', f.lineId);
+      if (f.lineIds) qb.whereIn('w.line_id', f.lineIds);
+      if (f.active) qb.whereNull('w.fulfilled_at').whereNull('w.cancelled_at');
+    })
+    .orderBy([{ column: 'j.created_at' }, { column: 'w.created_at' }])) as WaitRow[];
+}
+
+export async function findWait(id: string, k: Knex = db): Promise<WaitRow | undefined> {
+  return (await waitsBase(k).where('w.id', id).first()) as WaitRow | undefined;
+}
+
+/** The line's active waits, oldest job first, locked so two deliveries never serve one wait. */
+export async function lockActiveWaits(
+  k: Knex,
+  lineId: string,
+): Promise<{ id: string; job_id: string; cylinder: number }[]> {
+  return k('order_line_waits as w')
+    .join('jobs as j', 'j.id', 'w.job_id')
+    .where('w.line_id', lineId)
+    .whereNull('w.fulfilled_at')
+    .whereNull('w.cancelled_at')
+    .orderBy([{ column: 'j.created_at' }, { column: 'w.created_at' }])
+    .forUpdate('w')
+    .select('w.id', 'w.job_id', 'w.cylinder');
+}
+
+export async function insertWait(
+  k: Knex,
+  w: { line_id: string; job_id: string; cylinder: number; created_by: string },
+): Promise<string> {
+  const [row] = await k('order_line_waits').insert(w).returning('id');
+  return (row as { id: string }).id;
+}
+
+export async function fulfillWait(k: Knex, id: string, holdId: string): Promise<void> {
+  await k('order_line_waits').where({ id }).update({ fulfilled_at: k.fn.now(), hold_id: holdId });
+}
+
+export async function cancelWait(k: Knex, id: string): Promise<boolean> {
+  return (
+    (await k('order_line_waits')
+      .where({ id })
+      .whereNull('fulfilled_at')
+      .whereNull('cancelled_at')
+      .update({ cancelled_at: k.fn.now() })) > 0
+  );
+}
+
+export async function cancelWaitsOfOrder(k: Knex, orderId: string): Promise<number> {
+  return k('order_line_waits')
+    .whereIn('line_id', k('purchase_order_lines').where({ order_id: orderId }).select('id'))
+    .whereNull('fulfilled_at')
+    .whereNull('cancelled_at')
+    .update({ cancelled_at: k.fn.now() });
+}
+
+export interface WaitJobRow {
+  id: string;
+  number: string;
+  state: string;
+  family_id: string;
+  cylinders: number;
+  customer_name: string;
+  customer_email: string | null;
+  notify_customer: boolean;
+}
+
+export async function jobForWait(id: string, k: Knex = db): Promise<WaitJobRow | undefined> {
+  return k('jobs')
+    .where({ id })
+    .first(
+      'id',
+      'number',
+      'state',
+      'family_id',
+      'cylinders',
+      'customer_name',
+      'customer_email',
+      'notify_customer',
+    );
+}
+
+export async function cylinderState(
+  jobId: string,
+  n: number,
+  k: Knex = db,
+): Promise<
+  { chosen_step_id: string | null; cut_at: Date | null; piston_held: boolean } | undefined
+> {
+  const row = await k('job_cylinders as c')
+    .where({ 'c.job_id': jobId, 'c.n': n })
+    .first(
+      'c.chosen_step_id',
+      'c.cut_at',
+      k.raw(
+        `EXISTS (SELECT 1 FROM holds h WHERE h.job_id = c.job_id AND h.cylinder = c.n
+                  AND h.released_at IS NULL AND h.unit_id IS NOT NULL) AS piston_held`,
+      ),
+    );
+  return row as
+    { chosen_step_id: string | null; cut_at: Date | null; piston_held: boolean } | undefined;
+}
+
+export async function lineWithOrder(
+  lineId: string,
+  k: Knex = db,
+): Promise<(LineRow & { order_state: OrderState; order_number: string }) | undefined> {
+  const line = (await orderLines(
+    (await k('purchase_order_lines').where({ id: lineId }).pluck('order_id')) as string[],
+    k,
+  ).then((rows) => rows.find((r) => r.id === lineId))) as LineRow | undefined;
+  if (!line) return undefined;
+  const order = await k('purchase_orders').where({ id: line.order_id }).first('state', 'number');
+  return { ...line, order_state: order.state as OrderState, order_number: order.number as string };
+}
+
+/**
+ * Open jobs with a cylinder that needs this line's piston: same family, the cylinder's chosen step
+ * is the part's step, nothing held for it, not cut, and not already waiting.
+ */
+export async function waitCandidates(
+  familyId: string,
+  stepId: string,
+  k: Knex = db,
+): Promise<
+  {
+    job_id: string;
+    job_number: string;
+    customer_name: string;
+    cylinder: number;
+    created_at: Date;
+  }[]
+> {
+  return k('job_cylinders as c')
+    .join('jobs as j', 'j.id', 'c.job_id')
+    .where({ 'j.family_id': familyId, 'c.chosen_step_id': stepId })
+    .whereNotIn('j.state', ['handed_back', 'called_off'])
+    .whereNull('c.cut_at')
+    .whereNotExists(
+      k('holds as h')
+        .whereRaw('h.job_id = c.job_id AND h.cylinder = c.n')
+        .whereNull('h.released_at')
+        .whereNotNull('h.unit_id'),
+    )
+    .whereNotExists(
+      k('order_line_waits as w')
+        .whereRaw('w.job_id = c.job_id AND w.cylinder = c.n')
+        .whereNull('w.fulfilled_at')
+        .whereNull('w.cancelled_at'),
+    )
+    .select(
+      'j.id as job_id',
+      'j.number as job_number',
+      'j.customer_name',
+      'c.n as cylinder',
+      'j.created_at',
+    )
+    .orderBy([{ column: 'j.created_at' }, { column: 'c.n' }]);
+}
+
+/** People told when a piston they wait for arrives. */
+export async function machinistAddresses(k: Knex = db): Promise<string[]> {
+  return k('users')
+    .where({ role: 'machinist', active: true })
+    .whereNot('mail_mode', 'none')
+    .orderBy('email')
+    .pluck('email');
+}

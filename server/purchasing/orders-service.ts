@@ -1,0 +1,533 @@
+// Purchase orders: drafted by hand or from the reorder list, edited while drafting, sent to the
+// supplier by e-mail (through the outbox, in the same transaction as the state change), called off.
+// Also the jobs that wait on an order line for their piston.
+import type { Knex } from 'knex';
+import { db } from '../db/knex';
+import { recordAudit } from '../audit/audit';
+import { BadRequest, Conflict, NotFound } from '../errors';
+import { enqueueMail } from '../mail/outbox';
+import { getSettings } from '../settings/settings-service';
+import { displayGtin, type Page } from '../../shared/catalog-api';
+import { normalizeGtin } from '../../shared/gtin';
+import {
+  ORDER_STATE_LABELS,
+  type DraftsInput,
+  type DraftsJson,
+  type OpenLineJson,
+  type OrderInput,
+  type OrderJson,
+  type OrderLineJson,
+  type OrderListItemJson,
+  type OrderPatch,
+  type OrdersQuery,
+  type WaitCandidateJson,
+  type WaitInput,
+  type WaitJson,
+} from '../../shared/purchasing-api';
+import { D, moneyOut } from './money-math';
+import { orderMail } from './order-mail';
+import * as repo from './orders-repository';
+import { lowParts } from './reorder-repository';
+import { quantityToOrder } from './reorder-service';
+import { bestOffer, offersFor, shopToday } from './sourcing-service';
+
+function fieldError(field: string, message: string): BadRequest {
+  return new BadRequest(`${field}: ${message}`, [{ field, message }]);
+}
+
+export function waitJson(w: repo.WaitRow): WaitJson {
+  return {
+    id: w.id,
+    jobId: w.job_id,
+    jobNumber: w.job_number,
+    customerName: w.customer_name,
+    cylinder: w.cylinder,
+    lineId: w.line_id,
+    orderId: w.order_id,
+    orderNumber: w.order_number,
+    sku: w.sku,
+    createdAt: w.created_at.toISOString(),
+    fulfilledAt: w.fulfilled_at?.toISOString() ?? null,
+    cancelledAt: w.cancelled_at?.toISOString() ?? null,
+    unitLabel: w.unit_label,
+  };
+}
+
+function lineJson(l: repo.LineRow, waits: repo.WaitRow[]): OrderLineJson {
+  const gtins = [l.part_gtin, l.supplier_gtin]
+    .filter((g): g is string => Boolean(g))
+    .map(displayGtin)
+    .filter((g, i, all) => all.indexOf(g) === i);
+  return {
+    id: l.id,
+    lineNo: l.line_no,
+    partId: l.part_id,
+    sku: l.sku,
+    description: l.description,
+    partKind: l.part_kind,
+    familyCode: l.family_code,
+    stepLabel: l.step_label,
+    supplierSku: l.supplier_sku,
+    gtins,
+    quantity: l.quantity,
+    received: l.received_quantity,
+    open: l.quantity - l.received_quantity,
+    unitPrice: moneyOut(l.unit_price),
+    lineTotal: moneyOut(new D(l.unit_price).times(l.quantity)),
+    waits: waits.filter((w) => w.line_id === l.id).map(waitJson),
+  };
+}
+
+function orderJson(o: repo.OrderRow, lines: repo.LineRow[], waits: repo.WaitRow[]): OrderJson {
+  const total = lines.reduce((sum, l) => sum.plus(new D(l.unit_price).times(l.quantity)), new D(0));
+  return {
+    id: o.id,
+    number: o.number,
+    supplierId: o.supplier_id,
+    supplierName: o.supplier_name,
+    supplierEmail: o.supplier_email,
+    currency: o.currency,
+    state: o.state,
+    stateLabel: ORDER_STATE_LABELS[o.state],
+    expectedOn: o.expected_on,
+    notes: o.notes,
+    total: moneyOut(total),
+    lines: lines.map((l) => lineJson(l, waits)),
+    createdAt: o.created_at.toISOString(),
+    createdBy: o.created_by_name,
+    sentAt: o.sent_at?.toISOString() ?? null,
+    closedAt: o.closed_at?.toISOString() ?? null,
+  };
+}
+
+export async function getOrder(id: string, k: Knex = db): Promise<OrderJson> {
+  const order = await repo.findOrder(id, k);
+  if (!order) throw new NotFound('That purchase order');
+  const lines = await repo.orderLines([id], k);
+  const waits = await repo.listWaits({ lineIds: lines.map((l) => l.id), active: false }, k);
+  return orderJson(order, lines, waits);
+}
+
+export async function listOrders(q: OrdersQuery, k: Knex = db): Promise<Page<OrderListItemJson>> {
+  const { rows, total } = await repo.listOrders(q, k);
+  return {
+    items: rows.map((r) => ({
+      id: r.id,
+      number: r.number,
+      supplierId: r.supplier_id,
+      supplierName: r.supplier_name,
+      currency: r.currency,
+      state: r.state,
+      stateLabel: ORDER_STATE_LABELS[r.state],
+      expectedOn: r.expected_on,
+      lines: r.lines,
+      quantity: r.quantity,
+      received: r.received,
+      total: moneyOut(r.total),
+      createdAt: r.created_at.toISOString(),
+      sentAt: r.sent_at?.toISOString() ?? null,
+    })),
+    total,
+  };
+}
+
+/** Lines must name active, countable parts, each once. */
+async function checkLines(lines: OrderInput['lines'], k: Knex): Promise<void> {
+  const parts = await repo.partsByIds(
+    lines.map((l) => l.partId),
+    k,
+  );
+  const seen = new Set<string>();
+  lines.forEach((l, i) => {
+    const part = parts.find((p) => p.id === l.partId);
+    if (!part) throw fieldError(`lines.${i}.partId`, 'no part has this id');
+    if (part.kind === 'kit') {
+      throw fieldError(`lines.${i}.partId`, `${part.sku} is a kit: order its parts`);
+    }
+    if (!part.active) throw fieldError(`lines.${i}.partId`, `${part.sku} is no longer stocked`);
+    if (seen.has(l.partId)) {
+      throw fieldError(
+        `lines.${i}.partId`,
+        `${part.sku} is already on line ${[...seen].indexOf(l.partId) + 1}; change its quantity instead`,
+      );
+    }
+    seen.add(l.partId);
+  });
+}
+
+async function requireSupplier(id: string, k: Knex): Promise<repo.SupplierRef> {
+  const supplier = await repo.findSupplier(id, k);
+  if (!supplier) throw fieldError('supplierId', 'no supplier has this id');
+  if (!supplier.active) throw fieldError('supplierId', `${supplier.name} is marked inactive`);
+  return supplier;
+}
+
+async function insertOrderWithLines(
+  trx: Knex,
+  actorId: string,
+  supplier: repo.SupplierRef,
+  input: {
+    lines: OrderInput['lines'];
+    expectedOn?: string | null;
+    notes?: string;
+    currency?: string;
+  },
+  action: string,
+): Promise<string> {
+  const id = await repo.insertOrder(trx, {
+    supplier_id: supplier.id,
+    currency: input.currency ?? supplier.currency,
+    expected_on: input.expectedOn ?? null,
+    notes: input.notes ?? '',
+    created_by: actorId,
+  });
+  await repo.replaceLines(
+    trx,
+    id,
+    input.lines.map((l) => ({ part_id: l.partId, quantity: l.quantity, unit_price: l.unitPrice })),
+  );
+  await recordAudit(trx, {
+    userId: actorId,
+    action,
+    entity: 'purchase_order',
+    entityId: id,
+    after: { supplierId: supplier.id, lines: input.lines, expectedOn: input.expectedOn ?? null },
+  });
+  return id;
+}
+
+export async function createOrder(
+  actorId: string,
+  input: OrderInput,
+  k: Knex = db,
+): Promise<OrderJson> {
+  const supplier = await requireSupplier(input.supplierId, k);
+  await checkLines(input.lines, k);
+  const id = await k.transaction((trx) =>
+    insertOrderWithLines(trx, actorId, supplier, input, 'purchase_order.create'),
+  );
+  return getOrder(id, k);
+}
+
+async function lockDrafting(trx: Knex, id: string, doing: string): Promise<repo.OrderRow> {
+  const order = await repo.lockOrder(trx, id);
+  if (!order) throw new NotFound('That purchase order');
+  if (order.state !== 'drafting') {
+    throw new Conflict(
+      `${order.number} is ${ORDER_STATE_LABELS[order.state].toLowerCase()}: only an order being drafted can be ${doing}.`,
+      'order_not_drafting',
+    );
+  }
+  return order;
+}
+
+export async function patchOrder(
+  actorId: string,
+  id: string,
+  patch: OrderPatch,
+  k: Knex = db,
+): Promise<OrderJson> {
+  if (patch.lines) await checkLines(patch.lines, k);
+  await k.transaction(async (trx) => {
+    const order = await lockDrafting(trx, id, 'changed');
+    if (patch.lines)
+      await repo.replaceLines(
+        trx,
+        id,
+        patch.lines.map((l) => ({
+          part_id: l.partId,
+          quantity: l.quantity,
+          unit_price: l.unitPrice,
+        })),
+      );
+    await repo.updateOrder(trx, id, {
+      ...(patch.expectedOn !== undefined ? { expected_on: patch.expectedOn } : {}),
+      ...(patch.notes !== undefined ? { notes: patch.notes } : {}),
+    });
+    await recordAudit(trx, {
+      userId: actorId,
+      action: 'purchase_order.update',
+      entity: 'purchase_order',
+      entityId: id,
+      before: { number: order.number, expectedOn: order.expected_on, notes: order.notes },
+      after: patch,
+    });
+  });
+  return getOrder(id, k);
+}
+
+/**
+ * Sends a drafted order: the supplier's e-mail (lines as CSV) goes into the outbox in the same
+ * transaction that marks the order sent, so the order is never "sent" without its message.
+ */
+export async function sendOrder(actorId: string, id: string, k: Knex = db): Promise<OrderJson> {
+  const settings = await getSettings(k);
+  const today = await shopToday(k);
+  await k.transaction(async (trx) => {
+    const order = await lockDrafting(trx, id, 'sent');
+    if (!order.supplier_email) {
+      throw new Conflict(
+        `${order.supplier_name} has no ordering e-mail address: add one to the supplier first.`,
+        'no_supplier_email',
+      );
+    }
+    const lines = await repo.orderLines([id], trx);
+    if (lines.length === 0) throw new Conflict(`${order.number} has no lines to send.`, 'no_lines');
+    const expectedOn =
+      order.expected_on ?? today.plus({ days: order.supplier_lead_days }).toISODate() ?? null;
+    const mail = orderMail(settings.shopName, order, lines, expectedOn);
+    await enqueueMail(trx, { to: order.supplier_email, ...mail });
+    await repo.updateOrder(trx, id, {
+      state: 'sent_out',
+      sent_at: trx.fn.now(),
+      sent_by: actorId,
+      expected_on: expectedOn,
+    });
+    await recordAudit(trx, {
+      userId: actorId,
+      action: 'purchase_order.send',
+      entity: 'purchase_order',
+      entityId: id,
+      after: { to: order.supplier_email, expectedOn },
+    });
+  });
+  return getOrder(id, k);
+}
+
+export async function cancelOrder(actorId: string, id: string, k: Knex = db): Promise<OrderJson> {
+  await k.transaction(async (trx) => {
+    const order = await repo.lockOrder(trx, id);
+    if (!order) throw new NotFound('That purchase order');
+    if (order.state === 'all_in' || order.state === 'called_off') {
+      throw new Conflict(
+        `${order.number} is ${ORDER_STATE_LABELS[order.state].toLowerCase()}: there is nothing left to call off.`,
+        'order_closed',
+      );
+    }
+    const waits = await repo.cancelWaitsOfOrder(trx, id);
+    await repo.updateOrder(trx, id, { state: 'called_off', closed_at: trx.fn.now() });
+    await recordAudit(trx, {
+      userId: actorId,
+      action: 'purchase_order.cancel',
+      entity: 'purchase_order',
+      entityId: id,
+      before: { state: order.state },
+      after: { state: 'called_off', waitsCalledOff: waits },
+    });
+  });
+  return getOrder(id, k);
+}
+
+/**
+ * Drafts from the reorder list: every low part (or the ones named) with the quantity that brings
+ * it back to its order-up-to level, at the best supplier's price, one draft per supplier and
+ * currency. Parts already on a draft are left out; parts nobody offers are listed as unsourced.
+ */
+export async function draftFromSuggestions(
+  actorId: string,
+  input: DraftsInput,
+  k: Knex = db,
+): Promise<DraftsJson> {
+  const low = await lowParts({ partIds: input.partIds, familyId: input.familyId }, k);
+  const drafted = await repo.partsOnDrafts(
+    low.map((p) => p.id),
+    k,
+  );
+  const groups = new Map<
+    string,
+    { supplierId: string; currency: string; lines: OrderInput['lines'] }
+  >();
+  const unsourced: DraftsJson['unsourced'] = [];
+  for (const part of low) {
+    if (drafted.has(part.id)) continue;
+    const quantity = quantityToOrder(part);
+    if (quantity <= 0) continue;
+    const offers = await offersFor([part.id], { quantity }, k);
+    const { best } = bestOffer(offers, quantity, null);
+    if (!best) {
+      unsourced.push({ partId: part.id, sku: part.sku, quantity });
+      continue;
+    }
+    const key = `${best.supplierId}:${best.currency}`;
+    const group = groups.get(key) ?? {
+      supplierId: best.supplierId,
+      currency: best.currency,
+      lines: [],
+    };
+    group.lines.push({ partId: part.id, quantity, unitPrice: best.price });
+    groups.set(key, group);
+  }
+  const ids = await k.transaction(async (trx) => {
+    const created: string[] = [];
+    for (const g of groups.values()) {
+      const supplier = await repo.findSupplier(g.supplierId, trx);
+      if (!supplier) continue;
+      created.push(
+        await insertOrderWithLines(
+          trx,
+          actorId,
+          supplier,
+          { lines: g.lines, currency: g.currency },
+          'purchase_order.draft_from_suggestions',
+        ),
+      );
+    }
+    return created;
+  });
+  const orders: OrderJson[] = [];
+  for (const id of ids) orders.push(await getOrder(id, k));
+  return { orders, unsourced };
+}
+
+/** A scanned GTIN → the open order lines it can be received against. */
+export async function openLinesForGtin(
+  code: string,
+  k: Knex = db,
+): Promise<{ items: OpenLineJson[]; total: number }> {
+  const gtin = normalizeGtin(code);
+  if (!gtin) throw fieldError('gtin', 'not a valid GTIN (check the digits under the barcode)');
+  const found = await repo.openLinesByGtin(gtin, k);
+  const items: OpenLineJson[] = [];
+  for (const f of found) {
+    const order = await getOrder(f.order_id, k);
+    const line = order.lines.find((l) => l.id === f.line_id);
+    if (line)
+      items.push({
+        orderId: order.id,
+        orderNumber: order.number,
+        supplierName: order.supplierName,
+        line,
+      });
+  }
+  return { items, total: items.length };
+}
+
+// ---- Waits ------------------------------------------------------------------------------------
+
+export async function listWaits(
+  f: { jobId?: string; lineId?: string; active: boolean },
+  k: Knex = db,
+): Promise<{ items: WaitJson[]; total: number }> {
+  const rows = await repo.listWaits(f, k);
+  return { items: rows.map(waitJson), total: rows.length };
+}
+
+/** A job's cylinder starts waiting for the piston on an order line. */
+export async function addWait(actorId: string, input: WaitInput, k: Knex = db): Promise<WaitJson> {
+  const line = await repo.lineWithOrder(input.lineId, k);
+  if (!line) throw fieldError('lineId', 'no order line has this id');
+  if (line.order_state === 'all_in' || line.order_state === 'called_off') {
+    throw new Conflict(`${line.order_number} is closed: wait on an open order.`, 'order_closed');
+  }
+  if (line.part_kind !== 'piston') {
+    throw fieldError(
+      'lineId',
+      `${line.sku} is not a piston: only a piston can be held for a cylinder`,
+    );
+  }
+  if (line.received_quantity >= line.quantity) {
+    throw new Conflict(
+      `Line ${line.line_no} of ${line.order_number} is received in full.`,
+      'line_received',
+    );
+  }
+  const job = await repo.jobForWait(input.jobId, k);
+  if (!job) throw fieldError('jobId', 'no job has this id');
+  if (job.state === 'handed_back' || job.state === 'called_off') {
+    throw new Conflict(`Job ${job.number} is closed.`, 'job_closed');
+  }
+  if (input.cylinder > job.cylinders) {
+    throw fieldError(
+      'cylinder',
+      `job ${job.number} has ${job.cylinders} cylinder${job.cylinders === 1 ? '' : 's'}`,
+    );
+  }
+  if (job.family_id !== line.family_id) {
+    throw fieldError('lineId', `${line.sku} is for another engine family than job ${job.number}`);
+  }
+  const cylinder = await repo.cylinderState(job.id, input.cylinder, k);
+  if (!cylinder)
+    throw fieldError('cylinder', `cylinder ${input.cylinder} of job ${job.number} is not recorded`);
+  if (cylinder.cut_at)
+    throw new Conflict(`Cylinder ${input.cylinder} of job ${job.number} is already cut.`);
+  if (cylinder.piston_held) {
+    throw new Conflict(
+      `Cylinder ${input.cylinder} of job ${job.number} already has a piston held.`,
+      'already_held',
+    );
+  }
+  if (cylinder.chosen_step_id && cylinder.chosen_step_id !== line.step_id) {
+    throw fieldError('lineId', `${line.sku} is not the step chosen for cylinder ${input.cylinder}`);
+  }
+  let id: string;
+  try {
+    id = await k.transaction(async (trx) => {
+      const newId = await repo.insertWait(trx, {
+        line_id: line.id,
+        job_id: job.id,
+        cylinder: input.cylinder,
+        created_by: actorId,
+      });
+      await recordAudit(trx, {
+        userId: actorId,
+        action: 'order_wait.create',
+        entity: 'order_line_wait',
+        entityId: newId,
+        after: { jobId: job.id, cylinder: input.cylinder, lineId: line.id },
+      });
+      return newId;
+    });
+  } catch (e) {
+    if ((e as { code?: string }).code === '23505') {
+      throw new Conflict(
+        `Cylinder ${input.cylinder} of job ${job.number} is already waiting on an order line.`,
+        'already_waiting',
+      );
+    }
+    throw e;
+  }
+  const row = await repo.findWait(id, k);
+  if (!row) throw new NotFound('The wait');
+  return waitJson(row);
+}
+
+export async function cancelWait(actorId: string, id: string, k: Knex = db): Promise<void> {
+  await k.transaction(async (trx) => {
+    const wait = await repo.findWait(id, trx);
+    if (!wait) throw new NotFound('That wait');
+    if (!(await repo.cancelWait(trx, id))) {
+      throw new Conflict(
+        'This wait is already over (its piston came in, or it was called off).',
+        'wait_over',
+      );
+    }
+    await recordAudit(trx, {
+      userId: actorId,
+      action: 'order_wait.cancel',
+      entity: 'order_line_wait',
+      entityId: id,
+      before: waitJson(wait),
+    });
+  });
+}
+
+export async function waitCandidates(
+  lineId: string,
+  k: Knex = db,
+): Promise<{ items: WaitCandidateJson[]; total: number }> {
+  const line = await repo.lineWithOrder(lineId, k);
+  if (!line) throw new NotFound('That order line');
+  if (line.part_kind !== 'piston' || !line.family_id || !line.step_id)
+    return { items: [], total: 0 };
+  const rows = await repo.waitCandidates(line.family_id, line.step_id, k);
+  return {
+    items: rows.map((r) => ({
+      jobId: r.job_id,
+      jobNumber: r.job_number,
+      customerName: r.customer_name,
+      cylinder: r.cylinder,
+      createdAt: r.created_at.toISOString(),
+    })),
+    total: rows.length,
+  };
+}

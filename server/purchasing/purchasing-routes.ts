@@ -1,0 +1,232 @@
+// Purchasing routes: reorder rules and suggestions, sourcing and exchange rates, purchase orders,
+// receiving against them, and jobs waiting on an order line. Buyers and the owner buy; staff
+// receive; machinists may set a job to wait for a piston on order.
+import type { Router } from 'express';
+import { z } from 'zod';
+import { route, uuidParam } from '../http/route';
+import {
+  currencyParam,
+  draftsInput,
+  orderInput,
+  orderPatch,
+  ordersQuery,
+  rateInput,
+  receiptLinesInput,
+  reorderDefaultInput,
+  reorderListQuery,
+  reorderRuleInput,
+  reorderSuggestionQuery,
+  sourcingQuery,
+  waitInput,
+  waitsQuery,
+} from '../../shared/purchasing-api';
+import type { Role } from '../../shared/session-types';
+import * as orders from './orders-service';
+import { receiveAgainstOrder } from './receiving-service';
+import * as reorder from './reorder-service';
+import * as sourcing from './sourcing-service';
+
+const BUYERS: Role[] = ['owner', 'buyer'];
+const ORDER_READERS: Role[] = ['owner', 'buyer', 'staff'];
+const RECEIVERS: Role[] = ['owner', 'buyer', 'staff'];
+const WAIT_KEEPERS: Role[] = ['owner', 'buyer', 'machinist'];
+const idParams = z.object({ id: uuidParam });
+
+export function registerPurchasingRoutes(router: Router): void {
+  // ---- Reorder rules ----
+  route(router, {
+    method: 'get',
+    path: '/api/parts/:id/reorder-rule',
+    access: BUYERS,
+    params: idParams,
+    handler: ({ params }) => reorder.getRule(params.id),
+  });
+  route(router, {
+    method: 'put',
+    path: '/api/parts/:id/reorder-rule',
+    access: BUYERS,
+    params: idParams,
+    body: reorderRuleInput,
+    handler: ({ params, body, user }) => reorder.setRule(user.id, params.id, body),
+  });
+  route(router, {
+    method: 'get',
+    path: '/api/parts/:id/reorder-suggestion',
+    access: BUYERS,
+    params: idParams,
+    query: reorderSuggestionQuery,
+    handler: ({ params, query }) => reorder.suggestion(params.id, query),
+  });
+  route(router, {
+    method: 'get',
+    path: '/api/reorder',
+    access: BUYERS,
+    query: reorderListQuery,
+    handler: ({ query }) => reorder.listReorder(query),
+  });
+  route(router, {
+    method: 'get',
+    path: '/api/reorder-defaults',
+    access: BUYERS,
+    query: z.object({ familyId: uuidParam.optional() }),
+    handler: ({ query }) => reorder.listDefaults(query.familyId),
+  });
+  route(router, {
+    method: 'put',
+    path: '/api/reorder-defaults',
+    access: BUYERS,
+    body: reorderDefaultInput,
+    handler: ({ body, user }) => reorder.setDefault(user.id, body),
+  });
+  route(router, {
+    method: 'delete',
+    path: '/api/reorder-defaults/:id',
+    access: BUYERS,
+    params: idParams,
+    handler: async ({ params, user }) => {
+      await reorder.deleteDefault(user.id, params.id);
+      return undefined;
+    },
+  });
+
+  // ---- Sourcing and exchange rates ----
+  route(router, {
+    method: 'get',
+    path: '/api/sourcing',
+    access: BUYERS,
+    query: sourcingQuery,
+    handler: ({ query }) => sourcing.sourcing(query),
+  });
+  route(router, {
+    method: 'get',
+    path: '/api/exchange-rates',
+    access: BUYERS,
+    handler: () => sourcing.listRates(),
+  });
+  route(router, {
+    method: 'put',
+    path: '/api/exchange-rates/:currency',
+    access: ['owner'],
+    params: currencyParam,
+    body: rateInput,
+    handler: ({ params, body, user }) => sourcing.setRate(user.id, params.currency, body.rate),
+  });
+  route(router, {
+    method: 'delete',
+    path: '/api/exchange-rates/:currency',
+    access: ['owner'],
+    params: currencyParam,
+    handler: async ({ params, user }) => {
+      await sourcing.deleteRate(user.id, params.currency);
+      return undefined;
+    },
+  });
+
+  // ---- Purchase orders ----
+  route(router, {
+    method: 'get',
+    path: '/api/purchase-orders',
+    access: ORDER_READERS,
+    query: ordersQuery,
+    handler: ({ query }) => orders.listOrders(query),
+  });
+  route(router, {
+    method: 'post',
+    path: '/api/purchase-orders',
+    access: BUYERS,
+    body: orderInput,
+    status: 201,
+    handler: ({ body, user }) => orders.createOrder(user.id, body),
+  });
+  route(router, {
+    method: 'post',
+    path: '/api/purchase-orders/drafts',
+    access: BUYERS,
+    body: draftsInput,
+    status: 201,
+    handler: ({ body, user }) => orders.draftFromSuggestions(user.id, body),
+  });
+  route(router, {
+    method: 'get',
+    path: '/api/purchase-orders/open-lines',
+    access: RECEIVERS,
+    query: z.object({
+      gtin: z.string({ error: 'scan or type a GTIN' }).trim().min(1, 'scan or type a GTIN').max(40),
+    }),
+    handler: ({ query }) => orders.openLinesForGtin(query.gtin),
+  });
+  route(router, {
+    method: 'get',
+    path: '/api/purchase-orders/:id',
+    access: ORDER_READERS,
+    params: idParams,
+    handler: ({ params }) => orders.getOrder(params.id),
+  });
+  route(router, {
+    method: 'patch',
+    path: '/api/purchase-orders/:id',
+    access: BUYERS,
+    params: idParams,
+    body: orderPatch,
+    handler: ({ params, body, user }) => orders.patchOrder(user.id, params.id, body),
+  });
+  route(router, {
+    method: 'post',
+    path: '/api/purchase-orders/:id/send',
+    access: BUYERS,
+    params: idParams,
+    body: z.object({}).strict(),
+    handler: ({ params, user }) => orders.sendOrder(user.id, params.id),
+  });
+  route(router, {
+    method: 'post',
+    path: '/api/purchase-orders/:id/cancel',
+    access: BUYERS,
+    params: idParams,
+    body: z.object({}).strict(),
+    handler: ({ params, user }) => orders.cancelOrder(user.id, params.id),
+  });
+  route(router, {
+    method: 'post',
+    path: '/api/purchase-orders/:id/receipts',
+    access: RECEIVERS,
+    params: idParams,
+    body: receiptLinesInput,
+    status: 201,
+    handler: ({ params, body, user }) => receiveAgainstOrder(user.id, params.id, body),
+  });
+
+  // ---- Jobs waiting on an order line ----
+  route(router, {
+    method: 'get',
+    path: '/api/order-waits',
+    access: 'signed-in',
+    query: waitsQuery,
+    handler: ({ query }) => orders.listWaits(query),
+  });
+  route(router, {
+    method: 'post',
+    path: '/api/order-waits',
+    access: WAIT_KEEPERS,
+    body: waitInput,
+    status: 201,
+    handler: ({ body, user }) => orders.addWait(user.id, body),
+  });
+  route(router, {
+    method: 'delete',
+    path: '/api/order-waits/:id',
+    access: WAIT_KEEPERS,
+    params: idParams,
+    handler: async ({ params, user }) => {
+      await orders.cancelWait(user.id, params.id);
+      return undefined;
+    },
+  });
+  route(router, {
+    method: 'get',
+    path: '/api/order-lines/:id/wait-candidates',
+    access: WAIT_KEEPERS,
+    params: idParams,
+    handler: ({ params }) => orders.waitCandidates(params.id),
+  });
+}

@@ -1,0 +1,250 @@
+// Queries for reorder rules, defaults, the reorder list and the issue history behind a suggestion.
+import type { Knex } from 'knex';
+import { db } from '../db/knex';
+import type { ReorderListQuery, RuleSource } from '../../shared/purchasing-api';
+
+export interface ReorderPartRow {
+  id: string;
+  sku: string;
+  description: string;
+  kind: string;
+  active: boolean;
+  family_id: string | null;
+  family_code: string | null;
+  step_id: string | null;
+  step_label: string | null;
+  average_cost: string;
+  reorder_point: number | null;
+  order_up_to: number | null;
+  on_hand: number;
+  held: number;
+  free: number;
+  on_order: number;
+  rule_point: number | null;
+  rule_up_to: number | null;
+  rule_source: RuleSource;
+}
+
+function reorderBase(k: Knex) {
+  return k('parts as p')
+    .join('part_levels as pl', 'pl.part_id', 'p.id')
+    .leftJoin('engine_families as f', 'f.id', 'p.family_id')
+    .leftJoin('series_steps as s', 's.id', 'p.step_id')
+    .leftJoin(k.raw('LATERAL part_reorder_rule(p.id) AS r ON true'))
+    .leftJoin(
+      k.raw(
+        '(SELECT part_id, sum(quantity)::int AS quantity FROM parts_on_order() GROUP BY part_id) AS oo',
+      ),
+      'oo.part_id',
+      'p.id',
+    )
+    .select(
+      'p.id',
+      'p.sku',
+      'p.description',
+      'p.kind',
+      'p.active',
+      'p.family_id',
+      'f.code as family_code',
+      'p.step_id',
+      's.label as step_label',
+      'p.average_cost',
+      'p.reorder_point',
+      'p.order_up_to',
+      'pl.on_hand',
+      'pl.held',
+      k.raw('(pl.on_hand - pl.held)::int AS free'),
+      k.raw('coalesce(oo.quantity, 0)::int AS on_order'),
+      'r.reorder_point as rule_point',
+      'r.order_up_to as rule_up_to',
+      k.raw(`coalesce(r.source, 'none') AS rule_source`),
+    );
+}
+
+export async function reorderPart(id: string, k: Knex = db): Promise<ReorderPartRow | undefined> {
+  return (await reorderBase(k).where('p.id', id).first()) as ReorderPartRow | undefined;
+}
+
+export async function reorderParts(ids: string[], k: Knex = db): Promise<ReorderPartRow[]> {
+  if (ids.length === 0) return [];
+  return (await reorderBase(k).whereIn('p.id', ids).orderBy('p.sku')) as ReorderPartRow[];
+}
+
+export async function listReorder(
+  q: ReorderListQuery,
+  k: Knex = db,
+): Promise<{ rows: ReorderPartRow[]; total: number }> {
+  const filtered = reorderBase(k)
+    .where('p.active', true)
+    .andWhereNot('p.kind', 'kit')
+    .modify((qb) => {
+      if (q.familyId) qb.where('p.family_id', q.familyId);
+      if (q.q) {
+        const like = `%${q.q.replace(/[\\%_]/g, '\\$&')}%`;
+        qb.where((w) => w.whereILike('p.sku', like).orWhereILike('p.description', like));
+      }
+      if (q.low) {
+        qb.whereNotNull('r.reorder_point').andWhereRaw(
+          '(pl.on_hand - pl.held) + coalesce(oo.quantity, 0) <= r.reorder_point',
+        );
+      }
+    });
+  const [{ count }] = await k
+    .from(filtered.clone().as('x'))
+    .count<{ count: number }[]>('* as count');
+  const rows = await filtered
+    .clone()
+    .orderBy([
+      { column: 'f.code', order: 'asc' },
+      { column: 'p.sku', order: 'asc' },
+    ])
+    .limit(q.pageSize)
+    .offset((q.page - 1) * q.pageSize);
+  return { rows: rows as ReorderPartRow[], total: Number(count) };
+}
+
+/** Every active part (not a kit) at or below its reorder point, counting what is on order. */
+export async function lowParts(
+  opts: { partIds?: string[]; familyId?: string },
+  k: Knex = db,
+): Promise<ReorderPartRow[]> {
+  return (await reorderBase(k)
+    .where('p.active', true)
+    .andWhereNot('p.kind', 'kit')
+    .whereNotNull('r.reorder_point')
+    .andWhereRaw('(pl.on_hand - pl.held) + coalesce(oo.quantity, 0) <= r.reorder_point')
+    .modify((qb) => {
+      if (opts.partIds) qb.whereIn('p.id', opts.partIds);
+      if (opts.familyId) qb.where('p.family_id', opts.familyId);
+    })
+    .orderBy('p.sku')) as ReorderPartRow[];
+}
+
+export async function lockPart(
+  k: Knex,
+  id: string,
+): Promise<{ reorder_point: number | null; order_up_to: number | null } | undefined> {
+  return k('parts').where({ id }).forUpdate().first('reorder_point', 'order_up_to');
+}
+
+export async function setPartRule(
+  k: Knex,
+  id: string,
+  rule: { reorder_point: number | null; order_up_to: number | null },
+): Promise<void> {
+  await k('parts')
+    .where({ id })
+    .update({ ...rule, updated_at: k.fn.now() });
+}
+
+/** Units issued per day (shop's calendar days) in [from, to). Days without issues are absent. */
+export async function dailyIssues(
+  partId: string,
+  from: Date,
+  to: Date,
+  timeZone: string,
+  k: Knex = db,
+): Promise<{ day: string; quantity: number }[]> {
+  const { rows } = (await k.raw(
+    `SELECT to_char((at AT TIME ZONE ?)::date, 'YYYY-MM-DD') AS day, sum(-quantity)::int AS quantity
+       FROM stock_ledger
+      WHERE part_id = ? AND kind = 'issue' AND at >= ? AND at < ?
+      GROUP BY 1 ORDER BY 1`,
+    [timeZone, partId, from, to],
+  )) as { rows: { day: string; quantity: number }[] };
+  return rows;
+}
+
+// ---- Defaults -------------------------------------------------------------------------------
+
+export interface DefaultRow {
+  id: string;
+  family_id: string;
+  family_code: string;
+  step_id: string | null;
+  step_label: string | null;
+  kind: 'piston' | 'rings';
+  reorder_point: number;
+  order_up_to: number;
+  updated_at: Date;
+}
+
+function defaultsBase(k: Knex) {
+  return k('reorder_defaults as d')
+    .join('engine_families as f', 'f.id', 'd.family_id')
+    .leftJoin('series_steps as s', 's.id', 'd.step_id')
+    .select(
+      'd.id',
+      'd.family_id',
+      'f.code as family_code',
+      'd.step_id',
+      's.label as step_label',
+      'd.kind',
+      'd.reorder_point',
+      'd.order_up_to',
+      'd.updated_at',
+    );
+}
+
+export async function listDefaults(
+  familyId: string | undefined,
+  k: Knex = db,
+): Promise<DefaultRow[]> {
+  return (await defaultsBase(k)
+    .modify((qb) => {
+      if (familyId) qb.where('d.family_id', familyId);
+    })
+    .orderBy([
+      { column: 'f.code' },
+      { column: 'd.kind' },
+      { column: 's.position', nulls: 'first' },
+    ])) as DefaultRow[];
+}
+
+export async function findDefault(id: string, k: Knex = db): Promise<DefaultRow | undefined> {
+  return (await defaultsBase(k).where('d.id', id).first()) as DefaultRow | undefined;
+}
+
+export async function upsertDefault(
+  k: Knex,
+  d: {
+    family_id: string;
+    step_id: string | null;
+    kind: string;
+    reorder_point: number;
+    order_up_to: number;
+    updated_by: string;
+  },
+): Promise<string> {
+  const existing = await k('reorder_defaults')
+    .where({ family_id: d.family_id, kind: d.kind })
+    .modify((qb) => (d.step_id ? qb.where('step_id', d.step_id) : qb.whereNull('step_id')))
+    .forUpdate()
+    .first('id');
+  if (existing) {
+    await k('reorder_defaults')
+      .where({ id: existing.id })
+      .update({ ...d, updated_at: k.fn.now() });
+    return existing.id as string;
+  }
+  const [row] = await k('reorder_defaults').insert(d).returning('id');
+  return (row as { id: string }).id;
+}
+
+export async function deleteDefault(k: Knex, id: string): Promise<boolean> {
+  return (await k('reorder_defaults').where({ id }).delete()) > 0;
+}
+
+export async function stepOfFamily(
+  familyId: string,
+  stepId: string | null,
+  k: Knex = db,
+): Promise<{ family: boolean; step: boolean }> {
+  const family = await k('engine_families').where({ id: familyId }).first('step_series_id');
+  if (!family) return { family: false, step: false };
+  if (!stepId) return { family: true, step: true };
+  const step = await k('series_steps')
+    .where({ id: stepId, series_id: family.step_series_id })
+    .first('id');
+  return { family: true, step: Boolean(step) };
+}

@@ -1,0 +1,462 @@
+// What the purchasing API accepts and answers: reorder rules and suggestions, sourcing offers and
+// exchange rates, purchase orders, receiving against them, and jobs waiting on an order line.
+import { z } from 'zod';
+import { moneyText } from './catalog-api';
+import { skirtField, MAX_PISTONS_PER_RECEIPT } from './stock-api';
+import { currencyCode } from './suppliers-api';
+import type { LengthJson } from './lengths';
+
+const uuid = z.string().uuid('must be a valid id');
+const count = (max = 1_000_000) =>
+  z
+    .number({ error: 'must be a whole number' })
+    .int('must be a whole number')
+    .min(0, 'must be 0 or more')
+    .max(max, `at most ${max}`);
+const isoDate = z
+  .string()
+  .regex(/^\d{4}-\d{2}-\d{2}$/, 'must be a date like 2027-03-14')
+  .refine((d) => !Number.isNaN(Date.parse(`${d}T00:00:00Z`)), 'is not a calendar date');
+
+// ---- Reorder rules -----------------------------------------------------------------------------
+
+export const reorderRuleInput = z
+  .object({
+    reorderPoint: count().nullable(),
+    orderUpTo: count().nullable(),
+  })
+  .strict()
+  .refine((r) => r.reorderPoint === null || r.orderUpTo === null || r.orderUpTo >= r.reorderPoint, {
+    message: 'must not be below the reorder point',
+    path: ['orderUpTo'],
+  })
+  .refine((r) => r.reorderPoint !== null || r.orderUpTo === null, {
+    message: 'set a reorder point first (an order-up-to level alone watches nothing)',
+    path: ['reorderPoint'],
+  });
+export type ReorderRuleInput = z.output<typeof reorderRuleInput>;
+
+export const RULE_SOURCES = ['part', 'step', 'family', 'none'] as const;
+export type RuleSource = (typeof RULE_SOURCES)[number];
+
+export interface ReorderRuleJson {
+  partId: string;
+  reorderPoint: number | null;
+  orderUpTo: number | null;
+  /** The rule the part is watched by: its own, its step's default, its family's, or none. */
+  effective: { reorderPoint: number | null; orderUpTo: number | null; source: RuleSource };
+}
+
+export const reorderDefaultInput = z
+  .object({
+    familyId: uuid,
+    stepId: uuid.nullable(),
+    kind: z.enum(['piston', 'rings'], { error: 'must be piston or rings' }),
+    reorderPoint: count(),
+    orderUpTo: count(),
+  })
+  .strict()
+  .refine((r) => r.orderUpTo >= r.reorderPoint, {
+    message: 'must not be below the reorder point',
+    path: ['orderUpTo'],
+  });
+export type ReorderDefaultInput = z.output<typeof reorderDefaultInput>;
+
+export interface ReorderDefaultJson {
+  id: string;
+  familyId: string;
+  familyCode: string;
+  stepId: string | null;
+  stepLabel: string | null;
+  kind: 'piston' | 'rings';
+  reorderPoint: number;
+  orderUpTo: number;
+  updatedAt: string;
+}
+
+export const reorderSuggestionQuery = z.object({
+  windowDays: z.coerce
+    .number()
+    .int()
+    .min(14, 'at least 14 days')
+    .max(730, 'at most 730 days')
+    .default(180),
+  leadDays: z.coerce.number().int().min(0).max(365).optional(),
+  serviceLevel: z.coerce
+    .number()
+    .min(0.5, 'at least 0.5 (50%)')
+    .max(0.999, 'at most 0.999 (99.9%)')
+    .optional(),
+});
+export type ReorderSuggestionQuery = z.output<typeof reorderSuggestionQuery>;
+
+/** One computed figure and how it was reached. */
+export interface Figure {
+  value: number;
+  how: string;
+}
+
+export interface ReorderSuggestionJson {
+  partId: string;
+  sku: string;
+  window: { from: string; to: string; days: number };
+  issued: Figure;
+  meanDaily: Figure;
+  sigmaDaily: Figure;
+  annualDemand: Figure;
+  leadDays: Figure;
+  serviceLevel: Figure;
+  z: Figure;
+  demandOverLead: Figure;
+  safetyStock: Figure;
+  reorderPoint: Figure;
+  /** Null when no unit cost is known to price holding stock. */
+  orderQuantity: Figure | null;
+  orderUpTo: Figure;
+  current: ReorderRuleJson['effective'];
+  notes: string[];
+}
+
+export const reorderListQuery = z.object({
+  q: z.string().max(200).optional(),
+  familyId: uuid.optional(),
+  /** Only parts at or below their reorder point, counting what is on order. */
+  low: z
+    .enum(['true', 'false'], { error: 'must be true or false' })
+    .optional()
+    .transform((v) => v !== 'false'),
+  page: z.coerce.number().int().min(1).max(100000).default(1),
+  pageSize: z.coerce.number().int().min(1).max(500).default(50),
+});
+export type ReorderListQuery = z.output<typeof reorderListQuery>;
+
+export interface ReorderLineJson {
+  partId: string;
+  sku: string;
+  description: string;
+  kind: string;
+  familyId: string | null;
+  familyCode: string | null;
+  stepId: string | null;
+  stepLabel: string | null;
+  onHand: number;
+  held: number;
+  free: number;
+  onOrder: number;
+  reorderPoint: number | null;
+  orderUpTo: number | null;
+  ruleSource: RuleSource;
+  /** free + on order is at or below the reorder point. */
+  low: boolean;
+  /** What to order to reach the order-up-to level; 0 when not low. */
+  suggestedQuantity: number;
+}
+
+// ---- Sourcing and exchange rates ------------------------------------------------------------------
+
+export const sourcingQuery = z
+  .object({
+    familyId: uuid.optional(),
+    stepId: uuid.optional(),
+    partId: uuid.optional(),
+    neededBy: isoDate.optional(),
+    /** Units wanted: the shipping share is spread over them. */
+    quantity: z.coerce.number().int().min(1).max(10_000).default(1),
+  })
+  .refine((q) => Boolean(q.partId) !== Boolean(q.familyId && q.stepId), {
+    message: 'give either partId, or familyId and stepId',
+    path: ['partId'],
+  })
+  .refine((q) => !(q.familyId && !q.stepId) && !(q.stepId && !q.familyId), {
+    message: 'familyId and stepId go together',
+    path: ['stepId'],
+  });
+export type SourcingQuery = z.output<typeof sourcingQuery>;
+
+export interface OfferJson {
+  supplierId: string;
+  supplierName: string;
+  itemId: string;
+  supplierSku: string;
+  partId: string;
+  sku: string;
+  price: string;
+  currency: string;
+  /** Price plus this quantity's share of the supplier's shipping, in the home currency; null without a rate. */
+  landedCost: string | null;
+  homeCurrency: string;
+  landedHow: string;
+  available: number | null;
+  leadDays: number;
+  /** When the information was brought in: the commit of the price list it came from. */
+  seenAt: string;
+  /** Today plus the lead time (shop's time zone). */
+  arrivesBy: string;
+  meetsNeededBy: boolean;
+}
+
+export interface SourcingJson {
+  offers: OfferJson[];
+  best: OfferJson | null;
+  bestHow: string;
+  /** Nothing free and at most one supplier offering it. */
+  scarce: boolean;
+  free: number;
+  suppliersOffering: number;
+  homeCurrency: string;
+  neededBy: string | null;
+  quantity: number;
+}
+
+export const rateInput = z
+  .object({
+    rate: z
+      .string({ error: 'must be a rate written as text, e.g. "0.9215"' })
+      .trim()
+      .regex(
+        /^\d{1,6}(\.\d{1,8})?$/,
+        'must be a positive number like "0.9215" (at most 8 decimals)',
+      )
+      .refine((v) => Number(v) > 0, 'must be above 0'),
+  })
+  .strict();
+
+export const currencyParam = z.object({ currency: currencyCode });
+
+export interface ExchangeRateJson {
+  currency: string;
+  /** One unit of the currency is worth this much of the home currency. */
+  rate: string;
+  homeCurrency: string;
+  updatedAt: string;
+  updatedBy: string | null;
+}
+
+// ---- Purchase orders -------------------------------------------------------------------------
+
+/** Our own names for where an order stands. */
+export const ORDER_STATES = ['drafting', 'sent_out', 'partly_in', 'all_in', 'called_off'] as const;
+export type OrderState = (typeof ORDER_STATES)[number];
+export const ORDER_STATE_LABELS: Record<OrderState, string> = {
+  drafting: 'Drafting',
+  sent_out: 'Sent out',
+  partly_in: 'Partly in',
+  all_in: 'All in',
+  called_off: 'Called off',
+};
+export const OPEN_ORDER_STATES: OrderState[] = ['sent_out', 'partly_in'];
+
+export const MAX_ORDER_LINES = 200;
+
+const orderLineInput = z
+  .object({
+    partId: uuid,
+    quantity: z
+      .number({ error: 'must be a whole number' })
+      .int('must be a whole number')
+      .min(1, 'must be at least 1')
+      .max(10_000, 'at most 10000'),
+    unitPrice: moneyText,
+  })
+  .strict();
+
+export const orderInput = z
+  .object({
+    supplierId: uuid,
+    lines: z
+      .array(orderLineInput)
+      .min(1, 'add at least one line')
+      .max(MAX_ORDER_LINES, `at most ${MAX_ORDER_LINES} lines`),
+    expectedOn: isoDate.nullable().optional(),
+    notes: z.string().max(2000, 'at most 2000 characters').optional(),
+  })
+  .strict();
+export type OrderInput = z.output<typeof orderInput>;
+
+export const orderPatch = z
+  .object({
+    lines: orderInput.shape.lines.optional(),
+    expectedOn: isoDate.nullable().optional(),
+    notes: z.string().max(2000, 'at most 2000 characters').optional(),
+  })
+  .strict();
+export type OrderPatch = z.output<typeof orderPatch>;
+
+export const ordersQuery = z.object({
+  q: z.string().max(200).optional(),
+  state: z.enum([...ORDER_STATES, 'open'], { error: 'must be an order state or open' }).optional(),
+  supplierId: uuid.optional(),
+  sort: z.enum(['number', 'createdAt', 'expectedOn', 'supplier', 'state']).optional(),
+  dir: z.enum(['asc', 'desc']).optional(),
+  page: z.coerce.number().int().min(1).max(100000).default(1),
+  pageSize: z.coerce.number().int().min(1).max(500).default(50),
+});
+export type OrdersQuery = z.output<typeof ordersQuery>;
+
+export const draftsInput = z
+  .object({
+    /** Only these parts; all low parts when left out. */
+    partIds: z.array(uuid).max(500).optional(),
+    familyId: uuid.optional(),
+  })
+  .strict();
+export type DraftsInput = z.output<typeof draftsInput>;
+
+export const receiptLinesInput = z
+  .object({
+    lines: z
+      .array(
+        z
+          .object({
+            lineId: uuid,
+            quantity: z
+              .number({ error: 'must be a whole number' })
+              .int('must be a whole number')
+              .min(1, 'must be at least 1')
+              .max(10_000),
+            units: z
+              .array(z.object({ skirt: skirtField.nullable().optional() }).strict())
+              .max(MAX_PISTONS_PER_RECEIPT)
+              .optional(),
+            binId: uuid.optional(),
+          })
+          .strict(),
+      )
+      .min(1, 'receive at least one line')
+      .max(MAX_ORDER_LINES),
+    binId: uuid.optional(),
+    note: z.string().trim().max(500).optional(),
+  })
+  .strict();
+export type ReceiptLinesInput = z.output<typeof receiptLinesInput>;
+
+export interface OrderLineJson {
+  id: string;
+  lineNo: number;
+  partId: string;
+  sku: string;
+  description: string;
+  partKind: string;
+  familyCode: string | null;
+  stepLabel: string | null;
+  supplierSku: string | null;
+  /** GTINs that identify this line when scanned: the part's and the supplier item's. */
+  gtins: string[];
+  quantity: number;
+  received: number;
+  open: number;
+  unitPrice: string;
+  lineTotal: string;
+  waits: WaitJson[];
+}
+
+export interface OrderJson {
+  id: string;
+  number: string;
+  supplierId: string;
+  supplierName: string;
+  supplierEmail: string | null;
+  currency: string;
+  state: OrderState;
+  stateLabel: string;
+  expectedOn: string | null;
+  notes: string;
+  total: string;
+  lines: OrderLineJson[];
+  createdAt: string;
+  createdBy: string | null;
+  sentAt: string | null;
+  closedAt: string | null;
+}
+
+export interface OrderListItemJson {
+  id: string;
+  number: string;
+  supplierId: string;
+  supplierName: string;
+  currency: string;
+  state: OrderState;
+  stateLabel: string;
+  expectedOn: string | null;
+  lines: number;
+  quantity: number;
+  received: number;
+  total: string;
+  createdAt: string;
+  sentAt: string | null;
+}
+
+export interface DraftsJson {
+  orders: OrderJson[];
+  /** Low parts no active supplier offers: nothing to draft for them. */
+  unsourced: { partId: string; sku: string; quantity: number }[];
+}
+
+export interface ReceivedHoldJson {
+  jobId: string;
+  jobNumber: string;
+  cylinder: number;
+  unitId: string;
+  unitLabel: string;
+  skirt: LengthJson | null;
+}
+
+export interface OrderReceiptJson {
+  receiptId: string;
+  order: OrderJson;
+  units: { id: string; label: string; partId: string; skirt: LengthJson | null }[];
+  holds: ReceivedHoldJson[];
+  /** Waits that could not take a piston from this delivery (unmeasured, wrong step), with why. */
+  notHeld: { jobNumber: string; cylinder: number; reason: string }[];
+}
+
+export interface OpenLineJson {
+  orderId: string;
+  orderNumber: string;
+  supplierName: string;
+  line: OrderLineJson;
+}
+
+// ---- Jobs waiting on an order line --------------------------------------------------------------
+
+export const waitInput = z
+  .object({
+    jobId: uuid,
+    cylinder: z.number().int().min(1).max(24),
+    lineId: uuid,
+  })
+  .strict();
+export type WaitInput = z.output<typeof waitInput>;
+
+export const waitsQuery = z.object({
+  jobId: uuid.optional(),
+  lineId: uuid.optional(),
+  active: z
+    .enum(['true', 'false'])
+    .optional()
+    .transform((v) => v !== 'false'),
+});
+
+export interface WaitJson {
+  id: string;
+  jobId: string;
+  jobNumber: string;
+  customerName: string;
+  cylinder: number;
+  lineId: string;
+  orderId: string;
+  orderNumber: string;
+  sku: string;
+  createdAt: string;
+  fulfilledAt: string | null;
+  cancelledAt: string | null;
+  unitLabel: string | null;
+}
+
+export interface WaitCandidateJson {
+  jobId: string;
+  jobNumber: string;
+  customerName: string;
+  cylinder: number;
+  createdAt: string;
+}
