@@ -28,6 +28,19 @@ function isDatabaseDown(err: unknown): boolean {
   );
 }
 
+/**
+ * Waiting too long for a pooled connection: the database may be unreachable, or merely busy with a
+ * burst of requests. Either way the caller gets a quick 503 rather than a hung request.
+ */
+function isPoolTimeout(err: unknown): boolean {
+  if (typeof err !== 'object' || err === null) return false;
+  const e = err as { name?: string; message?: string };
+  return (
+    e.name === 'KnexTimeoutError' ||
+    /timeout exceeded when trying to connect/i.test(e.message ?? '')
+  );
+}
+
 /** Maps Express and library errors onto our error model. */
 function toAppError(err: unknown): AppError {
   if (err instanceof AppError) return err;
@@ -39,17 +52,25 @@ function toAppError(err: unknown): AppError {
   if (e?.code === 'LIMIT_FILE_SIZE') return new AppError(413, 'too_large', 'The file is larger than the limit for this upload.');
   if (typeof e?.code === 'string' && e.code.startsWith('LIMIT_'))
     return new AppError(400, 'invalid_upload', `Upload refused: ${e.message ?? e.code}.`, e.field ? [{ field: e.field, message: e.message ?? '' }] : []);
+  if (isPoolTimeout(err)) {
+    return new ServiceUnavailable(
+      'The server is busy or the database is slow to answer. Try again in a moment.',
+    );
+  }
   if (isDatabaseDown(err)) return new ServiceUnavailable();
   if (e?.status === 404) return new AppError(404, 'not_found', 'Not found.');
   return new AppError(500, 'internal', 'Something went wrong on the server. It has been logged.');
 }
 
-export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
+export const errorHandler: ErrorRequestHandler = (err, req, res, next) => {
   const appError = toAppError(err);
   if (appError.status >= 500) {
     (req.log ?? logger).error({ err }, 'request failed');
   }
-  if (res.headersSent) return;
+  // Part of the answer is already out (a streamed export): Express's own handler cuts the
+  // connection, so the client sees a failed download rather than waiting forever.
+  if (res.headersSent) return next(err);
+  if (appError.status === 503) res.setHeader('Retry-After', '2');
   res.status(appError.status).json({
     error: {
       code: appError.code,

@@ -110,6 +110,13 @@ export class HttpSession {
 
   constructor(readonly baseUrl: string) {}
 
+  /** The same signed-in browser talking to another server process (sessions live in PostgreSQL). */
+  on(baseUrl: string): HttpSession {
+    const other = new HttpSession(baseUrl);
+    other.cookies = this.cookies;
+    return other;
+  }
+
   get xsrf(): string {
     return this.cookies.get('XSRF-TOKEN') ?? '';
   }
