@@ -242,7 +242,7 @@ export async function stockFixture(client: pg.Client, units: number): Promise<St
   };
 }
 
-function freePort(): Promise<number> {
+export function freePort(): Promise<number> {
   return new Promise((resolve, reject) => {
     const srv = net.createServer();
     srv.once('error', reject);
