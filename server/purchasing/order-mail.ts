@@ -6,7 +6,7 @@ import { composeMail, type MailContent } from '../mail/mail-layout';
 import type { MailAttachment } from '../mail/outbox';
 import { neutralizeCell } from '../../shared/csv-safety';
 import type { LengthJson } from '../../shared/lengths';
-import { D, moneyOut } from './money-math';
+import { D, moneyOut } from '../../shared/purchase-money';
 import type { LineRow, OrderRow } from './orders-repository';
 
 export function orderCsv(order: OrderRow, lines: LineRow[]): string {

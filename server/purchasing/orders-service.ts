@@ -24,7 +24,7 @@ import {
   type WaitInput,
   type WaitJson,
 } from '../../shared/purchasing-api';
-import { D, moneyOut } from './money-math';
+import { D, moneyOut } from '../../shared/purchase-money';
 import { orderMail } from './order-mail';
 import * as repo from './orders-repository';
 import { lowParts } from './reorder-repository';

@@ -21,7 +21,7 @@ import {
   type ReceivedHoldJson,
 } from '../../shared/purchasing-api';
 import type { UnitJson } from '../../shared/stock-api';
-import { D } from './money-math';
+import { D } from '../../shared/purchase-money';
 import { arrivalMailForCustomer, arrivalMailForMachinist } from './order-mail';
 import * as repo from './orders-repository';
 import { getOrder } from './orders-service';

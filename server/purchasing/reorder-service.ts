@@ -24,7 +24,7 @@ import type {
   ReorderSuggestionJson,
   ReorderSuggestionQuery,
 } from '../../shared/purchasing-api';
-import { D, moneyOut } from './money-math';
+import { D, moneyOut } from '../../shared/purchase-money';
 import * as repo from './reorder-repository';
 import { bestOffer, offersFor, shopToday } from './sourcing-service';
 

@@ -13,7 +13,7 @@ import type {
   SourcingJson,
   SourcingQuery,
 } from '../../shared/purchasing-api';
-import { converter, D, moneyOut, type Dec } from './money-math';
+import { converter, D, moneyOut, type Dec } from '../../shared/purchase-money';
 import * as repo from './sourcing-repository';
 
 function fieldError(field: string, message: string): BadRequest {
