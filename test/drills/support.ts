@@ -162,6 +162,38 @@ export class HttpSession {
     return { status: res.status, body: parsed, ms: performance.now() - started };
   }
 
+  /** A multipart upload (a price list), the way the browser's file input sends it. */
+  async upload(
+    path: string,
+    fields: Record<string, string | Blob>,
+    fileName?: string,
+  ): Promise<TimedResponse> {
+    const form = new FormData();
+    for (const [k, v] of Object.entries(fields)) {
+      if (typeof v === 'string') form.append(k, v);
+      else form.append(k, v, fileName);
+    }
+    const started = performance.now();
+    const res = await fetch(`${this.baseUrl}${path}`, {
+      method: 'POST',
+      headers: {
+        cookie: [...this.cookies].map(([k, v]) => `${k}=${encodeURIComponent(v)}`).join('; '),
+        'x-xsrf-token': this.xsrf,
+      },
+      body: form,
+      signal: AbortSignal.timeout(120_000),
+    });
+    this.remember(res);
+    const text = await res.text();
+    let parsed: unknown = text;
+    try {
+      parsed = text ? JSON.parse(text) : null;
+    } catch {
+      /* not JSON */
+    }
+    return { status: res.status, body: parsed, ms: performance.now() - started };
+  }
+
   get(path: string, opts?: { timeoutMs?: number }) {
     return this.request('GET', path, undefined, opts);
   }
