@@ -455,6 +455,11 @@ export async function supplierReliability(
   args: { months: number; tz: string },
   k: Knex = db,
 ): Promise<{ rows: SupplierReliabilityDb[]; anyEver: boolean }> {
+  // A database from before purchasing existed has no orders to compare: say so, do not fail.
+  const present = await k.raw<{ rows: { present: boolean }[] }>(
+    `SELECT to_regclass('purchase_order_receipt_lines') IS NOT NULL AS present`,
+  );
+  if (!present.rows[0].present) return { rows: [], anyEver: false };
   const result = await k.raw<{ rows: (SupplierReliabilityDb & { any_ever: boolean })[] }>(
     `
     WITH ever AS (

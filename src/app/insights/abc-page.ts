@@ -8,7 +8,7 @@ import { InsightChart } from './insight-chart';
 import { loadEach } from './insight-loader';
 import { InsightPanel } from './insight-panel';
 import { InsightsApi } from './insights-api';
-import { NO_FAMILY, paretoChart } from './insights-charts';
+import { paretoChart } from './insights-charts';
 import { formatAmount, formatCount, formatShare } from './insights-format';
 import { MONTH_CHOICES, monthsFrom } from './stock-page';
 
@@ -46,17 +46,8 @@ export class AbcPage {
     return only === 'all' ? items : items.filter((i) => i.class === only);
   });
 
-  protected readonly columns = [
-    'class',
-    'part',
-    'family',
-    'value',
-    'share',
-    'cumulative',
-    'onHand',
-  ];
+  protected readonly columns = ['class', 'part', 'value', 'share', 'cumulative', 'onHand'];
   protected readonly meaning = CLASS_MEANING;
-  protected readonly noFamily = NO_FAMILY;
   protected readonly count = formatCount;
   protected readonly share = formatShare;
   protected readonly csv = computed(() => this.api.csvUrl('abc', { months: this.window() }));

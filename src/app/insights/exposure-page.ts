@@ -1,4 +1,3 @@
-import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, inject, input } from '@angular/core';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
 import { MatTableModule } from '@angular/material/table';
@@ -18,7 +17,7 @@ import { MONTH_CHOICES, monthsFrom } from './stock-page';
  */
 @Component({
   selector: 'app-exposure-page',
-  imports: [DatePipe, InsightChart, InsightPanel, MatButtonToggleModule, MatTableModule],
+  imports: [InsightChart, InsightPanel, MatButtonToggleModule, MatTableModule],
   templateUrl: './exposure-page.html',
   styleUrl: './exposure-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -50,7 +49,7 @@ export class ExposurePage {
     };
   });
 
-  protected readonly shortColumns = ['step', 'times', 'jobs', 'days', 'waiting', 'last'];
+  protected readonly shortColumns = ['step', 'times', 'jobs', 'days', 'waiting'];
   protected readonly supplierColumns = [
     'supplier',
     'orders',

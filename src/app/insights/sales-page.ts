@@ -70,9 +70,9 @@ export class SalesPage {
     return String(Number(totals.margin) / Number(totals.revenue));
   });
 
-  protected readonly salesColumns = ['family', 'step', 'units', 'revenue', 'margin'];
+  protected readonly salesColumns = ['family', 'units', 'revenue', 'margin'];
   protected readonly monthColumns = ['month', 'units', 'revenue', 'margin'];
-  protected readonly topColumns = ['part', 'family', 'units', 'revenue', 'margin'];
+  protected readonly topColumns = ['part', 'units', 'revenue', 'margin'];
   protected readonly noFamily = NO_FAMILY;
 
   protected readonly csv = computed(() => {
