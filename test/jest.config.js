@@ -10,6 +10,9 @@ const serverTransform = {
 
 module.exports = {
   rootDir,
+  // Jest reads testTimeout only from the top level (a project's own value is ignored): the default
+  // for every test; drills and browser tests raise it in their files with jest.setTimeout.
+  testTimeout: 30000,
   projects: [
     {
       displayName: 'unit',

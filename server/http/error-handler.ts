@@ -52,6 +52,20 @@ function toAppError(err: unknown): AppError {
   if (e?.code === 'LIMIT_FILE_SIZE') return new AppError(413, 'too_large', 'The file is larger than the limit for this upload.');
   if (typeof e?.code === 'string' && e.code.startsWith('LIMIT_'))
     return new AppError(400, 'invalid_upload', `Upload refused: ${e.message ?? e.code}.`, e.field ? [{ field: e.field, message: e.message ?? '' }] : []);
+  // A request body busboy could not read (a malformed multipart header, a cut-off form). multer
+  // marks every error of the upload it aborted with storageErrors; disk errors carry an errno code.
+  if (Array.isArray((err as { storageErrors?: unknown } | null)?.storageErrors) && !e?.code) {
+    const why = e.message ?? 'malformed form data';
+    return new AppError(400, 'invalid_upload', `The upload could not be read: ${why}.`);
+  }
+  // Text PostgreSQL cannot store (the NUL character): the whole change is rolled back.
+  if (e?.code === '22021' || e?.code === '22P05') {
+    return new AppError(
+      400,
+      'invalid_text',
+      'The request contains a character that cannot be stored (such as \\u0000); remove it and try again.',
+    );
+  }
   if (isPoolTimeout(err)) {
     return new ServiceUnavailable(
       'The server is busy or the database is slow to answer. Try again in a moment.',
