@@ -149,7 +149,7 @@ const CASES: HostileCase[] = [
   // ---- Sign-in ---------------------------------------------------------------------------------
   {
     name: 'sign-in with SQL metacharacters in e-mail and password',
-    send: (c) =>
+    send: () =>
       request(testApp())
         .post('/api/session')
         .send({ email: "' OR '1'='1' --", password: "' OR ''='" }),

@@ -21,7 +21,7 @@ jest.setTimeout(240_000);
 const ROWS = 20_000;
 
 let database: DrillDatabase;
-let servers: ServerProcess[] = [];
+const servers: ServerProcess[] = [];
 
 beforeAll(async () => {
   database = await drillDatabase('commit');
