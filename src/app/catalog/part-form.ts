@@ -123,9 +123,11 @@ export class PartForm {
   protected readonly components = signal<Component_[]>([]);
   private componentsChanged = false;
 
-  private readonly formValue = toSignal(this.form.valueChanges, {
-    initialValue: this.form.getRawValue(),
-  });
+  // Raw value: the kind control is disabled once a part exists, and `value` leaves disabled controls out.
+  private readonly formValue = toSignal(
+    this.form.valueChanges.pipe(map(() => this.form.getRawValue())),
+    { initialValue: this.form.getRawValue() },
+  );
   protected readonly kind = computed(() => this.formValue().kind ?? 'piston');
 
   protected readonly families = toSignal(
