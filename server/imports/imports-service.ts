@@ -107,14 +107,26 @@ export async function previewPriceList(input: PreviewInput): Promise<ImportJson 
     (rememberedMapping && fits(rememberedMapping, format.headers)
       ? rememberedMapping
       : proposeMapping(format.headers, sampleRows));
-  resolveMapping(mapping, format.headers); // 400 naming a missing column, before anything is written
-
   const detected = {
     encoding: format.encoding,
     delimiter: format.delimiter,
     decimal: format.decimal,
     headerLine: format.headerLine,
   };
+  try {
+    resolveMapping(mapping, format.headers);
+  } catch (e) {
+    // 400 naming the missing column, before anything is written; the header line and the proposal
+    // go with it so the page can ask which column is which.
+    if (e instanceof BadRequest) {
+      throw new AppError(400, e.code, e.message, e.details, {
+        headers: format.headers,
+        mapping,
+        detected,
+      });
+    }
+    throw e;
+  }
 
   const importId = await db.transaction(async (trx) => {
     await repo.allowLongStatements(trx);

@@ -49,6 +49,18 @@ export const routes: Routes = [
         loadChildren: () => import('./insights/insights.routes').then((m) => m.insightsRoutes),
       },
       {
+        path: 'suppliers',
+        canActivate: [roleGuard],
+        data: { roles: ['owner', 'buyer', 'staff'] },
+        loadChildren: () => import('./suppliers/suppliers.routes').then((m) => m.suppliersRoutes),
+      },
+      {
+        path: 'imports',
+        canActivate: [roleGuard],
+        data: { roles: ['owner', 'buyer', 'staff'] },
+        loadChildren: () => import('./imports/imports.routes').then((m) => m.importsRoutes),
+      },
+      {
         path: 'account',
         loadChildren: () => import('./account/account.routes').then((m) => m.accountRoutes),
       },

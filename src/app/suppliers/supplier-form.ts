@@ -1,0 +1,163 @@
+import {
+  ChangeDetectionStrategy,
+  Component,
+  computed,
+  effect,
+  inject,
+  input,
+  signal,
+} from '@angular/core';
+import {
+  AbstractControl,
+  FormControl,
+  NonNullableFormBuilder,
+  ReactiveFormsModule,
+  ValidationErrors,
+  Validators,
+} from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatCheckboxModule } from '@angular/material/checkbox';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { Router, RouterLink } from '@angular/router';
+
+import { isCurrencyCode } from '../../../shared/money';
+import type { SupplierJson } from '../../../shared/suppliers-api';
+import { apiErrorBody, apiErrorMessage, apiFieldErrors } from '../core/api-error';
+import { Notifier } from '../core/notifier';
+import { SuppliersApi, type SupplierBody } from './suppliers-api';
+
+type Loaded =
+  | { state: 'loading' }
+  | { state: 'ok'; supplier: SupplierJson | null }
+  | { state: 'error'; message: string };
+
+const AMOUNT = /^\d{1,10}(\.\d{1,4})?$/;
+
+/** The same ISO 4217 check the server makes, so the form refuses what the server would. */
+function currencyValidator(control: AbstractControl<string>): ValidationErrors | null {
+  const code = control.value.trim().toUpperCase();
+  return code === '' || isCurrencyCode(code) ? null : { currency: true };
+}
+
+/** A supplier's details: who they are, where orders go, their currency, lead time and terms. */
+@Component({
+  selector: 'app-supplier-form',
+  imports: [
+    MatButtonModule,
+    MatCheckboxModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatInputModule,
+    MatProgressBarModule,
+    ReactiveFormsModule,
+    RouterLink,
+  ],
+  templateUrl: './supplier-form.html',
+  styleUrl: './supplier-form.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class SupplierForm {
+  private readonly api = inject(SuppliersApi);
+  private readonly notifier = inject(Notifier);
+  private readonly router = inject(Router);
+  private readonly fb = inject(NonNullableFormBuilder);
+
+  /** The supplier id from the route when editing; absent for a new supplier. */
+  readonly id = input<string>();
+
+  protected readonly form = this.fb.group({
+    name: ['', [Validators.required, Validators.maxLength(120)]],
+    email: ['', [Validators.email, Validators.maxLength(200)]],
+    currency: ['EUR', [Validators.required, currencyValidator]],
+    leadDays: this.fb.control(14, [Validators.required, Validators.min(0), Validators.max(365)]),
+    contacts: ['', Validators.maxLength(2000)],
+    minOrder: ['0', [Validators.required, Validators.pattern(AMOUNT)]],
+    shippingCost: ['0', [Validators.required, Validators.pattern(AMOUNT)]],
+    notes: ['', Validators.maxLength(4000)],
+    active: [true],
+  });
+
+  protected readonly loaded = signal<Loaded>({ state: 'loading' });
+  protected readonly busy = signal(false);
+  protected readonly problem = signal('');
+  protected readonly serverErrors = signal<Record<string, string>>({});
+  protected readonly editing = computed(() => Boolean(this.id()));
+
+  constructor() {
+    effect(() => {
+      const id = this.id();
+      if (!id) {
+        this.loaded.set({ state: 'ok', supplier: null });
+        return;
+      }
+      this.loaded.set({ state: 'loading' });
+      this.api.supplier(id).subscribe({
+        next: (supplier) => {
+          this.form.reset({
+            name: supplier.name,
+            email: supplier.email ?? '',
+            currency: supplier.currency,
+            leadDays: supplier.leadDays,
+            contacts: supplier.contacts,
+            minOrder: supplier.minOrder,
+            shippingCost: supplier.shippingCost,
+            notes: supplier.notes,
+            active: supplier.active,
+          });
+          this.loaded.set({ state: 'ok', supplier });
+        },
+        error: (error: unknown) =>
+          this.loaded.set({ state: 'error', message: apiErrorMessage(error) }),
+      });
+    });
+  }
+
+  protected submit(): void {
+    if (this.busy()) return;
+    if (this.form.invalid) {
+      this.form.markAllAsTouched();
+      return;
+    }
+    const v = this.form.getRawValue();
+    const body: SupplierBody = {
+      name: v.name.trim(),
+      email: v.email.trim() || null,
+      currency: v.currency.trim().toUpperCase(),
+      leadDays: Number(v.leadDays),
+      contacts: v.contacts,
+      minOrder: v.minOrder.trim(),
+      shippingCost: v.shippingCost.trim(),
+      notes: v.notes,
+      ...(this.editing() ? { active: v.active } : {}),
+    };
+    const id = this.id();
+    this.busy.set(true);
+    this.problem.set('');
+    this.serverErrors.set({});
+    const request = id ? this.api.updateSupplier(id, body) : this.api.createSupplier(body);
+    request.subscribe({
+      next: (supplier) => {
+        this.notifier.success(id ? `${supplier.name} saved.` : `${supplier.name} added.`);
+        void this.router.navigate(['/suppliers', supplier.id]);
+      },
+      error: (error: unknown) => {
+        this.busy.set(false);
+        const fields = apiFieldErrors(error);
+        this.serverErrors.set(fields);
+        for (const [field, message] of Object.entries(fields)) {
+          const control = (this.form.controls as unknown as Record<string, FormControl<unknown>>)[
+            field
+          ];
+          if (control) {
+            control.setErrors({ server: message });
+            control.markAsTouched();
+          }
+        }
+        this.problem.set(apiErrorBody(error)?.error.message ?? apiErrorMessage(error));
+      },
+    });
+  }
+}
