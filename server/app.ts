@@ -66,6 +66,9 @@ export function createApp(opts: { databaseUrl?: string; serveClient?: boolean } 
   app.use('/api', express.json({ limit: '1mb', strict: true }));
   app.use('/api', (_req, res, next) => {
     res.setHeader('Cache-Control', 'no-store');
+    // An API answer opened directly in a browser tab downloads instead of rendering (ASVS 14.4.2);
+    // CSV exports and photos set their own disposition.
+    res.setHeader('Content-Disposition', 'attachment; filename="api.json"');
     next();
   });
 

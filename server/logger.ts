@@ -3,5 +3,11 @@ import { config } from './config';
 
 export const logger = pino({
   level: config.NODE_ENV === 'test' ? (process.env.LOG_LEVEL ?? 'silent') : config.LOG_LEVEL,
-  redact: ['req.headers.cookie', 'req.headers["x-xsrf-token"]', 'password'],
+  // Session and XSRF tokens never reach the log, neither coming in nor going out.
+  redact: [
+    'req.headers.cookie',
+    'req.headers["x-xsrf-token"]',
+    'res.headers["set-cookie"]',
+    'password',
+  ],
 });

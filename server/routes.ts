@@ -16,6 +16,7 @@ import { registerInsightsRoutes } from './insights/insights-routes';
 import { registerSuppliersRoutes } from './suppliers/suppliers-routes';
 import { registerImportsRoutes } from './imports/imports-routes';
 import { registerExportsRoutes } from './exports/exports-routes';
+import { registerAuditRoutes } from './audit/audit-routes';
 
 export function registerAllRoutes(api: Router): void {
   registerSessionRoutes(api);
@@ -33,4 +34,5 @@ export function registerAllRoutes(api: Router): void {
   registerSuppliersRoutes(api);
   registerImportsRoutes(api);
   registerExportsRoutes(api);
+  registerAuditRoutes(api);
 }

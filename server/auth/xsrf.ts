@@ -40,7 +40,8 @@ export function setXsrfCookie(res: Response): void {
   res.cookie(XSRF_COOKIE, newXsrfToken(), {
     httpOnly: false,
     sameSite: 'lax',
-    secure: config.TRUST_PROXY === '1' ? undefined : false,
+    // Behind a TLS proxy the token travels only over HTTPS, like the session cookie.
+    secure: config.TRUST_PROXY === '1' ? res.req.secure : false,
     path: '/',
   });
 }

@@ -19,6 +19,8 @@ const EXPECTED: Record<string, Access> = {
   'GET /api/users': OWNER,
   'POST /api/users': OWNER,
   'PATCH /api/users/:id': OWNER,
+  // The audit trail of every change, for the owner.
+  'GET /api/audit': OWNER,
   'PATCH /api/account': ALL,
   'POST /api/account/password': ALL,
   'GET /api/settings': ALL,

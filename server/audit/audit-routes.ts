@@ -1,0 +1,15 @@
+// The audit trail, for the owner only: who changed what, when, and what it was before and after.
+import type { Router } from 'express';
+import { route } from '../http/route';
+import { auditQuery } from '../../shared/audit-api';
+import { browseAudit } from './audit-service';
+
+export function registerAuditRoutes(router: Router): void {
+  route(router, {
+    method: 'get',
+    path: '/api/audit',
+    access: ['owner'],
+    query: auditQuery,
+    handler: ({ query }) => browseAudit(query),
+  });
+}

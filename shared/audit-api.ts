@@ -1,0 +1,66 @@
+// What the audit-trail API accepts and answers: every recorded change (stock, prices, reorder rules,
+// users, settings…) with who made it, when, and the record before and after. The owner browses it;
+// the query schema is shared so the page and the server refuse the same filters with the same words.
+import { z } from 'zod';
+import { isCalendarDay } from './insights-api';
+
+/** A recorded entity or action name: lower-case words joined by _ . or - ("part", "stock.receipt"). */
+const NAME = /^[a-z][a-z0-9_.-]{0,59}$/;
+
+const day = z
+  .string()
+  .trim()
+  .refine(isCalendarDay, 'must be a calendar day written YYYY-MM-DD, e.g. 2027-03-14');
+
+export const AUDIT_PAGE_SIZES = [25, 50, 100, 200] as const;
+
+export const auditQuery = z
+  .object({
+    entity: z.string().trim().regex(NAME, 'must be an entity name such as part or user').optional(),
+    entityId: z.string().trim().min(1).max(100, 'at most 100 characters').optional(),
+    action: z
+      .string()
+      .trim()
+      .regex(NAME, 'must be an action name such as stock.receipt')
+      .optional(),
+    /** Who made the change. */
+    user: z.string().uuid('must be a valid user id').optional(),
+    /** First and last calendar day shown, in the shop's time zone, both included. */
+    from: day.optional(),
+    to: day.optional(),
+    dir: z.enum(['asc', 'desc'], { error: 'must be asc or desc' }).default('desc'),
+    page: z.coerce.number().int().min(1).max(100_000).default(1),
+    pageSize: z.coerce.number().int().min(1).max(200).default(50),
+  })
+  .strict()
+  .refine((q) => !q.from || !q.to || q.from <= q.to, {
+    message: 'must not be before the first day',
+    path: ['to'],
+  });
+export type AuditQuery = z.output<typeof auditQuery>;
+
+export interface AuditActorJson {
+  id: string;
+  name: string;
+  email: string;
+}
+
+export interface AuditEventJson {
+  id: number;
+  /** ISO 8601 timestamp. */
+  at: string;
+  /** Null for changes Stepstock made by itself (an expired hold, a database watch). */
+  user: AuditActorJson | null;
+  action: string;
+  entity: string;
+  entityId: string | null;
+  before: unknown;
+  after: unknown;
+}
+
+export interface AuditPageJson {
+  items: AuditEventJson[];
+  total: number;
+  /** What the filters can offer: every entity and every person that appears in the trail. */
+  facets: { entities: string[]; users: AuditActorJson[] };
+}
