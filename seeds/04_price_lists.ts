@@ -74,14 +74,19 @@ async function sessionUser(knex: Knex, role: 'buyer' | 'staff'): Promise<Session
   return { id: row.id, email: row.email, name: row.name, role, unit: row.unit };
 }
 
-async function importFile(user: SessionUser, supplierId: string, path: string, name: string) {
-  const preview = await previewPriceList({
-    user,
-    supplierId,
-    file: { path, originalName: name, size: statSync(path).size },
-  });
+async function importFile(
+  knex: Knex,
+  user: SessionUser,
+  supplierId: string,
+  path: string,
+  name: string,
+) {
+  const preview = await previewPriceList(
+    { user, supplierId, file: { path, originalName: name, size: statSync(path).size } },
+    knex,
+  );
   if (preview.status === 'duplicate') throw new Error(`${name} was already imported.`);
-  const commit = await commitImport(user, preview.importId, { dropMissing: true });
+  const commit = await commitImport(user, preview.importId, { dropMissing: true }, undefined, knex);
   if (commit.status !== 'committed') throw new Error(`${name} was not committed.`);
   return commit;
 }
@@ -121,9 +126,10 @@ export async function seed(knex: Knex): Promise<void> {
   try {
     for (const spec of SUPPLIERS) {
       const { file, mapItems, ...data } = spec;
-      const supplier = await createSupplier(buyer.id, data);
+      const supplier = await createSupplier(buyer.id, data, knex);
       if (spec.name === 'Morvendt Motorteile') {
         const older = await importFile(
+          knex,
           staff,
           supplier.id,
           olderMorvendtList(dir),
@@ -141,8 +147,8 @@ export async function seed(knex: Knex): Promise<void> {
           .update({ effective_from: knex.raw(`now() - interval '35 days'`) });
       }
       const path = join(IMPORTS, file);
-      await importFile(staff, supplier.id, path, basename(path));
-      if (mapItems) await mapBySuggestion(buyer, supplier.id);
+      await importFile(knex, staff, supplier.id, path, basename(path));
+      if (mapItems) await mapBySuggestion(knex, buyer, supplier.id);
     }
   } finally {
     rmSync(dir, { recursive: true, force: true });
@@ -150,12 +156,12 @@ export async function seed(knex: Knex): Promise<void> {
 }
 
 /** Maps the items whose best suggestion is the same size at the kind of part the description names. */
-async function mapBySuggestion(buyer: SessionUser, supplierId: string): Promise<void> {
-  const queue = await listUnmapped({ supplierId, page: 1, pageSize: 500 });
+async function mapBySuggestion(knex: Knex, buyer: SessionUser, supplierId: string): Promise<void> {
+  const queue = await listUnmapped({ supplierId, page: 1, pageSize: 500 }, knex);
   for (const item of queue.items) {
     const best = item.suggestions[0];
     if (best && best.reasons.includes('same size') && best.score >= 5) {
-      await mapItem(buyer.id, item.id, best.id);
+      await mapItem(buyer.id, item.id, best.id, knex);
     }
   }
 }

@@ -90,17 +90,20 @@ export interface PreviewInput {
  * is already committed for the supplier. A file that cannot be read at all is refused (400/415) and
  * leaves nothing behind.
  */
-export async function previewPriceList(input: PreviewInput): Promise<ImportJson | DuplicateJson> {
+export async function previewPriceList(
+  input: PreviewInput,
+  k: Knex = db,
+): Promise<ImportJson | DuplicateJson> {
   const { user, supplierId, file, progressToken } = input;
-  const supplier = await suppliers.findSupplier(supplierId);
+  const supplier = await suppliers.findSupplier(supplierId, k);
   if (!supplier) throw new NotFound('That supplier');
 
   const sha256 = await sha256File(file.path);
-  const earlier = await repo.findCommittedBySha(supplierId, sha256);
+  const earlier = await repo.findCommittedBySha(supplierId, sha256, k);
   if (earlier) return duplicateAnswer(earlier.id, earlier.committed_at);
 
   const { format, rows: sampleRows } = await detectFileFormat(file.path);
-  const remembered = await repo.rememberedMapping(supplierId);
+  const remembered = await repo.rememberedMapping(supplierId, k);
   const rememberedMapping = remembered?.mapping as ColumnMapping | undefined;
   const mapping: ColumnMapping =
     input.mapping ??
@@ -128,7 +131,7 @@ export async function previewPriceList(input: PreviewInput): Promise<ImportJson 
     throw e;
   }
 
-  const importId = await db.transaction(async (trx) => {
+  const importId = await k.transaction(async (trx) => {
     await repo.allowLongStatements(trx);
     await repo.markProgress(trx, progressToken, 'reading');
     await repo.deleteStalePreviews(trx, supplierId, sha256);
@@ -192,7 +195,7 @@ export async function previewPriceList(input: PreviewInput): Promise<ImportJson 
     return id;
   });
   logger.info({ importId, supplierId, file: file.originalName }, 'price list previewed');
-  return getImport(importId);
+  return getImport(importId, k);
 }
 
 function sampleJson(r: repo.StagedRow): SampleRowJson {
@@ -299,9 +302,10 @@ export async function commitImport(
   importId: string,
   opts: { dropMissing: boolean },
   progressToken?: string,
+  k: Knex = db,
 ): Promise<CommitJson | DuplicateJson> {
   try {
-    const answer = await db.transaction(async (trx): Promise<CommitJson | DuplicateJson> => {
+    const answer = await k.transaction(async (trx): Promise<CommitJson | DuplicateJson> => {
       await repo.allowLongStatements(trx);
       await repo.markProgress(trx, progressToken, 'committing');
       const found = await repo.lockImport(trx, importId);
@@ -363,17 +367,17 @@ export async function commitImport(
     }
     return answer;
   } catch (e) {
-    if (!(e instanceof AppError)) await recordFailure(importId, e);
+    if (!(e instanceof AppError)) await recordFailure(importId, e, k);
     throw e;
   }
 }
 
 /** After a failed commit (rolled back), the import log says so; the import stays committable. */
-async function recordFailure(importId: string, error: unknown): Promise<void> {
+async function recordFailure(importId: string, error: unknown, k: Knex): Promise<void> {
   logger.error({ err: error, importId }, 'price list commit failed');
   try {
     // The cause stays in the server log: database messages are not for the import log.
-    await repo.updateImport(db, importId, {
+    await repo.updateImport(k, importId, {
       status: 'failed',
       failure: 'The commit failed and nothing was changed. It can be committed again.',
     });

@@ -1,0 +1,97 @@
+// A buyer adds a supplier; staff bring in that supplier's semicolon price list (Windows-1252, decimal
+// commas), check the detected format and the preview counts, apply it, and find the new prices on the
+// supplier's items. A screenshot of every step goes to test/artifacts/screenshots.
+import path from 'node:path';
+import { DEMO, REPO, e2eEnvironment, screenshot, seriousA11yViolations, signIn } from './support';
+
+jest.setTimeout(180_000);
+
+let env: Awaited<ReturnType<typeof e2eEnvironment>>;
+
+beforeAll(async () => {
+  env = await e2eEnvironment();
+});
+afterAll(async () => {
+  await env?.close();
+});
+
+const SUPPLIER = 'Brannock Kolbenvertrieb';
+const LIST = path.join(REPO, 'imports', 'morvendt-motorteile-2026-12.csv');
+
+describe('bringing in a supplier price list', () => {
+  it('when a buyer adds a supplier, then it is listed with its currency', async () => {
+    const page = env.page;
+    await page.context().clearCookies();
+    await signIn(page, env.baseUrl, DEMO.buyer);
+    await page.goto(`${env.baseUrl}/suppliers/new`);
+    await page.getByLabel('Name').fill(SUPPLIER);
+    await page.getByLabel('Ordering e-mail').fill('bestellung@brannock.test');
+    await page.getByLabel('Currency').fill('EUR');
+    await page.getByLabel('Lead time (days)').fill('12');
+    await screenshot(page, 'imports-1-supplier-form');
+    await page.getByRole('button', { name: 'Add supplier' }).click();
+    await page.getByRole('heading', { name: SUPPLIER }).waitFor();
+    await page.getByText('No items here yet').waitFor();
+    await screenshot(page, 'imports-2-supplier-added');
+  });
+
+  it('when staff upload the semicolon list, then the detected format and counts show, and applying it shows the new prices', async () => {
+    const page = env.page;
+    await page.context().clearCookies();
+    await signIn(page, env.baseUrl, DEMO.staff);
+    await page.goto(`${env.baseUrl}/imports/new`);
+    await page.getByRole('heading', { name: 'Bring in a price list' }).waitFor();
+
+    await page.getByRole('combobox', { name: 'Supplier' }).click();
+    await page.getByRole('option', { name: new RegExp(SUPPLIER) }).click();
+    await page.locator('input[type=file]').setInputFiles(LIST);
+    await page.getByText('morvendt-motorteile-2026-12.csv').waitFor();
+    await screenshot(page, 'imports-3-file-chosen');
+
+    await page.getByRole('button', { name: 'Read the list' }).click();
+    const format = page.getByTestId('detected-format');
+    await format.waitFor();
+    await format.getByText('Windows-1252 (Western European)').waitFor();
+    await format.getByText('semicolon (;)').waitFor();
+    await format.getByText('decimal comma (2,555)').waitFor();
+    const counts = page.getByTestId('import-counts');
+    await expectTile(counts, 'rows read', '31');
+    await expectTile(counts, 'new items', '31');
+    await expectTile(counts, 'rows with errors', '0');
+    // The sample shows the accented description decoded from the Windows-1252 bytes.
+    await page
+      .getByTestId('import-sample')
+      .getByText('Kolben Ø 54,00 mm – Standard, Rautiefe Rz 2 µm')
+      .waitFor();
+    await screenshot(page, 'imports-4-preview');
+    expect(await seriousA11yViolations(page)).toEqual([]);
+
+    await page.getByRole('button', { name: 'Apply 31 rows' }).click();
+    await page.getByText(/Applied: 31 new items/).waitFor();
+    await screenshot(page, 'imports-5-applied');
+
+    await page.getByRole('link', { name: 'See their items' }).click();
+    await page.getByRole('heading', { name: SUPPLIER }).waitFor();
+    await page.getByLabel('Find an item').fill('MV-Z72-SET');
+    const row = page.getByRole('row', { name: /MV-Z72-SET/ });
+    await row.waitFor();
+    // 1.234,50 in the list is one thousand two hundred thirty-four euros fifty.
+    await row.getByText('1,234.50 EUR').waitFor();
+    await screenshot(page, 'imports-6-new-prices');
+    expect(await seriousA11yViolations(page)).toEqual([]);
+
+    await row.getByRole('button', { name: 'Prices' }).click();
+    await page.getByRole('dialog').getByText('first price').waitFor();
+    await screenshot(page, 'imports-7-price-history');
+  });
+});
+
+async function expectTile(
+  counts: ReturnType<typeof env.page.getByTestId>,
+  label: string,
+  value: string,
+): Promise<void> {
+  const tile = counts.locator('li', { hasText: label });
+  await tile.waitFor();
+  expect((await tile.locator('.n').innerText()).trim()).toBe(value);
+}
