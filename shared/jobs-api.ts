@@ -286,6 +286,7 @@ export interface CylinderJson {
   step: { id: string; label: string; nominalBore: LengthJson } | null;
   /** Clearance set for this cylinder; null: the shop's policy applies. */
   clearance: LengthJson | null;
+  /** The piston held for this cylinder (or issued with it, once the job is handed back). */
   piston: HoldJson | null;
   rings: HoldJson[];
   cutAt: string | null;
@@ -357,6 +358,7 @@ export interface JobJson extends Omit<JobListItemJson, 'family'> {
   stateChangedAt: string;
   closedAt: string | null;
   cylinderDetails: CylinderJson[];
+  /** What is held for the job now; once it is handed back, the parts that went out with it. */
   holds: HoldJson[];
   photos: PhotoJson[];
   events: JobEventJson[];

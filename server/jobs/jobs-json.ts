@@ -94,7 +94,10 @@ export function cylinderJson(
   const mine = readings.filter((r) => r.n === c.n);
   const assessment =
     mine.length > 0 ? assessBore(toReadings(mine), familyLimits(family), unit) : null;
-  const active = holds.filter((h) => h.cylinder === c.n && h.released_at === null);
+  // Held now, or issued with the job when it was handed back.
+  const active = holds.filter(
+    (h) => h.cylinder === c.n && (h.released_at === null || h.release_reason === 'issued'),
+  );
   const piston = active.find((h) => h.unit_id !== null);
   const gapMin = family.ring_gap_min_nm;
   const gapMax = family.ring_gap_max_nm;

@@ -130,16 +130,18 @@ export async function getJob(id: string, unit: LengthUnit, k: Conn = db): Promis
   const job = await repo.findJob(id, k);
   if (!job) throw new NotFound('That job');
   const today = await shopToday(k);
-  const [family, cylinders, readings, holds, photos, events, flags] = await Promise.all([
+  const [family, cylinders, readings, allHolds, photos, events, flags] = await Promise.all([
     repo.findFamily(job.family_id, k),
     repo.cylindersOf(id, k),
     repo.readingsOf(id, k),
-    holdsRepo.holdsOfJob(id, { activeOnly: true }, k),
+    holdsRepo.holdsOfJob(id, { activeOnly: false }, k),
     repo.photosOf(id, k),
     repo.eventsOf(id, k),
     repo.jobListRow(id, today, k),
   ]);
   if (!family) throw new NotFound("That job's engine family");
+  // What the job holds now, or what went out with it once handed back.
+  const holds = allHolds.filter((h) => h.released_at === null || h.release_reason === 'issued');
   return {
     id: job.id,
     number: job.number,

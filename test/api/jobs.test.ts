@@ -417,7 +417,12 @@ describe('collect and cancel', () => {
     const res = await staff.post(`/api/jobs/${job.id}/collect`);
     expect(res.status).toBe(200);
     expect(res.body.state).toBe('handed_back');
-    expect(res.body.holds).toEqual([]);
+    // The job now lists what went out with it.
+    expect(res.body.holds.map((h: { releaseReason: string }) => h.releaseReason)).toEqual([
+      'issued',
+      'issued',
+    ]);
+    expect(res.body.cylinderDetails[0].piston.unitId).toBe(unit.id);
     expect(res.body.closedAt).toEqual(expect.any(String));
 
     const issues = await db('stock_ledger')

@@ -1,0 +1,152 @@
+import { provideHttpClient } from '@angular/common/http';
+import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { TestBed } from '@angular/core/testing';
+import { provideRouter } from '@angular/router';
+
+import type { JobJson } from '../../../shared/jobs-api';
+import type { SessionResponse } from '../../../shared/session-types';
+import { Session } from '../core/session';
+import { CylinderPage } from './cylinder-page';
+
+const JOB_ID = '0b6f7b52-4c1e-4d7e-9b0a-3f2d8c1e5a77';
+
+// An invented air-cooled single: standard bore 2.5170 in, clean-up 0.0030 in, up to +0.040 in,
+// taper limit 0.0040 in. Lengths as the API sends them: both units, exact (1 in = 25.4 mm).
+const JOB: JobJson = {
+  id: JOB_ID,
+  number: 'CY-2612-0042',
+  state: 'booked_in',
+  customerName: 'Odile Farrant',
+  customerPhone: null,
+  customerEmail: null,
+  family: {
+    id: 'f1',
+    code: 'TS-64',
+    name: 'Invented single',
+    cylinders: 1,
+    standardBore: { mm: '63.9318', in: '2.5170' },
+    clearance: { min: { mm: '0.0381', in: '0.0015' }, max: { mm: '0.0635', in: '0.0025' } },
+    honeAllowance: { mm: '0.0508', in: '0.0020' },
+    cleanup: { mm: '0.0762', in: '0.0030' },
+    maxOversize: { mm: '1.016', in: '0.0400' },
+    maxTaper: { mm: '0.1016', in: '0.0040' },
+    maxOutOfRound: { mm: '0.0508', in: '0.0020' },
+    ringGap: { min: null, max: null },
+  },
+  cylinders: 1,
+  askedFor: '',
+  dueDate: null,
+  overdue: false,
+  waitingForParts: false,
+  pistonsHeld: 0,
+  cylindersCut: 0,
+  notes: '',
+  notifyCustomer: true,
+  createdBy: null,
+  createdAt: '2026-12-01T09:00:00.000Z',
+  updatedAt: '2026-12-01T09:00:00.000Z',
+  stateChangedAt: '2026-12-01T09:00:00.000Z',
+  closedAt: null,
+  cylinderDetails: [
+    {
+      n: 1,
+      readings: [],
+      wear: null,
+      warnings: [],
+      measuredAt: null,
+      step: null,
+      clearance: null,
+      piston: null,
+      rings: [],
+      cutAt: null,
+      measuredAfterHone: null,
+      ringGap: null,
+      ringGapOk: null,
+    },
+  ],
+  holds: [],
+  photos: [],
+  events: [],
+};
+
+describe('CylinderPage', () => {
+  let http: HttpTestingController;
+
+  async function render() {
+    TestBed.configureTestingModule({
+      providers: [provideRouter([]), provideHttpClient(), provideHttpClientTesting()],
+    });
+    http = TestBed.inject(HttpTestingController);
+    const session: SessionResponse = {
+      user: { id: 'u1', email: 'rafe@example.test', name: 'Rafe', role: 'machinist', unit: 'in' },
+    };
+    const loading = TestBed.inject(Session).load();
+    http.expectOne('/api/session').flush(session);
+    await loading;
+    const fixture = TestBed.createComponent(CylinderPage);
+    fixture.componentRef.setInput('id', JOB_ID);
+    fixture.componentRef.setInput('n', '1');
+    await fixture.whenStable();
+    http.expectOne(`/api/jobs/${JOB_ID}`).flush(JOB);
+    await fixture.whenStable();
+    return fixture;
+  }
+
+  function type(element: HTMLElement, label: string, value: string) {
+    const input = element.querySelector<HTMLInputElement>(`input[aria-label="${label}"]`);
+    if (!input) throw new Error(`no field labelled ${label}`);
+    input.value = value;
+    input.dispatchEvent(new Event('input'));
+  }
+
+  afterEach(() => http.verify());
+
+  it('when readings are typed, then the preview shows largest, taper and out-of-round and the warning', async () => {
+    const fixture = await render();
+    const element = fixture.nativeElement as HTMLElement;
+    type(element, 'Top of ring travel, along the pin', '2.5260');
+    type(element, 'Top of ring travel, across (thrust)', '2.5248');
+    type(element, 'Bottom of travel, along the pin', '2.5205');
+    type(element, 'Bottom of travel, across (thrust)', '2.5204');
+    await fixture.whenStable();
+    // By hand: taper along the pin 2.5260 − 2.5205 = 0.0055 in (over the 0.0040 in limit);
+    // out-of-round at the top 2.5260 − 2.5248 = 0.0012 in.
+    const preview = element.querySelector('.preview')?.textContent ?? '';
+    expect(preview).toContain('2.5260 in');
+    expect(preview).toContain('0.0055 in');
+    expect(preview).toContain('0.0012 in');
+    expect(preview).toContain('Taper 0.0055 in is over the limit of 0.0040 in.');
+  });
+
+  it('when a reading is not a length, then its field says why and saving is off', async () => {
+    const fixture = await render();
+    const element = fixture.nativeElement as HTMLElement;
+    type(element, 'Middle, along the pin', '2,52,6');
+    await fixture.whenStable();
+    expect(element.querySelector('.cell-error')?.textContent).toMatch(/decimal separator/);
+    const save = Array.from(element.querySelectorAll('button')).find((b) =>
+      b.textContent?.includes('Save readings'),
+    );
+    expect(save?.disabled).toBe(true);
+  });
+
+  it('when the readings are saved, then each is sent exactly, with its unit', async () => {
+    const fixture = await render();
+    const element = fixture.nativeElement as HTMLElement;
+    type(element, 'Top of ring travel, along the pin', '2.5260');
+    type(element, 'Middle, across (thrust)', '64.135 mm');
+    await fixture.whenStable();
+    const save = Array.from(element.querySelectorAll('button')).find((b) =>
+      b.textContent?.includes('Save readings'),
+    );
+    save?.click();
+    const request = http.expectOne(`/api/jobs/${JOB_ID}/cylinders/1/readings`);
+    expect(request.request.method).toBe('PUT');
+    expect(request.request.body).toEqual({
+      readings: [
+        { depth: 'top', axis: 'pin', diameter: '2.5260 in' },
+        { depth: 'middle', axis: 'thrust', diameter: '64.135 mm' },
+      ],
+    });
+  });
+});

@@ -1,0 +1,90 @@
+import { provideHttpClient } from '@angular/common/http';
+import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { TestBed } from '@angular/core/testing';
+import { provideRouter } from '@angular/router';
+
+import type { JobListItemJson, JobState } from '../../../shared/jobs-api';
+import type { SessionResponse } from '../../../shared/session-types';
+import { Session } from '../core/session';
+import { JobBoard } from './job-board';
+
+function job(
+  number: string,
+  state: JobState,
+  extra: Partial<JobListItemJson> = {},
+): JobListItemJson {
+  return {
+    id: number,
+    number,
+    state,
+    customerName: `Customer of ${number}`,
+    family: { id: 'f1', code: 'TS-64', name: 'Invented single' },
+    cylinders: 1,
+    askedFor: '',
+    dueDate: null,
+    overdue: false,
+    waitingForParts: false,
+    pistonsHeld: 0,
+    cylindersCut: 0,
+    createdAt: '2026-12-01T09:00:00.000Z',
+    ...extra,
+  };
+}
+
+describe('JobBoard', () => {
+  let http: HttpTestingController;
+
+  afterEach(() => http.verify());
+
+  it('when open jobs load, then each sits in its stage column in the order given, waiting jobs marked', async () => {
+    TestBed.configureTestingModule({
+      providers: [provideRouter([]), provideHttpClient(), provideHttpClientTesting()],
+    });
+    http = TestBed.inject(HttpTestingController);
+    const session: SessionResponse = {
+      user: { id: 'u1', email: 'perrin@example.test', name: 'Perrin', role: 'staff', unit: 'in' },
+    };
+    const loading = TestBed.inject(Session).load();
+    http.expectOne('/api/session').flush(session);
+    await loading;
+    const fixture = TestBed.createComponent(JobBoard);
+    await fixture.whenStable();
+    const request = http.expectOne((r) => r.url === '/api/jobs');
+    expect(request.request.params.get('state')).toBe('open');
+    expect(request.request.params.get('sort')).toBe('due');
+    request.flush({
+      items: [
+        job('CY-2612-0007', 'gauged', {
+          dueDate: '2026-11-28',
+          overdue: true,
+          waitingForParts: true,
+        }),
+        job('CY-2612-0003', 'booked_in', { dueDate: '2026-12-02' }),
+        job('CY-2612-0001', 'booked_in'),
+      ],
+      total: 3,
+    });
+    await fixture.whenStable();
+    const element = fixture.nativeElement as HTMLElement;
+    const columns = Array.from(element.querySelectorAll('.column'));
+    expect(
+      columns.map((c) => c.querySelector('h2')?.textContent?.replace(/\s+/g, ' ').trim()),
+    ).toEqual([
+      'Booked in 2',
+      'Gauged 1',
+      'Parts set aside 0',
+      'On the bar 0',
+      'At the hone 0',
+      'Ready to go 0',
+    ]);
+    const booked = Array.from(columns[0].querySelectorAll('.number')).map((n) =>
+      n.textContent?.trim(),
+    );
+    expect(booked).toEqual(['CY-2612-0003', 'CY-2612-0001']);
+    expect(columns[1].textContent).toContain('Waiting for parts');
+    expect(columns[1].querySelector('.due.overdue')?.textContent).toContain('Overdue');
+    expect(element.querySelector('.summary')?.textContent).toContain(
+      '3 open jobs, 1 waiting for parts.',
+    );
+  });
+});
