@@ -431,6 +431,10 @@ describe('uploading and committing a price list', () => {
     expect(proposed.body.error).toMatchObject({
       code: 'missing_column',
       message: expect.stringMatching(/^Missing required column: price\./),
+      // The header line and the proposal come with the refusal, so the page can ask which is which.
+      headers: ['Code', 'Text', 'Amount', 'Bore'],
+      mapping: { sku: 'Code', price: null },
+      detected: { delimiter: ',', headerLine: 1 },
     });
 
     const mapping = {
@@ -754,4 +758,31 @@ describe('progress', () => {
     );
     expect(res.body).toEqual({ phase: 'waiting', rows: 0, bytes: 0 });
   });
+
+  it('when a large list is being read, then its progress token shows the rows read so far', async () => {
+    const supplier = await makeSupplier();
+    const rows = Array.from(
+      { length: 150_000 },
+      (_, i) => `P-${i},Piston number ${i},54.25 mm,${(i % 900) + 10}.50`,
+    );
+    const token = '22222222-2222-4222-8222-222222222222';
+    let status = 0;
+    const uploading = upload(staff, supplier.id, ['SKU,Description,Size,Price', ...rows].join('\n'))
+      .query({ progress: token })
+      .then((res) => {
+        status = res.status;
+      });
+    const seen: { phase: string; rows: number }[] = [];
+    while (status === 0) {
+      const res = await buyer.get(`/api/price-list-imports/progress/${token}`);
+      seen.push(res.body);
+      await new Promise((r) => setTimeout(r, 20));
+    }
+    await uploading;
+    expect(status).toBe(201);
+    expect(seen.some((p) => p.phase === 'reading' || p.phase === 'comparing')).toBe(true);
+    const rowsSeen = seen.filter((p) => p.phase === 'reading').map((p) => p.rows);
+    // Rows only ever go up while reading.
+    expect(rowsSeen).toEqual([...rowsSeen].sort((a, b) => a - b));
+  }, 60_000);
 });
