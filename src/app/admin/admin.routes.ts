@@ -8,4 +8,9 @@ export const adminRoutes: Routes = [
     title: 'Users',
     loadComponent: () => import('./user-list').then((m) => m.UserList),
   },
+  {
+    path: 'audit',
+    title: 'Audit trail',
+    loadComponent: () => import('./audit-log').then((m) => m.AuditLog),
+  },
 ];

@@ -27,6 +27,13 @@ export const NAV_ITEMS: NavItem[] = [
     hint: 'Add people, set what each may do, reset a forgotten password.',
   },
   {
+    path: '/admin/audit',
+    label: 'Audit trail',
+    icon: 'manage_history',
+    roles: ['owner'],
+    hint: 'Who changed stock, prices, reorder rules and users, and what it was before.',
+  },
+  {
     path: '/catalog/families',
     label: 'Engine families',
     icon: 'stairs',

@@ -1,0 +1,32 @@
+import { HttpClient, HttpParams } from '@angular/common/http';
+import { inject, Injectable } from '@angular/core';
+import { Observable } from 'rxjs';
+
+import type { AuditPageJson } from '../../../shared/audit-api';
+
+export interface AuditListQuery {
+  entity?: string;
+  entityId?: string;
+  user?: string;
+  /** Calendar days YYYY-MM-DD in the shop's time zone, both included. */
+  from?: string;
+  to?: string;
+  dir: 'asc' | 'desc';
+  /** 1-based. */
+  page: number;
+  pageSize: number;
+}
+
+/** The audit trail's one door to the server. */
+@Injectable({ providedIn: 'root' })
+export class AuditApi {
+  private readonly http = inject(HttpClient);
+
+  page(query: AuditListQuery): Observable<AuditPageJson> {
+    let params = new HttpParams();
+    for (const [key, value] of Object.entries(query)) {
+      if (value !== undefined && value !== '') params = params.set(key, String(value));
+    }
+    return this.http.get<AuditPageJson>('/api/audit', { params });
+  }
+}
