@@ -74,14 +74,14 @@ const JOBS: DemoJob[] = [
   },
   {
     family: 'QV-54A',
-    customer: { name: 'Tamsin Oakridge', phone: '555 0102' },
+    customer: { name: 'Tamsin Oakmere', phone: '555 0102' },
     cylinders: 1,
     askedFor: 'Measure and quote before any work',
     dueInDays: -2,
   },
   {
     family: 'BT-72',
-    customer: { name: 'Marisol Tenbury', email: 'marisol@example.test' },
+    customer: { name: 'Marisol Tenwick', email: 'marisol@example.test' },
     cylinders: 2,
     askedFor: 'Rebore both, matched pair',
     dueInDays: 10,
@@ -91,7 +91,7 @@ const JOBS: DemoJob[] = [
   },
   {
     family: 'MB-350',
-    customer: { name: 'Corwin Ashgrove', phone: '555 0104', email: 'corwin@example.test' },
+    customer: { name: 'Corwin Ashlock', phone: '555 0104', email: 'corwin@example.test' },
     cylinders: 1,
     askedFor: 'Bore and hone to the next size that cleans up',
     dueInDays: 3,
@@ -137,7 +137,7 @@ const JOBS: DemoJob[] = [
   },
   {
     family: 'MB-350',
-    customer: { name: 'Lisette Harrowgate', phone: '555 0108' },
+    customer: { name: 'Lisette Harrowell', phone: '555 0108' },
     cylinders: 1,
     askedFor: 'Bore and hone to the next size that cleans up',
     dueInDays: -5,
