@@ -69,36 +69,47 @@ export function orderMail(
   };
 }
 
-export interface ArrivalFacts {
-  jobId: string;
-  jobNumber: string;
-  customerName: string;
+export interface ArrivedPiston {
   cylinder: number;
   unitLabel: string;
   sku: string;
   skirt: LengthJson | null;
+}
+
+/** Everything one delivery brought for one waiting job. */
+export interface JobArrival {
+  jobId: string;
+  jobNumber: string;
+  customerName: string;
   orderNumber: string;
+  pistons: ArrivedPiston[];
 }
 
 function skirtText(skirt: LengthJson | null): string {
   return skirt === null ? 'not measured' : `${skirt.mm} mm (${skirt.in} in)`;
 }
 
-export function arrivalMailForMachinist(shopName: string, a: ArrivalFacts): MailContent {
+function cylinderList(pistons: ArrivedPiston[]): string {
+  const ns = pistons.map((p) => String(p.cylinder));
+  return ns.length === 1 ? ns[0] : `${ns.slice(0, -1).join(', ')} and ${ns[ns.length - 1]}`;
+}
+
+export function arrivalMailForMachinist(shopName: string, a: JobArrival): MailContent {
+  const one = a.pistons.length === 1;
   return composeMail({
     shopName,
     appUrl: config.appUrl,
-    subject: `Piston in for job ${a.jobNumber}, cylinder ${a.cylinder}: ${a.unitLabel} is held`,
-    heading: `The piston job ${a.jobNumber} waited for has arrived`,
+    subject: one
+      ? `Piston in for job ${a.jobNumber}: ${a.pistons[0].unitLabel} held for cylinder ${a.pistons[0].cylinder}`
+      : `${a.pistons.length} pistons in for job ${a.jobNumber}: held for cylinders ${cylinderList(a.pistons)}`,
+    heading: `What job ${a.jobNumber} waited for has arrived`,
     paragraphs: [
-      `${a.unitLabel} (${a.sku}) came in on order ${a.orderNumber} and is now held for cylinder ${a.cylinder} of job ${a.jobNumber} (${a.customerName}).`,
-      'Check its skirt against the bore sheet before cutting; the machine maker\u2019s instructions come first.',
-    ],
-    facts: [
-      ['Job', a.jobNumber],
-      ['Cylinder', String(a.cylinder)],
-      ['Piston', `${a.unitLabel} (${a.sku})`],
-      ['Measured skirt', skirtText(a.skirt)],
+      `Order ${a.orderNumber} came in, and ${one ? 'a piston is' : 'pistons are'} now held for job ${a.jobNumber} (${a.customerName}):`,
+      ...a.pistons.map(
+        (p) =>
+          `Cylinder ${p.cylinder}: ${p.unitLabel} (${p.sku}), measured skirt ${skirtText(p.skirt)}.`,
+      ),
+      'Check each skirt against the bore sheet before cutting; the machine maker\u2019s instructions come first.',
     ],
     link: { label: 'Open the job', path: `/jobs/${a.jobId}` },
   });
@@ -107,15 +118,16 @@ export function arrivalMailForMachinist(shopName: string, a: ArrivalFacts): Mail
 export function arrivalMailForCustomer(
   shopName: string,
   shopHours: string,
-  a: ArrivalFacts,
+  a: JobArrival,
 ): MailContent {
+  const one = a.pistons.length === 1;
   return composeMail({
     shopName,
     appUrl: config.appUrl,
-    subject: `${shopName}: the part for job ${a.jobNumber} has arrived`,
+    subject: `${shopName}: the parts for job ${a.jobNumber} have arrived`,
     heading: `Good news about job ${a.jobNumber}`,
     paragraphs: [
-      `Dear ${a.customerName}, the piston your cylinder was waiting for has arrived and is set aside for your job. We can now carry on with the work.`,
+      `Dear ${a.customerName}, the ${one ? 'piston' : 'pistons'} your job was waiting for ${one ? 'has' : 'have'} arrived and ${one ? 'is' : 'are'} set aside for it. We can now carry on with the work.`,
       'We will let you know when everything is ready to collect.',
     ],
     facts: [['Job number', a.jobNumber]],

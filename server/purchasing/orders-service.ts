@@ -343,7 +343,8 @@ export async function draftFromSuggestions(
     const quantity = quantityToOrder(part);
     if (quantity <= 0) continue;
     const offers = await offersFor([part.id], { quantity }, k);
-    const { best } = bestOffer(offers, quantity, null);
+    // Nobody has the whole quantity: take what the best of the others still has.
+    const best = bestOffer(offers, quantity, null).best ?? bestOffer(offers, 1, null).best;
     if (!best) {
       unsourced.push({ partId: part.id, sku: part.sku, quantity });
       continue;
@@ -354,7 +355,11 @@ export async function draftFromSuggestions(
       currency: best.currency,
       lines: [],
     };
-    group.lines.push({ partId: part.id, quantity, unitPrice: best.price });
+    group.lines.push({
+      partId: part.id,
+      quantity: best.available === null ? quantity : Math.min(quantity, best.available),
+      unitPrice: best.price,
+    });
     groups.set(key, group);
   }
   const ids = await k.transaction(async (trx) => {

@@ -22,7 +22,7 @@ import {
 } from '../../shared/purchasing-api';
 import type { UnitJson } from '../../shared/stock-api';
 import { D } from '../../shared/purchase-money';
-import { arrivalMailForCustomer, arrivalMailForMachinist } from './order-mail';
+import { arrivalMailForCustomer, arrivalMailForMachinist, type JobArrival } from './order-mail';
 import * as repo from './orders-repository';
 import { getOrder } from './orders-service';
 
@@ -151,6 +151,7 @@ export async function receiveAgainstOrder(
     const received: UnitJson[] = [];
     const holds: ReceivedHoldJson[] = [];
     const notHeld: OrderReceiptJson['notHeld'] = [];
+    const arrivals = new Map<string, JobArrival & { tellCustomer: string | null }>();
     for (const p of planned) {
       let stock;
       try {
@@ -217,25 +218,21 @@ export async function receiveAgainstOrder(
             unitLabel: unit.label,
             skirt: unit.skirt,
           });
-          const facts = {
+          const arrival = arrivals.get(job.id) ?? {
             jobId: job.id,
             jobNumber: job.number,
             customerName: job.customer_name,
+            orderNumber: locked.number,
+            pistons: [],
+            tellCustomer: job.notify_customer ? job.customer_email : null,
+          };
+          arrival.pistons.push({
             cylinder: wait.cylinder,
             unitLabel: unit.label,
             sku: p.line.sku,
             skirt: unit.skirt,
-            orderNumber: locked.number,
-          };
-          for (const to of machinists) {
-            await enqueueMail(trx, { to, ...arrivalMailForMachinist(settings.shopName, facts) });
-          }
-          if (job.customer_email && job.notify_customer) {
-            await enqueueMail(trx, {
-              to: job.customer_email,
-              ...arrivalMailForCustomer(settings.shopName, settings.shopHours, facts),
-            });
-          }
+          });
+          arrivals.set(job.id, arrival);
         } catch (e) {
           // The hold was refused (the job moved on, the cylinder got a piston another way): the
           // wait stays open and the piston stays free for the next job in line.
@@ -246,6 +243,19 @@ export async function receiveAgainstOrder(
           );
           notHeld.push({ jobNumber: job.number, cylinder: wait.cylinder, reason: e.message });
         }
+      }
+    }
+
+    // One message per waiting job, whatever number of its cylinders this delivery served.
+    for (const arrival of arrivals.values()) {
+      for (const to of machinists) {
+        await enqueueMail(trx, { to, ...arrivalMailForMachinist(settings.shopName, arrival) });
+      }
+      if (arrival.tellCustomer) {
+        await enqueueMail(trx, {
+          to: arrival.tellCustomer,
+          ...arrivalMailForCustomer(settings.shopName, settings.shopHours, arrival),
+        });
       }
     }
 

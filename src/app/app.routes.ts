@@ -61,6 +61,17 @@ export const routes: Routes = [
         loadChildren: () => import('./imports/imports.routes').then((m) => m.importsRoutes),
       },
       {
+        path: 'purchasing',
+        loadChildren: () =>
+          import('./purchasing/purchasing.routes').then((m) => m.purchasingRoutes),
+      },
+      {
+        path: 'alerts',
+        canActivate: [roleGuard],
+        data: { roles: ['owner', 'buyer'] },
+        loadChildren: () => import('./alerts/alerts.routes').then((m) => m.alertsRoutes),
+      },
+      {
         path: 'account',
         loadChildren: () => import('./account/account.routes').then((m) => m.accountRoutes),
       },

@@ -456,7 +456,7 @@ describe('purchase orders, receiving and waiting jobs', () => {
     );
     expect(told).toHaveLength(1);
     expect(told[0].subject).toBe(
-      `Piston in for job ${olderJob.number}, cylinder 1: ${unit.label} is held`,
+      `Piston in for job ${olderJob.number}: ${unit.label} held for cylinder 1`,
     );
     expect(told[0].text).toContain('2.5468 in');
     expect(told[0].text).toContain(`/jobs/${olderJob.id}`);

@@ -1,0 +1,33 @@
+import { HttpClient, HttpParams } from '@angular/common/http';
+import { inject, Injectable } from '@angular/core';
+import { Observable } from 'rxjs';
+
+import type { AlertJson, AlertsPageJson, AlertState } from '../../../shared/alerts-api';
+import type { MailboxPageJson } from '../../../shared/mail-api';
+
+function params(query: object): HttpParams {
+  let result = new HttpParams();
+  for (const [key, value] of Object.entries(query)) {
+    if (value !== undefined && value !== null && value !== '')
+      result = result.set(key, String(value));
+  }
+  return result;
+}
+
+/** The alerts feature's one door to the server: stock alerts and the local mailbox. */
+@Injectable({ providedIn: 'root' })
+export class AlertsApi {
+  private readonly http = inject(HttpClient);
+
+  alerts(query: { state: AlertState; page: number; pageSize: number }): Observable<AlertsPageJson> {
+    return this.http.get<AlertsPageJson>('/api/alerts', { params: params(query) });
+  }
+
+  acknowledge(alertId: string): Observable<AlertJson> {
+    return this.http.post<AlertJson>(`/api/alerts/${encodeURIComponent(alertId)}/acknowledge`, {});
+  }
+
+  mailbox(query: { q?: string; page: number; pageSize: number }): Observable<MailboxPageJson> {
+    return this.http.get<MailboxPageJson>('/api/mailbox', { params: params(query) });
+  }
+}

@@ -1,0 +1,171 @@
+import { DatePipe } from '@angular/common';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  computed,
+  effect,
+  inject,
+  input,
+  signal,
+} from '@angular/core';
+import { FormsModule } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { RouterLink } from '@angular/router';
+
+import type { OrderJson, OrderLineJson, WaitCandidateJson } from '../../../shared/purchasing-api';
+import { apiErrorMessage } from '../core/api-error';
+import { Notifier } from '../core/notifier';
+import { Session } from '../core/session';
+import { PurchasingApi } from './purchasing-api';
+
+interface LineEdit {
+  quantity: number;
+  unitPrice: string;
+}
+
+/**
+ * One purchase order: its lines, what has come in, the jobs waiting on each line; a draft can be
+ * changed and sent, an open order called off or received against.
+ */
+@Component({
+  selector: 'app-order-page',
+  imports: [
+    DatePipe,
+    FormsModule,
+    MatButtonModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatInputModule,
+    MatProgressBarModule,
+    RouterLink,
+  ],
+  templateUrl: './order-page.html',
+  styleUrl: './order-page.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class OrderPage {
+  private readonly api = inject(PurchasingApi);
+  private readonly notifier = inject(Notifier);
+  private readonly session = inject(Session);
+
+  readonly id = input.required<string>();
+
+  protected readonly order = signal<OrderJson | null>(null);
+  protected readonly loadError = signal('');
+  protected readonly busy = signal(false);
+  protected readonly edits = signal<Record<string, LineEdit>>({});
+  protected readonly candidates = signal<Record<string, WaitCandidateJson[]>>({});
+
+  private readonly role = computed(() => this.session.user()?.role ?? '');
+  protected readonly canOrder = computed(() => ['owner', 'buyer'].includes(this.role()));
+  protected readonly canReceive = computed(() => ['owner', 'buyer', 'staff'].includes(this.role()));
+  protected readonly canWait = computed(() =>
+    ['owner', 'buyer', 'machinist'].includes(this.role()),
+  );
+  protected readonly drafting = computed(() => this.order()?.state === 'drafting');
+  protected readonly open = computed(() =>
+    ['sent_out', 'partly_in'].includes(this.order()?.state ?? ''),
+  );
+  protected readonly closed = computed(() =>
+    ['all_in', 'called_off'].includes(this.order()?.state ?? ''),
+  );
+
+  constructor() {
+    effect(() => this.load(this.id()));
+  }
+
+  protected load(id: string = this.id()): void {
+    this.api.order(id).subscribe({
+      next: (order) => {
+        this.loadError.set('');
+        this.order.set(order);
+        this.edits.set(
+          Object.fromEntries(
+            order.lines.map((l) => [l.id, { quantity: l.quantity, unitPrice: l.unitPrice }]),
+          ),
+        );
+      },
+      error: (e: unknown) => this.loadError.set(apiErrorMessage(e)),
+    });
+  }
+
+  protected edit(line: OrderLineJson): LineEdit {
+    return this.edits()[line.id] ?? { quantity: line.quantity, unitPrice: line.unitPrice };
+  }
+
+  protected setEdit(line: OrderLineJson, change: Partial<LineEdit>): void {
+    this.edits.update((all) => ({ ...all, [line.id]: { ...this.edit(line), ...change } }));
+  }
+
+  private act(what: Promise<unknown> | null, done: string): void {
+    if (!what) return;
+    this.busy.set(true);
+    what.then(
+      () => {
+        this.busy.set(false);
+        void this.notifier.success(done);
+        this.load();
+      },
+      (e: unknown) => {
+        this.busy.set(false);
+        void this.notifier.error(apiErrorMessage(e));
+        this.load();
+      },
+    );
+  }
+
+  private promise<T>(o: import('rxjs').Observable<T>): Promise<T> {
+    return new Promise<T>((resolve, reject) => o.subscribe({ next: resolve, error: reject }));
+  }
+
+  protected saveLines(order: OrderJson): void {
+    const lines = order.lines.map((l) => ({
+      partId: l.partId,
+      quantity: Number(this.edit(l).quantity),
+      unitPrice: String(this.edit(l).unitPrice).trim(),
+    }));
+    this.act(this.promise(this.api.updateOrder(order.id, { lines })), 'Changes saved.');
+  }
+
+  protected send(order: OrderJson): void {
+    this.act(
+      this.promise(this.api.send(order.id)),
+      `${order.number} is on its way to ${order.supplierName}.`,
+    );
+  }
+
+  protected cancel(order: OrderJson): void {
+    this.act(this.promise(this.api.cancel(order.id)), `${order.number} is called off.`);
+  }
+
+  protected findJobs(line: OrderLineJson): void {
+    this.api.waitCandidates(line.id).subscribe({
+      next: (r) => this.candidates.update((all) => ({ ...all, [line.id]: r.items })),
+      error: (e: unknown) => void this.notifier.error(apiErrorMessage(e)),
+    });
+  }
+
+  protected wait(line: OrderLineJson, c: WaitCandidateJson): void {
+    // The list is asked again when wanted: the job just set no longer belongs in it.
+    this.candidates.update((all) => {
+      const rest = { ...all };
+      delete rest[line.id];
+      return rest;
+    });
+    this.act(
+      this.promise(this.api.addWait({ jobId: c.jobId, cylinder: c.cylinder, lineId: line.id })),
+      `Job ${c.jobNumber}, cylinder ${c.cylinder} now waits for this line.`,
+    );
+  }
+
+  protected stopWaiting(waitId: string, jobNumber: string): void {
+    this.act(
+      this.promise(this.api.cancelWait(waitId)),
+      `Job ${jobNumber} no longer waits on this order.`,
+    );
+  }
+}

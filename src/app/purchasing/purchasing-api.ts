@@ -1,0 +1,203 @@
+import { HttpClient, HttpParams } from '@angular/common/http';
+import { inject, Injectable } from '@angular/core';
+import { Observable } from 'rxjs';
+
+import type { FamilyJson, LadderJson, Page, PartJson } from '../../../shared/catalog-api';
+import type {
+  DraftsJson,
+  ExchangeRateJson,
+  OpenLineJson,
+  OrderJson,
+  OrderListItemJson,
+  OrderReceiptJson,
+  OrderState,
+  ReorderDefaultJson,
+  ReorderLineJson,
+  ReorderRuleJson,
+  ReorderSuggestionJson,
+  SourcingJson,
+  WaitCandidateJson,
+  WaitJson,
+} from '../../../shared/purchasing-api';
+import type { SupplierJson } from '../../../shared/suppliers-api';
+
+function params(query: object): HttpParams {
+  let result = new HttpParams();
+  for (const [key, value] of Object.entries(query)) {
+    if (value !== undefined && value !== null && value !== '')
+      result = result.set(key, String(value));
+  }
+  return result;
+}
+
+const id = encodeURIComponent;
+
+export interface OrderLineBody {
+  partId: string;
+  quantity: number;
+  unitPrice: string;
+}
+
+export interface ReceiptBody {
+  lines: { lineId: string; quantity: number; units?: { skirt?: string | null }[] }[];
+  note?: string;
+}
+
+/** The purchasing feature's one door to the server. */
+@Injectable({ providedIn: 'root' })
+export class PurchasingApi {
+  private readonly http = inject(HttpClient);
+
+  // ---- Reorder ----
+  reorder(query: { q?: string; familyId?: string; low: boolean; page: number; pageSize: number }) {
+    return this.http.get<Page<ReorderLineJson>>('/api/reorder', {
+      params: params({ ...query, low: String(query.low) }),
+    });
+  }
+
+  rule(partId: string): Observable<ReorderRuleJson> {
+    return this.http.get<ReorderRuleJson>(`/api/parts/${id(partId)}/reorder-rule`);
+  }
+
+  setRule(partId: string, body: { reorderPoint: number | null; orderUpTo: number | null }) {
+    return this.http.put<ReorderRuleJson>(`/api/parts/${id(partId)}/reorder-rule`, body);
+  }
+
+  suggestion(
+    partId: string,
+    query: { windowDays: number; leadDays?: number; serviceLevel?: number },
+  ) {
+    return this.http.get<ReorderSuggestionJson>(`/api/parts/${id(partId)}/reorder-suggestion`, {
+      params: params(query),
+    });
+  }
+
+  part(partId: string): Observable<PartJson> {
+    return this.http.get<PartJson>(`/api/parts/${id(partId)}`);
+  }
+
+  findParts(q: string): Observable<Page<PartJson>> {
+    return this.http.get<Page<PartJson>>('/api/parts', { params: params({ q, pageSize: 20 }) });
+  }
+
+  defaults(familyId?: string) {
+    return this.http.get<{ items: ReorderDefaultJson[]; total: number }>('/api/reorder-defaults', {
+      params: params({ familyId }),
+    });
+  }
+
+  families(): Observable<Page<FamilyJson>> {
+    return this.http.get<Page<FamilyJson>>('/api/engine-families', {
+      params: params({ pageSize: 500 }),
+    });
+  }
+
+  ladder(familyId: string): Observable<LadderJson> {
+    return this.http.get<LadderJson>(`/api/engine-families/${id(familyId)}/ladder`);
+  }
+
+  // ---- Sourcing and rates ----
+  sourcing(query: {
+    partId?: string;
+    familyId?: string;
+    stepId?: string;
+    neededBy?: string;
+    quantity?: number;
+  }) {
+    return this.http.get<SourcingJson>('/api/sourcing', { params: params(query) });
+  }
+
+  rates() {
+    return this.http.get<{ items: ExchangeRateJson[]; homeCurrency: string }>(
+      '/api/exchange-rates',
+    );
+  }
+
+  setRate(currency: string, rate: string): Observable<ExchangeRateJson> {
+    return this.http.put<ExchangeRateJson>(`/api/exchange-rates/${id(currency)}`, { rate });
+  }
+
+  deleteRate(currency: string): Observable<void> {
+    return this.http.delete<void>(`/api/exchange-rates/${id(currency)}`);
+  }
+
+  suppliers(): Observable<Page<SupplierJson>> {
+    return this.http.get<Page<SupplierJson>>('/api/suppliers', {
+      params: params({ pageSize: 500 }),
+    });
+  }
+
+  // ---- Orders ----
+  orders(query: {
+    q?: string;
+    state?: OrderState | 'open';
+    sort?: string;
+    dir?: string;
+    page: number;
+    pageSize: number;
+  }) {
+    return this.http.get<Page<OrderListItemJson>>('/api/purchase-orders', {
+      params: params(query),
+    });
+  }
+
+  order(orderId: string): Observable<OrderJson> {
+    return this.http.get<OrderJson>(`/api/purchase-orders/${id(orderId)}`);
+  }
+
+  createOrder(body: {
+    supplierId: string;
+    lines: OrderLineBody[];
+    expectedOn?: string | null;
+    notes?: string;
+  }) {
+    return this.http.post<OrderJson>('/api/purchase-orders', body);
+  }
+
+  updateOrder(
+    orderId: string,
+    body: { lines?: OrderLineBody[]; expectedOn?: string | null; notes?: string },
+  ) {
+    return this.http.patch<OrderJson>(`/api/purchase-orders/${id(orderId)}`, body);
+  }
+
+  draftFromSuggestions(body: { partIds?: string[]; familyId?: string }): Observable<DraftsJson> {
+    return this.http.post<DraftsJson>('/api/purchase-orders/drafts', body);
+  }
+
+  send(orderId: string): Observable<OrderJson> {
+    return this.http.post<OrderJson>(`/api/purchase-orders/${id(orderId)}/send`, {});
+  }
+
+  cancel(orderId: string): Observable<OrderJson> {
+    return this.http.post<OrderJson>(`/api/purchase-orders/${id(orderId)}/cancel`, {});
+  }
+
+  receive(orderId: string, body: ReceiptBody): Observable<OrderReceiptJson> {
+    return this.http.post<OrderReceiptJson>(`/api/purchase-orders/${id(orderId)}/receipts`, body);
+  }
+
+  openLines(gtin: string) {
+    return this.http.get<{ items: OpenLineJson[]; total: number }>(
+      '/api/purchase-orders/open-lines',
+      {
+        params: params({ gtin }),
+      },
+    );
+  }
+
+  // ---- Waits ----
+  waitCandidates(lineId: string) {
+    return this.http.get<{ items: WaitCandidateJson[]; total: number }>(
+      `/api/order-lines/${id(lineId)}/wait-candidates`,
+    );
+  }
+
+  addWait(body: { jobId: string; cylinder: number; lineId: string }): Observable<WaitJson> {
+    return this.http.post<WaitJson>('/api/order-waits', body);
+  }
+
+  cancelWait(waitId: string): Observable<void> {
+    return this.http.delete<void>(`/api/order-waits/${id(waitId)}`);
+  }
+}

@@ -1,0 +1,145 @@
+import { DatePipe } from '@angular/common';
+import { ChangeDetectionStrategy, Component, effect, inject, input, signal } from '@angular/core';
+import { toSignal } from '@angular/core/rxjs-interop';
+import { FormsModule } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatSelectModule } from '@angular/material/select';
+import { MatTableModule } from '@angular/material/table';
+import { Router, RouterLink } from '@angular/router';
+import { catchError, map, of } from 'rxjs';
+
+import type { LadderStepJson } from '../../../shared/catalog-api';
+import type { SourcingJson } from '../../../shared/purchasing-api';
+import { apiErrorMessage } from '../core/api-error';
+import { PurchasingApi } from './purchasing-api';
+
+/**
+ * Who still has a part, or the pistons of a family's step: every supplier's offer landed here in
+ * the home currency, how fresh the information is, the best offer for a needed-by date, and a flag
+ * when the step is scarce.
+ */
+@Component({
+  selector: 'app-sourcing-page',
+  imports: [
+    DatePipe,
+    FormsModule,
+    MatButtonModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatInputModule,
+    MatProgressBarModule,
+    MatSelectModule,
+    MatTableModule,
+    RouterLink,
+  ],
+  templateUrl: './sourcing-page.html',
+  styleUrl: './sourcing-page.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class SourcingPage {
+  private readonly api = inject(PurchasingApi);
+  private readonly router = inject(Router);
+
+  /** From the address: ?partId=… or ?familyId=…&stepId=…, with ?quantity and ?neededBy. */
+  readonly partId = input<string>();
+  readonly familyId = input<string>();
+  readonly stepId = input<string>();
+  readonly quantity = input<string>();
+  readonly neededBy = input<string>();
+
+  protected readonly columns = ['supplier', 'price', 'landed', 'available', 'lead', 'seen'];
+  protected readonly families = toSignal(
+    this.api.families().pipe(
+      map((p) => p.items),
+      catchError(() => of([])),
+    ),
+    { initialValue: [] },
+  );
+  protected readonly steps = signal<LadderStepJson[]>([]);
+  protected chosenFamily = '';
+  protected chosenStep = '';
+  protected wanted = 1;
+  protected byDate = '';
+
+  protected readonly result = signal<SourcingJson | null>(null);
+  protected readonly loading = signal(false);
+  protected readonly error = signal('');
+
+  constructor() {
+    effect(() => {
+      const partId = this.partId();
+      const familyId = this.familyId();
+      const stepId = this.stepId();
+      this.wanted = Math.max(1, Number(this.quantity() ?? 1) || 1);
+      this.byDate = this.neededBy() ?? '';
+      if (familyId) {
+        this.chosenFamily = familyId;
+        this.chosenStep = stepId ?? '';
+        this.loadSteps(familyId);
+      }
+      if (partId || (familyId && stepId)) this.fetch({ partId, familyId, stepId });
+    });
+  }
+
+  protected loadSteps(familyId: string): void {
+    this.steps.set([]);
+    if (!familyId) return;
+    this.api.ladder(familyId).subscribe({
+      next: (ladder) => this.steps.set(ladder.steps),
+      error: () => this.steps.set([]),
+    });
+  }
+
+  protected onFamily(familyId: string): void {
+    this.chosenFamily = familyId;
+    this.chosenStep = '';
+    this.loadSteps(familyId);
+  }
+
+  /** Puts the choice in the address, so the page can be bookmarked and the back button works. */
+  protected look(): void {
+    if (!this.chosenFamily || !this.chosenStep) return;
+    void this.router.navigate([], {
+      queryParams: {
+        familyId: this.chosenFamily,
+        stepId: this.chosenStep,
+        quantity: this.wanted,
+        neededBy: this.byDate || null,
+        partId: null,
+      },
+    });
+  }
+
+  protected refine(): void {
+    void this.router.navigate([], {
+      queryParams: { quantity: this.wanted, neededBy: this.byDate || null },
+      queryParamsHandling: 'merge',
+    });
+  }
+
+  private fetch(q: { partId?: string; familyId?: string; stepId?: string }): void {
+    this.loading.set(true);
+    this.error.set('');
+    this.api
+      .sourcing({
+        ...(q.partId ? { partId: q.partId } : { familyId: q.familyId, stepId: q.stepId }),
+        quantity: this.wanted,
+        neededBy: this.byDate || undefined,
+      })
+      .subscribe({
+        next: (r) => {
+          this.loading.set(false);
+          this.result.set(r);
+        },
+        error: (e: unknown) => {
+          this.loading.set(false);
+          this.result.set(null);
+          this.error.set(apiErrorMessage(e));
+        },
+      });
+  }
+}
