@@ -58,17 +58,16 @@ function typecheck(): boolean {
 /** The seeded demo shop, once, as a template each browser test copies. */
 async function seedE2eTemplate(c: Cluster): Promise<void> {
   const url = ensureDatabase(c, 'stepstock_e2e_template');
-  const { createDb } = await import('../db/knex');
-  const { migrateLatest, seedDemo } = await import('../db/migrate');
-  const db = createDb(url);
-  try {
-    await migrateLatest(db);
-    const t = Date.now();
-    await seedDemo(db);
-    say(`demo template seeded in ${((Date.now() - t) / 1000).toFixed(1)} s`);
-  } finally {
-    await db.destroy();
-  }
+  // In its own process with DATABASE_URL set: seeds that go through the services use the process's
+  // one Knex instance, which must point at the template too.
+  const t = Date.now();
+  const r = spawnSync(process.execPath, ['--import', 'tsx', 'server/db/cli.ts', 'seed'], {
+    cwd: REPO_ROOT,
+    stdio: 'inherit',
+    env: { ...process.env, NODE_ENV: 'test', TZ: 'UTC', DATABASE_URL: url, LOG_LEVEL: 'warn' },
+  });
+  if (r.status !== 0) throw new Error('seeding the demo template failed');
+  say(`demo template seeded in ${((Date.now() - t) / 1000).toFixed(1)} s`);
 }
 
 function lint(): boolean {
