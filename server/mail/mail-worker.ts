@@ -173,15 +173,13 @@ export function createMailWorker(opts: MailWorkerOptions = {}): MailWorker {
         const error = (e as Error).message.slice(0, 500);
         return isPermanent(e) ? giveUp(error) : later(error);
       }
-      await trx('outbox')
-        .where({ id: row.id })
-        .update({
-          status: 'sent',
-          attempts,
-          sent_at: trx.fn.now(),
-          last_error: null,
-          message_id: messageId,
-        });
+      await trx('outbox').where({ id: row.id }).update({
+        status: 'sent',
+        attempts,
+        sent_at: trx.fn.now(),
+        last_error: null,
+        message_id: messageId,
+      });
       return 'sent';
     });
   }
