@@ -400,9 +400,8 @@ export async function priceChanges(
  * Applies the staged rows in one statement: a history row for every price that changes, an upsert of
  * every item (new ones mapped by GTIN when the catalog knows it), and a first history row for new items.
  */
-export async function applyStaged(k: Knex, importId: string, supplierId: string): Promise<number> {
-  const result = await k.raw(
-    `WITH gp AS (${GTIN_PARTS}),
+/** The commit's one statement (named parameters :imp and :sup); exported for the benchmark. */
+export const APPLY_STAGED_SQL = `WITH gp AS (${GTIN_PARTS}),
           s AS (SELECT * FROM price_list_import_rows WHERE import_id = :imp AND ok),
           old AS (SELECT si.id, si.sku, si.price, si.currency
                     FROM supplier_items si JOIN s ON s.sku = si.sku
@@ -434,9 +433,10 @@ export async function applyStaged(k: Knex, importId: string, supplierId: string)
             RETURNING si.id, si.sku, si.price, si.currency)
      INSERT INTO supplier_item_prices (item_id, price, currency, effective_from, import_id)
      SELECT up.id, up.price, up.currency, now(), :imp
-       FROM up WHERE NOT EXISTS (SELECT 1 FROM old WHERE old.sku = up.sku)`,
-    { imp: importId, sup: supplierId },
-  );
+       FROM up WHERE NOT EXISTS (SELECT 1 FROM old WHERE old.sku = up.sku)`;
+
+export async function applyStaged(k: Knex, importId: string, supplierId: string): Promise<number> {
+  const result = await k.raw(APPLY_STAGED_SQL, { imp: importId, sup: supplierId });
   return (result as { rowCount: number }).rowCount;
 }
 

@@ -60,6 +60,19 @@ export async function* readPriceList(
   options: ReadOptions,
   counts: ParseCounts = { rows: 0, ok: 0, errors: 0, warnings: 0 },
 ): AsyncGenerator<PriceListItem> {
+  for await (const chunk of readPriceListChunks(path, options, counts)) yield* chunk;
+}
+
+/**
+ * The items of the list in file order, in chunks of about `chunkSize` rows: the records the parser has
+ * ready are handled in one synchronous pass, so a large list does not pay a promise per row.
+ */
+export async function* readPriceListChunks(
+  path: string,
+  options: ReadOptions,
+  counts: ParseCounts = { rows: 0, ok: 0, errors: 0, warnings: 0 },
+  chunkSize = 2000,
+): AsyncGenerator<PriceListItem[]> {
   const { format, mapping } = options;
   const columns = resolveMapping(mapping, format.headers);
   const width = format.headers.length;
@@ -133,77 +146,109 @@ export async function* readPriceList(
   const flaggedTwice = new Set<string>();
   let headerSeen = false;
 
-  const drain = function* (): Generator<PriceListItem> {
+  const drain = (out: PriceListItem[]): void => {
     while (pending.length > 0) {
       const item = pending.shift() as PriceListItem;
       if (item.kind === 'error') {
         counts.rows++;
         counts.errors++;
       }
-      yield item;
+      out.push(item);
     }
   };
 
-  try {
-    for await (const { fields: record, line } of parser as AsyncIterable<ParsedRecord>) {
-      yield* drain();
-      if (!headerSeen) {
-        headerSeen = true;
-        continue; // the header line itself
-      }
-      if (record.every((cell) => cell.trim() === '')) continue; // a spreadsheet's padded blank row
+  const handle = (record: string[], line: number, out: PriceListItem[]): void => {
+    if (!headerSeen) {
+      headerSeen = true; // the header line itself
+      return;
+    }
+    if (record.every((cell) => cell.trim() === '')) return; // a spreadsheet's padded blank row
 
-      counts.rows++;
-      const result = validateRow(record, line, context);
-      for (const warning of result.warnings) {
-        counts.warnings++;
-        yield { kind: 'warning', issue: warning };
-      }
-      const sku = result.sku;
-      const earlier = sku ? seen.get(sku) : undefined;
-      if (sku && earlier) {
+    counts.rows++;
+    const result = validateRow(record, line, context);
+    for (const warning of result.warnings) {
+      counts.warnings++;
+      out.push({ kind: 'warning', issue: warning });
+    }
+    const sku = result.sku;
+    const earlier = sku ? seen.get(sku) : undefined;
+    if (sku && earlier) {
+      counts.errors++;
+      out.push({
+        kind: 'error',
+        sku,
+        issue: {
+          line,
+          field: 'sku',
+          message: `SKU "${sku}" is also on line ${earlier.line}; neither row is imported.`,
+        },
+      });
+      if (earlier.ok && !flaggedTwice.has(sku)) {
+        counts.ok--;
         counts.errors++;
-        yield {
+        out.push({ kind: 'retract', line: earlier.line, sku });
+        out.push({
           kind: 'error',
           sku,
           issue: {
-            line,
+            line: earlier.line,
             field: 'sku',
-            message: `SKU "${sku}" is also on line ${earlier.line}; neither row is imported.`,
+            message: `SKU "${sku}" appears again on line ${line}; neither row is imported.`,
           },
-        };
-        if (earlier.ok && !flaggedTwice.has(sku)) {
-          counts.ok--;
-          counts.errors++;
-          yield { kind: 'retract', line: earlier.line, sku };
-          yield {
-            kind: 'error',
-            sku,
-            issue: {
-              line: earlier.line,
-              field: 'sku',
-              message: `SKU "${sku}" appears again on line ${line}; neither row is imported.`,
-            },
-          };
-        }
-        flaggedTwice.add(sku);
-        continue;
+        });
       }
-      if (sku) seen.set(sku, { line, ok: result.row !== null });
-      if (result.row) {
-        counts.ok++;
-        yield { kind: 'row', row: result.row };
-      } else {
-        counts.errors++;
-        for (const error of result.errors) {
-          yield { kind: 'error', issue: error, ...(sku ? { sku } : {}) };
-        }
+      flaggedTwice.add(sku);
+      return;
+    }
+    if (sku) seen.set(sku, { line, ok: result.row !== null });
+    if (result.row) {
+      counts.ok++;
+      out.push({ kind: 'row', row: result.row });
+    } else {
+      counts.errors++;
+      for (const error of result.errors) {
+        out.push({ kind: 'error', issue: error, ...(sku ? { sku } : {}) });
       }
+    }
+  };
+
+  let ended = false;
+  let failure: Error | null = null;
+  parser.on('end', () => (ended = true));
+  parser.on('error', (e: Error) => (failure ??= e));
+  const nextEvent = (): Promise<void> =>
+    new Promise<void>((resolve) => {
+      const done = (): void => {
+        parser.off('readable', done);
+        parser.off('end', done);
+        parser.off('error', done);
+        resolve();
+      };
+      parser.on('readable', done);
+      parser.on('end', done);
+      parser.on('error', done);
+    });
+
+  try {
+    for (;;) {
+      const out: PriceListItem[] = [];
+      let rows = 0;
+      let record: ParsedRecord | null;
+      while (rows < chunkSize && (record = parser.read() as ParsedRecord | null) !== null) {
+        drain(out);
+        handle(record.fields, record.line, out);
+        rows++;
+      }
+      if (failure) throw failure;
+      if (ended) drain(out);
+      if (out.length > 0) yield out;
+      if (ended) break;
+      if (rows < chunkSize) await nextEvent();
+      if (failure) throw failure;
     }
   } finally {
     parser.destroy();
   }
-  yield* drain();
   if (counts.rows === 0) {
     throw new BadRequest(
       `The file has a header on line ${format.headerLine} but no rows below it.`,
@@ -229,23 +274,16 @@ export async function* readPriceListBatches(
   counts: ParseCounts,
   batchSize = 2000,
 ): AsyncGenerator<PriceListBatch> {
-  let batch = emptyBatch();
-  for await (const item of readPriceList(path, options, counts)) {
-    if (item.kind === 'row') batch.rows.push(item.row);
-    else if (item.kind === 'error') {
-      batch.errors.push(item.issue);
-      if (item.sku) batch.skippedSkus.push(item.sku);
-    } else if (item.kind === 'warning') batch.warnings.push(item.issue);
-    else batch.retracted.push({ line: item.line, sku: item.sku });
-    if (batch.rows.length >= batchSize) {
-      yield batch;
-      batch = emptyBatch();
+  for await (const chunk of readPriceListChunks(path, options, counts, batchSize)) {
+    const batch = emptyBatch();
+    for (const item of chunk) {
+      if (item.kind === 'row') batch.rows.push(item.row);
+      else if (item.kind === 'error') {
+        batch.errors.push(item.issue);
+        if (item.sku) batch.skippedSkus.push(item.sku);
+      } else if (item.kind === 'warning') batch.warnings.push(item.issue);
+      else batch.retracted.push({ line: item.line, sku: item.sku });
     }
-  }
-  if (
-    batch.rows.length + batch.errors.length + batch.warnings.length + batch.retracted.length >
-    0
-  ) {
     yield batch;
   }
 }

@@ -1,8 +1,19 @@
 // Turns one row of a supplier's list into a supplier item, or into errors that name the line, the field
 // and what is wrong. Nothing is guessed: a value that could be read two ways is refused with the reason.
-import Decimal from 'decimal.js';
-import { parseLength, NM_PER_MM, type LengthUnit, type Nm } from '../../shared/lengths';
-import { isCurrencyCode, parseMoney } from '../../shared/money';
+import {
+  parseLength,
+  NM_PER_MM,
+  type LengthUnit,
+  type Nm,
+  type ParseLengthOptions,
+  type ParsedLength,
+} from '../../shared/lengths';
+import {
+  isCurrencyCode,
+  parseMoney,
+  type ParseMoneyOptions,
+  type ParsedMoney,
+} from '../../shared/money';
 import { gtinProblem, normalizeGtin } from '../../shared/gtin';
 import type { DetectedFormat } from './detect-format';
 import type { ColumnMapping, MappingField } from './propose-mapping';
@@ -88,6 +99,34 @@ const WEEK_WORDS = new Set([
   'semaines',
   'semaine',
 ]);
+
+// A list repeats the same few sizes and prices thousands of times; both readers are pure, so their
+// answers are kept for the texts seen most recently (cleared when full, to bound the memory).
+const CACHE_LIMIT = 5000;
+const lengthCache = new Map<string, ParsedLength>();
+const moneyCache = new Map<string, ParsedMoney>();
+
+function cachedLength(text: string, opts: ParseLengthOptions): ParsedLength {
+  const key = `${text}|${opts.defaultUnit}|${opts.allowZero}|${opts.max}`;
+  let hit = lengthCache.get(key);
+  if (!hit) {
+    if (lengthCache.size >= CACHE_LIMIT) lengthCache.clear();
+    hit = parseLength(text, opts);
+    lengthCache.set(key, hit);
+  }
+  return hit;
+}
+
+function cachedMoney(text: string, opts: ParseMoneyOptions): ParsedMoney {
+  const key = `${text}|${opts.decimalComma}|${opts.maxDecimals}`;
+  let hit = moneyCache.get(key);
+  if (!hit) {
+    if (moneyCache.size >= CACHE_LIMIT) moneyCache.clear();
+    hit = parseMoney(text, opts);
+    moneyCache.set(key, hit);
+  }
+  return hit;
+}
 
 export function validateRow(record: string[], line: number, ctx: RowContext): RowResult {
   const errors: RowIssue[] = [];
@@ -214,7 +253,7 @@ function readLengthCell(
     fail(`The ${what} "${shown}" ${digits.problem}.`);
     return null;
   }
-  const parsed = parseLength(`${digits} ${after}`.trim(), {
+  const parsed = cachedLength(`${digits} ${after}`.trim(), {
     defaultUnit: unit,
     allowZero: opts.allowZero,
     max: opts.max,
@@ -338,23 +377,24 @@ function readPrice(
       return null;
     }
   }
-  const money = parseMoney(run, { decimalComma: format.decimal === ',', maxDecimals: 4 });
+  const money = cachedMoney(run, { decimalComma: format.decimal === ',', maxDecimals: 4 });
   if (!money.ok) {
     fail(`The price "${shown}": ${money.message}`);
     return null;
   }
-  const value = new Decimal(money.value);
-  if (value.isZero()) {
+  // parseMoney answers plain digits with an optional fraction ("1234.5"), so text is enough here.
+  const [whole, fraction = ''] = money.value.split('.');
+  if (/^0*$/.test(whole) && /^0*$/.test(fraction)) {
     fail('The price is zero; leave the row out or give its price.');
     return null;
   }
-  if (value.truncated().toFixed().length > MAX_PRICE_DIGITS) {
+  if (whole.replace(/^0+(?=\d)/, '').length > MAX_PRICE_DIGITS) {
     fail(
       `The price "${shown}" is too large (at most ${MAX_PRICE_DIGITS} digits before the decimals).`,
     );
     return null;
   }
-  return { value: value.toFixed(Math.max(2, value.decimalPlaces())), currency };
+  return { value: `${whole}.${fraction.padEnd(2, '0')}`, currency };
 }
 
 function readAvailable(
@@ -381,7 +421,7 @@ function readAvailable(
     fail(`The available quantity "${shown}" is not a whole number.`);
     return null;
   }
-  const money = parseMoney(run, { decimalComma: format.decimal === ',', maxDecimals: 0 });
+  const money = cachedMoney(run, { decimalComma: format.decimal === ',', maxDecimals: 0 });
   if (!money.ok) {
     fail(`The available quantity "${shown}" is not a whole number.`);
     return null;
