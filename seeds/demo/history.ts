@@ -345,7 +345,11 @@ export async function seedDemoHistory(knex: Knex, now: Date = new Date()): Promi
       needsByPart.set(need.part.id, list);
     }
   }
-  for (const [partId, needs] of [...needsByPart.entries()].sort(([a], [b]) => (a < b ? -1 : 1))) {
+  // Parts in SKU order (ids differ from run to run), so the seeded sequence is drawn the same way.
+  const skuOf = (id: string) => (parts.find((p) => p.id === id) as PartRow).sku;
+  const bySkuOrder = ([a]: [string, unknown], [b]: [string, unknown]) =>
+    skuOf(a) < skuOf(b) ? -1 : 1;
+  for (const [partId, needs] of [...needsByPart.entries()].sort(bySkuOrder)) {
     needs.sort((a, b) => a.job.measuredAt - b.job.measuredAt || a.cylinder - b.cylinder);
     const part = needs[0].part;
     let remaining = needs.reduce((n, x) => n + x.quantity, 0);
@@ -468,7 +472,7 @@ export async function seedDemoHistory(knex: Knex, now: Date = new Date()): Promi
   const needByUnit = new Map<string, Need>();
   for (const job of jobs) for (const n of job.needs) if (n.unitId) needByUnit.set(n.unitId, n);
 
-  for (const [partId, list] of [...receipts.entries()].sort(([a], [b]) => (a < b ? -1 : 1))) {
+  for (const [partId, list] of [...receipts.entries()].sort(bySkuOrder)) {
     const part = parts.find((p) => p.id === partId) as PartRow;
     const needs = needsByPart.get(partId) ?? [];
     // Receipts and issues in time order give the moving average at each issue.

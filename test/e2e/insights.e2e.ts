@@ -50,6 +50,22 @@ async function chartsDrawn(page: Page, expected: number): Promise<void> {
   }, expected);
 }
 
+/** Waits until no figure on the page is still loading (a dimmed chart is an old one). */
+async function settled(page: Page): Promise<void> {
+  await page.waitForFunction(() => {
+    const g = globalThis as unknown as {
+      document: { querySelectorAll(s: string): ArrayLike<unknown> };
+    };
+    return g.document.querySelectorAll('mat-progress-bar, .body.dim').length === 0;
+  });
+}
+
+/** A screenshot once every figure has its latest answer. */
+async function shot(page: Page, name: string): Promise<void> {
+  await settled(page);
+  await screenshot(page, name);
+}
+
 /** True when the browser has our chart font loaded, so the canvases drew with it. */
 async function plexLoaded(page: Page): Promise<boolean> {
   return page.evaluate(() => {
@@ -84,13 +100,14 @@ describe('insights for the owner', () => {
       .getByRole('link', { name: 'What sells' })
       .click();
     await page.getByRole('heading', { name: 'What sells', level: 1 }).waitFor();
+    await settled(page);
     await chartsDrawn(page, 3);
     expect(await plexLoaded(page)).toBe(true);
     const table = page
       .getByRole('region', { name: 'By engine family and step' })
       .getByRole('table');
     await table.getByRole('row').nth(2).waitFor();
-    await screenshot(page, 'insights-what-sells');
+    await shot(page, 'insights-what-sells');
     expect(await seriousA11yViolations(page)).toEqual([]);
   });
 
@@ -119,8 +136,9 @@ describe('insights for the owner', () => {
     await end.fill('2026-06-30');
     await end.press('Tab');
     await page.waitForURL(/from=2026-04-01/);
+    await settled(page);
     await chartsDrawn(page, 3);
-    await screenshot(page, 'insights-what-sells-spring');
+    await shot(page, 'insights-what-sells-spring');
   });
 
   it('when the owner exports the sales table, then the CSV holds the same rows and total', async () => {
@@ -146,11 +164,12 @@ describe('insights for the owner', () => {
     await notMoved.getByRole('row').nth(1).waitFor();
     await notMoved.getByText('24 months', { exact: true }).click();
     await page.waitForURL(/months=24/);
+    await settled(page);
     const csv = await downloadCsv(page, /Download parts not moved as CSV/);
     expect(csv.replace(/^\uFEFF/, '').split('\r\n')[0]).toBe(
       'Part number,Description,Family,Step,On hand,Held for jobs,Value at average cost,Last issued,Last received,Part id',
     );
-    await screenshot(page, 'insights-what-sits');
+    await shot(page, 'insights-what-sits');
     expect(await seriousA11yViolations(page)).toEqual([]);
   });
 
@@ -168,7 +187,7 @@ describe('insights for the owner', () => {
       .getByRole('region', { name: 'Value by part, largest first' })
       .getByRole('table');
     await table.getByRole('row').nth(1).waitFor();
-    await screenshot(page, 'insights-abc');
+    await shot(page, 'insights-abc');
     expect(await seriousA11yViolations(page)).toEqual([]);
   });
 
@@ -186,7 +205,7 @@ describe('insights for the owner', () => {
       .nth(1)
       .waitFor();
     await page.getByRole('region', { name: /Suppliers: promised against actual/ }).waitFor();
-    await screenshot(page, 'insights-ran-short');
+    await shot(page, 'insights-ran-short');
     expect(await seriousA11yViolations(page)).toEqual([]);
   });
 });
