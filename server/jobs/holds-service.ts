@@ -123,14 +123,19 @@ export async function placeHold(
   unit: LengthUnit,
   k: Conn = db,
 ): Promise<HoldJson> {
-  // Read before the transaction: a transaction never waits for a second pooled connection.
-  const settings = await getSettings(k);
-  const days = input.expiresInDays === undefined ? settings.holdExpiryDays : input.expiresInDays;
-  const expiresAt = days === null ? null : new Date(Date.now() + days * DAY_MS);
   const holdId = randomUUID();
   try {
-    await k.transaction(async (trx) => {
-      const job = await requireHoldJob(trx, jobId, 'share');
+    // Everything on the transaction's one connection, answer included: under a burst of holds
+    // the pool is busy, and a hold that is already committed must never end up answered with a
+    // "try again" because a second connection could not be had in time.
+    return await k.transaction(async (trx) => {
+      const settings = await getSettings(trx);
+      const days =
+        input.expiresInDays === undefined ? settings.holdExpiryDays : input.expiresInDays;
+      const expiresAt = days === null ? null : new Date(Date.now() + days * DAY_MS);
+      // The job row is locked for a state change from the start, so the job can move on to
+      // parts-set-aside in this same transaction; holds on different jobs never wait here.
+      const job = await requireHoldJob(trx, jobId, 'change');
       const cylinder = await requireCylinderRow(trx, job, input.cylinder);
       if (cylinder.cut_at) {
         throw new Conflict(`Cylinder ${cylinder.n} of job ${job.number} is already cut.`);
@@ -157,6 +162,9 @@ export async function placeHold(
         });
       }
       faultPoint('holds.place.afterLedger');
+      // Once every cylinder with a step has its piston, a job at booked-in or gauged moves on.
+      await advanceState(trx, job, 'parts_set_aside', actorId);
+      return holdOut(holdId, trx);
     });
   } catch (e) {
     // Two holds for one cylinder at the same moment: the unique index lets one through.
@@ -167,8 +175,6 @@ export async function placeHold(
     }
     throw e;
   }
-  await advanceAfterHold(jobId, actorId, k);
-  return holdOut(holdId, k);
 }
 
 interface HoldContext {
@@ -365,17 +371,6 @@ async function holdCounted(
   });
 }
 
-/**
- * Once every cylinder with a step has its piston held, a job still at booked-in or gauged moves to
- * parts-set-aside. Its own short transaction, after the hold is safely in.
- */
-async function advanceAfterHold(jobId: string, actorId: string, k: Conn): Promise<void> {
-  await k.transaction(async (trx) => {
-    const job = await jobsRepo.lockJob(trx, jobId, 'change');
-    if (job) await advanceState(trx, job, 'parts_set_aside', actorId);
-  });
-}
-
 // ---- Ending a hold ----------------------------------------------------------------------------
 
 /**
@@ -471,10 +466,10 @@ export async function moveHold(
   target: HoldMoveInput,
   k: Conn = db,
 ): Promise<HoldJson> {
-  const settings = await getSettings(k);
   const newId = randomUUID();
   try {
-    await k.transaction(async (trx) => {
+    return await k.transaction(async (trx) => {
+      const settings = await getSettings(trx);
       const peek = await repo.findHold(id, trx);
       if (!peek) throw new NotFound('That hold');
       // Jobs first (in id order, so two moves between the same jobs cannot cross), then the hold.
@@ -594,6 +589,7 @@ export async function moveHold(
         before: { holdId: hold.id, jobId: hold.job_id, cylinder: hold.cylinder },
         after: { holdId: newId, jobId: to.id, cylinder: cylinder.n },
       });
+      return holdOut(newId, trx);
     });
   } catch (e) {
     if (isUniqueViolation(e)) {
@@ -603,7 +599,6 @@ export async function moveHold(
     }
     throw e;
   }
-  return holdOut(newId, k);
 }
 
 // ---- The expiry sweep -------------------------------------------------------------------------

@@ -1,8 +1,8 @@
 // Every Knex query of jobs: the job, its cylinders and readings, its notes and photos. Writers take
-// the caller's transaction. A job row is locked FOR NO KEY UPDATE by whoever changes its state
-// (collect, cancel, a state change) and FOR SHARE by whoever adds a hold, so a hold can never land
-// on a job that is being closed; NO KEY keeps inserts that reference the job (notes, ledger rows)
-// from waiting on it.
+// the caller's transaction. A job row is locked FOR NO KEY UPDATE by whoever may change its state
+// (a state change, readings, a hold, a cut, collect, cancel) and FOR SHARE by whoever only needs it
+// to stay open (moving a hold, adding a photo), so nothing lands on a job that is being closed; NO
+// KEY keeps inserts that merely reference the job (notes, ledger rows) from waiting on it.
 import type { Knex } from 'knex';
 import { db } from '../db/knex';
 import { containsPattern } from '../catalog/catalog-repository';
