@@ -8,7 +8,7 @@ import { getSettings } from '../settings/settings-service';
 import { findAlert, type AlertRow } from './alerts-repository';
 
 const MODE_NOTE =
-  'You receive this because your account is set to instant stock alerts; you can choose a daily digest or none under My account.';
+  'You receive this because your account is set to instant stock alerts; you can choose a daily summary or none on the stock alerts page.';
 
 function partName(a: AlertRow): string {
   const where = [a.family_code, a.step_label].filter(Boolean).join(' ');
@@ -64,6 +64,6 @@ export function digestMail(shopName: string, day: string, alerts: AlertRow[]): M
     ],
     link: { label: 'Open the stock alerts', path: '/alerts' },
     closing:
-      'You receive one summary a day because your account is set to a daily digest; change it under My account.',
+      'You receive one summary a day because you chose a daily summary; change it on the stock alerts page.',
   });
 }

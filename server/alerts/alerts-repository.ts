@@ -179,3 +179,10 @@ export async function previousDigestEnd(
     .first('covered_until');
   return (row?.covered_until as Date | undefined) ?? null;
 }
+
+export async function userMailMode(
+  userId: string,
+  k: Knex = db,
+): Promise<{ mail_mode: 'instant' | 'digest' | 'none'; role: string } | undefined> {
+  return k('users').where({ id: userId }).first('mail_mode', 'role');
+}

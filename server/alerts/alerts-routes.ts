@@ -4,7 +4,7 @@ import { z } from 'zod';
 import { route, uuidParam } from '../http/route';
 import { alertsQuery } from '../../shared/alerts-api';
 import type { Role } from '../../shared/session-types';
-import { acknowledgeAlert, listAlerts } from './alerts-service';
+import { acknowledgeAlert, listAlerts, mailModeOf } from './alerts-service';
 
 const READERS: Role[] = ['owner', 'buyer'];
 
@@ -15,6 +15,13 @@ export function registerAlertsRoutes(router: Router): void {
     access: READERS,
     query: alertsQuery,
     handler: ({ query }) => listAlerts(query),
+  });
+  // How the signed-in person gets alert e-mail; they change it with PATCH /api/account {mailMode}.
+  route(router, {
+    method: 'get',
+    path: '/api/alerts/mail-mode',
+    access: READERS,
+    handler: ({ user }) => mailModeOf(user.id),
   });
   route(router, {
     method: 'post',

@@ -59,6 +59,16 @@ export async function acknowledgeAlert(
   return alertJson(row);
 }
 
+export async function mailModeOf(
+  userId: string,
+  k: Knex = db,
+): Promise<{ mailMode: 'instant' | 'digest' | 'none'; alertsByMail: boolean }> {
+  const row = await repo.userMailMode(userId, k);
+  if (!row) throw new NotFound('Your account');
+  // Alert e-mail goes to buyers; the owner reads alerts on the page.
+  return { mailMode: row.mail_mode, alertsByMail: row.role === 'buyer' };
+}
+
 /**
  * Checks a part against its reorder point inside the caller's transaction, after a movement that
  * may have lowered its free stock: raises one alert (and queues the buyers' mail) when it is at or

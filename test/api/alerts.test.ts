@@ -243,6 +243,18 @@ describe('reorder alerts', () => {
     expect((await buyer.get('/api/alerts?state=shut')).status).toBe(400);
   });
 
+  it('when a buyer asks how alerts reach them, then the mail mode they chose under their account comes back', async () => {
+    expect((await digestBuyer.get('/api/alerts/mail-mode')).body).toEqual({
+      mailMode: 'digest',
+      alertsByMail: true,
+    });
+    expect((await buyer.get('/api/alerts/mail-mode')).body).toEqual({
+      mailMode: 'instant',
+      alertsByMail: true,
+    });
+    expect((await owner.get('/api/alerts/mail-mode')).body.alertsByMail).toBe(false);
+  });
+
   it('when the digest sweep runs after 07:00 shop time, then a digest buyer gets one summary a day listing the new alerts', async () => {
     const me = digestBuyer.user?.email as string;
     const early = await runDigestSweep(new Date(Date.UTC(2031, 0, 6, 5, 0)));

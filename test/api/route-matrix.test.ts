@@ -113,6 +113,7 @@ const EXPECTED: Record<string, Access> = {
   // against them; everyone sees what is on order; machinists may set a cylinder to wait for a piston
   // on order; the owner keeps rates.
   'GET /api/alerts': ['owner', 'buyer'],
+  'GET /api/alerts/mail-mode': ['owner', 'buyer'],
   'POST /api/alerts/:id/acknowledge': ['owner', 'buyer'],
   'GET /api/parts/:id/reorder-rule': ['owner', 'buyer'],
   'PUT /api/parts/:id/reorder-rule': ['owner', 'buyer'],

@@ -13,7 +13,7 @@ import { catchError, map, of, switchMap, tap } from 'rxjs';
 import type { AlertJson, AlertsPageJson, AlertState } from '../../../shared/alerts-api';
 import { apiErrorMessage } from '../core/api-error';
 import { Notifier } from '../core/notifier';
-import { AlertsApi } from './alerts-api';
+import { AlertsApi, type MailMode } from './alerts-api';
 
 type Loaded = { ok: true; page: AlertsPageJson } | { ok: false; message: string };
 
@@ -44,6 +44,8 @@ export class AlertList {
   protected readonly pageIndex = signal(0);
   protected readonly pageSize = signal(25);
   protected readonly busy = signal<string | null>(null);
+  protected readonly mailMode = signal<MailMode | null>(null);
+  protected readonly alertsByMail = signal(false);
   private readonly reloads = signal(0);
 
   private readonly query = computed(() => ({
@@ -80,6 +82,35 @@ export class AlertList {
     const loaded = this.loaded();
     return loaded && !loaded.ok ? loaded.message : '';
   });
+
+  constructor() {
+    this.api.mailMode().subscribe({
+      next: (m) => {
+        this.mailMode.set(m.mailMode);
+        this.alertsByMail.set(m.alertsByMail);
+      },
+      error: () => this.alertsByMail.set(false),
+    });
+  }
+
+  protected onMailMode(mode: MailMode): void {
+    const before = this.mailMode();
+    this.mailMode.set(mode);
+    this.api.setMailMode(mode).subscribe({
+      next: () =>
+        void this.notifier.success(
+          mode === 'instant'
+            ? 'You will get each alert by e-mail as it happens.'
+            : mode === 'digest'
+              ? 'You will get one summary of the alerts each morning.'
+              : 'You will get no alert e-mail; they stay on this page.',
+        ),
+      error: (error: unknown) => {
+        this.mailMode.set(before);
+        void this.notifier.error(apiErrorMessage(error));
+      },
+    });
+  }
 
   protected onState(state: AlertState): void {
     this.state.set(state);

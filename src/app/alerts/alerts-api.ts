@@ -5,6 +5,8 @@ import { Observable } from 'rxjs';
 import type { AlertJson, AlertsPageJson, AlertState } from '../../../shared/alerts-api';
 import type { MailboxPageJson } from '../../../shared/mail-api';
 
+export type MailMode = 'instant' | 'digest' | 'none';
+
 function params(query: object): HttpParams {
   let result = new HttpParams();
   for (const [key, value] of Object.entries(query)) {
@@ -25,6 +27,16 @@ export class AlertsApi {
 
   acknowledge(alertId: string): Observable<AlertJson> {
     return this.http.post<AlertJson>(`/api/alerts/${encodeURIComponent(alertId)}/acknowledge`, {});
+  }
+
+  /** How alert e-mail reaches the signed-in person. */
+  mailMode(): Observable<{ mailMode: MailMode; alertsByMail: boolean }> {
+    return this.http.get<{ mailMode: MailMode; alertsByMail: boolean }>('/api/alerts/mail-mode');
+  }
+
+  /** The person's own choice, kept with their account. */
+  setMailMode(mailMode: MailMode): Observable<unknown> {
+    return this.http.patch('/api/account', { mailMode });
   }
 
   mailbox(query: { q?: string; page: number; pageSize: number }): Observable<MailboxPageJson> {
