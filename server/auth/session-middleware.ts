@@ -21,6 +21,7 @@ export function sessionMiddleware(databaseUrl = config.databaseUrl) {
     createTableIfMissing: false,
     pruneSessionInterval: config.NODE_ENV === 'test' ? false : 15 * 60,
   });
+  throttleTouches(store);
   return {
     pool,
     store,
@@ -39,5 +40,39 @@ export function sessionMiddleware(databaseUrl = config.databaseUrl) {
         maxAge: config.SESSION_IDLE_MINUTES * 60 * 1000,
       },
     }),
+  };
+}
+
+/** Sessions are touched in the store at most this often; the idle timeout is counted in minutes. */
+export const TOUCH_EVERY_MS = 60_000;
+
+/**
+ * A rolling session is written back on every request only to move its expiry: a write and a disk
+ * flush per request, reads included. Once a minute per session is enough for an idle timeout of
+ * minutes (the stored end may trail the cookie's by up to a minute, ending an idle session that
+ * much sooner, never later). The map only saves writes: losing it (a restart, another process)
+ * costs one extra touch, never a wrong answer.
+ */
+function throttleTouches(store: session.Store): void {
+  const touch = store.touch?.bind(store);
+  if (!touch) return;
+  const lastTouch = new Map<string, number>();
+  store.touch = (sid, sess, callback) => {
+    const now = Date.now();
+    const last = lastTouch.get(sid);
+    if (last !== undefined && now - last < TOUCH_EVERY_MS) {
+      callback?.();
+      return;
+    }
+    if (lastTouch.size >= 10_000) {
+      for (const [key, at] of lastTouch) if (now - at >= TOUCH_EVERY_MS) lastTouch.delete(key);
+    }
+    lastTouch.set(sid, now);
+    // The typings name no error argument, but stores pass one when the write fails.
+    const done = (err?: unknown) => {
+      if (err) lastTouch.delete(sid);
+      (callback as ((e?: unknown) => void) | undefined)?.(err);
+    };
+    touch(sid, sess, done as () => void);
   };
 }

@@ -185,7 +185,7 @@ describe('V3 session management', () => {
     expect(rows).toHaveLength(0);
   });
 
-  it('V3.3.2 idle timeout: the cookie lives SESSION_IDLE_MINUTES, each request moves the end forward, and a session idle past it is refused', async () => {
+  it('V3.3.2 idle timeout: the cookie lives SESSION_IDLE_MINUTES, use moves the stored end forward (at most once a minute), and a session idle past it is refused', async () => {
     const client = new Client();
     const res = await client.signIn(await makeUser('staff'));
     // express-session writes the idle limit as Expires, counted from this answer.
