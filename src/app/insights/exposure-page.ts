@@ -65,6 +65,11 @@ export class ExposurePage {
     suppliers: this.api.csvUrl('supplier-reliability', { months: this.window() }),
   }));
 
+  /** Days with one decimal, "32.0" rather than "32", so the column lines up. */
+  protected days(value: number): string {
+    return value.toFixed(1);
+  }
+
   protected setMonths(months: number): void {
     void this.router.navigate([], {
       queryParams: { months },
