@@ -124,11 +124,14 @@ async function main() {
       if (stage === 'lint') ok = lint();
       else if (stage === 'typecheck') ok = typecheck();
       else if (stage === 'unit' || stage === 'client') ok = jest(['--selectProjects', stage, ...jestArgs], env);
-      else if (stage === 'api' || stage === 'drills') ok = jest(['--selectProjects', stage, '-i', ...jestArgs], env);
+      else if (stage === 'api') ok = jest(['--selectProjects', stage, '-i', ...jestArgs], env);
+      // Jest reads the test timeout only globally: drills and browser tests get theirs here.
+      else if (stage === 'drills')
+        ok = jest(['--selectProjects', stage, '-i', '--testTimeout', '240000', ...jestArgs], env);
       else if (stage === 'e2e') {
         buildClient();
         await seedE2eTemplate(cluster as Cluster);
-        ok = jest(['--selectProjects', 'e2e', '-i', ...jestArgs], env);
+        ok = jest(['--selectProjects', 'e2e', '-i', '--testTimeout', '180000', ...jestArgs], env);
       }
       if (!ok) failed.push(stage);
     }

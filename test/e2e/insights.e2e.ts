@@ -6,7 +6,7 @@ import type { Page } from 'playwright-core';
 import { DEMO, e2eEnvironment, screenshot, seriousA11yViolations, signIn } from './support';
 
 // Each step drives a real browser against a real server; on a busy machine that takes seconds.
-jest.setTimeout(60_000);
+jest.setTimeout(180_000);
 
 let env: Awaited<ReturnType<typeof e2eEnvironment>>;
 /** Script errors in the page: a chart or table that failed to render shows up here. */
