@@ -501,3 +501,22 @@ export function lockExpiredHolds(
     .forUpdate()
     .skipLocked();
 }
+
+/** The job's family and the step of the unit or part a hold asked for (for shortage notes). */
+export async function holdTargetStep(
+  jobId: string,
+  input: { unitId?: string; partId?: string },
+  k: Knex = db,
+): Promise<{ familyId: string; stepId: string | null } | null> {
+  const job = await k('jobs').where({ id: jobId }).first('family_id');
+  if (!job) return null;
+  const part = input.unitId
+    ? await k('piston_units as u')
+        .join('parts as p', 'p.id', 'u.part_id')
+        .where('u.id', input.unitId)
+        .first('p.step_id')
+    : input.partId
+      ? await k('parts').where({ id: input.partId }).first('step_id')
+      : null;
+  return { familyId: job.family_id, stepId: part?.step_id ?? null };
+}

@@ -27,6 +27,7 @@ import * as repo from './holds-repository';
 import * as jobsRepo from './jobs-repository';
 import { holdJson } from './jobs-json';
 import { advanceState } from './job-state';
+import { recordShortage } from '../insights/insights-service';
 
 type Conn = Knex;
 
@@ -167,6 +168,13 @@ export async function placeHold(
       return holdOut(holdId, trx);
     });
   } catch (e) {
+    // Nothing free at that step: the owner's exposure page counts it. Written after the rollback,
+    // on its own, so the note survives the refused hold.
+    if (e instanceof NotAvailable && !e.extra.nextBest) {
+      await noteShortage(actorId, jobId, input).catch((err) =>
+        logger.warn({ err }, 'could not record a shortage'),
+      );
+    }
     // Two holds for one cylinder at the same moment: the unique index lets one through.
     if (isUniqueViolation(e)) {
       throw new Conflict(
@@ -175,6 +183,19 @@ export async function placeHold(
     }
     throw e;
   }
+}
+
+async function noteShortage(actorId: string, jobId: string, input: HoldInput): Promise<void> {
+  const target = await repo.holdTargetStep(jobId, input);
+  if (!target?.stepId) return;
+  await recordShortage({
+    familyId: target.familyId,
+    stepId: target.stepId,
+    jobId,
+    cylinder: input.cylinder,
+    source: 'hold',
+    userId: actorId,
+  });
 }
 
 interface HoldContext {

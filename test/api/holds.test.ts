@@ -293,6 +293,12 @@ describe('the race for the last free piston', () => {
       expect(loser.body.error.nextBest).toBeNull();
     }
     const winner = results.find((r) => r.status === 201);
+    // Each refused job is noted once as short at that step, for the owner's exposure figures.
+    const shortJobs = jobs.filter((j) => j.id !== winner?.body.jobId).map((j) => j.id);
+    const shortages = await db('step_shortages')
+      .whereIn('job_id', shortJobs)
+      .andWhere({ source: 'hold', step_id: fam.steps['+0.020 in'] });
+    expect(shortages).toHaveLength(49);
     const unit = await db('piston_units').where({ id: last.id }).first();
     expect(unit.status).toBe('held');
     expect(unit.held_for_job_id).toBe(winner?.body.jobId);
