@@ -248,6 +248,19 @@ export const OPEN_ORDER_STATES: OrderState[] = ['sent_out', 'partly_in'];
 
 export const MAX_ORDER_LINES = 200;
 
+/**
+ * A unit price as exact text ("12.50"); a plain JSON number is accepted too and read by its decimal
+ * writing (12.5 → "12.5"), never by binary arithmetic.
+ */
+const unitPriceField = z.union([
+  moneyText,
+  z
+    .number({ error: 'must be an amount written as text, e.g. "12.50"' })
+    .nonnegative('must not be negative')
+    .transform((n) => String(n))
+    .pipe(moneyText),
+]);
+
 const orderLineInput = z
   .object({
     partId: uuid,
@@ -256,7 +269,7 @@ const orderLineInput = z
       .int('must be a whole number')
       .min(1, 'must be at least 1')
       .max(10_000, 'at most 10000'),
-    unitPrice: moneyText,
+    unitPrice: unitPriceField,
   })
   .strict();
 

@@ -264,6 +264,20 @@ describe('purchase orders, receiving and waiting jobs', () => {
     expect(
       (await buyer.post('/api/purchase-orders', { supplierId: supplier.id, lines: [] })).status,
     ).toBe(400);
+    // A price sent as a JSON number is read by its decimal writing; a negative one is refused.
+    const numeric = await buyer.post('/api/purchase-orders', {
+      supplierId: supplier.id,
+      lines: [{ partId: part, quantity: 1, unitPrice: 38.4 }],
+    });
+    expect(numeric.status).toBe(201);
+    expect(numeric.body.lines[0].unitPrice).toBe('38.40');
+    expect((await buyer.post(`/api/purchase-orders/${numeric.body.id}/cancel`)).status).toBe(200);
+    const negative = await buyer.post('/api/purchase-orders', {
+      supplierId: supplier.id,
+      lines: [{ partId: part, quantity: 1, unitPrice: -1 }],
+    });
+    expect(negative.status).toBe(400);
+    expect(negative.body.error.details[0].field).toBe('lines.0.unitPrice');
   });
 
   it('when a drafting order is received against, then 409: it has not been sent', async () => {
