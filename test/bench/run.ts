@@ -1,0 +1,122 @@
+// npm run bench: speed and memory figures as JSON lines, each beside its physical limit measured in
+// the same run. Everything happens on 127.0.0.1 in a throwaway PostgreSQL cluster with generated
+// data; the run stops by itself (a watchdog ends it after 45 minutes) and removes what it made.
+//   node --import tsx test/bench/run.ts [group…]   groups: lists holds import client start (default all)
+import { spawnSync } from 'node:child_process';
+import os from 'node:os';
+import { mkdtempSync, rmSync } from 'node:fs';
+import path from 'node:path';
+import pg from 'pg';
+import {
+  ensureDatabase,
+  ensurePostgresInstalled,
+  freePort,
+  initCluster,
+  runAsUser,
+  startCluster,
+  stopCluster,
+  type Cluster,
+} from '../../server/db/cluster';
+import { createDb } from '../../server/db/knex';
+import { migrateLatest } from '../../server/db/migrate';
+import { startServer, type ServerProcess } from '../drills/support';
+import { clientBench } from './client-bench';
+import { coldStart } from './cold-start';
+import { figure, figuresOnlyOnStdout, say, skipped } from './emit';
+import { generateShop } from './generate';
+import { holdsBench } from './holds-bench';
+import { importBench } from './import-bench';
+import { latencyBench } from './latency-bench';
+
+const GROUPS = ['lists', 'holds', 'import', 'client', 'start'] as const;
+type Group = (typeof GROUPS)[number];
+const WATCHDOG_MS = 45 * 60_000;
+
+async function main() {
+  figuresOnlyOnStdout();
+  const asked = process.argv
+    .slice(2)
+    .filter((a): a is Group => (GROUPS as readonly string[]).includes(a));
+  const groups = new Set<Group>(asked.length ? asked : GROUPS);
+  const started = Date.now();
+
+  let cluster: Cluster | null = null;
+  let tmp = '';
+  let server: ServerProcess | null = null;
+  const cleanup = async () => {
+    await server?.kill().catch(() => undefined);
+    if (cluster) stopCluster(cluster, 'fast');
+    if (tmp) rmSync(tmp, { recursive: true, force: true });
+  };
+  const watchdog = setTimeout(() => {
+    say(`still running after ${WATCHDOG_MS / 60_000} minutes: stopping`);
+    void cleanup().finally(() => process.exit(2));
+  }, WATCHDOG_MS);
+  process.once('SIGINT', () => void cleanup().finally(() => process.exit(130)));
+
+  try {
+    const runAs = runAsUser();
+    tmp = mkdtempSync('/tmp/stepstock-bench-');
+    if (runAs) spawnSync('chown', [runAs, tmp]);
+    // A durable cluster (fsync on), like a shop's: commit latency is part of what a hold costs.
+    cluster = {
+      binDir: ensurePostgresInstalled(),
+      runAs,
+      dataDir: path.join(tmp, 'pg'),
+      port: await freePort(),
+    };
+    say(`throwaway PostgreSQL on 127.0.0.1:${cluster.port}`);
+    initCluster(cluster);
+    await startCluster(cluster);
+    const url = ensureDatabase(cluster, 'stepstock_bench');
+    const migrator = createDb(url);
+    await migrateLatest(migrator);
+    await migrator.destroy();
+
+    // Other work on the machine skews every time below: the load is printed with the figures.
+    figure({
+      name: 'machine.load1.start',
+      value: os.loadavg()[0],
+      unit: 'load',
+      cpus: os.cpus().length,
+    });
+    say('generating the bench shop: 100,000 piston units, 1,000,000 ledger rows…');
+    const client = new pg.Client({ connectionString: url });
+    await client.connect();
+    const genStart = Date.now();
+    const shop = await generateShop(client);
+    await client.end();
+    say(
+      `generated ${shop.units} units and ${shop.ledgerRows} ledger rows in ${((Date.now() - genStart) / 1000).toFixed(1)} s`,
+    );
+
+    if (groups.has('lists') || groups.has('holds')) {
+      server = await startServer(url, { LOG_LEVEL: 'warn' });
+      if (groups.has('lists')) await latencyBench({ server, shop });
+      if (groups.has('holds')) await holdsBench({ server, databaseUrl: url, shop });
+      await server.stop();
+      server = null;
+    }
+    if (groups.has('import')) {
+      await importBench({
+        databaseUrl: url,
+        tmpDir: tmp,
+        supplierId: shop.supplierId,
+        userId: shop.users.buyer.id,
+      });
+    }
+    if (groups.has('client')) clientBench();
+    if (groups.has('start')) await coldStart(url);
+    for (const g of GROUPS)
+      if (!groups.has(g)) skipped(`group:${g}`, 'not asked for on the command line');
+    say(`done in ${((Date.now() - started) / 1000).toFixed(0)} s`);
+  } finally {
+    clearTimeout(watchdog);
+    await cleanup();
+  }
+}
+
+main().catch((e: Error) => {
+  process.stderr.write(`[bench] failed: ${e.stack ?? e.message}\n`);
+  process.exitCode = 1;
+});
