@@ -66,6 +66,15 @@ function toAppError(err: unknown): AppError {
       'The request contains a character that cannot be stored (such as \\u0000); remove it and try again.',
     );
   }
+  // A value the column cannot hold (a day like 2027-02-30, a number past the column's range) that
+  // slipped past a schema: the change is rolled back and the caller told, not a 500.
+  if (e?.code === '22007' || e?.code === '22008' || e?.code === '22003') {
+    return new AppError(
+      400,
+      'invalid_value',
+      'A value in the request is out of range or not a real date; check it and try again.',
+    );
+  }
   if (isPoolTimeout(err)) {
     return new ServiceUnavailable(
       'The server is busy or the database is slow to answer. Try again in a moment.',

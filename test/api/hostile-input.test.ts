@@ -35,6 +35,7 @@ const LEAK =
 interface Fixtures {
   fixture: Fixture;
   pistonId: string;
+  ringsId: string;
   jobId: string;
   supplierId: string;
   targetUserId: string;
@@ -95,6 +96,14 @@ function receipt(f: Fixtures, patch: Record<string, unknown>) {
     binId: f.fixture.binId,
     unitCost: '20.00',
     units: [{ skirt: '54.20 mm' }],
+    ...patch,
+  };
+}
+
+function order(f: Fixtures, patch: Record<string, unknown>) {
+  return {
+    supplierId: f.supplierId,
+    lines: [{ partId: f.ringsId, quantity: 2, unitPrice: '4.00' }],
     ...patch,
   };
 }
@@ -680,6 +689,49 @@ const CASES: HostileCase[] = [
     field: 'rate',
   },
 
+  // ---- Purchase orders -------------------------------------------------------------------------------
+  {
+    name: 'purchase order expected on 30 February',
+    send: (c, f) => c.buyer.post('/api/purchase-orders', order(f, { expectedOn: '2027-02-30' })),
+    status: 400,
+  },
+  {
+    name: 'purchase order line priced NaN',
+    send: (c, f) =>
+      c.buyer.post(
+        '/api/purchase-orders',
+        order(f, { lines: [{ partId: f.ringsId, quantity: 2, unitPrice: 'NaN' }] }),
+      ),
+    status: 400,
+    field: 'lines.0.unitPrice',
+  },
+  {
+    name: 'purchase order of a billion ring sets',
+    send: (c, f) =>
+      c.buyer.post(
+        '/api/purchase-orders',
+        order(f, { lines: [{ partId: f.ringsId, quantity: 1e9, unitPrice: '4.00' }] }),
+      ),
+    status: 400,
+    field: 'lines.0.quantity',
+  },
+  {
+    name: 'purchase order with five thousand lines',
+    send: (c, f) =>
+      c.buyer.post(
+        '/api/purchase-orders',
+        order(f, {
+          lines: Array.from({ length: 5000 }, () => ({
+            partId: f.ringsId,
+            quantity: 1,
+            unitPrice: '1.00',
+          })),
+        }),
+      ),
+    status: 400,
+    field: 'lines',
+  },
+
   // ---- Uploads -----------------------------------------------------------------------------------------------
   {
     name: 'photo that is text with an image name',
@@ -831,6 +883,7 @@ beforeAll(async () => {
   clients = { owner, buyer, machinist, staff };
   const fixture = await makeFamily(owner, { unit: 'mm' });
   const piston = await makePart(owner, fixture, 'piston', 1);
+  const rings = await makePart(owner, fixture, 'rings', 1);
   const job = await staff.post('/api/jobs', {
     customerName: 'Hostile test',
     familyId: fixture.familyId,
@@ -848,6 +901,7 @@ beforeAll(async () => {
   fixtures = {
     fixture,
     pistonId: piston.id,
+    ringsId: rings.id,
     jobId: job.body.id,
     supplierId: supplier.body.id,
     targetUserId: target.id,
