@@ -72,7 +72,7 @@ function toAppError(err: unknown): AppError {
     return new AppError(
       400,
       'invalid_value',
-      'A value in the request is out of range or not a real date; check it and try again.',
+      'A value is out of range or not a real date (in the request or the shop settings); nothing was changed.',
     );
   }
   if (isPoolTimeout(err)) {
