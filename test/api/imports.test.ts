@@ -393,6 +393,21 @@ describe('uploading and committing a price list', () => {
     expect(await written(supplier.id)).toEqual({ imports: 1, items: 14, prices: 14, staged: 0 });
   });
 
+  it('when the staged rows are gone (the unlogged staging table is emptied by a crash), then the commit asks for the file again and writes nothing', async () => {
+    const supplier = await makeSupplier();
+    const preview = await upload(buyer, supplier.id, 'SKU,Price\nS-1,10.00\nS-2,20.00\n');
+    expect(preview.status).toBe(201);
+    await db('price_list_import_rows').where({ import_id: preview.body.importId }).delete();
+    const commit = await buyer.post(`/api/price-list-imports/${preview.body.importId}/commit`);
+    expect(commit.status).toBe(409);
+    expect(commit.body.error.message).toMatch(/incomplete \(0 of 2\); upload the file again/);
+    expect(await written(supplier.id)).toEqual({ imports: 1, items: 0, prices: 0, staged: 0 });
+    const table = await db.raw(
+      `SELECT relpersistence FROM pg_class WHERE relname = 'price_list_import_rows'`,
+    );
+    expect(table.rows[0].relpersistence).toBe('u');
+  });
+
   it('when a list has broken rows, then they are listed by line and only the good rows are committed', async () => {
     const supplier = await makeSupplier();
     const preview = await upload(
