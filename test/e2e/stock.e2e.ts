@@ -87,7 +87,11 @@ describe('receiving measured pistons and finding them on the step ladder', () =>
     // The same page in inches reads back the sizes exactly as they were typed.
     await page.getByRole('radio', { name: 'in' }).click();
     for (const [i, label] of labels.entries()) {
-      const chip = step.locator(`a.chip[aria-label*="${label}"]`);
+      // Waits for the page to redraw in inches rather than reading the old text.
+      const chip = step.locator(`a.chip[aria-label*="${label}"]`, {
+        hasText: `${SIZES[i].typed} in`,
+      });
+      await chip.waitFor();
       expect((await chip.innerText()).trim()).toBe(`${SIZES[i].typed} in`);
     }
     await screenshot(page, 'catalog-ladder-in');

@@ -33,7 +33,8 @@ function freePort(): Promise<number> {
 
 async function adminQuery(sql: string): Promise<void> {
   const url = process.env.STEPSTOCK_PG_ADMIN_URL;
-  if (!url) throw new Error('STEPSTOCK_PG_ADMIN_URL is not set: run browser tests through npm test');
+  if (!url)
+    throw new Error('STEPSTOCK_PG_ADMIN_URL is not set: run browser tests through npm test');
   const client = new pg.Client({ connectionString: url });
   await client.connect();
   try {
@@ -62,7 +63,10 @@ export interface RunningServer {
   stop(): Promise<void>;
 }
 
-export async function startServerProcess(databaseUrl: string, extraEnv: NodeJS.ProcessEnv = {}): Promise<RunningServer> {
+export async function startServerProcess(
+  databaseUrl: string,
+  extraEnv: NodeJS.ProcessEnv = {},
+): Promise<RunningServer> {
   const port = await freePort();
   const child = spawn(process.execPath, ['--import', 'tsx', 'server/main.ts'], {
     cwd: REPO,
@@ -136,7 +140,8 @@ export async function openBrowser(): Promise<Browser> {
   // A test can never reach out: anything not on loopback is refused.
   await context.route('**/*', (route) => {
     const u = new URL(route.request().url());
-    if (u.hostname === '127.0.0.1' || u.protocol === 'data:' || u.protocol === 'blob:') return route.continue();
+    if (u.hostname === '127.0.0.1' || u.protocol === 'data:' || u.protocol === 'blob:')
+      return route.continue();
     return route.abort();
   });
   const page = context.pages()[0] ?? (await context.newPage());
@@ -180,19 +185,45 @@ export interface AxeViolation {
   impact: string | null;
   help: string;
   nodes: number;
+  targets: string[];
 }
 
 /** axe-core scan of the current page; returns the serious and critical violations. */
 export async function seriousA11yViolations(page: Page): Promise<AxeViolation[]> {
+  const first = await scanOnce(page);
+  if (first.length === 0) return first;
+  // Material's overlays mark the page aria-hidden for the length of an opening or closing
+  // animation; a person never meets that state, so a finding must still be there a moment later.
+  await page.waitForTimeout(800);
+  return scanOnce(page);
+}
+
+async function scanOnce(page: Page): Promise<AxeViolation[]> {
   await page.evaluate(AXE_SOURCE);
   const result = await page.evaluate(async () => {
     // Runs in the page: typed loosely because the test project has no DOM typings.
     const g = globalThis as unknown as {
       document: unknown;
-      axe: { run: (ctx: unknown, opts: object) => Promise<{ violations: Array<{ id: string; impact: string | null; help: string; nodes: unknown[] }> }> };
+      axe: {
+        run: (
+          ctx: unknown,
+          opts: object,
+        ) => Promise<{
+          violations: Array<{ id: string; impact: string | null; help: string; nodes: unknown[] }>;
+        }>;
+      };
     };
     const r = await g.axe.run(g.document, { resultTypes: ['violations'] });
-    return r.violations.map((v) => ({ id: v.id, impact: v.impact, help: v.help, nodes: v.nodes.length }));
+    return r.violations.map((v) => ({
+      id: v.id,
+      impact: v.impact,
+      help: v.help,
+      nodes: v.nodes.length,
+      // Where it is, so a failing test says which element to mend.
+      targets: (v.nodes as Array<{ target?: unknown }>)
+        .slice(0, 3)
+        .map((n) => JSON.stringify(n.target)),
+    }));
   });
   return result.filter((v) => v.impact === 'serious' || v.impact === 'critical');
 }
