@@ -4,6 +4,7 @@ import { z } from 'zod';
 import { moneyText } from './catalog-api';
 import { skirtField, MAX_PISTONS_PER_RECEIPT } from './stock-api';
 import { currencyCode } from './suppliers-api';
+import { isCalendarDay } from './insights-api';
 import type { LengthJson } from './lengths';
 
 const uuid = z.string().uuid('must be a valid id');
@@ -16,7 +17,8 @@ const count = (max = 1_000_000) =>
 const isoDate = z
   .string()
   .regex(/^\d{4}-\d{2}-\d{2}$/, 'must be a date like 2027-03-14')
-  .refine((d) => !Number.isNaN(Date.parse(`${d}T00:00:00Z`)), 'is not a calendar date');
+  // Date.parse would roll 2027-02-30 over to 2 March; a calendar check refuses it.
+  .refine(isCalendarDay, 'is not a calendar date');
 
 // ---- Reorder rules -----------------------------------------------------------------------------
 

@@ -51,6 +51,12 @@ export async function addPhoto(
     );
   }
   if (photo.size > MAX_PHOTO_BYTES) throw new PayloadTooLarge('The photo is larger than 10 MB.');
+  // A name with control characters (NUL, escape sequences) is a forged upload, not a camera's file.
+  if (/\p{Cc}/u.test(photo.originalname)) {
+    throw new BadRequest('photo: the file name contains control characters; rename the file.', [
+      { field: 'photo', message: 'the file name contains control characters' },
+    ]);
+  }
   const contentType = await imageType(photo, 'The file');
   const thumb = files?.thumbnail?.[0];
   let thumbnailType: string | null = null;
@@ -75,7 +81,12 @@ export async function addPhoto(
       data: photo.buffer,
       thumbnail_type: thumbnailType,
       thumbnail: thumb ? thumb.buffer : null,
-      original_name: photo.originalname.slice(0, 200),
+      // Control characters in a file name are never shown back to anyone.
+      original_name:
+        photo.originalname
+          .replace(/\p{Cc}/gu, '')
+          .trim()
+          .slice(0, 200) || 'photo',
       created_by: actorId,
     });
   });

@@ -3,23 +3,53 @@
 import { z } from 'zod';
 import type { Knex } from 'knex';
 import { db } from '../db/knex';
+import { IANAZone } from 'luxon';
 import { recordAudit } from '../audit/audit';
+import { parseLength } from '../../shared/lengths';
+import { isCurrencyCode, parseMoney } from '../../shared/money';
+
+const lengthSetting = (opts: { allowEmpty?: boolean } = {}) =>
+  z
+    .string()
+    .trim()
+    .max(30)
+    .refine(
+      (v) => (opts.allowEmpty && v === '') || parseLength(v).ok,
+      'must be a length with its unit, e.g. "0.020 in" or "0.50 mm"',
+    );
+
+const amountSetting = z
+  .string()
+  .trim()
+  .max(30)
+  .refine((v) => parseMoney(v).ok, 'must be an amount like "25.00", not negative');
 
 export const shopSettingsSchema = z
   .object({
     shopName: z.string().trim().min(1).max(120),
     shopHours: z.string().trim().max(300),
-    timeZone: z.string().trim().min(1).max(60),
+    timeZone: z
+      .string()
+      .trim()
+      .min(1)
+      .max(60)
+      .refine(
+        (v) => IANAZone.isValidZone(v),
+        'must be a time zone name such as "Europe/Paris" or "UTC"',
+      ),
     holdExpiryDays: z.number().int().min(1).max(365),
     clearancePolicy: z.enum(['min', 'mid', 'max']),
-    maxCutPerPass: z.string().trim().max(30),
-    finishPass: z.string().trim().max(30),
+    maxCutPerPass: lengthSetting(),
+    finishPass: lengthSetting({ allowEmpty: true }),
     skipMarginalStep: z.boolean(),
-    marginalCleanup: z.string().trim().max(30),
-    orderCost: z.string().trim().max(30),
-    holdingCostRate: z.string().trim().max(30),
+    marginalCleanup: lengthSetting(),
+    orderCost: amountSetting,
+    holdingCostRate: amountSetting.refine(
+      (v) => Number(v) <= 1,
+      'must be a yearly rate between 0 and 1',
+    ),
     serviceLevel: z.number().min(0.5).max(0.999),
-    homeCurrency: z.string().length(3),
+    homeCurrency: z.string().length(3).refine(isCurrencyCode, 'must be an ISO 4217 currency code'),
   })
   .strict();
 

@@ -356,6 +356,30 @@ const CASES: HostileCase[] = [
     field: 'holdExpiryDays',
   },
   {
+    name: 'settings with a time zone on another planet',
+    send: (c) => c.owner.patch('/api/settings', { timeZone: 'Mars/Olympus' }),
+    status: 400,
+    field: 'timeZone',
+  },
+  {
+    name: 'settings with a home currency that is not ISO 4217',
+    send: (c) => c.owner.patch('/api/settings', { homeCurrency: '$$$' }),
+    status: 400,
+    field: 'homeCurrency',
+  },
+  {
+    name: 'settings with a cut per pass that is not a length',
+    send: (c) => c.owner.patch('/api/settings', { maxCutPerPass: 'banana' }),
+    status: 400,
+    field: 'maxCutPerPass',
+  },
+  {
+    name: 'settings with a negative ordering cost',
+    send: (c) => c.owner.patch('/api/settings', { orderCost: '-5' }),
+    status: 400,
+    field: 'orderCost',
+  },
+  {
     name: 'settings with an unknown key',
     send: (c) => c.owner.patch('/api/settings', { adminMode: true }),
     status: 400,
