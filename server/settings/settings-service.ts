@@ -5,6 +5,7 @@ import type { Knex } from 'knex';
 import { db } from '../db/knex';
 import { IANAZone } from 'luxon';
 import { recordAudit } from '../audit/audit';
+import type { ShopSettingsJson } from '../../shared/settings-api';
 import { parseLength } from '../../shared/lengths';
 import { isCurrencyCode, parseMoney } from '../../shared/money';
 
@@ -54,6 +55,9 @@ export const shopSettingsSchema = z
   .strict();
 
 export type ShopSettings = z.infer<typeof shopSettingsSchema>;
+// The API's answer shape lives in shared/ for the client; both must agree.
+const _sameShape: ShopSettingsJson = {} as ShopSettings;
+void _sameShape;
 
 export const DEFAULT_SETTINGS: ShopSettings = {
   shopName: 'Stepstock',

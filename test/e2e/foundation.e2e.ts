@@ -1,5 +1,12 @@
 // Each demo role signs in and sees its own navigation; the owner adds a user who then signs in.
-import { DEMO, e2eEnvironment, screenshot, seriousA11yViolations, signIn, type DemoRole } from './support';
+import {
+  DEMO,
+  e2eEnvironment,
+  screenshot,
+  seriousA11yViolations,
+  signIn,
+  type DemoRole,
+} from './support';
 
 let env: Awaited<ReturnType<typeof e2eEnvironment>>;
 
@@ -25,16 +32,20 @@ describe('signing in', () => {
     expect(await seriousA11yViolations(env.page)).toEqual([]);
   });
 
-  it.each(Object.keys(DEMO) as DemoRole[])('when the demo %s signs in, then the navigation shows only what the role may use', async (role) => {
-    const page = env.page;
-    await page.context().clearCookies();
-    await signIn(page, env.baseUrl, DEMO[role]);
-    const nav = page.getByRole('navigation', { name: /main/i });
-    for (const label of NAV[role].sees) await nav.getByRole('link', { name: label }).waitFor();
-    for (const label of NAV[role].hidden) expect(await nav.getByRole('link', { name: label }).count()).toBe(0);
-    await screenshot(page, `foundation-home-${role}`);
-    expect(await seriousA11yViolations(page)).toEqual([]);
-  });
+  it.each(Object.keys(DEMO) as DemoRole[])(
+    'when the demo %s signs in, then the navigation shows only what the role may use',
+    async (role) => {
+      const page = env.page;
+      await page.context().clearCookies();
+      await signIn(page, env.baseUrl, DEMO[role]);
+      const nav = page.getByRole('navigation', { name: /main/i });
+      for (const label of NAV[role].sees) await nav.getByRole('link', { name: label }).waitFor();
+      for (const label of NAV[role].hidden)
+        expect(await nav.getByRole('link', { name: label }).count()).toBe(0);
+      await screenshot(page, `foundation-home-${role}`);
+      expect(await seriousA11yViolations(page)).toEqual([]);
+    },
+  );
 
   it('when the owner adds a user, then that user can sign in', async () => {
     const page = env.page;
@@ -47,7 +58,10 @@ describe('signing in', () => {
     await dialog.getByLabel('E-mail').fill('wren@demo.test');
     await dialog.getByLabel('Role').click();
     await page.getByRole('option', { name: /machinist/i }).click();
-    await dialog.getByLabel(/password/i).first().fill('a-long-first-password');
+    await dialog
+      .getByLabel(/password/i)
+      .first()
+      .fill('a-long-first-password');
     await screenshot(page, 'foundation-add-user-dialog');
     await dialog.getByRole('button', { name: /add|save|create/i }).click();
     await page.getByRole('cell', { name: 'wren@demo.test' }).waitFor();
@@ -58,5 +72,25 @@ describe('signing in', () => {
     await page.context().clearCookies();
     await signIn(page, env.baseUrl, 'wren@demo.test', 'a-long-first-password');
     await page.getByText('Wren Castellan').first().waitFor();
+  });
+});
+
+describe('shop settings', () => {
+  it('when the owner changes how long a held piston stays held, then it is saved and kept', async () => {
+    const page = env.page;
+    await page.context().clearCookies();
+    await signIn(page, env.baseUrl, DEMO.owner);
+    await page.goto(`${env.baseUrl}/admin/settings`);
+    const days = page.getByLabel('Held pistons are released after (days)');
+    await days.waitFor();
+    expect(await page.getByLabel('Shop name').inputValue()).toBe('Tallowmere Bore & Hone');
+    await days.fill('21');
+    await screenshot(page, 'foundation-settings');
+    expect(await seriousA11yViolations(page)).toEqual([]);
+    await page.getByRole('button', { name: 'Save settings' }).click();
+    await page.getByText('Shop settings saved.').waitFor();
+    await page.reload();
+    await days.waitFor();
+    expect(await days.inputValue()).toBe('21');
   });
 });

@@ -9,6 +9,11 @@ export const adminRoutes: Routes = [
     loadComponent: () => import('./user-list').then((m) => m.UserList),
   },
   {
+    path: 'settings',
+    title: 'Shop settings',
+    loadComponent: () => import('./settings-page').then((m) => m.SettingsPage),
+  },
+  {
     path: 'audit',
     title: 'Audit trail',
     loadComponent: () => import('./audit-log').then((m) => m.AuditLog),

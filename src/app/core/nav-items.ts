@@ -27,6 +27,13 @@ export const NAV_ITEMS: NavItem[] = [
     hint: 'Add people, set what each may do, reset a forgotten password.',
   },
   {
+    path: '/admin/settings',
+    label: 'Shop settings',
+    icon: 'tune',
+    roles: ['owner'],
+    hint: 'Name and hours, hold expiry, cut per pass, and the costs behind reorder points.',
+  },
+  {
     path: '/admin/audit',
     label: 'Audit trail',
     icon: 'manage_history',

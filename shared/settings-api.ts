@@ -1,0 +1,21 @@
+// The shop's settings as GET /api/settings answers them and PATCH /api/settings takes them (owner).
+
+export type ClearancePolicy = 'min' | 'mid' | 'max';
+
+export interface ShopSettingsJson {
+  shopName: string;
+  shopHours: string;
+  timeZone: string;
+  holdExpiryDays: number;
+  clearancePolicy: ClearancePolicy;
+  /** A length with its unit, e.g. "0.020 in". */
+  maxCutPerPass: string;
+  /** A length with its unit, or '' for no separate finishing pass. */
+  finishPass: string;
+  skipMarginalStep: boolean;
+  marginalCleanup: string;
+  orderCost: string;
+  holdingCostRate: string;
+  serviceLevel: number;
+  homeCurrency: string;
+}
