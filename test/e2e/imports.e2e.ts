@@ -42,8 +42,13 @@ describe('bringing in a supplier price list', () => {
     await page.goto(`${env.baseUrl}/imports/new`);
     await page.getByRole('heading', { name: 'Bring in a price list' }).waitFor();
 
-    await page.getByRole('combobox', { name: 'Supplier' }).click();
-    await page.getByRole('option', { name: new RegExp(SUPPLIER) }).click();
+    // The list of suppliers arrives after the page: a select with no options yet does not open.
+    const option = page.getByRole('option', { name: new RegExp(SUPPLIER) });
+    for (let tries = 0; tries < 10 && !(await option.isVisible()); tries++) {
+      await page.getByRole('combobox', { name: 'Supplier' }).click();
+      await option.waitFor({ timeout: 1500 }).catch(() => undefined);
+    }
+    await option.click();
     await page.locator('input[type=file]').setInputFiles(LIST);
     await page.getByText('morvendt-motorteile-2026-12.csv').waitFor();
     await screenshot(page, 'imports-3-file-chosen');
