@@ -28,7 +28,7 @@ export interface SessionResponse {
 }
 
 /** Shortest password a person may set; long passphrases beat clever symbols. */
-export const PASSWORD_MIN_LENGTH = 10;
+export const PASSWORD_MIN_LENGTH = 12;
 
 export function isRole(value: unknown): value is Role {
   return typeof value === 'string' && (ROLES as string[]).includes(value);

@@ -6,17 +6,26 @@ import { ROLES } from '../../shared/session-types';
 afterAll(closeTestApp);
 
 describe('sign-in and sign-out', () => {
-  it.each(ROLES)('when a %s signs in with the right password, then the session says who they are and sign-out ends it', async (role) => {
-    const client = new Client();
-    const user = await makeUser(role);
-    const res = await client.signIn(user);
-    expect(res.status).toBe(200);
-    expect(res.body.user).toEqual({ id: user.id, email: user.email, name: `Test ${role}`, role, unit: 'mm' });
-    expect(String(res.headers['set-cookie'])).toMatch(/stepstock\.sid=.*HttpOnly.*SameSite=Lax/i);
-    expect((await client.get('/api/session')).status).toBe(200);
-    expect((await client.delete('/api/session')).status).toBe(204);
-    expect((await client.get('/api/session')).status).toBe(401);
-  });
+  it.each(ROLES)(
+    'when a %s signs in with the right password, then the session says who they are and sign-out ends it',
+    async (role) => {
+      const client = new Client();
+      const user = await makeUser(role);
+      const res = await client.signIn(user);
+      expect(res.status).toBe(200);
+      expect(res.body.user).toEqual({
+        id: user.id,
+        email: user.email,
+        name: `Test ${role}`,
+        role,
+        unit: 'mm',
+      });
+      expect(String(res.headers['set-cookie'])).toMatch(/stepstock\.sid=.*HttpOnly.*SameSite=Lax/i);
+      expect((await client.get('/api/session')).status).toBe(200);
+      expect((await client.delete('/api/session')).status).toBe(204);
+      expect((await client.get('/api/session')).status).toBe(401);
+    },
+  );
 
   it('when the password is wrong, then 401 with the error model and no session', async () => {
     const user = await makeUser('staff');
@@ -43,7 +52,8 @@ describe('sign-in and sign-out', () => {
   it('when sign-in fails ten times for one account and address, then the next attempt is throttled with 429', async () => {
     const user = await makeUser('buyer');
     const client = new Client();
-    for (let i = 0; i < 10; i++) expect((await client.signIn({ ...user, password: `wrong-${i}` })).status).toBe(401);
+    for (let i = 0; i < 10; i++)
+      expect((await client.signIn({ ...user, password: `wrong-${i}` })).status).toBe(401);
     const res = await client.signIn(user);
     expect(res.status).toBe(429);
     expect(res.body.error.message).toMatch(/Too many failed sign-ins/);
@@ -57,7 +67,10 @@ describe('sign-in and sign-out', () => {
     expect(res.body.error.code).toBe('xsrf_missing');
     const row = await db('users').where({ id: target.id }).first();
     expect(row.role).toBe('staff');
-    const forged = await owner.agent.patch(`/api/users/${target.id}`).set('X-XSRF-TOKEN', 'forged.token').send({ role: 'buyer' });
+    const forged = await owner.agent
+      .patch(`/api/users/${target.id}`)
+      .set('X-XSRF-TOKEN', 'forged.token')
+      .send({ role: 'buyer' });
     expect(forged.status).toBe(403);
   });
 
@@ -91,5 +104,28 @@ describe('the users list', () => {
     const res = await owner.get('/api/users?sort=password_hash');
     expect(res.status).toBe(400);
     expect(res.body.error.details[0].field).toBe('sort');
+  });
+});
+
+describe('password length', () => {
+  it('when the owner gives a new user an 11-character password, then 400 names the field and no user is made (OWASP ASVS 4.0.3 V2.1.1: at least 12)', async () => {
+    const owner = await signedIn('owner');
+    const email = `short-${Date.now()}@example.test`;
+    const res = await owner.post('/api/users', {
+      name: 'Short Pass',
+      email,
+      role: 'staff',
+      password: 'eleven-char',
+    });
+    expect(res.status).toBe(400);
+    expect(res.body.error.details[0]).toMatchObject({ field: 'password' });
+    expect(await db('users').where({ email })).toHaveLength(0);
+    const ok = await owner.post('/api/users', {
+      name: 'Long Pass',
+      email,
+      role: 'staff',
+      password: 'twelve-chars',
+    });
+    expect(ok.status).toBe(201);
   });
 });

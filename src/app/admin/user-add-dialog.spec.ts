@@ -70,7 +70,7 @@ describe('UserAddDialog', () => {
     await type('Name', 'Oren Blackwood');
     await type('E-mail', 'oren@example.test');
     await chooseRole('Machinist');
-    await type('First password', 'ten-chars!');
+    await type('First password', 'twelve-chars');
   }
 
   it('when submitted empty, then nothing is sent and every field says what it needs', async () => {
@@ -83,12 +83,12 @@ describe('UserAddDialog', () => {
     expect(closedWith).toBe('open');
   });
 
-  it('when the password has 9 characters, then it is refused before sending', async () => {
+  it('when the password has 11 characters, then it is refused before sending', async () => {
     await fillValid();
-    await type('First password', 'nine-char');
+    await type('First password', 'eleven-char');
     await submit();
     http.expectNone('/api/users');
-    expect(await errorsOf('First password')).toEqual(['Use at least 10 characters.']);
+    expect(await errorsOf('First password')).toEqual(['Use at least 12 characters.']);
   });
 
   it('when the e-mail has no domain, then it is refused before sending', async () => {
@@ -99,7 +99,7 @@ describe('UserAddDialog', () => {
     expect(await errorsOf('E-mail')).toEqual(['That is not an e-mail address.']);
   });
 
-  it('when everything is valid (password exactly 10 characters), then it posts and closes with the new user', async () => {
+  it('when everything is valid (password exactly 12 characters), then it posts and closes with the new user', async () => {
     await fillValid();
     await submit();
     const request = http.expectOne('/api/users');
@@ -108,7 +108,7 @@ describe('UserAddDialog', () => {
       name: 'Oren Blackwood',
       email: 'oren@example.test',
       role: 'machinist',
-      password: 'ten-chars!',
+      password: 'twelve-chars',
     });
     const user: UserRow = {
       id: 'u9',
