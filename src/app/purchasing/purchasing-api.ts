@@ -11,6 +11,7 @@ import type {
   OrderListItemJson,
   OrderReceiptJson,
   OrderState,
+  ReorderDefaultInput,
   ReorderDefaultJson,
   ReorderLineJson,
   ReorderRuleJson,
@@ -84,6 +85,14 @@ export class PurchasingApi {
     return this.http.get<{ items: ReorderDefaultJson[]; total: number }>('/api/reorder-defaults', {
       params: params({ familyId }),
     });
+  }
+
+  setDefault(input: ReorderDefaultInput): Observable<ReorderDefaultJson> {
+    return this.http.put<ReorderDefaultJson>('/api/reorder-defaults', input);
+  }
+
+  deleteDefault(defaultId: string): Observable<void> {
+    return this.http.delete<void>(`/api/reorder-defaults/${id(defaultId)}`);
   }
 
   families(): Observable<Page<FamilyJson>> {

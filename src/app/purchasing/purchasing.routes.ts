@@ -16,6 +16,13 @@ export const purchasingRoutes: Routes = [
     loadComponent: () => import('./reorder-list').then((m) => m.ReorderList),
   },
   {
+    path: 'reorder-defaults',
+    title: 'Reorder defaults',
+    canActivate: [roleGuard],
+    data: BUYERS,
+    loadComponent: () => import('./reorder-defaults-page').then((m) => m.ReorderDefaultsPage),
+  },
+  {
     path: 'reorder/:partId',
     title: 'Reorder rule',
     canActivate: [roleGuard],
