@@ -13,13 +13,38 @@ export interface RunningServer {
   stop(): Promise<void>;
 }
 
+function listen(
+  app: ReturnType<typeof createApp>['app'],
+  port: number,
+  host: string,
+): Promise<Server> {
+  return new Promise<Server>((resolve, reject) => {
+    // Express 5 hands a listen error (a port already taken) to this callback instead of throwing.
+    const s = app.listen(port, host, (err?: Error) => {
+      if (!err) return resolve(s);
+      const taken = (err as NodeJS.ErrnoException).code === 'EADDRINUSE';
+      reject(
+        taken
+          ? new Error(
+              `Port ${port} on ${host} is already in use. Stop the other program or set PORT.`,
+            )
+          : err,
+      );
+    });
+  });
+}
+
 export async function startServer(port = config.PORT, host = config.HOST): Promise<RunningServer> {
   const created = createApp();
   const background = await startBackgroundWork();
-  const server = await new Promise<Server>((resolve, reject) => {
-    const s = created.app.listen(port, host, () => resolve(s));
-    s.once('error', reject);
-  });
+  let server: Server;
+  try {
+    server = await listen(created.app, port, host);
+  } catch (e) {
+    await background.stop();
+    await created.close();
+    throw e;
+  }
   const addr = server.address();
   const actualPort = typeof addr === 'object' && addr ? addr.port : port;
   const url = `http://${host}:${actualPort}`;
