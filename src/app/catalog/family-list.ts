@@ -1,23 +1,20 @@
-import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
-import { toObservable, toSignal } from '@angular/core/rxjs-interop';
+import { ChangeDetectionStrategy, Component, computed, inject } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
-import { MatPaginatorModule, PageEvent } from '@angular/material/paginator';
+import { MatPaginatorModule } from '@angular/material/paginator';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
-import { MatSortModule, Sort } from '@angular/material/sort';
+import { MatSortModule } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
 import { Router, RouterLink } from '@angular/router';
-import { catchError, debounceTime, distinctUntilChanged, map, of, switchMap, tap } from 'rxjs';
 
-import type { FamilyJson, Page } from '../../../shared/catalog-api';
-import { apiErrorMessage } from '../core/api-error';
+import type { FamilyJson } from '../../../shared/catalog-api';
 import { LengthPipe } from '../core/length-pipe';
 import { Session } from '../core/session';
-import { CatalogApi, type FamilyQuery } from './catalog-api';
+import { PagedList } from '../ui/paged-list';
+import { CatalogApi } from './catalog-api';
 
-type Loaded = { ok: true; page: Page<FamilyJson> } | { ok: false; message: string };
 const SORTABLE = ['code', 'name', 'standardBore', 'strokeType'] as const;
 
 /** Every engine family the shop works on, with how its pistons stand; a row opens its step ladder. */
@@ -51,76 +48,11 @@ export class FamilyList {
     return role === 'owner' || role === 'buyer';
   });
 
-  protected readonly text = signal('');
-  protected readonly sort = signal<Sort>({ active: 'code', direction: 'asc' });
-  protected readonly pageIndex = signal(0);
-  protected readonly pageSize = signal(25);
-  private readonly reloads = signal(0);
-
-  private readonly q = toSignal(
-    toObservable(this.text).pipe(debounceTime(250), distinctUntilChanged()),
-    { initialValue: '' },
+  protected readonly list = new PagedList<FamilyJson, (typeof SORTABLE)[number]>(
+    SORTABLE,
+    'code',
+    (request) => this.api.families(request),
   );
-
-  private readonly query = computed(() => {
-    const sort = this.sort();
-    const field = SORTABLE.find((name) => name === sort.active) ?? 'code';
-    return {
-      q: this.q().trim() || undefined,
-      sort: field,
-      dir: sort.direction === 'desc' ? 'desc' : 'asc',
-      page: this.pageIndex() + 1,
-      pageSize: this.pageSize(),
-      reload: this.reloads(),
-    } satisfies FamilyQuery & { reload: number };
-  });
-
-  protected readonly loading = signal(true);
-  private readonly loaded = toSignal(
-    toObservable(this.query).pipe(
-      tap(() => this.loading.set(true)),
-      switchMap(({ reload: _reload, ...query }) =>
-        this.api.families(query).pipe(
-          map((page): Loaded => ({ ok: true, page })),
-          catchError((error: unknown) =>
-            of<Loaded>({ ok: false, message: apiErrorMessage(error) }),
-          ),
-        ),
-      ),
-      tap(() => this.loading.set(false)),
-    ),
-  );
-  protected readonly rows = computed(() => {
-    const loaded = this.loaded();
-    return loaded?.ok ? loaded.page.items : [];
-  });
-  protected readonly total = computed(() => {
-    const loaded = this.loaded();
-    return loaded?.ok ? loaded.page.total : 0;
-  });
-  protected readonly loadError = computed(() => {
-    const loaded = this.loaded();
-    return loaded && !loaded.ok ? loaded.message : '';
-  });
-
-  protected onSearch(value: string): void {
-    this.text.set(value);
-    this.pageIndex.set(0);
-  }
-
-  protected onSort(sort: Sort): void {
-    this.sort.set(sort);
-    this.pageIndex.set(0);
-  }
-
-  protected onPage(event: PageEvent): void {
-    this.pageSize.set(event.pageSize);
-    this.pageIndex.set(event.pageIndex);
-  }
-
-  protected reload(): void {
-    this.reloads.update((n) => n + 1);
-  }
 
   protected open(family: FamilyJson): void {
     void this.router.navigate(['/catalog/families', family.id, 'ladder']);
