@@ -8,7 +8,12 @@ const schema = z.object({
   HOST: z.string().default('127.0.0.1'),
   DATABASE_URL: z.string().min(1).optional(),
   SESSION_SECRET: z.string().min(16).optional(),
-  SESSION_IDLE_MINUTES: z.coerce.number().int().min(1).max(24 * 60).default(120),
+  SESSION_IDLE_MINUTES: z.coerce
+    .number()
+    .int()
+    .min(1)
+    .max(24 * 60)
+    .default(120),
   TRUST_PROXY: z.enum(['0', '1']).default('0'),
   SMTP_URL: z.string().optional(),
   MAIL_FROM: z.string().default('Stepstock <no-reply@stepstock.test>'),

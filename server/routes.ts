@@ -17,6 +17,7 @@ import { registerSuppliersRoutes } from './suppliers/suppliers-routes';
 import { registerImportsRoutes } from './imports/imports-routes';
 import { registerExportsRoutes } from './exports/exports-routes';
 import { registerAuditRoutes } from './audit/audit-routes';
+import { registerMoneyRoutes } from './money/money-routes';
 
 export function registerAllRoutes(api: Router): void {
   registerSessionRoutes(api);
@@ -35,4 +36,5 @@ export function registerAllRoutes(api: Router): void {
   registerImportsRoutes(api);
   registerExportsRoutes(api);
   registerAuditRoutes(api);
+  registerMoneyRoutes(api);
 }

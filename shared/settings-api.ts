@@ -18,4 +18,12 @@ export interface ShopSettingsJson {
   holdingCostRate: string;
   serviceLevel: number;
   homeCurrency: string;
+  /** Percent as decimal text, e.g. "20". */
+  taxRate: string;
+  /** The prices the shop writes (labour, parts) already include tax. */
+  pricesIncludeTax: boolean;
+  /** The deposit asked for by default, percent of the estimate's total. */
+  depositPercent: string;
+  /** A cylinder may be marked as cut only once the customer approved the estimate. */
+  cutOnlyAfterApproval: boolean;
 }

@@ -11,14 +11,17 @@ const DUMMY_HASH = bcrypt.hashSync('not-a-real-password', BCRYPT_COST);
 
 export function configurePassport(): passport.PassportStatic {
   passport.use(
-    new LocalStrategy({ usernameField: 'email', passwordField: 'password' }, (email, password, done) => {
-      void (async () => {
-        const row = await findUserByEmail(email);
-        const ok = await verifyPassword(password, row?.password_hash ?? DUMMY_HASH);
-        if (!row || !ok || !row.active) return done(null, false);
-        return done(null, toSessionUser(row));
-      })().catch(done);
-    }),
+    new LocalStrategy(
+      { usernameField: 'email', passwordField: 'password' },
+      (email, password, done) => {
+        void (async () => {
+          const row = await findUserByEmail(email);
+          const ok = await verifyPassword(password, row?.password_hash ?? DUMMY_HASH);
+          if (!row || !ok || !row.active) return done(null, false);
+          return done(null, toSessionUser(row));
+        })().catch(done);
+      },
+    ),
   );
   passport.serializeUser((user, done) => done(null, (user as SessionUser).id));
   passport.deserializeUser((id: string, done) => {

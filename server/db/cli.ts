@@ -19,7 +19,8 @@ async function main() {
     try {
       const done = await migrateLatest(db);
       out(`migrations applied: ${done.length ? done.join(', ') : 'none (up to date)'}`);
-      if (cmd === 'seed') out((await seedDemo(db)) ? 'demo shop seeded' : 'database not empty: not seeded');
+      if (cmd === 'seed')
+        out((await seedDemo(db)) ? 'demo shop seeded' : 'database not empty: not seeded');
     } finally {
       await db.destroy();
     }
@@ -28,22 +29,33 @@ async function main() {
   if (cmd === 'backup') {
     const dir = path.resolve(arg ?? '.data/backups');
     mkdirSync(dir, { recursive: true });
-    const file = path.join(dir, `stepstock-${DateTime.utc().toFormat("yyyyLLdd'T'HHmmss'Z'")}.dump`);
-    const r = spawnSync('pg_dump', ['--format=custom', '--no-owner', '--file', file, url], { stdio: 'inherit' });
+    const file = path.join(
+      dir,
+      `stepstock-${DateTime.utc().toFormat("yyyyLLdd'T'HHmmss'Z'")}.dump`,
+    );
+    const r = spawnSync('pg_dump', ['--format=custom', '--no-owner', '--file', file, url], {
+      stdio: 'inherit',
+    });
     if (r.status !== 0) throw new Error('pg_dump failed');
     out(file);
     return;
   }
   if (cmd === 'restore') {
-    if (!arg || !existsSync(arg)) throw new Error('Usage: npm run restore -- FILE (a dump written by npm run backup)');
+    if (!arg || !existsSync(arg))
+      throw new Error('Usage: npm run restore -- FILE (a dump written by npm run backup)');
     const db = createDb(url);
     try {
-      const tables = await db.raw(`select count(*)::int as n from pg_tables where schemaname='public'`);
-      if (tables.rows[0].n > 0) throw new Error('Restore only into an empty database: this one has tables.');
+      const tables = await db.raw(
+        `select count(*)::int as n from pg_tables where schemaname='public'`,
+      );
+      if (tables.rows[0].n > 0)
+        throw new Error('Restore only into an empty database: this one has tables.');
     } finally {
       await db.destroy();
     }
-    const r = spawnSync('pg_restore', ['--no-owner', '--exit-on-error', '--dbname', url, arg], { stdio: 'inherit' });
+    const r = spawnSync('pg_restore', ['--no-owner', '--exit-on-error', '--dbname', url, arg], {
+      stdio: 'inherit',
+    });
     if (r.status !== 0) throw new Error('pg_restore failed');
     out(`restored ${arg}`);
     return;

@@ -2,7 +2,15 @@
 // (PostgreSQL refuses root), listening on 127.0.0.1 only, with its socket inside its own folder.
 import { execFileSync, spawnSync } from 'node:child_process';
 import { createHash, randomBytes } from 'node:crypto';
-import { existsSync, mkdirSync, readdirSync, readFileSync, rmSync, writeFileSync, appendFileSync } from 'node:fs';
+import {
+  existsSync,
+  mkdirSync,
+  readdirSync,
+  readFileSync,
+  rmSync,
+  writeFileSync,
+  appendFileSync,
+} from 'node:fs';
 import net from 'node:net';
 import path from 'node:path';
 
@@ -33,20 +41,35 @@ export function findPgBinDir(): string | null {
 export function ensurePostgresInstalled(): string {
   let bin = findPgBinDir();
   if (bin) return bin;
-  if (!isRoot) throw new Error('PostgreSQL is not installed. Run as root once, or: apt-get install -y postgresql');
+  if (!isRoot)
+    throw new Error(
+      'PostgreSQL is not installed. Run as root once, or: apt-get install -y postgresql',
+    );
   say('installing PostgreSQL from Debian packages (apt-get)…');
   const env = { ...process.env, DEBIAN_FRONTEND: 'noninteractive' };
   execFileSync('apt-get', ['update', '-qq'], { stdio: 'inherit', env });
-  execFileSync('apt-get', ['install', '-y', '-qq', '--no-install-recommends', 'postgresql', 'postgresql-client'], {
-    stdio: 'inherit',
-    env,
-  });
+  execFileSync(
+    'apt-get',
+    ['install', '-y', '-qq', '--no-install-recommends', 'postgresql', 'postgresql-client'],
+    {
+      stdio: 'inherit',
+      env,
+    },
+  );
   bin = findPgBinDir();
-  if (!bin) throw new Error('PostgreSQL was installed but no server binaries were found under /usr/lib/postgresql.');
+  if (!bin)
+    throw new Error(
+      'PostgreSQL was installed but no server binaries were found under /usr/lib/postgresql.',
+    );
   return bin;
 }
 
-function run(c: Pick<Cluster, 'runAs'>, cmd: string, args: string[], opts: { quiet?: boolean } = {}) {
+function run(
+  c: Pick<Cluster, 'runAs'>,
+  cmd: string,
+  args: string[],
+  opts: { quiet?: boolean } = {},
+) {
   const full = c.runAs ? ['runuser', ['-u', c.runAs, '--', cmd, ...args]] : [cmd, args];
   const r = spawnSync(full[0] as string, full[1] as string[], {
     cwd: '/',
@@ -112,7 +135,15 @@ export function initCluster(c: Cluster, opts: { fast?: boolean } = {}): void {
   spawnSync('chmod', ['0700', c.dataDir]);
   say(`creating a PostgreSQL cluster in ${c.dataDir}`);
   const r = run(c, path.join(c.binDir, 'initdb'), [
-    '-D', c.dataDir, '-U', 'postgres', '--auth=trust', '--locale=C.UTF-8', '-E', 'UTF8', '--no-sync',
+    '-D',
+    c.dataDir,
+    '-U',
+    'postgres',
+    '--auth=trust',
+    '--locale=C.UTF-8',
+    '-E',
+    'UTF8',
+    '--no-sync',
   ]);
   if (r.code !== 0) throw new Error(`initdb failed:\n${r.out}`);
   const conf = [
@@ -160,12 +191,24 @@ export async function startCluster(c: Cluster): Promise<void> {
     );
   }
   const r = run(c, path.join(c.binDir, 'pg_ctl'), [
-    '-D', c.dataDir, '-o', `-p ${c.port} -k ${c.dataDir}`, '-l', path.join(c.dataDir, 'server.log'), '-w', '-t', '60', 'start',
+    '-D',
+    c.dataDir,
+    '-o',
+    `-p ${c.port} -k ${c.dataDir}`,
+    '-l',
+    path.join(c.dataDir, 'server.log'),
+    '-w',
+    '-t',
+    '60',
+    'start',
   ]);
   if (r.code !== 0) {
     let log = '';
     try {
-      log = readFileSync(path.join(c.dataDir, 'server.log'), 'utf8').split('\n').slice(-15).join('\n');
+      log = readFileSync(path.join(c.dataDir, 'server.log'), 'utf8')
+        .split('\n')
+        .slice(-15)
+        .join('\n');
     } catch {
       /* no log */
     }
@@ -175,7 +218,9 @@ export async function startCluster(c: Cluster): Promise<void> {
 
 export function stopCluster(c: Cluster, mode: 'fast' | 'immediate' = 'fast'): void {
   if (!isRunning(c)) return;
-  run(c, path.join(c.binDir, 'pg_ctl'), ['-D', c.dataDir, '-m', mode, '-w', '-t', '30', 'stop'], { quiet: true });
+  run(c, path.join(c.binDir, 'pg_ctl'), ['-D', c.dataDir, '-m', mode, '-w', '-t', '30', 'stop'], {
+    quiet: true,
+  });
 }
 
 /** The cluster's password for TCP sign-in, made once and kept beside the data folder (root/owner only). */
@@ -188,9 +233,25 @@ export function clusterPassword(c: Cluster): string {
 }
 
 export function psql(c: Cluster, sql: string, database = 'postgres'): string {
-  const r = run(c, path.join(c.binDir, 'psql'), [
-    '-h', c.dataDir, '-p', String(c.port), '-U', 'postgres', '-d', database, '-v', 'ON_ERROR_STOP=1', '-tAc', sql,
-  ], { quiet: true });
+  const r = run(
+    c,
+    path.join(c.binDir, 'psql'),
+    [
+      '-h',
+      c.dataDir,
+      '-p',
+      String(c.port),
+      '-U',
+      'postgres',
+      '-d',
+      database,
+      '-v',
+      'ON_ERROR_STOP=1',
+      '-tAc',
+      sql,
+    ],
+    { quiet: true },
+  );
   if (r.code !== 0) throw new Error(`psql failed: ${r.out}`);
   return r.out.trim();
 }

@@ -44,14 +44,28 @@ function isPoolTimeout(err: unknown): boolean {
 /** Maps Express and library errors onto our error model. */
 function toAppError(err: unknown): AppError {
   if (err instanceof AppError) return err;
-  const e = err as { type?: string; status?: number; code?: string; message?: string; field?: string };
-  if (e?.type === 'entity.too.large') return new AppError(413, 'too_large', 'The request body is too large.');
-  if (e?.type === 'entity.parse.failed') return new AppError(400, 'invalid_json', 'The request body is not valid JSON.');
+  const e = err as {
+    type?: string;
+    status?: number;
+    code?: string;
+    message?: string;
+    field?: string;
+  };
+  if (e?.type === 'entity.too.large')
+    return new AppError(413, 'too_large', 'The request body is too large.');
+  if (e?.type === 'entity.parse.failed')
+    return new AppError(400, 'invalid_json', 'The request body is not valid JSON.');
   if (e?.type === 'charset.unsupported' || e?.type === 'encoding.unsupported')
     return new AppError(415, 'unsupported_type', 'Send JSON in UTF-8.');
-  if (e?.code === 'LIMIT_FILE_SIZE') return new AppError(413, 'too_large', 'The file is larger than the limit for this upload.');
+  if (e?.code === 'LIMIT_FILE_SIZE')
+    return new AppError(413, 'too_large', 'The file is larger than the limit for this upload.');
   if (typeof e?.code === 'string' && e.code.startsWith('LIMIT_'))
-    return new AppError(400, 'invalid_upload', `Upload refused: ${e.message ?? e.code}.`, e.field ? [{ field: e.field, message: e.message ?? '' }] : []);
+    return new AppError(
+      400,
+      'invalid_upload',
+      `Upload refused: ${e.message ?? e.code}.`,
+      e.field ? [{ field: e.field, message: e.message ?? '' }] : [],
+    );
   // A request body busboy could not read (a malformed multipart header, a cut-off form). multer
   // marks every error of the upload it aborted with storageErrors; disk errors carry an errno code.
   if (Array.isArray((err as { storageErrors?: unknown } | null)?.storageErrors) && !e?.code) {

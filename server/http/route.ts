@@ -135,7 +135,9 @@ export function assertEveryRouteDeclared(routers: Router[]): void {
       route?: { path: string; stack: Array<{ handle: { access?: Access } }> };
     }>) {
       if (layer.route && layer.route.stack[0]?.handle.access === undefined) {
-        throw new Error(`Route ${layer.route.path} has no access declaration: declare it with route().`);
+        throw new Error(
+          `Route ${layer.route.path} has no access declaration: declare it with route().`,
+        );
       }
     }
   }

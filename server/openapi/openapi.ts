@@ -24,7 +24,8 @@ function parameters(r: DeclaredRoute): Json[] {
   for (const m of r.path.matchAll(/:(\w+)/g)) {
     out.push({ name: m[1], in: 'path', required: true, schema: { type: 'string' } });
   }
-  const q = jsonSchema(r.query) as { properties?: Record<string, Json>; required?: string[] } | undefined;
+  const q = jsonSchema(r.query) as
+    { properties?: Record<string, Json>; required?: string[] } | undefined;
   for (const [name, schema] of Object.entries(q?.properties ?? {})) {
     out.push({ name, in: 'query', required: q?.required?.includes(name) ?? false, schema });
   }
@@ -49,7 +50,9 @@ export function buildOpenApi(routes: readonly DeclaredRoute[] = declaredRoutes):
       description: accessText(r),
       'x-access': r.access,
       parameters: parameters(r),
-      ...(body ? { requestBody: { required: true, content: { 'application/json': { schema: body } } } } : {}),
+      ...(body
+        ? { requestBody: { required: true, content: { 'application/json': { schema: body } } } }
+        : {}),
       responses: {
         [ok]: { description: 'Success' },
         '400': { $ref: '#/components/responses/Error' },
@@ -83,7 +86,11 @@ export function buildOpenApi(routes: readonly DeclaredRoute[] = declaredRoutes):
                   type: 'array',
                   items: {
                     type: 'object',
-                    properties: { field: { type: 'string' }, line: { type: 'integer' }, message: { type: 'string' } },
+                    properties: {
+                      field: { type: 'string' },
+                      line: { type: 'integer' },
+                      message: { type: 'string' },
+                    },
                   },
                 },
               },
@@ -92,7 +99,10 @@ export function buildOpenApi(routes: readonly DeclaredRoute[] = declaredRoutes):
         },
       },
       responses: {
-        Error: { description: 'Error', content: { 'application/json': { schema: { $ref: '#/components/schemas/Error' } } } },
+        Error: {
+          description: 'Error',
+          content: { 'application/json': { schema: { $ref: '#/components/schemas/Error' } } },
+        },
       },
       securitySchemes: { session: { type: 'apiKey', in: 'cookie', name: 'stepstock.sid' } },
     },

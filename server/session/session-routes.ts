@@ -26,9 +26,7 @@ function authenticate(req: Request): Promise<SessionUser | false> {
 }
 
 function logIn(req: Request, user: SessionUser): Promise<void> {
-  return new Promise((resolve, reject) =>
-    req.logIn(user, (e) => (e ? reject(e) : resolve())),
-  );
+  return new Promise((resolve, reject) => req.logIn(user, (e) => (e ? reject(e) : resolve())));
 }
 
 async function sessionBody(user: SessionUser) {
@@ -44,7 +42,9 @@ export function registerSessionRoutes(router: Router): void {
     body: signInBody,
     handler: async ({ body, req, res }) => {
       const address = req.ip ?? 'unknown';
-      if ((await countRecentFailures(body.email, address, FAILURE_WINDOW_MINUTES)) >= MAX_FAILURES) {
+      if (
+        (await countRecentFailures(body.email, address, FAILURE_WINDOW_MINUTES)) >= MAX_FAILURES
+      ) {
         throw new TooManyRequests(
           `Too many failed sign-ins for this account from this address. Wait ${FAILURE_WINDOW_MINUTES} minutes or ask the owner to reset the password.`,
         );

@@ -1,5 +1,6 @@
 // Shop-wide settings the owner keeps: the shop's name and hours, its time zone, and the policies
-// other features read (hold expiry, clearance policy, maximum cut per pass, costs for reordering).
+// other features read (hold expiry, clearance policy, maximum cut per pass, costs for reordering,
+// tax, deposits and whether a cut waits for the customer's approval).
 import { z } from 'zod';
 import type { Knex } from 'knex';
 import { db } from '../db/knex';
@@ -24,6 +25,15 @@ const amountSetting = z
   .trim()
   .max(30)
   .refine((v) => parseMoney(v).ok, 'must be an amount like "25.00", not negative');
+
+const percentSetting = z
+  .string()
+  .trim()
+  .max(10)
+  .refine(
+    (v) => /^\d{1,3}(\.\d{1,3})?$/.test(v) && Number(v) <= 100,
+    'must be a percent between 0 and 100, e.g. "20" or "7.7"',
+  );
 
 export const shopSettingsSchema = z
   .object({
@@ -51,6 +61,10 @@ export const shopSettingsSchema = z
     ),
     serviceLevel: z.number().min(0.5).max(0.999),
     homeCurrency: z.string().length(3).refine(isCurrencyCode, 'must be an ISO 4217 currency code'),
+    taxRate: percentSetting,
+    pricesIncludeTax: z.boolean(),
+    depositPercent: percentSetting,
+    cutOnlyAfterApproval: z.boolean(),
   })
   .strict();
 
@@ -73,6 +87,10 @@ export const DEFAULT_SETTINGS: ShopSettings = {
   holdingCostRate: '0.25',
   serviceLevel: 0.95,
   homeCurrency: 'EUR',
+  taxRate: '20',
+  pricesIncludeTax: false,
+  depositPercent: '30',
+  cutOnlyAfterApproval: true,
 };
 
 export async function getSettings(q: Knex = db): Promise<ShopSettings> {

@@ -4,7 +4,14 @@ import { existsSync, readdirSync, statSync } from 'node:fs';
 import path from 'node:path';
 import { REPO_ROOT } from './local-env';
 
-const INPUTS = ['src', 'shared', 'angular.json', 'tsconfig.json', 'tsconfig.app.json', 'package-lock.json'];
+const INPUTS = [
+  'src',
+  'shared',
+  'angular.json',
+  'tsconfig.json',
+  'tsconfig.app.json',
+  'package-lock.json',
+];
 
 function newestMtime(p: string): number {
   if (!existsSync(p)) return 0;
@@ -30,7 +37,12 @@ export function buildClient(force = false): void {
   process.stdout.write('[stepstock] building the client (production)…\n');
   execFileSync(
     process.execPath,
-    [path.join(REPO_ROOT, 'node_modules', '@angular', 'cli', 'bin', 'ng.js'), 'build', '--configuration', 'production'],
+    [
+      path.join(REPO_ROOT, 'node_modules', '@angular', 'cli', 'bin', 'ng.js'),
+      'build',
+      '--configuration',
+      'production',
+    ],
     { cwd: REPO_ROOT, stdio: 'inherit', env: { ...process.env, NG_CLI_ANALYTICS: 'false' } },
   );
 }

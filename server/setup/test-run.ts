@@ -32,16 +32,25 @@ function ensureChromium(): void {
   say('installing Chromium from Debian packages (apt-get)…');
   const env = { ...process.env, DEBIAN_FRONTEND: 'noninteractive' };
   execFileSync('apt-get', ['update', '-qq'], { stdio: 'inherit', env });
-  execFileSync('apt-get', ['install', '-y', '-qq', '--no-install-recommends', 'chromium', 'fonts-dejavu-core'], {
-    stdio: 'inherit',
-    env,
-  });
+  execFileSync(
+    'apt-get',
+    ['install', '-y', '-qq', '--no-install-recommends', 'chromium', 'fonts-dejavu-core'],
+    {
+      stdio: 'inherit',
+      env,
+    },
+  );
 }
 
 function jest(args: string[], env: NodeJS.ProcessEnv): boolean {
   const r = spawnSync(
     process.execPath,
-    [path.join(REPO_ROOT, 'node_modules', 'jest', 'bin', 'jest.js'), '-c', 'test/jest.config.js', ...args],
+    [
+      path.join(REPO_ROOT, 'node_modules', 'jest', 'bin', 'jest.js'),
+      '-c',
+      'test/jest.config.js',
+      ...args,
+    ],
     { cwd: REPO_ROOT, stdio: 'inherit', env: { ...process.env, ...env } },
   );
   return r.status === 0;
@@ -51,7 +60,10 @@ function typecheck(): boolean {
   const tsc = path.join(REPO_ROOT, 'node_modules', 'typescript', 'bin', 'tsc');
   return ['tsconfig.server.json', 'tsconfig.spec.json', 'tsconfig.app.json'].every((p) => {
     say(`typecheck ${p}`);
-    return spawnSync(process.execPath, [tsc, '-p', p, '--noEmit'], { cwd: REPO_ROOT, stdio: 'inherit' }).status === 0;
+    return (
+      spawnSync(process.execPath, [tsc, '-p', p, '--noEmit'], { cwd: REPO_ROOT, stdio: 'inherit' })
+        .status === 0
+    );
   });
 }
 
@@ -72,8 +84,20 @@ async function seedE2eTemplate(c: Cluster): Promise<void> {
 
 function lint(): boolean {
   const eslint = path.join(REPO_ROOT, 'node_modules', 'eslint', 'bin', 'eslint.js');
-  const globs = ['src/**/*.{ts,html}', 'server/**/*.ts', 'shared/**/*.ts', 'test/**/*.ts', 'migrations/**/*.ts', 'seeds/**/*.ts'];
-  return spawnSync(process.execPath, [eslint, '-c', '.eslint.config.mjs', ...globs], { cwd: REPO_ROOT, stdio: 'inherit' }).status === 0;
+  const globs = [
+    'src/**/*.{ts,html}',
+    'server/**/*.ts',
+    'shared/**/*.ts',
+    'test/**/*.ts',
+    'migrations/**/*.ts',
+    'seeds/**/*.ts',
+  ];
+  return (
+    spawnSync(process.execPath, [eslint, '-c', '.eslint.config.mjs', ...globs], {
+      cwd: REPO_ROOT,
+      stdio: 'inherit',
+    }).status === 0
+  );
 }
 
 async function main() {
@@ -101,7 +125,12 @@ async function main() {
       const runAs = runAsUser();
       tmp = mkdtempSync('/tmp/stepstock-test-');
       if (runAs) spawnSync('chown', [runAs, tmp]);
-      cluster = { binDir: ensurePostgresInstalled(), runAs, dataDir: path.join(tmp, 'pg'), port: await freePort() };
+      cluster = {
+        binDir: ensurePostgresInstalled(),
+        runAs,
+        dataDir: path.join(tmp, 'pg'),
+        port: await freePort(),
+      };
       say(`throwaway PostgreSQL on 127.0.0.1:${cluster.port} in ${cluster.dataDir}`);
       initCluster(cluster, { fast: true });
       await startCluster(cluster);
@@ -123,7 +152,8 @@ async function main() {
       let ok = true;
       if (stage === 'lint') ok = lint();
       else if (stage === 'typecheck') ok = typecheck();
-      else if (stage === 'unit' || stage === 'client') ok = jest(['--selectProjects', stage, ...jestArgs], env);
+      else if (stage === 'unit' || stage === 'client')
+        ok = jest(['--selectProjects', stage, ...jestArgs], env);
       else if (stage === 'api') ok = jest(['--selectProjects', stage, '-i', ...jestArgs], env);
       // Jest reads the test timeout only globally: drills and browser tests get theirs here.
       else if (stage === 'drills')

@@ -36,15 +36,28 @@ export function findUserById(id: string, q: Knex = db): Promise<UserRow | undefi
   return q<UserRow>('users').where({ id }).first();
 }
 
-const SORTABLE = { name: 'name', email: 'email', role: 'role', createdAt: 'created_at', active: 'active' } as const;
+const SORTABLE = {
+  name: 'name',
+  email: 'email',
+  role: 'role',
+  createdAt: 'created_at',
+  active: 'active',
+} as const;
 export type UserSort = keyof typeof SORTABLE;
 
 export async function listUsers(
-  opts: { sort?: UserSort; dir?: 'asc' | 'desc'; page?: number; pageSize?: number; q?: string } = {},
+  opts: {
+    sort?: UserSort;
+    dir?: 'asc' | 'desc';
+    page?: number;
+    pageSize?: number;
+    q?: string;
+  } = {},
   q: Knex = db,
 ): Promise<{ rows: UserRow[]; total: number }> {
   const base = q<UserRow>('users').modify((b) => {
-    if (opts.q) b.where((w) => w.whereILike('name', `%${opts.q}%`).orWhereILike('email', `%${opts.q}%`));
+    if (opts.q)
+      b.where((w) => w.whereILike('name', `%${opts.q}%`).orWhereILike('email', `%${opts.q}%`));
   });
   const [{ count }] = await base.clone().count<{ count: number }[]>('* as count');
   const column = SORTABLE[opts.sort ?? 'name'];
@@ -68,7 +81,9 @@ export async function insertUser(
 export async function updateUser(
   q: Knex,
   id: string,
-  patch: Partial<Pick<UserRow, 'name' | 'role' | 'active' | 'password_hash' | 'unit' | 'mail_mode'>>,
+  patch: Partial<
+    Pick<UserRow, 'name' | 'role' | 'active' | 'password_hash' | 'unit' | 'mail_mode'>
+  >,
 ): Promise<UserRow | undefined> {
   const [row] = await q<UserRow>('users')
     .where({ id })
@@ -78,7 +93,11 @@ export async function updateUser(
 }
 
 /** Ends every open session of a user (deactivation, password reset). */
-export async function deleteSessionsOf(q: Knex, userId: string, exceptSid?: string): Promise<number> {
+export async function deleteSessionsOf(
+  q: Knex,
+  userId: string,
+  exceptSid?: string,
+): Promise<number> {
   const query = q('sessions').whereRaw(`sess -> 'passport' ->> 'user' = ?`, [userId]);
   if (exceptSid) query.andWhereNot({ sid: exceptSid });
   return query.delete();

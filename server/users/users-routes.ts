@@ -35,7 +35,9 @@ export function registerUsersRoutes(router: Router): void {
     method: 'get',
     path: '/api/users',
     access: ['owner'],
-    query: pageQuery.extend({ sort: z.enum(['name', 'email', 'role', 'createdAt', 'active']).optional() }),
+    query: pageQuery.extend({
+      sort: z.enum(['name', 'email', 'role', 'createdAt', 'active']).optional(),
+    }),
     handler: ({ query }) => getUsers(query),
   });
   route(router, {

@@ -49,7 +49,8 @@ export async function createUser(
       return { user: toUserJson(row) };
     });
   } catch (e) {
-    if (isUniqueViolation(e)) throw new Conflict(`A user with the e-mail ${input.email} already exists.`);
+    if (isUniqueViolation(e))
+      throw new Conflict(`A user with the e-mail ${input.email} already exists.`);
     throw e;
   }
 }

@@ -10,9 +10,12 @@ afterAll(closeTestApp);
 function registered(routers: Router[]): string[] {
   const out: string[] = [];
   for (const router of routers) {
-    for (const layer of router.stack as unknown as Array<{ route?: { path: string; methods: Record<string, boolean> } }>) {
+    for (const layer of router.stack as unknown as Array<{
+      route?: { path: string; methods: Record<string, boolean> };
+    }>) {
       if (!layer.route) continue;
-      for (const m of Object.keys(layer.route.methods)) out.push(`${m} ${openApiPath(layer.route.path)}`);
+      for (const m of Object.keys(layer.route.methods))
+        out.push(`${m} ${openApiPath(layer.route.path)}`);
     }
   }
   return out;
@@ -35,6 +38,8 @@ describe('GET /api/openapi.json', () => {
   it('when a route takes a JSON body, then its schema is described', async () => {
     const res = await request(testApp()).get('/api/openapi.json');
     const signIn = res.body.paths['/api/session'].post;
-    expect(signIn.requestBody.content['application/json'].schema.properties).toHaveProperty('email');
+    expect(signIn.requestBody.content['application/json'].schema.properties).toHaveProperty(
+      'email',
+    );
   });
 });

@@ -139,6 +139,16 @@ const EXPECTED: Record<string, Access> = {
   'POST /api/order-waits': ['owner', 'buyer', 'machinist'],
   'DELETE /api/order-waits/:id': ['owner', 'buyer', 'machinist'],
   'GET /api/order-lines/:id/wait-candidates': ['owner', 'buyer', 'machinist'],
+  // Money: everyone reads prices, estimates and payments; staff and the owner price jobs, take
+  // approvals and payments; the labour price list is the owner's.
+  'GET /api/labour-operations': ALL,
+  'POST /api/labour-operations': OWNER,
+  'PATCH /api/labour-operations/:id': OWNER,
+  'GET /api/jobs/:id/estimate': ALL,
+  'POST /api/jobs/:id/estimate/lines': ['owner', 'staff'],
+  'PATCH /api/jobs/:id/estimate/lines/:lineId': ['owner', 'staff'],
+  'DELETE /api/jobs/:id/estimate/lines/:lineId': ['owner', 'staff'],
+  'POST /api/jobs/:id/estimate/discount': ['owner', 'staff'],
 };
 
 interface Found {
@@ -151,7 +161,13 @@ interface Found {
 function walk(routers: Router[]): Found[] {
   const found: Found[] = [];
   for (const router of routers) {
-    for (const layer of router.stack as unknown as Array<{ route?: { path: string; methods: Record<string, boolean>; stack: Array<{ handle: { access?: Access } }> } }>) {
+    for (const layer of router.stack as unknown as Array<{
+      route?: {
+        path: string;
+        methods: Record<string, boolean>;
+        stack: Array<{ handle: { access?: Access } }>;
+      };
+    }>) {
       if (!layer.route) continue;
       for (const method of Object.keys(layer.route.methods)) {
         const m = method.toUpperCase();
@@ -170,7 +186,11 @@ function walk(routers: Router[]): Found[] {
 function concrete(path: string): string {
   // Placeholder ids that exist nowhere: allowed roles get 400/404, never 401/403.
   return path.replace(/:(\w+)/g, (_m, name: string) =>
-    /^(n|cylinder|line)$/i.test(name) ? '1' : name === 'label' ? 'PU-NOPE' : '00000000-0000-4000-8000-000000000000',
+    /^(n|cylinder|line)$/i.test(name)
+      ? '1'
+      : name === 'label'
+        ? 'PU-NOPE'
+        : '00000000-0000-4000-8000-000000000000',
   );
 }
 
@@ -187,14 +207,18 @@ describe('route × role matrix', () => {
   it('when the app is built, then every route declares its access and is in the expected table', () => {
     expect(routes.length).toBeGreaterThan(5);
     for (const r of routes) {
-      expect({ route: r.key, declared: r.access !== undefined }).toEqual({ route: r.key, declared: true });
+      expect({ route: r.key, declared: r.access !== undefined }).toEqual({
+        route: r.key,
+        declared: true,
+      });
       expect({ route: r.key, access: r.access }).toEqual({ route: r.key, access: EXPECTED[r.key] });
     }
   });
 
   it('when a route is listed in the table, then it exists on the app', () => {
     const keys = new Set(routes.map((r) => r.key));
-    for (const key of Object.keys(EXPECTED)) expect({ key, exists: keys.has(key) }).toEqual({ key, exists: true });
+    for (const key of Object.keys(EXPECTED))
+      expect({ key, exists: keys.has(key) }).toEqual({ key, exists: true });
   });
 
   it('when each route is called signed out and as each role, then 401 / 403 / allowed as declared', async () => {
@@ -206,7 +230,11 @@ describe('route × role matrix', () => {
       const anon = new Client();
       await anon.prime();
       const anonRes = await anon.call(method, url).send({});
-      expect({ route: r.key, who: 'signed out', status: anonRes.status }).toEqual({ route: r.key, who: 'signed out', status: 401 });
+      expect({ route: r.key, who: 'signed out', status: anonRes.status }).toEqual({
+        route: r.key,
+        who: 'signed out',
+        status: 401,
+      });
       for (const role of ROLES) {
         const allowed = access === 'signed-in' || access.includes(role);
         const res = await clients[role].call(method, url).send({});
@@ -219,7 +247,8 @@ describe('route × role matrix', () => {
         });
       }
     }
-  });
+    // Six calls per route on a machine shared with other runs: allow minutes, not seconds.
+  }, 240000);
 });
 
 describe('deny by default', () => {

@@ -36,7 +36,10 @@ export interface TestUser {
   password: string;
 }
 
-export async function makeUser(role: Role, opts: { unit?: 'mm' | 'in'; active?: boolean } = {}): Promise<TestUser> {
+export async function makeUser(
+  role: Role,
+  opts: { unit?: 'mm' | 'in'; active?: boolean } = {},
+): Promise<TestUser> {
   const email = `${uniq(role)}@example.test`;
   const [row] = await db('users')
     .insert({
@@ -113,6 +116,7 @@ export async function signedIn(role: Role, opts: { unit?: 'mm' | 'in' } = {}): P
   const client = new Client();
   const user = await makeUser(role, opts);
   const res = await client.signIn(user);
-  if (res.status !== 200) throw new Error(`sign-in as ${role} failed: ${res.status} ${JSON.stringify(res.body)}`);
+  if (res.status !== 200)
+    throw new Error(`sign-in as ${role} failed: ${res.status} ${JSON.stringify(res.body)}`);
   return client;
 }

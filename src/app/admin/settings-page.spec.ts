@@ -24,6 +24,10 @@ const SETTINGS: ShopSettingsJson = {
   holdingCostRate: '0.25',
   serviceLevel: 0.95,
   homeCurrency: 'EUR',
+  taxRate: '20',
+  pricesIncludeTax: false,
+  depositPercent: '30',
+  cutOnlyAfterApproval: true,
 };
 
 describe('SettingsPage', () => {
@@ -78,18 +82,16 @@ describe('SettingsPage', () => {
     );
     await zone.setValue('Mars/Olympus');
     await (await loader.getHarness(MatButtonHarness.with({ text: 'Save settings' }))).click();
-    http
-      .expectOne('/api/settings')
-      .flush(
-        {
-          error: {
-            code: 'invalid',
-            message: 'timeZone: must be a time zone name',
-            details: [{ field: 'timeZone', message: 'must be a time zone name' }],
-          },
+    http.expectOne('/api/settings').flush(
+      {
+        error: {
+          code: 'invalid',
+          message: 'timeZone: must be a time zone name',
+          details: [{ field: 'timeZone', message: 'must be a time zone name' }],
         },
-        { status: 400, statusText: 'Bad Request' },
-      );
+      },
+      { status: 400, statusText: 'Bad Request' },
+    );
     await fixture.whenStable();
     expect(notifier.error).toHaveBeenCalled();
   });

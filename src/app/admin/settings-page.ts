@@ -12,7 +12,10 @@ import { apiErrorMessage, apiFieldErrors } from '../core/api-error';
 import { Notifier } from '../core/notifier';
 import { SettingsApi } from './settings-api';
 
-/** The owner's shop settings: name and hours for e-mails, and the policies the bench and buying use. */
+/** A percent as the server takes it: 0 to 100 with at most 3 decimals. */
+const PERCENT = /^(100(\.0{1,3})?|\d{1,2}(\.\d{1,3})?)$/;
+
+/** The owner's shop settings: name and hours for e-mails, bench and buying policies, tax, deposits. */
 @Component({
   selector: 'app-settings-page',
   imports: [
@@ -52,6 +55,10 @@ export class SettingsPage {
     holdingCostRate: ['', Validators.required],
     serviceLevel: [0.95, [Validators.required, Validators.min(0.5), Validators.max(0.999)]],
     homeCurrency: ['', [Validators.required, Validators.pattern(/^[A-Z]{3}$/)]],
+    taxRate: ['', [Validators.required, Validators.pattern(PERCENT)]],
+    pricesIncludeTax: [false],
+    depositPercent: ['', [Validators.required, Validators.pattern(PERCENT)]],
+    cutOnlyAfterApproval: [true],
   });
 
   constructor() {

@@ -1,0 +1,103 @@
+// Rows the money tests need: a priced labour list (invented prices) and a job on a two-stroke twin
+// with both cylinders measured, a step chosen and the measured piston and a ring set held for each.
+import { uniq, type Client } from './api';
+import {
+  makeBin,
+  makeFamily,
+  makeJob,
+  makePart,
+  receiveCounted,
+  receivePistons,
+  WORN_READINGS,
+  type Family,
+} from './jobs-fixtures';
+
+function ok(res: { status: number; body: unknown }, expected: number, what: string) {
+  if (res.status !== expected) {
+    throw new Error(`${what}: expected ${expected}, got ${res.status} ${JSON.stringify(res.body)}`);
+  }
+  return res.body as Record<string, unknown>;
+}
+
+export interface Labour {
+  bore: string;
+  hone: string;
+  chamfer: string;
+  clean: string;
+}
+
+/** Bore 55.00 and hone 25.00 per bored cylinder, chamfer 18.50 per two-stroke cylinder, clean 12.00 per job. */
+export async function makeLabour(owner: Client): Promise<Labour> {
+  const add = async (name: string, per: string, price: string, proposeFor: string) =>
+    (
+      ok(
+        await owner.post('/api/labour-operations', {
+          name: `${name} ${uniq('')}`,
+          per,
+          price,
+          proposeFor,
+        }),
+        201,
+        'labour operation',
+      ) as { id: string }
+    ).id;
+  return {
+    bore: await add('Bore one cylinder', 'cylinder', '55.00', 'bored'),
+    hone: await add('Hone one cylinder', 'cylinder', '25.00', 'bored'),
+    chamfer: await add('Chamfer the port edges', 'cylinder', '18.50', 'bored_two_stroke'),
+    clean: await add('Clean and inspect', 'job', '12.00', 'every_job'),
+  };
+}
+
+export interface PricedJob {
+  id: string;
+  number: string;
+  family: Family;
+}
+
+/** A two-cylinder job, both bored to +0.040 in with a piston (89.00) and a ring set (34.50) held each. */
+export async function makePricedJob(
+  owner: Client,
+  staff: Client,
+  machinist: Client,
+  extra: Record<string, unknown> = {},
+): Promise<PricedJob> {
+  const family = await makeFamily(owner, { cylinders: 2 });
+  const binId = await makeBin(owner);
+  const piston = await makePart(owner, family, '+0.040 in', 'piston', '89.00');
+  const rings = await makePart(owner, family, '+0.040 in', 'rings', '34.50');
+  const units = await receivePistons(owner, piston, binId, ['2.5555 in', '2.5556 in']);
+  await receiveCounted(owner, rings, binId, 2);
+  const job = await makeJob(staff, family.id, { cylinders: 2, ...extra });
+  for (const n of [1, 2]) {
+    ok(
+      await machinist.put(`/api/jobs/${job.id}/cylinders/${n}/readings`, {
+        readings: WORN_READINGS,
+      }),
+      200,
+      'readings',
+    );
+    ok(
+      await machinist.patch(`/api/jobs/${job.id}/cylinders/${n}`, {
+        stepId: family.steps['+0.040 in'],
+      }),
+      200,
+      'step',
+    );
+    ok(
+      await machinist.post(`/api/jobs/${job.id}/holds`, { cylinder: n, unitId: units[n - 1].id }),
+      201,
+      'piston hold',
+    );
+    ok(
+      await machinist.post(`/api/jobs/${job.id}/holds`, {
+        cylinder: n,
+        partId: rings,
+        quantity: 1,
+      }),
+      201,
+      'ring hold',
+    );
+  }
+  return { id: job.id, number: job.number, family };
+}
