@@ -3,7 +3,7 @@
 import { z } from 'zod';
 import { moneyText } from './catalog-api';
 import { skirtField, MAX_PISTONS_PER_RECEIPT } from './stock-api';
-import { currencyCode } from './suppliers-api';
+import { currencyCode, type WaitingItemJson } from './suppliers-api';
 import { isCalendarDay } from './insights-api';
 import type { LengthJson } from './lengths';
 
@@ -208,6 +208,16 @@ export interface SourcingJson {
   homeCurrency: string;
   neededBy: string | null;
   quantity: number;
+  /** The part asked about (?partId=), with its family and step so the page can fill them in. */
+  part: {
+    id: string;
+    sku: string;
+    description: string;
+    familyId: string | null;
+    stepId: string | null;
+  } | null;
+  /** Items in the mapping queue that might be the part(s) asked about. */
+  waiting: WaitingItemJson[];
 }
 
 export const rateInput = z
@@ -401,10 +411,37 @@ export interface OrderListItemJson {
   sentAt: string | null;
 }
 
+/** One supplier's share of a suggested quantity on the drafts. */
+export interface DraftShareJson {
+  supplierId: string;
+  supplierName: string;
+  orderId: string;
+  orderNumber: string;
+  quantity: number;
+  /** What the supplier says it has (null: not stated). */
+  available: number | null;
+}
+
+/** A low part whose drafted quantity is not the suggestion as one line, and why in words. */
+export interface DraftAdjustmentJson {
+  partId: string;
+  sku: string;
+  suggested: number;
+  shares: DraftShareJson[];
+  /** What no supplier said it has: order it by hand or wait for a new price list. */
+  uncovered: number;
+  why: string;
+}
+
 export interface DraftsJson {
   orders: OrderJson[];
-  /** Low parts no active supplier offers: nothing to draft for them. */
-  unsourced: { partId: string; sku: string; quantity: number }[];
+  /** Parts split between suppliers or cut short because a supplier stated less stock. */
+  adjusted: DraftAdjustmentJson[];
+  /**
+   * Low parts no active supplier offers: nothing to draft for them, with the items in the mapping
+   * queue that might be them.
+   */
+  unsourced: { partId: string; sku: string; quantity: number; waiting: WaitingItemJson[] }[];
 }
 
 export interface ReceivedHoldJson {

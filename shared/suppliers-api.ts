@@ -117,6 +117,18 @@ export interface UnmappedItemJson extends SupplierItemJson {
   suggestions: SuggestionJson[];
 }
 
+/** An item waiting in the mapping queue whose suggestions include a given part: it might be that part. */
+export interface WaitingItemJson {
+  itemId: string;
+  supplierId: string;
+  supplierName: string;
+  supplierSku: string;
+  description: string;
+  /** The part it might be, and why the mapping queue suggests it. */
+  partId: string;
+  reasons: string[];
+}
+
 export const itemMappingInput = z.strictObject({
   partId: z.string().uuid('must be a valid id').nullable(),
 });

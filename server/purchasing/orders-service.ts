@@ -11,8 +11,6 @@ import { displayGtin, type Page } from '../../shared/catalog-api';
 import { normalizeGtin } from '../../shared/gtin';
 import {
   ORDER_STATE_LABELS,
-  type DraftsInput,
-  type DraftsJson,
   type OpenLineJson,
   type OrderInput,
   type OrderJson,
@@ -27,9 +25,7 @@ import {
 import { D, moneyOut } from '../../shared/purchase-money';
 import { orderMail } from './order-mail';
 import * as repo from './orders-repository';
-import { lowParts } from './reorder-repository';
-import { quantityToOrder } from './reorder-service';
-import { bestOffer, offersFor, shopToday } from './sourcing-service';
+import { shopToday } from './sourcing-service';
 
 function fieldError(field: string, message: string): BadRequest {
   return new BadRequest(`${field}: ${message}`, [{ field, message }]);
@@ -162,7 +158,7 @@ async function requireSupplier(id: string, k: Knex): Promise<repo.SupplierRef> {
   return supplier;
 }
 
-async function insertOrderWithLines(
+export async function insertOrderWithLines(
   trx: Knex,
   actorId: string,
   supplier: repo.SupplierRef,
@@ -316,72 +312,6 @@ export async function cancelOrder(actorId: string, id: string, k: Knex = db): Pr
     });
   });
   return getOrder(id, k);
-}
-
-/**
- * Drafts from the reorder list: every low part (or the ones named) with the quantity that brings
- * it back to its order-up-to level, at the best supplier's price, one draft per supplier and
- * currency. Parts already on a draft are left out; parts nobody offers are listed as unsourced.
- */
-export async function draftFromSuggestions(
-  actorId: string,
-  input: DraftsInput,
-  k: Knex = db,
-): Promise<DraftsJson> {
-  const low = await lowParts({ partIds: input.partIds, familyId: input.familyId }, k);
-  const drafted = await repo.partsOnDrafts(
-    low.map((p) => p.id),
-    k,
-  );
-  const groups = new Map<
-    string,
-    { supplierId: string; currency: string; lines: OrderInput['lines'] }
-  >();
-  const unsourced: DraftsJson['unsourced'] = [];
-  for (const part of low) {
-    if (drafted.has(part.id)) continue;
-    const quantity = quantityToOrder(part);
-    if (quantity <= 0) continue;
-    const offers = await offersFor([part.id], { quantity }, k);
-    // Nobody has the whole quantity: take what the best of the others still has.
-    const best = bestOffer(offers, quantity, null).best ?? bestOffer(offers, 1, null).best;
-    if (!best) {
-      unsourced.push({ partId: part.id, sku: part.sku, quantity });
-      continue;
-    }
-    const key = `${best.supplierId}:${best.currency}`;
-    const group = groups.get(key) ?? {
-      supplierId: best.supplierId,
-      currency: best.currency,
-      lines: [],
-    };
-    group.lines.push({
-      partId: part.id,
-      quantity: best.available === null ? quantity : Math.min(quantity, best.available),
-      unitPrice: best.price,
-    });
-    groups.set(key, group);
-  }
-  const ids = await k.transaction(async (trx) => {
-    const created: string[] = [];
-    for (const g of groups.values()) {
-      const supplier = await repo.findSupplier(g.supplierId, trx);
-      if (!supplier) continue;
-      created.push(
-        await insertOrderWithLines(
-          trx,
-          actorId,
-          supplier,
-          { lines: g.lines, currency: g.currency },
-          'purchase_order.draft_from_suggestions',
-        ),
-      );
-    }
-    return created;
-  });
-  const orders: OrderJson[] = [];
-  for (const id of ids) orders.push(await getOrder(id, k));
-  return { orders, unsourced };
 }
 
 /** A scanned GTIN → the open order lines it can be received against. */

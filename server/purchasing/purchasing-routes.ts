@@ -21,6 +21,7 @@ import {
   waitsQuery,
 } from '../../shared/purchasing-api';
 import type { Role } from '../../shared/session-types';
+import * as drafts from './drafts-service';
 import * as orders from './orders-service';
 import { receiveAgainstOrder } from './receiving-service';
 import * as reorder from './reorder-service';
@@ -143,7 +144,7 @@ export function registerPurchasingRoutes(router: Router): void {
     access: BUYERS,
     body: draftsInput,
     status: 201,
-    handler: ({ body, user }) => orders.draftFromSuggestions(user.id, body),
+    handler: ({ body, user }) => drafts.draftFromSuggestions(user.id, body),
   });
   route(router, {
     method: 'get',

@@ -66,14 +66,28 @@ export async function pistonsAtStep(
     .orderBy('p.sku');
 }
 
+export interface SourcedPartDetailRow extends SourcedPartRow {
+  description: string;
+  family_id: string | null;
+  step_id: string | null;
+}
+
 export async function partForSourcing(
   partId: string,
   k: Knex = db,
-): Promise<SourcedPartRow | undefined> {
+): Promise<SourcedPartDetailRow | undefined> {
   return k('parts as p')
     .join('part_levels as pl', 'pl.part_id', 'p.id')
     .where('p.id', partId)
-    .first('p.id', 'p.sku', 'p.kind', k.raw('(pl.on_hand - pl.held)::int AS free'));
+    .first(
+      'p.id',
+      'p.sku',
+      'p.kind',
+      'p.description',
+      'p.family_id',
+      'p.step_id',
+      k.raw('(pl.on_hand - pl.held)::int AS free'),
+    );
 }
 
 export async function familyStepExists(

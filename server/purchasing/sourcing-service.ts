@@ -14,6 +14,7 @@ import type {
   SourcingQuery,
 } from '../../shared/purchasing-api';
 import { converter, D, moneyOut, type Dec } from '../../shared/purchase-money';
+import { waitingItemsFor } from '../suppliers/suppliers-service';
 import * as repo from './sourcing-repository';
 
 function fieldError(field: string, message: string): BadRequest {
@@ -128,10 +129,18 @@ export function bestOffer(
 
 export async function sourcing(q: SourcingQuery, k: Knex = db): Promise<SourcingJson> {
   let parts: repo.SourcedPartRow[];
+  let asked: SourcingJson['part'] = null;
   if (q.partId) {
     const part = await repo.partForSourcing(q.partId, k);
     if (!part) throw new NotFound('That part');
     parts = [part];
+    asked = {
+      id: part.id,
+      sku: part.sku,
+      description: part.description,
+      familyId: part.family_id,
+      stepId: part.step_id,
+    };
   } else {
     const exists = await repo.familyStepExists(q.familyId as string, q.stepId as string, k);
     if (!exists.family) throw new NotFound('That engine family');
@@ -150,7 +159,17 @@ export async function sourcing(q: SourcingQuery, k: Knex = db): Promise<Sourcing
     offers.filter((o) => o.available === null || o.available > 0).map((o) => o.supplierId),
   ).size;
   const { homeCurrency } = await getSettings(k);
+  // An item nobody has mapped yet may be another offer (or the only one) for these parts.
+  const waitingByPart = await waitingItemsFor(
+    parts.map((p) => p.id),
+    k,
+  );
+  const waiting = [...waitingByPart.values()]
+    .flat()
+    .filter((w, i, all) => all.findIndex((x) => x.itemId === w.itemId) === i);
   return {
+    part: asked,
+    waiting,
     offers,
     best,
     bestHow: how,

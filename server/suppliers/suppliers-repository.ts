@@ -297,6 +297,16 @@ export const SIZE_MATCH_NM = 5000;
  * Catalog parts that could be the given supplier items: parts of a family step whose nominal bore is
  * the item's size, parts whose family code the description names, and parts with the same SKU or GTIN.
  */
+/** Why a part could be a supplier item (i and p and their family f and step st in scope). */
+const COULD_BE = `(
+          (i.size_nm IS NOT NULL AND f.id IS NOT NULL AND st.id IS NOT NULL
+            AND abs(f.standard_bore_nm + st.offset_nm - i.size_nm) <= :gap)
+          OR lower(p.sku) = lower(i.sku)
+          OR (i.gtin IS NOT NULL AND p.gtin IS NOT NULL
+              AND lpad(p.gtin, 14, '0') = lpad(i.gtin, 14, '0'))
+          OR (f.id IS NOT NULL AND strpos(lower(i.description), lower(f.code)) > 0)
+        )`;
+
 export async function candidateParts(itemIds: string[], k: Knex = db): Promise<CandidateRow[]> {
   if (itemIds.length === 0) return [];
   const result = await k.raw<{ rows: CandidateRow[] }>(
@@ -313,17 +323,37 @@ export async function candidateParts(itemIds: string[], k: Knex = db): Promise<C
        LEFT JOIN engine_families f ON f.id = p.family_id
        LEFT JOIN series_steps st ON st.id = p.step_id
       WHERE i.id = ANY(CAST(:ids AS uuid[]))
-        AND (
-          (i.size_nm IS NOT NULL AND f.id IS NOT NULL AND st.id IS NOT NULL
-            AND abs(f.standard_bore_nm + st.offset_nm - i.size_nm) <= :gap)
-          OR lower(p.sku) = lower(i.sku)
-          OR (i.gtin IS NOT NULL AND p.gtin IS NOT NULL
-              AND lpad(p.gtin, 14, '0') = lpad(i.gtin, 14, '0'))
-          OR (f.id IS NOT NULL AND strpos(lower(i.description), lower(f.code)) > 0)
-        )`,
+        AND ${COULD_BE}`,
     { ids: itemIds, gap: SIZE_MATCH_NM },
   );
   return result.rows;
+}
+
+/**
+ * Items waiting in the mapping queue (unmapped, not dropped, at an active supplier) that could be
+ * one of these parts by the same tests the queue's suggestions use; the caller ranks them.
+ */
+export async function waitingItemsNear(partIds: string[], k: Knex = db): Promise<ItemRow[]> {
+  if (partIds.length === 0) return [];
+  const result = await k.raw<{ rows: { id: string }[] }>(
+    `SELECT DISTINCT i.id
+       FROM supplier_items i
+       JOIN suppliers s ON s.id = i.supplier_id AND s.active
+       JOIN parts p ON p.id = ANY(CAST(:ids AS uuid[]))
+       LEFT JOIN engine_families f ON f.id = p.family_id
+       LEFT JOIN series_steps st ON st.id = p.step_id
+      WHERE i.part_id IS NULL AND NOT i.dropped
+        AND ${COULD_BE}
+      LIMIT 200`,
+    { ids: partIds, gap: SIZE_MATCH_NM },
+  );
+  const ids = result.rows.map((r) => r.id);
+  if (ids.length === 0) return [];
+  return (await itemBase(k)
+    .join('suppliers as s', 's.id', 'i.supplier_id')
+    .select([...ITEM_COLUMNS, 's.name as supplier_name'])
+    .whereIn('i.id', ids)
+    .orderBy('i.sku')) as ItemRow[];
 }
 
 export async function partExists(k: Knex, partId: string): Promise<boolean> {

@@ -14,6 +14,7 @@ import type {
   SupplierJson,
   SupplierPatch,
   UnmappedItemJson,
+  WaitingItemJson,
 } from '../../shared/suppliers-api';
 import * as repo from './suppliers-repository';
 
@@ -293,6 +294,40 @@ export async function listUnmapped(
     ),
   }));
   return { items, total };
+}
+
+/**
+ * For each part, the items in the mapping queue whose suggestions (exactly as the queue ranks them)
+ * include it: what a buyer should map before concluding that nobody offers the part.
+ */
+export async function waitingItemsFor(
+  partIds: string[],
+  k: Conn = db,
+): Promise<Map<string, WaitingItemJson[]>> {
+  const byPart = new Map<string, WaitingItemJson[]>(partIds.map((id) => [id, []]));
+  const items = await repo.waitingItemsNear(partIds, k);
+  const candidates = await repo.candidateParts(
+    items.map((i) => i.id),
+    k,
+  );
+  for (const item of items) {
+    const suggestions = rankSuggestions(
+      item,
+      candidates.filter((c) => c.item_id === item.id),
+    );
+    for (const s of suggestions) {
+      byPart.get(s.id)?.push({
+        itemId: item.id,
+        supplierId: item.supplier_id,
+        supplierName: item.supplier_name ?? '',
+        supplierSku: item.sku,
+        description: item.description,
+        partId: s.id,
+        reasons: s.reasons,
+      });
+    }
+  }
+  return byPart;
 }
 
 /** Maps a supplier item to a catalog part (or unmaps it with null). */

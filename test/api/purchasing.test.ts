@@ -565,6 +565,108 @@ describe('POST /api/purchase-orders/drafts', () => {
   });
 });
 
+describe('drafts that differ from the suggestion', () => {
+  it('when the cheapest supplier says it has 3 of the 6 suggested and nobody has all 6, then 3 go to it, 3 to the next, and the page is told why', async () => {
+    const cheap = await makeSupplier({ currency: 'EUR', leadDays: 4, shippingCost: '0' });
+    const next = await makeSupplier({ currency: 'EUR', leadDays: 4, shippingCost: '0' });
+    const part = await makePart(owner, family, '+0.030 in', 'piston');
+    await offer(cheap.id, part, '30.00', 'EUR', 3);
+    await offer(next.id, part, '34.00', 'EUR', 4);
+    expect(
+      (await buyer.put(`/api/parts/${part}/reorder-rule`, { reorderPoint: 2, orderUpTo: 6 }))
+        .status,
+    ).toBe(200);
+
+    const res = await buyer.post('/api/purchase-orders/drafts', { partIds: [part] });
+    expect(res.status).toBe(201);
+    const lines = res.body.orders.map(
+      (o: { supplierId: string; lines: { partId: string; quantity: number }[] }) => [
+        o.supplierId,
+        o.lines.map((l) => l.quantity),
+      ],
+    );
+    expect(lines).toEqual(
+      expect.arrayContaining([
+        [cheap.id, [3]],
+        [next.id, [3]],
+      ]),
+    );
+    expect(res.body.adjusted).toEqual([
+      expect.objectContaining({
+        partId: part,
+        suggested: 6,
+        uncovered: 0,
+        shares: [
+          expect.objectContaining({ supplierId: cheap.id, quantity: 3, available: 3 }),
+          expect.objectContaining({ supplierId: next.id, quantity: 3, available: 4 }),
+        ],
+      }),
+    ]);
+    expect(res.body.adjusted[0].why).toContain(`${cheap.name} says it has 3`);
+    expect(res.body.adjusted[0].why).toContain(`3 from ${next.name}`);
+  });
+
+  it('when the only supplier says it has 2 of 5, then 2 are drafted and 3 are named as not covered', async () => {
+    const only = await makeSupplier({ currency: 'EUR', leadDays: 4, shippingCost: '0' });
+    const part = await makePart(owner, family, '+0.030 in', 'rings');
+    await offer(only.id, part, '12.00', 'EUR', 2);
+    await buyer.put(`/api/parts/${part}/reorder-rule`, { reorderPoint: 1, orderUpTo: 5 });
+    const res = await buyer.post('/api/purchase-orders/drafts', { partIds: [part] });
+    expect(res.status).toBe(201);
+    expect(res.body.orders[0].lines).toEqual([
+      expect.objectContaining({ partId: part, quantity: 2 }),
+    ]);
+    expect(res.body.adjusted[0]).toEqual(expect.objectContaining({ suggested: 5, uncovered: 3 }));
+    expect(res.body.adjusted[0].why).toMatch(/3 not covered/);
+  });
+});
+
+describe('parts nobody offers, and the mapping queue', () => {
+  it('when an unmapped supplier item has the part as a suggestion, then sourcing and the drafts name it as waiting to be mapped', async () => {
+    const supplier = await makeSupplier({ currency: 'EUR', leadDays: 4, shippingCost: '0' });
+    const part = await makePart(owner, family, '+0.040 in', 'piston');
+    const sku = (await owner.get(`/api/parts/${part}`)).body.sku as string;
+    // Same SKU as ours: the queue suggests this part first (an SKU match is near certain).
+    await db('supplier_items').insert({
+      supplier_id: supplier.id,
+      sku,
+      description: 'Piston, not yet mapped',
+      part_id: null,
+      price: '41.00',
+      currency: 'EUR',
+      available: null,
+    });
+    const queue = await buyer.get(`/api/supplier-items/unmapped?q=${encodeURIComponent(sku)}`);
+    expect(queue.status).toBe(200);
+    expect(queue.body.items[0].suggestions.map((s: { id: string }) => s.id)).toContain(part);
+
+    const src = await buyer.get(`/api/sourcing?partId=${part}`);
+    expect(src.status).toBe(200);
+    expect(src.body.offers).toEqual([]);
+    expect(src.body.part).toEqual(
+      expect.objectContaining({
+        id: part,
+        sku,
+        familyId: family.id,
+        stepId: family.steps['+0.040 in'],
+      }),
+    );
+    expect(src.body.waiting).toEqual([
+      expect.objectContaining({ supplierId: supplier.id, supplierSku: sku, partId: part }),
+    ]);
+
+    await buyer.put(`/api/parts/${part}/reorder-rule`, { reorderPoint: 1, orderUpTo: 2 });
+    const drafts = await buyer.post('/api/purchase-orders/drafts', { partIds: [part] });
+    expect(drafts.body.unsourced).toEqual([
+      expect.objectContaining({
+        partId: part,
+        quantity: 2,
+        waiting: [expect.objectContaining({ supplierId: supplier.id, supplierSku: sku })],
+      }),
+    ]);
+  });
+});
+
 describe('GET /api/parts/:id/reorder-suggestion', () => {
   it('when a part was issued 2, 1 and 3 on three days of fourteen, then the reorder point and order quantity match the hand calculation', async () => {
     const part = await makePart(owner, family, '+0.010 in', 'piston');

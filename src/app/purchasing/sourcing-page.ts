@@ -100,8 +100,25 @@ export class SourcingPage {
     this.loadSteps(familyId);
   }
 
+  /** Find works for the part carried over from Reorder, or for the family and step chosen. */
+  protected canFind(): boolean {
+    return Boolean(this.partId()) || Boolean(this.chosenFamily && this.chosenStep);
+  }
+
   /** Puts the choice in the address, so the page can be bookmarked and the back button works. */
   protected look(): void {
+    const part = this.result()?.part;
+    const samePart =
+      part &&
+      this.partId() === part.id &&
+      (part.familyId ?? '') === this.chosenFamily &&
+      (part.stepId ?? '') === this.chosenStep;
+    // The family and step are still the part's own: look again for that part (a ring set or kit
+    // is not one of the step's pistons, so a step search would show something else).
+    if (samePart || (this.partId() && !this.chosenFamily)) {
+      this.refine();
+      return;
+    }
     if (!this.chosenFamily || !this.chosenStep) return;
     void this.router.navigate([], {
       queryParams: {
@@ -133,6 +150,13 @@ export class SourcingPage {
       .subscribe({
         next: (r) => {
           this.loading.set(false);
+          // Opened for one part (from Reorder): show its family and step, so the form says what
+          // is being looked at and Find can be pressed again.
+          if (r.part?.familyId && !this.chosenFamily) {
+            this.chosenFamily = r.part.familyId;
+            this.chosenStep = r.part.stepId ?? '';
+            this.loadSteps(r.part.familyId);
+          }
           this.result.set(r);
         },
         error: (e: unknown) => {

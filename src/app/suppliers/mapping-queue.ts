@@ -1,4 +1,12 @@
-import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  computed,
+  inject,
+  input,
+  linkedSignal,
+  signal,
+} from '@angular/core';
 import { toObservable, toSignal } from '@angular/core/rxjs-interop';
 import { MatAutocompleteModule } from '@angular/material/autocomplete';
 import { MatButtonModule } from '@angular/material/button';
@@ -58,12 +66,14 @@ export class MappingQueue {
 
   /** Only this supplier's items (from ?supplierId=). */
   readonly supplierId = input<string>();
+  /** A search to start with (from ?q=, e.g. a supplier SKU linked from Sourcing or Reorder). */
+  readonly q = input<string>();
 
   protected readonly canMap = computed(() => {
     const role = this.session.user()?.role;
     return role === 'owner' || role === 'buyer';
   });
-  protected readonly text = signal('');
+  protected readonly text = linkedSignal(() => this.q() ?? '');
   protected readonly pageIndex = signal(0);
   protected readonly pageSize = signal(25);
   private readonly reloads = signal(0);
@@ -72,14 +82,14 @@ export class MappingQueue {
   protected readonly searching = signal<string | null>(null);
   protected readonly partText = signal('');
 
-  private readonly q = toSignal(
+  private readonly typed = toSignal(
     toObservable(this.text).pipe(debounceTime(250), distinctUntilChanged()),
     { initialValue: '' },
   );
 
   private readonly query = computed(() => ({
     supplierId: this.supplierId() || undefined,
-    q: this.q().trim() || undefined,
+    q: this.typed().trim() || undefined,
     page: this.pageIndex() + 1,
     pageSize: this.pageSize(),
     reload: this.reloads(),
