@@ -8,14 +8,10 @@ import { formatIn, formatMm, inToNm, mmToNm, type LengthUnit, type Nm } from '..
 import { READING_AXES, READING_DEPTHS, type ReadingsInput } from '../shared/jobs-api';
 import { getSettings } from '../server/settings/settings-service';
 import { cancelJob, collectJob, createJob, patchJob } from '../server/jobs/jobs-service';
-import {
-  boreSheet,
-  markCut,
-  patchCylinder,
-  putReadings,
-  recommendation,
-} from '../server/jobs/cylinder-service';
-import { placeHold, proposal } from '../server/jobs/holds-service';
+import { patchCylinder, putReadings, recommendation } from '../server/jobs/cylinder-service';
+import { boreSheet, markCut } from '../server/jobs/bore-sheet-service';
+import { placeHold } from '../server/jobs/holds-service';
+import { proposal } from '../server/jobs/proposal-service';
 import { readDemoCatalog } from './demo/catalog';
 
 /**
@@ -219,9 +215,9 @@ export async function seed(knex: Knex): Promise<void> {
       }
     }
     for (const n of spec.cut ?? []) {
-      await markCut(machinist.id, job.id, n, unit, knex);
+      await markCut(machinist.id, job.id, n, unit, {}, knex);
       if (!spec.honed) continue;
-      const sheet = await boreSheet(job.id, n, knex);
+      const sheet = await boreSheet(job.id, n, unit, knex);
       const { min, max } = sheet.ringGap;
       // A gap in the middle of the family's range, on the gauge's resolution.
       const grid = unit === 'in' ? 2540 : 1000;

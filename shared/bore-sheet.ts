@@ -1,8 +1,10 @@
 // The numbers for the boring bar and the hone. Finished bore = the measured piston skirt + the
 // piston-to-wall clearance; the bar stops short of it by the hone allowance, which the hone removes.
-// Every size here is a diameter, and every cut is measured on the diameter.
+// Every size here is a diameter, and every cut is measured on the diameter; the passes are planned in
+// pass-plan.ts.
 import { isNm } from './lengths';
 import type { Nm } from './lengths';
+import { gridDown, planPasses, PassPlanError, type Pass } from './pass-plan';
 
 export type ClearancePolicy = 'min' | 'mid' | 'max';
 
@@ -11,20 +13,30 @@ export interface BoreSheetInput {
   skirtNm: Nm;
   clearanceNm: Nm;
   honeAllowanceNm: Nm;
-  /** Largest worn diameter, or the size the last cut left. */
-  currentNm: Nm;
-  /** Deepest cut per pass, on the diameter. */
+  /** Smallest reading (least worn, usually below the ring travel), or the standard bore without one. */
+  smallestNm: Nm;
+  /** Largest worn diameter. */
+  largestNm: Nm;
+  /** Deepest cut per pass anywhere in the bore, on the diameter. */
   maxCutNm: Nm;
+  /** Lightest cut the bar takes reliably. */
+  minCutNm: Nm;
+  /** One step of the bar's dial (barGridNm). */
+  gridNm: Nm;
   /** A light last cut for the finish (on the diameter); the other passes share the rest. */
   finishPassNm?: Nm;
+  /** A light first cut that shows the bore's shape before the real cuts. */
+  truingPassNm?: Nm;
 }
 
 export interface BoreSheet {
   finishedBoreNm: Nm;
+  /** Finished bore less the hone allowance, down to the bar's grid (the hone takes the difference). */
   boreToNm: Nm;
   honeStockNm: Nm;
-  /** The bore size after each pass; the last one is boreToNm. Empty when there is an error. */
-  passes: Nm[];
+  /** The passes; the last one is at boreToNm. Empty when there is an error. */
+  passes: Pass[];
+  notes: string[];
   error?: string;
 }
 
@@ -39,9 +51,8 @@ export const BORE_SHEET_CAUTIONS: readonly string[] = Object.freeze([
   'Local codes and licensed practice come before anything on this sheet.',
 ]);
 
-/** Sizes are rounded to a whole 100 nm (0.0001 mm), finer than any boring bar is set. */
+/** The clearance midpoint is rounded to a whole 100 nm (0.0001 mm), finer than any gauge reads. */
 export const SIZE_GRID_NM = 100;
-const MAX_PASSES = 50;
 
 export class BoreSheetError extends Error {
   constructor(message: string) {
@@ -64,72 +75,58 @@ export function chooseClearance(minNm: Nm, maxNm: Nm, policy: ClearancePolicy): 
 }
 
 export function computeBoreSheet(input: BoreSheetInput): BoreSheet {
-  const { skirtNm, clearanceNm, honeAllowanceNm, currentNm, maxCutNm, finishPassNm } = input;
+  const { skirtNm, clearanceNm, honeAllowanceNm } = input;
   requirePositive('skirt diameter', skirtNm);
-  requirePositive('current bore', currentNm);
-  requirePositive('largest cut per pass', maxCutNm);
   requireNonNegative('clearance', clearanceNm);
   requireNonNegative('hone allowance', honeAllowanceNm);
-  if (finishPassNm !== undefined) requirePositive('finish pass', finishPassNm);
+  requirePositive('bar resolution', input.gridNm);
 
   const finishedBoreNm = skirtNm + clearanceNm;
-  const boreToNm = finishedBoreNm - honeAllowanceNm;
-  const sheet = { finishedBoreNm, boreToNm, honeStockNm: finishedBoreNm - boreToNm };
+  // Down to the grid, never up: a bore cut too small is honed a little longer; one cut too big is lost.
+  const boreToNm = gridDown(finishedBoreNm - honeAllowanceNm, input.gridNm);
   if (boreToNm <= 0)
     throw new BoreSheetError('The hone allowance is larger than the finished bore.');
-  if (currentNm >= boreToNm) {
-    return { ...sheet, passes: [], error: 'the bore is already at or past the bore-to size' };
+  const sheet = { finishedBoreNm, boreToNm, honeStockNm: finishedBoreNm - boreToNm };
+  let plan;
+  try {
+    plan = planPasses({
+      smallestNm: input.smallestNm,
+      largestNm: input.largestNm,
+      boreToNm,
+      maxCutNm: input.maxCutNm,
+      minCutNm: input.minCutNm,
+      gridNm: input.gridNm,
+      finishPassNm: input.finishPassNm,
+      truingPassNm: input.truingPassNm,
+    });
+  } catch (e) {
+    if (e instanceof PassPlanError) throw new BoreSheetError(e.message);
+    throw e;
   }
-  if (finishPassNm !== undefined && finishPassNm > maxCutNm) {
-    return {
-      ...sheet,
-      passes: [],
-      error: 'the finish pass is deeper than the largest cut per pass',
-    };
-  }
+  return plan.error
+    ? { ...sheet, passes: [], notes: plan.notes, error: plan.error }
+    : { ...sheet, passes: plan.passes, notes: plan.notes };
+}
 
-  const total = boreToNm - currentNm;
-  // A finish pass only makes sense when there is more to cut than the finish pass itself.
-  const roughing =
-    finishPassNm === undefined || total <= finishPassNm
-      ? equalPasses(currentNm, boreToNm, maxCutNm, MAX_PASSES)
-      : equalPasses(currentNm, boreToNm - finishPassNm, maxCutNm, MAX_PASSES - 1);
-  const passes =
-    roughing && finishPassNm !== undefined && total > finishPassNm
-      ? [...roughing, boreToNm]
-      : roughing;
-  if (!passes) {
-    return {
-      ...sheet,
-      passes: [],
-      error: `more than ${MAX_PASSES} passes would be needed; check the largest cut per pass`,
-    };
-  }
-  return { ...sheet, passes };
+export interface PistonCleanup {
+  /** Finished bore minus the largest worn diameter, on the diameter. */
+  removedNm: Nm;
+  /** removedNm minus the family's clean-up allowance (negative when the bore would not clean up). */
+  spareNm: Nm;
+  cleansUp: boolean;
 }
 
 /**
- * The fewest equal passes from `from` to `to` with none deeper than maxCut; intermediate sizes rounded to
- * the 100 nm grid, the last exactly `to`. Rounding can make one cut up to 100 nm deeper than an equal share,
- * so a pass is added when that would break the limit. Null when more than maxPasses would be needed.
+ * Whether the bore cut for the piston actually held cleans up: the finished bore (its measured skirt
+ * + clearance), not the step's nominal size, must exceed the largest worn diameter by the allowance.
  */
-function equalPasses(from: Nm, to: Nm, maxCut: Nm, maxPasses: number): Nm[] | null {
-  const total = to - from;
-  for (let n = Math.ceil(total / maxCut); n <= maxPasses; n++) {
-    const sizes: Nm[] = [];
-    for (let i = 1; i < n; i++) {
-      sizes.push(Math.round((from + (total * i) / n) / SIZE_GRID_NM) * SIZE_GRID_NM);
-    }
-    sizes.push(to);
-    let previous = from;
-    const fits = sizes.every((size) => {
-      const cut = size - previous;
-      previous = size;
-      return cut > 0 && cut <= maxCut;
-    });
-    if (fits) return sizes;
-  }
-  return null;
+export function pistonCleanup(finishedBoreNm: Nm, largestWornNm: Nm, cleanupNm: Nm): PistonCleanup {
+  requirePositive('finished bore', finishedBoreNm);
+  requirePositive('largest worn diameter', largestWornNm);
+  requireNonNegative('clean-up allowance', cleanupNm);
+  const removedNm = finishedBoreNm - largestWornNm;
+  const spareNm = removedNm - cleanupNm;
+  return { removedNm, spareNm, cleansUp: spareNm >= 0 };
 }
 
 function requirePositive(name: string, nm: Nm): void {

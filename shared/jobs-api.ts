@@ -5,6 +5,7 @@ import { z } from 'zod';
 import { optionalLengthField, type Page } from './catalog-api';
 import { parseLength, type LengthJson, type LengthUnit } from './lengths';
 import type { Axis, Depth } from './bore-wear';
+import type { BarResolution, PassKind } from './pass-plan';
 
 export type { Page };
 
@@ -193,6 +194,19 @@ export const cylinderPatch = z
   .refine((p) => Object.values(p).some((v) => v !== undefined), 'nothing to change');
 export type CylinderPatch = z.output<typeof cylinderPatch>;
 
+/** Marking a cylinder cut; the reason is needed only when the held piston's bore does not clean up. */
+export const cutInput = z
+  .object({
+    overrideReason: z
+      .string()
+      .trim()
+      .min(3, 'say why the cylinder is cut although the bore does not clean up')
+      .max(500)
+      .optional(),
+  })
+  .strict();
+export type CutInput = z.output<typeof cutInput>;
+
 const cylinderNumber = z
   .number({ error: 'must be the cylinder number' })
   .int('must be a whole number')
@@ -227,8 +241,6 @@ export const noteInput = z
     text: z.string().trim().min(1, 'write the note').max(2000, 'at most 2000 characters'),
   })
   .strict();
-
-export const cutInput = z.object({}).strict();
 
 // ---- Answers ----------------------------------------------------------------------------------
 
@@ -393,6 +405,13 @@ export interface ProposalJson {
   others: ProposedUnitJson[];
   rings: { partId: string; sku: string; description: string; free: number }[];
   piston: HoldJson | null;
+  /**
+   * What a piston's bore is checked against: finished bore = skirt + clearance must exceed the largest
+   * worn diameter by the allowance (pistonCleanup). Null before the bore is read.
+   */
+  cleanupBasis: { clearance: LengthJson; largestWorn: LengthJson; allowance: LengthJson } | null;
+  /** Whether the held piston's bore cleans up; null without a held piston or readings. */
+  heldCleansUp: boolean | null;
 }
 
 export interface ProposedUnitJson {
@@ -403,6 +422,31 @@ export interface ProposedUnitJson {
   skirt: LengthJson;
   bin: string | null;
   stepLabel: string | null;
+  /** Whether the bore cut for this piston cleans up the wear; absent before the bore is read. */
+  cleansUp?: boolean;
+}
+
+export interface BorePassJson {
+  kind: PassKind;
+  size: LengthJson;
+  /** Depth of the cut where the bore is least worn: the deepest it cuts anywhere. */
+  cutUnworn: LengthJson;
+  /** Depth of the cut where the bore is most worn (zero until the bar reaches the wear). */
+  cutWorn: LengthJson;
+}
+
+export interface CleanupCheckJson {
+  allowance: LengthJson;
+  /** Finished bore minus the largest worn diameter. */
+  removed: LengthJson;
+  /** Removed minus the allowance; negative when the bore would not clean up. */
+  spare: LengthJson | null;
+  short: LengthJson | null;
+  cleansUp: boolean;
+  /** Why it does not clean up, in plain words; null when it does. */
+  message: string | null;
+  /** The machinist's reason for cutting anyway, kept with the cylinder. */
+  overrideReason: string | null;
 }
 
 export interface BoreSheetJson {
@@ -419,11 +463,22 @@ export interface BoreSheetJson {
   boreTo: LengthJson;
   honeStock: LengthJson;
   largestWorn: LengthJson;
+  /** Where the passes start: the smallest reading, or the standard bore when the bottom was not read. */
+  smallestBore: LengthJson;
+  smallestFrom: 'readings' | 'standard';
   maxCutPerPass: LengthJson;
+  minCutPerPass: LengthJson;
   finishPass: LengthJson | null;
-  passes: LengthJson[];
+  truingPass: LengthJson | null;
+  /** One step of the boring bar's dial; every size to set is on it. */
+  barResolution: BarResolution;
+  passes: BorePassJson[];
   /** Why no passes are listed (the bore is already past the bore-to size, …). */
   passesNote: string | null;
+  /** A truing or finish pass left out, and why. */
+  passesNotes: string[];
+  /** Whether the bore cut for the held piston (its skirt + clearance) cleans up the worst wear. */
+  cleanup: CleanupCheckJson;
   ringGap: { min: LengthJson | null; max: LengthJson | null };
   cutAt: string | null;
   measuredAfterHone: LengthJson | null;

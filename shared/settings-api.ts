@@ -1,4 +1,5 @@
 // The shop's settings as GET /api/settings answers them and PATCH /api/settings takes them (owner).
+import type { BarResolution } from './pass-plan';
 
 export type ClearancePolicy = 'min' | 'mid' | 'max';
 
@@ -12,6 +13,12 @@ export interface ShopSettingsJson {
   maxCutPerPass: string;
   /** A length with its unit, or '' for no separate finishing pass. */
   finishPass: string;
+  /** A length with its unit, or '' for no light first (truing) pass. */
+  truingPass: string;
+  /** The lightest cut the bar takes reliably, e.g. "0.001 in". */
+  minCutPerPass: string;
+  /** What one step of the boring bar's dial is; every size the machinist sets is on it. */
+  barResolution: BarResolution;
   skipMarginalStep: boolean;
   marginalCleanup: string;
   orderCost: string;

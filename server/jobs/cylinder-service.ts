@@ -4,26 +4,18 @@
 import type { Knex } from 'knex';
 import { db } from '../db/knex';
 import { BadRequest, Conflict, NotFound } from '../errors';
-import { getSettings, type ShopSettings } from '../settings/settings-service';
+import { getSettings } from '../settings/settings-service';
+import { settingLength } from '../settings/setting-length';
 import { assessBore } from '../../shared/bore-assessment';
 import { recommendStep } from '../../shared/bore-choice';
-import {
-  BORE_SHEET_CAUTIONS,
-  BoreSheetError,
-  chooseClearance,
-  computeBoreSheet,
-} from '../../shared/bore-sheet';
 import { ReadingsError } from '../../shared/bore-wear';
 import {
   formatLength,
-  parseLength,
   toLengthJson,
   type LengthUnit,
   type Nm,
 } from '../../shared/lengths';
-import { stepNominalBore } from '../../shared/step-series';
 import type {
-  BoreSheetJson,
   CylinderJson,
   CylinderPatch,
   ReadingsInput,
@@ -61,19 +53,6 @@ export async function getCylinder(
     holdsRepo.holdsOfJob(jobId, { activeOnly: true }, k),
   ]);
   return cylinderJson(cylinder, family, readings, holds, unit);
-}
-
-/** A length the owner typed into the settings, or null when it is left empty. */
-function settingLength(name: string, text: string): Nm | null {
-  if (text.trim() === '') return null;
-  const parsed = parseLength(text);
-  if (!parsed.ok) {
-    throw new Conflict(
-      `The shop setting "${name}" ("${text}") is not a length: ${parsed.message} The owner sets it under Settings.`,
-      'bad_setting',
-    );
-  }
-  return parsed.nm;
 }
 
 // ---- Readings ---------------------------------------------------------------------------------
@@ -294,146 +273,6 @@ export async function patchCylinder(
         });
       }
     }
-  });
-  return getCylinder(jobId, n, unit, k);
-}
-
-// ---- The bore sheet ---------------------------------------------------------------------------
-
-export async function boreSheet(jobId: string, n: number, k: Conn = db): Promise<BoreSheetJson> {
-  const { job, family, cylinder } = await context(jobId, n, k);
-  const holds = await holdsRepo.holdsOfJob(jobId, { activeOnly: true }, k);
-  const piston = holds.find((h) => h.cylinder === n && h.unit_id !== null);
-  if (!piston || piston.unit_id === null || piston.unit_label === null) {
-    throw new Conflict(
-      `Hold a measured piston for cylinder ${n} first: the bore sheet is worked out from its measured skirt.`,
-      'not_held',
-    );
-  }
-  if (piston.skirt_nm === null) {
-    throw new Conflict(
-      `${piston.unit_label} has no measured skirt; measure it first.`,
-      'not_measured',
-    );
-  }
-  if (cylinder.largest_nm === null) {
-    throw new Conflict(
-      `Enter the bore readings for cylinder ${n} first: the passes start from the largest worn diameter.`,
-      'no_readings',
-    );
-  }
-  const settings: ShopSettings = await getSettings(k);
-  const maxCut = settingLength('maximum cut per pass', settings.maxCutPerPass);
-  if (maxCut === null) {
-    throw new Conflict(
-      'The shop has no maximum cut per pass set; the owner sets it under Settings.',
-      'bad_setting',
-    );
-  }
-  const finishPass = settingLength('finishing pass', settings.finishPass);
-  const clearanceNm =
-    cylinder.clearance_nm ??
-    chooseClearance(family.clearance_min_nm, family.clearance_max_nm, settings.clearancePolicy);
-  let sheet;
-  try {
-    sheet = computeBoreSheet({
-      skirtNm: piston.skirt_nm,
-      clearanceNm,
-      honeAllowanceNm: family.hone_allowance_nm,
-      currentNm: cylinder.largest_nm,
-      maxCutNm: maxCut,
-      finishPassNm: finishPass ?? undefined,
-    });
-  } catch (e) {
-    if (e instanceof BoreSheetError) throw new Conflict(e.message, 'sheet_impossible');
-    throw e;
-  }
-  const part = await holdsRepo.holdPart(piston.part_id, k);
-  return {
-    job: { id: job.id, number: job.number, customerName: job.customer_name, state: job.state },
-    family: { id: family.id, code: family.code, name: family.name },
-    cylinder: n,
-    step:
-      cylinder.chosen_step_id && cylinder.step_label !== null && cylinder.step_offset_nm !== null
-        ? {
-            id: cylinder.chosen_step_id,
-            label: cylinder.step_label,
-            nominalBore: toLengthJson(
-              stepNominalBore(family.standard_bore_nm, cylinder.step_offset_nm),
-            ),
-          }
-        : null,
-    piston: {
-      unitId: piston.unit_id,
-      label: piston.unit_label,
-      sku: piston.sku,
-      material: part?.material ?? null,
-    },
-    skirt: toLengthJson(piston.skirt_nm),
-    clearance: toLengthJson(clearanceNm),
-    clearanceRange: {
-      min: toLengthJson(family.clearance_min_nm),
-      max: toLengthJson(family.clearance_max_nm),
-    },
-    clearanceFrom: cylinder.clearance_nm === null ? 'policy' : 'cylinder',
-    finishedBore: toLengthJson(sheet.finishedBoreNm),
-    boreTo: toLengthJson(sheet.boreToNm),
-    honeStock: toLengthJson(sheet.honeStockNm),
-    largestWorn: toLengthJson(cylinder.largest_nm),
-    maxCutPerPass: toLengthJson(maxCut),
-    finishPass: lengthOrNull(finishPass),
-    passes: sheet.passes.map(toLengthJson),
-    passesNote: sheet.error ?? null,
-    ringGap: {
-      min: lengthOrNull(family.ring_gap_min_nm),
-      max: lengthOrNull(family.ring_gap_max_nm),
-    },
-    cutAt: cylinder.cut_at ? cylinder.cut_at.toISOString() : null,
-    measuredAfterHone: lengthOrNull(cylinder.measured_after_hone_nm),
-    ringGapMeasured: lengthOrNull(cylinder.ring_gap_nm),
-    cautions: [...BORE_SHEET_CAUTIONS],
-  };
-}
-
-// ---- The cut ----------------------------------------------------------------------------------
-
-/** Marks a cylinder as cut; refused unless its measured piston is held for this job. */
-export async function markCut(
-  actorId: string,
-  jobId: string,
-  n: number,
-  unit: LengthUnit,
-  k: Conn = db,
-): Promise<CylinderJson> {
-  await k.transaction(async (trx) => {
-    const job = await requireOpenJob(trx, jobId, 'change');
-    requireCylinder(job, n);
-    const cylinder = await repo.lockCylinder(trx, jobId, n);
-    if (!cylinder) throw new NotFound(`Cylinder ${n} of job ${job.number}`);
-    if (cylinder.cut_at) {
-      throw new Conflict(
-        `Cylinder ${n} of job ${job.number} is already marked as cut.`,
-        'already_cut',
-      );
-    }
-    const piston = await holdsRepo.activePistonHold(trx, jobId, n, { lock: true });
-    if (!piston) {
-      throw new Conflict(
-        `Cylinder ${n} has no piston held for job ${job.number}: hold its measured piston before cutting.`,
-        'not_held',
-      );
-    }
-    await repo.updateCylinder(trx, jobId, n, { cut_at: trx.fn.now(), cut_by: actorId });
-    // From here the piston belongs with this bore: its hold must not lapse.
-    await holdsRepo.clearExpiry(trx, piston.id, piston.unit_id);
-    const view = await holdsRepo.findHold(piston.id, trx);
-    await repo.insertEvent(trx, {
-      jobId,
-      userId: actorId,
-      kind: 'work',
-      text: `Cylinder ${n} cut to fit ${view?.unit_label ?? 'its held piston'}.`,
-    });
-    await advanceState(trx, job, 'on_the_bar', actorId);
   });
   return getCylinder(jobId, n, unit, k);
 }

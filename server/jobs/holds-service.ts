@@ -19,7 +19,6 @@ import {
   type HoldInput,
   type HoldJson,
   type HoldMoveInput,
-  type ProposalJson,
   type ProposedUnitJson,
   type SweepResultJson,
 } from '../../shared/jobs-api';
@@ -50,7 +49,7 @@ function isUniqueViolation(e: unknown): boolean {
   return typeof e === 'object' && e !== null && (e as { code?: string }).code === '23505';
 }
 
-function proposedJson(row: repo.FreeUnitRow): ProposedUnitJson {
+export function proposedJson(row: repo.FreeUnitRow): ProposedUnitJson {
   return {
     id: row.id,
     label: row.label,
@@ -677,50 +676,3 @@ export async function sweepExpiredHolds(
  * For a cylinder's step (the chosen one unless another is asked for): the free measured piston
  * whose skirt is nearest the step's nominal size, the next few, and the ring sets with free stock.
  */
-export async function proposal(
-  jobId: string,
-  n: number,
-  stepId: string | undefined,
-  k: Conn = db,
-): Promise<ProposalJson> {
-  const job = await jobsRepo.findJob(jobId, k);
-  if (!job) throw new NotFound('That job');
-  if (n > job.cylinders) {
-    throw new NotFound(`Cylinder ${n} of job ${job.number} (it has ${job.cylinders})`);
-  }
-  const family = await jobsRepo.findFamily(job.family_id, k);
-  if (!family) throw new NotFound("That job's engine family");
-  const cylinder = (await jobsRepo.cylindersOf(jobId, k)).find((c) => c.n === n);
-  const wanted = stepId ?? cylinder?.chosen_step_id ?? null;
-  if (!wanted) {
-    throw new Conflict(
-      `Choose the step for cylinder ${n} first; the proposal is the piston nearest its size.`,
-      'no_step',
-    );
-  }
-  const step = await jobsRepo.findStep(wanted, k);
-  if (!step || step.series_id !== family.step_series_id) {
-    throw new BadRequest(`stepId: not a step of the series ${family.code} uses.`, [
-      { field: 'stepId', message: `not a step of ${family.code}'s series` },
-    ]);
-  }
-  const nominal = stepNominalBore(family.standard_bore_nm, step.offset_nm);
-  const [units, rings, holds] = await Promise.all([
-    repo.nearestFreeUnits(family.id, step.id, nominal, { limit: 6 }, k),
-    repo.freeRingParts(family.id, step.id, k),
-    repo.holdsOfJob(jobId, { activeOnly: true }, k),
-  ]);
-  const piston = holds.find((h) => h.cylinder === n && h.unit_id !== null);
-  return {
-    step: { id: step.id, label: step.label, nominalBore: toLengthJson(nominal) },
-    unit: units[0] ? proposedJson(units[0]) : null,
-    others: units.slice(1).map(proposedJson),
-    rings: rings.map((r) => ({
-      partId: r.id,
-      sku: r.sku,
-      description: r.description,
-      free: r.free,
-    })),
-    piston: piston ? holdJson(piston) : null,
-  };
-}

@@ -82,6 +82,7 @@ export interface CylinderRow {
   cut_at: Date | null;
   measured_after_hone_nm: number | null;
   ring_gap_nm: number | null;
+  cleanup_override_reason: string | null;
 }
 
 export interface ReadingRow {
@@ -381,6 +382,7 @@ export function cylindersOf(jobId: string, k: Knex = db): Promise<CylinderRow[]>
       'c.cut_at',
       'c.measured_after_hone_nm',
       'c.ring_gap_nm',
+      'c.cleanup_override_reason',
     )
     .where('c.job_id', jobId)
     .orderBy('c.n');

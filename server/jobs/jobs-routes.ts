@@ -7,6 +7,7 @@ import { z } from 'zod';
 import { pageQuery, route, uuidParam } from '../http/route';
 import type { Role } from '../../shared/session-types';
 import {
+  cutInput,
   cylinderPatch,
   holdInput,
   holdMoveInput,
@@ -22,7 +23,9 @@ import {
 } from '../../shared/jobs-api';
 import * as jobs from './jobs-service';
 import * as cylinders from './cylinder-service';
+import * as sheets from './bore-sheet-service';
 import * as holds from './holds-service';
+import * as proposals from './proposal-service';
 import * as photos from './photos-service';
 
 const COUNTER: Role[] = ['owner', 'machinist', 'staff'];
@@ -172,22 +175,23 @@ export function registerJobsRoutes(router: Router): void {
     access: MACHINE,
     params: cylinderParams,
     query: proposalQuery,
-    handler: ({ params, query }) => holds.proposal(params.id, params.n, query.stepId),
+    handler: ({ params, query }) => proposals.proposal(params.id, params.n, query.stepId),
   });
   route(router, {
     method: 'get',
     path: '/api/jobs/:id/cylinders/:n/bore-sheet',
     access: MACHINE,
     params: cylinderParams,
-    handler: ({ params }) => cylinders.boreSheet(params.id, params.n),
+    handler: ({ params, user }) => sheets.boreSheet(params.id, params.n, user.unit),
   });
   route(router, {
     method: 'post',
     path: '/api/jobs/:id/cylinders/:n/cut',
     access: MACHINE,
     params: cylinderParams,
-    body: z.object({}).strict(),
-    handler: ({ params, user }) => cylinders.markCut(user.id, params.id, params.n, user.unit),
+    body: cutInput,
+    handler: ({ params, user, body }) =>
+      sheets.markCut(user.id, params.id, params.n, user.unit, body),
   });
 
   // ---- Holds ------------------------------------------------------------------------------------

@@ -8,6 +8,7 @@ import { IANAZone } from 'luxon';
 import { recordAudit } from '../audit/audit';
 import type { ShopSettingsJson } from '../../shared/settings-api';
 import { parseLength } from '../../shared/lengths';
+import { BAR_RESOLUTIONS, type BarResolution } from '../../shared/pass-plan';
 import { isCurrencyCode, parseMoney } from '../../shared/money';
 
 const lengthSetting = (opts: { allowEmpty?: boolean } = {}) =>
@@ -52,6 +53,9 @@ export const shopSettingsSchema = z
     clearancePolicy: z.enum(['min', 'mid', 'max']),
     maxCutPerPass: lengthSetting(),
     finishPass: lengthSetting({ allowEmpty: true }),
+    truingPass: lengthSetting({ allowEmpty: true }),
+    minCutPerPass: lengthSetting(),
+    barResolution: z.enum(BAR_RESOLUTIONS as [BarResolution, ...BarResolution[]]),
     skipMarginalStep: z.boolean(),
     marginalCleanup: lengthSetting(),
     orderCost: amountSetting,
@@ -81,6 +85,9 @@ export const DEFAULT_SETTINGS: ShopSettings = {
   clearancePolicy: 'mid',
   maxCutPerPass: '0.020 in',
   finishPass: '',
+  truingPass: '',
+  minCutPerPass: '0.001 in',
+  barResolution: '0.0001 in',
   skipMarginalStep: false,
   marginalCleanup: '0.05 mm',
   orderCost: '25.00',

@@ -31,6 +31,9 @@ beforeAll(async () => {
     clearancePolicy: 'min',
     maxCutPerPass: '0.020 in',
     finishPass: '',
+    truingPass: '',
+    minCutPerPass: '0.001 in',
+    barResolution: '0.0001 in',
     holdExpiryDays: 14,
     skipMarginalStep: false,
     timeZone: 'UTC',
@@ -311,7 +314,7 @@ describe('the bore sheet and the cut', () => {
     expect((await db('jobs').where({ id: job.id }).first()).state).toBe('gauged');
   });
 
-  it('when the 2.5555 in piston is held, then the sheet gives 2.5570 finished, 2.5550 bore-to, passes 2.5405 and 2.5550, 0.0020 to hone', async () => {
+  it('when the 2.5555 in piston is held, then the sheet gives 2.5570 finished, 2.5550 bore-to, passes 2.5377 and 2.5550 from the unworn bottom, 0.0020 to hone', async () => {
     const hold = await machinist.post(`/api/jobs/${job.id}/holds`, { cylinder: 1, unitId });
     expect(hold.status).toBe(201);
     const res = await machinist.get(`/api/jobs/${job.id}/cylinders/1/bore-sheet`);
@@ -326,11 +329,35 @@ describe('the bore sheet and the cut', () => {
         boreTo: { mm: '64.897', in: '2.5550' },
         honeStock: { mm: '0.0508', in: '0.0020' },
         largestWorn: { mm: '64.1604', in: '2.5260' },
-        // 2.5550 − 2.5260 = 0.0290 in: ⌈0.0290 / 0.020⌉ = 2 equal passes, half-way 2.5405 in.
+        // The bottom of the bore reads 2.5204 in, the least worn: the passes start there.
+        // 2.5550 − 2.5204 = 0.0346 in: ⌈0.0346 / 0.020⌉ = 2 passes of 0.0173 in: 2.5377, 2.5550 in.
+        // At the worn top the first cuts 2.5377 − 2.5260 = 0.0117 in. (From the worn 2.5260 in, the
+        // old plan's first pass to 2.5405 in cut 0.0201 in at the bottom, over the 0.020 in limit.)
+        // 2.5377 × 25.4 = 64.45758 mm; 0.0173 × 25.4 = 0.43942 mm; 0.0117 × 25.4 = 0.29718 mm.
+        smallestBore: { mm: '64.01816', in: '2.5204' },
+        smallestFrom: 'readings',
         passes: [
-          { mm: '64.5287', in: '2.5405' },
-          { mm: '64.897', in: '2.5550' },
+          {
+            kind: 'roughing',
+            size: { mm: '64.45758', in: '2.5377' },
+            cutUnworn: { mm: '0.43942', in: '0.0173' },
+            cutWorn: { mm: '0.29718', in: '0.0117' },
+          },
+          {
+            kind: 'roughing',
+            size: { mm: '64.897', in: '2.5550' },
+            cutUnworn: { mm: '0.43942', in: '0.0173' },
+            cutWorn: { mm: '0.43942', in: '0.0173' },
+          },
         ],
+        barResolution: '0.0001 in',
+        // 2.5570 − 2.5260 = 0.0310 in removed; 0.0310 − 0.0030 allowance = 0.0280 in to spare.
+        cleanup: expect.objectContaining({
+          removed: { mm: '0.7874', in: '0.0310' },
+          spare: { mm: '0.7112', in: '0.0280' },
+          cleansUp: true,
+          message: null,
+        }),
         passesNote: null,
         ringGap: { min: { mm: '0.2032', in: '0.0080' }, max: { mm: '0.4064', in: '0.0160' } },
       }),
@@ -399,6 +426,78 @@ describe('the bore sheet and the cut', () => {
       readings: WORN_READINGS,
     });
     expect(res.status).toBe(409);
+  });
+});
+
+describe('a held piston whose bore does not clean up', () => {
+  // Worked by hand: the readings' worst wear is 2.5260 in; the family's clean-up allowance 0.0030 in;
+  // the shop's clearance policy is the smallest, 0.0015 in. A +0.010 piston measured 2.5270 in gives a
+  // finished bore of 2.5270 + 0.0015 = 2.5285 in, which removes 2.5285 − 2.5260 = 0.0025 in, 0.0005 in
+  // short of the allowance: the bore would not clean up although the step's nominal size is on paper.
+  let job: { id: string; number: string };
+  let unitId: string;
+
+  beforeAll(async () => {
+    const fam = await makeFamily(owner);
+    const piston = await makePart(owner, fam, '+0.010 in', 'piston');
+    [{ id: unitId }] = await receivePistons(owner, piston, binId, ['2.5270 in']);
+    job = await makeJob(staff, fam.id);
+    await machinist.put(`/api/jobs/${job.id}/cylinders/1/readings`, { readings: WORN_READINGS });
+    await machinist.patch(`/api/jobs/${job.id}/cylinders/1`, { stepId: fam.steps['+0.010 in'] });
+  });
+
+  it('when the proposal offers it, then it says the piston does not clean up', async () => {
+    const res = await machinist.get(`/api/jobs/${job.id}/cylinders/1/proposal`);
+    expect(res.status).toBe(200);
+    expect(res.body.unit).toMatchObject({ id: unitId, cleansUp: false });
+    expect(res.body.cleanupBasis).toEqual({
+      clearance: { mm: '0.0381', in: '0.0015' },
+      largestWorn: { mm: '64.1604', in: '2.5260' },
+      allowance: { mm: '0.0762', in: '0.0030' },
+    });
+  });
+
+  it('when it is held, then the sheet says it is 0.0005 in short and the cut is refused without a reason', async () => {
+    expect(
+      (await machinist.post(`/api/jobs/${job.id}/holds`, { cylinder: 1, unitId })).status,
+    ).toBe(201);
+    const sheet = await machinist.get(`/api/jobs/${job.id}/cylinders/1/bore-sheet`);
+    expect(sheet.status).toBe(200);
+    expect(sheet.body.cleanup).toMatchObject({
+      removed: { in: '0.0025' },
+      short: { in: '0.0005' },
+      spare: null,
+      cleansUp: false,
+    });
+    expect(sheet.body.cleanup.message).toMatch(
+      /0\.0005 in short of the 0\.0030 in clean-up allowance/,
+    );
+    const cut = await machinist.post(`/api/jobs/${job.id}/cylinders/1/cut`);
+    expect(cut.status).toBe(409);
+    expect(cut.body.error.code).toBe('no_cleanup');
+    expect(cut.body.error.message).toMatch(/would not clean up/);
+    expect((await db('job_cylinders').where({ job_id: job.id, n: 1 }).first()).cut_at).toBeNull();
+  });
+
+  it('when the machinist gives a reason, then the cut goes through and the reason is kept on the job', async () => {
+    const blank = await machinist.post(`/api/jobs/${job.id}/cylinders/1/cut`, {
+      overrideReason: '  ',
+    });
+    expect(blank.status).toBe(400);
+    const cut = await machinist.post(`/api/jobs/${job.id}/cylinders/1/cut`, {
+      overrideReason: 'Customer accepts a light pit mark; no larger piston in time',
+    });
+    expect(cut.status).toBe(200);
+    const row = await db('job_cylinders').where({ job_id: job.id, n: 1 }).first();
+    expect(row.cleanup_override_reason).toBe(
+      'Customer accepts a light pit mark; no larger piston in time',
+    );
+    const sheet = await machinist.get(`/api/jobs/${job.id}/cylinders/1/bore-sheet`);
+    expect(sheet.body.cleanup.overrideReason).toMatch(/light pit mark/);
+    const events = (await machinist.get(`/api/jobs/${job.id}`)).body.events as { text: string }[];
+    expect(events.some((e) => /does not clean up; reason: Customer accepts/.test(e.text))).toBe(
+      true,
+    );
   });
 });
 

@@ -10,16 +10,7 @@ import { RouterLink } from '@angular/router';
 import { catchError, map, of, switchMap, tap } from 'rxjs';
 
 import { isOpenState, type BoreSheetJson } from '../../../shared/jobs-api';
-import {
-  formatIn,
-  formatMm,
-  mmToNm,
-  parseLength,
-  toLengthJson,
-  type LengthJson,
-  type LengthUnit,
-  type Nm,
-} from '../../../shared/lengths';
+import { formatIn, formatMm, parseLength, type LengthUnit, type Nm } from '../../../shared/lengths';
 import { apiErrorMessage } from '../core/api-error';
 import { LengthPipe } from '../core/length-pipe';
 import { Notifier } from '../core/notifier';
@@ -89,23 +80,17 @@ export class BoreSheetPage {
     return sheet ? isOpenState(sheet.job.state) : false;
   });
 
-  /** Each pass with the depth of its cut (on the diameter), from the worn size onward. */
-  protected readonly passes = computed(() => {
-    const sheet = this.sheet();
-    if (!sheet) return [];
-    let previous = this.nm(sheet.largestWorn);
-    return sheet.passes.map((size, i) => {
-      const nm = this.nm(size);
-      const cut = nm - previous;
-      previous = nm;
-      return { number: i + 1, size, cut: toLengthJson(cut) };
-    });
-  });
+  protected readonly passKinds: Record<string, string> = {
+    truing: 'Truing',
+    roughing: 'Cut',
+    finish: 'Finish',
+  };
 
   protected readonly busy = signal(false);
   protected readonly clearanceText = signal('');
   protected readonly honedText = signal('');
   protected readonly gapText = signal('');
+  protected readonly overrideText = signal('');
 
   protected print(): void {
     window.print();
@@ -131,18 +116,26 @@ export class BoreSheetPage {
   protected markCut(): void {
     const sheet = this.sheet();
     if (!sheet || this.busy()) return;
+    const reason = this.overrideText().trim();
+    if (!sheet.cleanup.cleansUp && reason.length < 3) {
+      this.notifier.error('Say why the cylinder is cut although the bore does not clean up.');
+      return;
+    }
     this.busy.set(true);
-    this.api.markCut(sheet.job.id, sheet.cylinder).subscribe({
-      next: () => {
-        this.busy.set(false);
-        this.notifier.success(`Cylinder ${sheet.cylinder} marked as cut.`);
-        this.reloads.update((n) => n + 1);
-      },
-      error: (error: unknown) => {
-        this.busy.set(false);
-        this.notifier.error(apiErrorMessage(error));
-      },
-    });
+    this.api
+      .markCut(sheet.job.id, sheet.cylinder, sheet.cleanup.cleansUp ? undefined : reason)
+      .subscribe({
+        next: () => {
+          this.busy.set(false);
+          this.overrideText.set('');
+          this.notifier.success(`Cylinder ${sheet.cylinder} marked as cut.`);
+          this.reloads.update((n) => n + 1);
+        },
+        error: (error: unknown) => {
+          this.busy.set(false);
+          this.notifier.error(apiErrorMessage(error));
+        },
+      });
   }
 
   protected saveAfterHone(): void {
@@ -182,10 +175,6 @@ export class BoreSheetPage {
         this.notifier.error(apiErrorMessage(error));
       },
     });
-  }
-
-  private nm(value: LengthJson): number {
-    return mmToNm(value.mm);
   }
 }
 

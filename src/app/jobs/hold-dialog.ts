@@ -10,6 +10,8 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { catchError, map, of } from 'rxjs';
 
 import type { HoldJson, ProposalJson, ProposedUnitJson } from '../../../shared/jobs-api';
+import { pistonCleanup } from '../../../shared/bore-sheet';
+import { mmToNm, toLengthJson } from '../../../shared/lengths';
 import { apiErrorBody, apiErrorMessage } from '../core/api-error';
 import { LengthPipe } from '../core/length-pipe';
 import { JobsApi } from './jobs-api';
@@ -70,6 +72,23 @@ export class HoldDialog {
     () => this.proposal()?.rings.find((r) => r.free > 0) ?? null,
   );
   protected readonly withRings = signal(true);
+
+  /**
+   * Whether the bore cut for the chosen piston (its skirt + the clearance) cleans up the wear, worked
+   * out with the same rule the server refuses a cut by; null before the bore is read.
+   */
+  protected readonly cleanup = computed(() => {
+    const unit = this.choice();
+    const basis = this.proposal()?.cleanupBasis;
+    if (!unit || !basis) return null;
+    const finished = mmToNm(unit.skirt.mm) + mmToNm(basis.clearance.mm);
+    const check = pistonCleanup(finished, mmToNm(basis.largestWorn.mm), mmToNm(basis.allowance.mm));
+    return {
+      ...check,
+      finished: toLengthJson(finished),
+      short: toLengthJson(Math.max(0, -check.spareNm)),
+    };
+  });
 
   protected readonly label = signal('');
   protected readonly busy = signal(false);

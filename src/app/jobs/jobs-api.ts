@@ -132,8 +132,10 @@ export class JobsApi {
     return this.http.get<BoreSheetJson>(`${this.cylinder(id, n)}/bore-sheet`);
   }
 
-  markCut(id: string, n: number): Observable<CylinderJson> {
-    return this.http.post<CylinderJson>(`${this.cylinder(id, n)}/cut`, {});
+  /** The reason is needed, and kept with the cylinder, only when the bore does not clean up. */
+  markCut(id: string, n: number, overrideReason?: string): Observable<CylinderJson> {
+    const body = overrideReason === undefined ? {} : { overrideReason };
+    return this.http.post<CylinderJson>(`${this.cylinder(id, n)}/cut`, body);
   }
 
   hold(id: string, body: HoldBody): Observable<HoldJson> {
