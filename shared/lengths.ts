@@ -83,6 +83,15 @@ export function parseLength(input: string, opts: ParseLengthOptions = {}): Parse
     return fail('Use one decimal separator and no thousands separators, e.g. "1234.5 mm".');
   }
 
+  // "2,000 mm" may be two metres written with a thousands separator or two millimetres with a decimal
+  // comma; guessing either way can be a thousandfold wrong, so ask.
+  if (/^[0-9]+,[0-9]{3}$/.test(numberPart)) {
+    const [whole, part] = numberPart.split(',');
+    return fail(
+      `"${input.trim()}" is ambiguous: the comma could separate thousands or decimals. Write it with a decimal point ("${whole}.${part}" or "${whole}${part}"), or with a decimal comma and fewer digits ("${whole},${part.replace(/0+$/, '') || '0'}").`,
+    );
+  }
+
   let unit: LengthUnit;
   if (rest === '') {
     if (!opts.defaultUnit) return fail(`Give the unit, mm or in, ${EXAMPLE}.`);

@@ -735,3 +735,17 @@ describe('photos', () => {
     expect(denied.status).toBe(403);
   });
 });
+
+describe('lengths typed with a comma', () => {
+  it('when a reading is typed as "2,526 in", then 400 says the comma is ambiguous and nothing is kept', async () => {
+    // A comma with exactly three digits after it could be a thousands separator (2526 in) or a
+    // decimal comma (2.526 in): the reader refuses to guess.
+    const job = await makeJob(staff, family.id);
+    const res = await machinist.put(`/api/jobs/${job.id}/cylinders/1/readings`, {
+      readings: [{ depth: 'top', axis: 'pin', diameter: '2,526 in' }],
+    });
+    expect(res.status).toBe(400);
+    expect(JSON.stringify(res.body.error)).toMatch(/ambiguous/);
+    expect(await db('bore_readings').where({ job_id: job.id })).toEqual([]);
+  });
+});

@@ -10,6 +10,8 @@ describe('neutralizeCell', () => {
     ['@SUM(A1:A2)', "'@SUM(A1:A2)"],
     ['\t=1', "'\t=1"],
     ['\r=1', "'\r=1"],
+    // OWASP ASVS 5.0 V1.2.10 names the null character (0x00) too.
+    ['\0=1+2', "'\0=1+2"],
   ])(
     'when a cell starts with a formula character (%j), then a single quote is put first',
     (cell, safe) => {

@@ -57,6 +57,23 @@ describe('parseLength', () => {
     expect(nmOf('64.91mm')).toBe(64_910_000);
   });
 
+  it('when a comma has exactly three digits after it, then the length is refused as ambiguous', () => {
+    // "2,000 mm" is 2000 mm with a thousands separator or 2 mm with a decimal comma; "1,234 mm" is
+    // 1234 mm or 1.234 mm. Either guess can be a thousand times wrong, so the reader must ask.
+    for (const text of ['2,000 mm', '1,234 mm', '64,910 mm', '2,000 in', '1,234']) {
+      const parsed = parseLength(text, { defaultUnit: 'mm' });
+      expect(parsed.ok).toBe(false);
+      if (!parsed.ok) expect(parsed.message).toMatch(/ambiguous.*decimal point.*fewer digits/);
+    }
+    const two = parseLength('2,000 mm');
+    expect(!two.ok && two.message).toContain('"2.000" or "2000"');
+    expect(!two.ok && two.message).toContain('"2,0"');
+    // Fewer or more digits after the comma cannot be thousands: read as a decimal comma.
+    expect(nmOf('2,00 mm')).toBe(2_000_000);
+    expect(nmOf('1,2345 mm')).toBe(1_234_500);
+    expect(nmOf('2.000 mm')).toBe(2_000_000);
+  });
+
   it('when a bare number is typed with a default unit, then that unit is used; without one it is refused', () => {
     expect(parseLength('64.91', { defaultUnit: 'mm' })).toEqual({
       ok: true,
