@@ -25,9 +25,22 @@ export interface RecommendStepInput {
   skipMarginal?: boolean;
   marginalNm?: Nm;
   steps: StepStock[];
+  /**
+   * The shop's step policy. 'first-that-cleans': the smallest step that cleans up. 'save-steps': on
+   * a cylinder's first rebore from standard, the second step that cleans up, so later rebores remain.
+   */
+  policy?: StepPolicy;
+  /**
+   * True when the cylinder has not been rebored before. Without the cylinder's history it is read
+   * from the wear: a bore still under the first oversize's size has not been bored to one.
+   */
+  firstRebore?: boolean;
   /** Unit for the amounts in the reasons (default mm). */
   unit?: LengthUnit;
 }
+
+export type StepPolicy = 'first-that-cleans' | 'save-steps';
+export const STEP_POLICIES: readonly StepPolicy[] = ['first-that-cleans', 'save-steps'];
 
 export interface StepVerdict {
   stepId: string;
@@ -42,11 +55,69 @@ export interface StepVerdict {
   reason: string;
 }
 
+export interface StepAlternative {
+  stepId: string;
+  label: string;
+  freePistons: number;
+  /** Suitable steps left above it for later rebores, and how many fewer that is than the choice. */
+  stepsLeft: number;
+  stepsGivenUp: number;
+}
+
 export interface StepRecommendation {
   steps: StepVerdict[];
   choice: string | null;
+  /** Which rule chose the step, in plain words; null when there is no choice. */
+  rule?: string;
   warning?: string;
+  /** When the choice has no free piston: the next suitable step that has one. */
+  alternative?: StepAlternative;
 }
+
+/**
+ * One rule of the step choice: given the suitable steps (smallest first) and the one chosen so far,
+ * it keeps the choice or moves it, and says why. Rules run in order; a new one slots into STEP_RULES.
+ */
+type StepRule = (
+  suitable: StepVerdict[],
+  chosen: StepVerdict,
+  input: RecommendStepInput,
+) => { chosen: StepVerdict; rule?: string; note?: string } | null;
+
+const STEP_RULES: StepRule[] = [
+  // Common practice (no source): a shop that rebores one cylinder several times over its life goes to
+  // the second oversize on the first rebore from standard, so a later rebore still has steps left.
+  (suitable, chosen, input) => {
+    if (input.policy !== 'save-steps' || !input.firstRebore) return null;
+    const at = suitable.indexOf(chosen);
+    if (at + 1 < suitable.length) {
+      return {
+        chosen: suitable[at + 1],
+        rule: 'first rebore from standard: the second step that cleans up, so later rebores have steps left',
+      };
+    }
+    return {
+      chosen,
+      note: `${chosen.label} is the only step that cleans up; no larger step is allowed.`,
+    };
+  },
+  // Common practice (no source): some shops skip a step that only just cleans up, so one cut gives a
+  // straight, clean bore.
+  (suitable, chosen, input) => {
+    if (!input.skipMarginal || chosen.cleanupNm >= input.cleanupNm + (input.marginalNm ?? 0)) {
+      return null;
+    }
+    const at = suitable.indexOf(chosen);
+    if (at + 1 < suitable.length) {
+      return {
+        chosen: suitable[at + 1],
+        rule: `${chosen.label} only just cleans up, so the next step`,
+        note: `${chosen.label} only just cleans up, so the next step is chosen.`,
+      };
+    }
+    return { chosen, note: `${chosen.label} only just cleans up, and no larger step is allowed.` };
+  },
+];
 
 export class BoreChoiceError extends Error {
   constructor(message: string) {
@@ -98,29 +169,59 @@ export function recommendStep(input: RecommendStepInput): StepRecommendation {
   }
 
   let chosen = suitable[0];
+  let rule = 'the smallest step that cleans up';
   const notes: string[] = [];
-  // Common practice (no source): on a first rebore some shops skip a step that only just cleans up, so one
-  // cut gives a straight, clean bore and the later steps stay available.
-  if (input.skipMarginal && chosen.cleanupNm < input.cleanupNm + (input.marginalNm ?? 0)) {
-    if (suitable.length > 1) {
-      notes.push(`${chosen.label} only just cleans up, so the next step is chosen.`);
-      chosen = suitable[1];
-    } else {
-      notes.push(`${chosen.label} only just cleans up, and no larger step is allowed.`);
-    }
+  for (const apply of STEP_RULES) {
+    const moved = apply(suitable, chosen, input);
+    if (!moved) continue;
+    chosen = moved.chosen;
+    if (moved.rule) rule = moved.rule;
+    if (moved.note) notes.push(moved.note);
   }
+  let alternative: StepAlternative | undefined;
   if (chosen.freePistons === 0) {
     notes.push(
       chosen.onOrder > 0
         ? `No free piston at ${chosen.label}: ${chosen.onOrder} on order.`
         : `No free piston at ${chosen.label} and none on order.`,
     );
+    const at = suitable.indexOf(chosen);
+    const next = suitable.slice(at + 1).find((s) => s.freePistons > 0);
+    if (next) {
+      const stepsLeft = suitable.length - 1 - suitable.indexOf(next);
+      const givenUp = suitable.indexOf(next) - at;
+      alternative = {
+        stepId: next.stepId,
+        label: next.label,
+        freePistons: next.freePistons,
+        stepsLeft,
+        stepsGivenUp: givenUp,
+      };
+      notes.push(
+        `${next.label} has ${next.freePistons} free; going there now leaves ${stepsLeft} step${stepsLeft === 1 ? '' : 's'} for later rebores, ${givenUp} fewer.`,
+      );
+    }
   } else if (chosen.freeRings === 0) {
     notes.push(`No free ring set at ${chosen.label}.`);
   }
-  return notes.length > 0
-    ? { steps, choice: chosen.stepId, warning: notes.join(' ') }
-    : { steps, choice: chosen.stepId };
+  return {
+    steps,
+    choice: chosen.stepId,
+    rule,
+    ...(notes.length > 0 ? { warning: notes.join(' ') } : {}),
+    ...(alternative ? { alternative } : {}),
+  };
+}
+
+/** Without the cylinder's history: a bore still under the smallest oversize has not been bored to one. */
+export function looksLikeFirstRebore(
+  largestWornNm: Nm,
+  standardBoreNm: Nm,
+  steps: StepStock[],
+): boolean {
+  const oversizes = steps.map((s) => s.offsetNm).filter((o) => o > 0);
+  if (oversizes.length === 0) return true;
+  return largestWornNm < standardBoreNm + Math.min(...oversizes);
 }
 
 function validate(input: RecommendStepInput): void {

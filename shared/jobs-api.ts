@@ -6,6 +6,7 @@ import { optionalLengthField, type Page } from './catalog-api';
 import { parseLength, type LengthJson, type LengthUnit } from './lengths';
 import type { Axis, Depth } from './bore-wear';
 import type { BarResolution, PassKind } from './pass-plan';
+import type { StepAlternative } from './bore-choice';
 
 export type { Page };
 
@@ -392,7 +393,11 @@ export interface StepChoiceJson {
 export interface RecommendationJson {
   steps: StepChoiceJson[];
   choice: string | null;
+  /** Which rule of the shop's step policy chose the step. */
+  rule?: string;
   warning?: string;
+  /** When the choice has no free piston: the next suitable step that has one, and its cost in steps. */
+  alternative?: StepAlternative;
   largestWorn: LengthJson;
   chosenStepId: string | null;
 }

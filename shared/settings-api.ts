@@ -1,5 +1,6 @@
 // The shop's settings as GET /api/settings answers them and PATCH /api/settings takes them (owner).
 import type { BarResolution } from './pass-plan';
+import type { StepPolicy } from './bore-choice';
 
 export type ClearancePolicy = 'min' | 'mid' | 'max';
 
@@ -20,6 +21,8 @@ export interface ShopSettingsJson {
   /** What one step of the boring bar's dial is; every size the machinist sets is on it. */
   barResolution: BarResolution;
   skipMarginalStep: boolean;
+  /** 'save-steps': on a first rebore from standard, the second step that cleans up. */
+  stepPolicy: StepPolicy;
   marginalCleanup: string;
   orderCost: string;
   holdingCostRate: string;

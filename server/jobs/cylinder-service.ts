@@ -7,14 +7,9 @@ import { BadRequest, Conflict, NotFound } from '../errors';
 import { getSettings } from '../settings/settings-service';
 import { settingLength } from '../settings/setting-length';
 import { assessBore } from '../../shared/bore-assessment';
-import { recommendStep } from '../../shared/bore-choice';
+import { looksLikeFirstRebore, recommendStep } from '../../shared/bore-choice';
 import { ReadingsError } from '../../shared/bore-wear';
-import {
-  formatLength,
-  toLengthJson,
-  type LengthUnit,
-  type Nm,
-} from '../../shared/lengths';
+import { formatLength, toLengthJson, type LengthUnit, type Nm } from '../../shared/lengths';
 import type {
   CylinderJson,
   CylinderPatch,
@@ -143,7 +138,20 @@ export async function recommendation(
   const marginal = settings.skipMarginalStep
     ? settingLength('marginal clean-up', settings.marginalCleanup)
     : null;
+  const stepStock = steps.map((s) => {
+    const st = stock.find((x) => x.step_id === s.id);
+    return {
+      stepId: s.id,
+      label: s.label,
+      offsetNm: s.offset_nm,
+      freePistons: st?.free_pistons ?? 0,
+      freeRings: st?.free_rings ?? 0,
+      onOrder: st?.on_order ?? 0,
+    };
+  });
   const verdict = recommendStep({
+    policy: settings.stepPolicy,
+    firstRebore: looksLikeFirstRebore(cylinder.largest_nm, family.standard_bore_nm, stepStock),
     largestWornNm: cylinder.largest_nm,
     standardBoreNm: family.standard_bore_nm,
     cleanupNm: family.cleanup_nm,
@@ -151,17 +159,7 @@ export async function recommendation(
     skipMarginal: settings.skipMarginalStep && marginal !== null,
     marginalNm: marginal ?? undefined,
     unit,
-    steps: steps.map((s) => {
-      const st = stock.find((x) => x.step_id === s.id);
-      return {
-        stepId: s.id,
-        label: s.label,
-        offsetNm: s.offset_nm,
-        freePistons: st?.free_pistons ?? 0,
-        freeRings: st?.free_rings ?? 0,
-        onOrder: st?.on_order ?? 0,
-      };
-    }),
+    steps: stepStock,
   });
   return {
     steps: verdict.steps.map((v) => ({
@@ -176,7 +174,9 @@ export async function recommendation(
       reason: v.reason,
     })),
     choice: verdict.choice,
+    ...(verdict.rule ? { rule: verdict.rule } : {}),
     ...(verdict.warning ? { warning: verdict.warning } : {}),
+    ...(verdict.alternative ? { alternative: verdict.alternative } : {}),
     largestWorn: toLengthJson(cylinder.largest_nm),
     chosenStepId: cylinder.chosen_step_id,
   };

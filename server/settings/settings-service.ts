@@ -8,6 +8,7 @@ import { IANAZone } from 'luxon';
 import { recordAudit } from '../audit/audit';
 import type { ShopSettingsJson } from '../../shared/settings-api';
 import { parseLength } from '../../shared/lengths';
+import { STEP_POLICIES, type StepPolicy } from '../../shared/bore-choice';
 import { BAR_RESOLUTIONS, type BarResolution } from '../../shared/pass-plan';
 import { isCurrencyCode, parseMoney } from '../../shared/money';
 
@@ -57,6 +58,7 @@ export const shopSettingsSchema = z
     minCutPerPass: lengthSetting(),
     barResolution: z.enum(BAR_RESOLUTIONS as [BarResolution, ...BarResolution[]]),
     skipMarginalStep: z.boolean(),
+    stepPolicy: z.enum(STEP_POLICIES as [StepPolicy, ...StepPolicy[]]),
     marginalCleanup: lengthSetting(),
     orderCost: amountSetting,
     holdingCostRate: amountSetting.refine(
@@ -89,6 +91,7 @@ export const DEFAULT_SETTINGS: ShopSettings = {
   minCutPerPass: '0.001 in',
   barResolution: '0.0001 in',
   skipMarginalStep: false,
+  stepPolicy: 'first-that-cleans',
   marginalCleanup: '0.05 mm',
   orderCost: '25.00',
   holdingCostRate: '0.25',

@@ -36,6 +36,7 @@ beforeAll(async () => {
     barResolution: '0.0001 in',
     holdExpiryDays: 14,
     skipMarginalStep: false,
+    stepPolicy: 'first-that-cleans',
     timeZone: 'UTC',
   });
   family = await makeFamily(owner);
@@ -229,6 +230,38 @@ describe('PUT /api/jobs/:id/cylinders/:n/readings', () => {
 });
 
 describe('GET /api/jobs/:id/cylinders/:n/recommendation', () => {
+  it('when the shop saves steps on a first rebore, then +0.030 in is suggested with its rule, and +0.020 in is offered when +0.030 has no piston', async () => {
+    // Common practice (no source): on a first rebore from standard, the second step that cleans up.
+    // Worn 2.5260 in < 2.5170 + 0.010 = 2.5270 in: never bored to an oversize, so a first rebore.
+    // Clean up: +0.010 is short (0.0010 < 0.0030 in); +0.020 and +0.030 and +0.040 clean up.
+    // The second of those is +0.030 in. It has no free piston here; +0.040 in has one.
+    const fam = await makeFamily(owner);
+    const piston040 = await makePart(owner, fam, '+0.040 in', 'piston');
+    await receivePistons(owner, piston040, binId, ['2.5575 in']);
+    const job = await makeJob(staff, fam.id);
+    await machinist.put(`/api/jobs/${job.id}/cylinders/1/readings`, { readings: WORN_READINGS });
+    await saveSettings(null, { stepPolicy: 'save-steps' });
+    try {
+      const res = await machinist.get(`/api/jobs/${job.id}/cylinders/1/recommendation`);
+      expect(res.status).toBe(200);
+      expect(res.body.choice).toBe(fam.steps['+0.030 in']);
+      expect(res.body.rule).toMatch(/first rebore from standard/);
+      // +0.040 in has 1 free: going there leaves 0 steps above it, 1 fewer than +0.030 in.
+      expect(res.body.alternative).toEqual({
+        stepId: fam.steps['+0.040 in'],
+        label: '+0.040 in',
+        freePistons: 1,
+        stepsLeft: 0,
+        stepsGivenUp: 1,
+      });
+    } finally {
+      await saveSettings(null, { stepPolicy: 'first-that-cleans' });
+    }
+    const plain = await machinist.get(`/api/jobs/${job.id}/cylinders/1/recommendation`);
+    expect(plain.body.choice).toBe(fam.steps['+0.020 in']);
+    expect(plain.body.rule).toBe('the smallest step that cleans up');
+  });
+
   it('when the bore is worn to 2.5260 in, then +0.020 in is the smallest step that cleans up', async () => {
     const fam = await makeFamily(owner);
     const piston020 = await makePart(owner, fam, '+0.020 in', 'piston');

@@ -1,4 +1,4 @@
-import { BoreChoiceError, recommendStep } from '../../shared/bore-choice';
+import { BoreChoiceError, looksLikeFirstRebore, recommendStep } from '../../shared/bore-choice';
 import type { RecommendStepInput, StepStock } from '../../shared/bore-choice';
 import { inToNm, mmToNm } from '../../shared/lengths';
 import { IMPERIAL_SERIES, METRIC_SERIES } from '../../shared/step-series';
@@ -106,8 +106,61 @@ describe('recommendStep', () => {
     });
     const result = recommendStep(input);
     expect(result.choice).toBe('+0.25');
-    expect(result.warning).toBe('No free piston at +0.25 mm: 2 on order.');
+    expect(result.warning).toMatch(/^No free piston at \+0\.25 mm: 2 on order\./);
     expect(result.steps[1]).toMatchObject({ freePistons: 0, onOrder: 2, freeRings: 3 });
+  });
+
+  it('when the shop saves steps and this is the first rebore from standard, then the second step is chosen', () => {
+    // Common practice (no source): go to the second oversize on a first rebore so later rebores remain.
+    // Worn 54.12 mm: +0.25 (0.13 mm clean-up) is the first that cleans up; +0.50 (0.38 mm) the second.
+    const result = recommendStep(metricInput('54.12', { policy: 'save-steps', firstRebore: true }));
+    expect(result.choice).toBe('+0.50');
+    expect(result.rule).toMatch(/first rebore from standard: the second step/);
+    expect(result.warning).toBeUndefined();
+    // Not a first rebore, or the plain policy: the smallest step that cleans up.
+    const later = recommendStep(metricInput('54.12', { policy: 'save-steps', firstRebore: false }));
+    expect(later.choice).toBe('+0.25');
+    expect(later.rule).toBe('the smallest step that cleans up');
+    expect(recommendStep(metricInput('54.12', { firstRebore: true })).choice).toBe('+0.25');
+  });
+
+  it('when the second step is past the wall, then the only step that cleans up is kept and said so', () => {
+    // Worn 54.90 mm: only +1.00 (1.10 − 0.05 → cleans up) is suitable.
+    const result = recommendStep(metricInput('54.90', { policy: 'save-steps', firstRebore: true }));
+    expect(result.choice).toBe('+1.00');
+    expect(result.warning).toMatch(/only step that cleans up/);
+  });
+
+  it('when a bore is still under the first oversize, then it reads as a first rebore', () => {
+    // 54.12 < 54.00 + 0.25 = 54.25 → never bored to +0.25; 54.30 is past it → bored before.
+    expect(looksLikeFirstRebore(mmToNm('54.12'), mmToNm('54.00'), metricSteps())).toBe(true);
+    expect(looksLikeFirstRebore(mmToNm('54.30'), mmToNm('54.00'), metricSteps())).toBe(false);
+  });
+
+  it('when the chosen step has no free piston, then the next suitable step with one is offered with its cost in steps', () => {
+    // Worn 54.12 mm: suitable +0.25, +0.50, +0.75, +1.00. +0.25 has none free; +0.50 has 3.
+    // Going to +0.50 leaves +0.75 and +1.00: 2 steps for later rebores, 1 fewer than from +0.25.
+    const one = recommendStep(
+      metricInput('54.12', { steps: metricSteps({ '+0.25': { freePistons: 0 } }) }),
+    );
+    expect(one.choice).toBe('+0.25');
+    expect(one.alternative).toEqual({
+      stepId: '+0.50',
+      label: '+0.50 mm',
+      freePistons: 3,
+      stepsLeft: 2,
+      stepsGivenUp: 1,
+    });
+    expect(one.warning).toContain(
+      '+0.50 mm has 3 free; going there now leaves 2 steps for later rebores, 1 fewer.',
+    );
+    // +0.50 empty as well: +0.75 leaves only +1.00 (1 step), 2 fewer.
+    const two = recommendStep(
+      metricInput('54.12', {
+        steps: metricSteps({ '+0.25': { freePistons: 0 }, '+0.50': { freePistons: 0 } }),
+      }),
+    );
+    expect(two.alternative).toMatchObject({ stepId: '+0.75', stepsLeft: 1, stepsGivenUp: 2 });
   });
 
   it('when the steps come unsorted, then they are judged smallest first', () => {

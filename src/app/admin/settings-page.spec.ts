@@ -22,6 +22,7 @@ const SETTINGS: ShopSettingsJson = {
   minCutPerPass: '0.001 in',
   barResolution: '0.0001 in',
   skipMarginalStep: false,
+  stepPolicy: 'first-that-cleans',
   marginalCleanup: '0.05 mm',
   orderCost: '25.00',
   holdingCostRate: '0.25',

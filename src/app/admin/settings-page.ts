@@ -53,6 +53,7 @@ export class SettingsPage {
     minCutPerPass: ['', Validators.required],
     barResolution: ['0.0001 in' as ShopSettingsJson['barResolution']],
     skipMarginalStep: [false],
+    stepPolicy: ['first-that-cleans' as ShopSettingsJson['stepPolicy']],
     marginalCleanup: ['', Validators.required],
     orderCost: ['', Validators.required],
     holdingCostRate: ['', Validators.required],
