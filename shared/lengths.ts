@@ -161,13 +161,16 @@ export function toLengthJson(nm: Nm): LengthJson {
   return { mm: formatMm(nm), in: formatIn(nm) };
 }
 
-/** For display at the trade's resolution: 0.001 mm or 0.0001 in, rounded half-up ("64.910 mm"). */
+/**
+ * For display at the trade's resolution: 0.001 mm or 0.0001 in, rounded half-up ("64.910 mm").
+ * A difference may be negative (a step whose finished bore falls short of the wear): it reads with a
+ * minus sign ("−0.120 mm"), and one too small to show at this resolution reads as zero, never "−0.000".
+ */
 export function formatLength(nm: Nm, unit: LengthUnit, withUnit = true): string {
   assertNm(nm);
-  const value =
-    unit === 'mm'
-      ? new D(nm).dividedBy(NM_PER_MM).toFixed(3, Decimal.ROUND_HALF_UP)
-      : new D(nm).dividedBy(NM_PER_IN).toFixed(4, Decimal.ROUND_HALF_UP);
+  const size = new D(Math.abs(nm)).dividedBy(unit === 'mm' ? NM_PER_MM : NM_PER_IN);
+  const digits = size.toFixed(unit === 'mm' ? 3 : 4, Decimal.ROUND_HALF_UP);
+  const value = nm < 0 && /[1-9]/.test(digits) ? `\u2212${digits}` : digits;
   return withUnit ? `${value} ${unit}` : value;
 }
 
@@ -188,6 +191,19 @@ export function inToNm(inches: string): Nm {
 /** "64.91" (millimetres) → 64 910 000 nm. Zero allowed; throws LengthError on bad input. */
 export function mmToNm(mm: string): Nm {
   return convenience(mm, 'mm');
+}
+
+/**
+ * A length in the API's form (`{ mm, in }`) as nanometres, read from the string of the given unit.
+ * Unlike a typed length this may be negative, because the API also sends differences (finished bore
+ * minus the worn bore is negative for a step too small to clean up); it still throws on anything that
+ * is not a plain number.
+ */
+export function lengthJsonToNm(value: LengthJson, unit: LengthUnit): Nm {
+  const text = (unit === 'in' ? value.in : value.mm).trim();
+  const negative = /^[-\u2212]/.test(text);
+  const nm = convenience(negative ? text.slice(1) : text, unit);
+  return negative && nm !== 0 ? -nm : nm;
 }
 
 /** True for a value usable as a length in nm (a safe integer). */

@@ -116,6 +116,76 @@ export interface Browser {
   close(): Promise<void>;
 }
 
+// ---- Page errors: every browser test fails on an uncaught page error or a console error ----------
+
+export interface PageProblem {
+  kind: 'pageerror' | 'console';
+  text: string;
+  /** Where it came from: the resource for a failed load, else the page. */
+  url: string;
+}
+
+interface Allowance {
+  kind: PageProblem['kind'];
+  text: RegExp;
+  url?: RegExp;
+  /** Why this entry is harmless: shown when the list is read, and required. */
+  why: string;
+}
+
+/**
+ * The only console errors every test accepts, each with its reason. Chromium reports each answer
+ * with a status of 400 or more as a console error ("Failed to load resource"), even when the page
+ * expected and handled it; those are only harmless where listed here or allowed by the test itself.
+ */
+export const HARMLESS: readonly Allowance[] = [
+  {
+    kind: 'console',
+    text: /^Failed to load resource: the server responded with a status of 401/,
+    url: /\/api\/session$/,
+    why: 'on start the app asks who is signed in; a signed-out visitor is answered 401 and sent to sign-in',
+  },
+];
+
+const problems: PageProblem[] = [];
+let allowedThisTest: Allowance[] = [];
+
+function watch(page: Page): void {
+  page.on('pageerror', (error) =>
+    problems.push({ kind: 'pageerror', text: `${error.name}: ${error.message}`, url: page.url() }),
+  );
+  page.on('console', (message) => {
+    if (message.type() !== 'error') return;
+    problems.push({
+      kind: 'console',
+      text: message.text(),
+      url: message.location().url || page.url(),
+    });
+  });
+}
+
+/**
+ * For one test that provokes an error on purpose (a refused form, a conflict it checks is shown):
+ * accept console errors matching `text` (and `url`) until the test ends. Say why in `why`.
+ */
+export function allowPageErrors(text: RegExp, why: string, url?: RegExp): void {
+  allowedThisTest.push({ kind: 'console', text, url, why });
+}
+
+function isAllowed(p: PageProblem): boolean {
+  return [...HARMLESS, ...allowedThisTest].some(
+    (a) => a.kind === p.kind && a.text.test(p.text) && (!a.url || a.url.test(p.url)),
+  );
+}
+
+/** The problems seen since the last call that no allowance covers; clears the list. */
+export function takePageProblems(): PageProblem[] {
+  const found = problems.splice(0).filter((p) => !isAllowed(p));
+  allowedThisTest = [];
+  return found;
+}
+
+
 export async function openBrowser(): Promise<Browser> {
   const userDataDir = mkdtempSync(path.join(os.tmpdir(), 'stepstock-chromium-'));
   const context = await chromium.launchPersistentContext(userDataDir, {
@@ -144,6 +214,8 @@ export async function openBrowser(): Promise<Browser> {
       return route.continue();
     return route.abort();
   });
+  context.on('page', watch);
+  for (const open of context.pages()) watch(open);
   const page = context.pages()[0] ?? (await context.newPage());
   page.setDefaultTimeout(15_000);
   return {
@@ -162,6 +234,27 @@ export async function screenshot(page: Page, name: string): Promise<string> {
   const file = path.join(dir, `${name}.png`);
   await page.screenshot({ path: file, fullPage: true });
   return file;
+}
+
+/**
+ * Full-page screenshots at a desk's 1280 px and a tablet's 800 px width (`<name>-1280.png`,
+ * `<name>-800.png`); the viewport is put back afterwards.
+ */
+export async function screenshotAtWidths(
+  page: Page,
+  name: string,
+  widths: readonly number[] = [1280, 800],
+): Promise<string[]> {
+  const before = page.viewportSize();
+  const files: string[] = [];
+  for (const width of widths) {
+    await page.setViewportSize({ width, height: before?.height ?? 860 });
+    // Let the layout settle at the new width before the picture.
+    await page.waitForTimeout(150);
+    files.push(await screenshot(page, `${name}-${width}`));
+  }
+  if (before) await page.setViewportSize(before);
+  return files;
 }
 
 export async function signIn(page: Page, baseUrl: string, email: string, password = DEMO_PASSWORD) {

@@ -6,6 +6,7 @@ import {
   formatMm,
   inToNm,
   isNm,
+  lengthJsonToNm,
   lengthOrThrow,
   mmToNm,
   parseLength,
@@ -204,6 +205,31 @@ describe('formatMm and formatIn', () => {
     expect(formatLength(64_910_000, 'mm')).toBe('64.910 mm');
     expect(formatLength(64_909_700, 'mm')).toBe('64.910 mm'); // 64.9097 rounded half-up
     expect(formatLength(64_909_700, 'mm', false)).toBe('64.910');
+  });
+});
+
+describe('negative differences (a step that falls short of the wear)', () => {
+  it('when a difference is negative, then it reads with a minus sign at trade resolution', () => {
+    // 0.12 mm short: 120 000 nm. 0.12 / 25.4 = 0.0047244… in → 0.0047 (NIST SP 811 factor, by hand).
+    expect(formatLength(-120_000, 'mm')).toBe('\u22120.120 mm');
+    expect(formatLength(-120_000, 'in')).toBe('\u22120.0047 in');
+    // 0.030 in short: 762 000 nm.
+    expect(formatLength(-762_000, 'in', false)).toBe('\u22120.0300');
+  });
+
+  it('when a negative difference rounds to nothing at trade resolution, then it reads as zero', () => {
+    // 400 nm = 0.0004 mm → 0.000; 1000 nm = 0.0000394 in → 0.0000.
+    expect(formatLength(-400, 'mm')).toBe('0.000 mm');
+    expect(formatLength(-1000, 'in')).toBe('0.0000 in');
+  });
+
+  it('when the API sends a negative length, then it reads back to the same nanometres', () => {
+    // The API's own form of -762 000 nm: formatMm gives "-0.762", formatIn "-0.0300".
+    expect(lengthJsonToNm({ mm: '-0.762', in: '-0.0300' }, 'mm')).toBe(-762_000);
+    expect(lengthJsonToNm({ mm: '-0.762', in: '-0.0300' }, 'in')).toBe(-762_000);
+    expect(lengthJsonToNm({ mm: '64.9097', in: '2.5555' }, 'in')).toBe(64_909_700);
+    expect(lengthJsonToNm({ mm: '-0.000', in: '-0.0000' }, 'mm')).toBe(0);
+    expect(() => lengthJsonToNm({ mm: '--1', in: '1' }, 'mm')).toThrow(LengthError);
   });
 });
 

@@ -94,9 +94,23 @@ describe('LengthPipe', () => {
     expect(pipe().transform(value, 'in')).toBe(`${reference(inches, 4)} in`);
   });
 
-  it('when the server sends something that is not a number, then it throws a clear error', async () => {
+  it('when the server sends something that is not a number, then it shows what was sent and reports it, without throwing', async () => {
     await signIn('mm');
-    expect(() => pipe().transform({ mm: 'abc', in: '1' })).toThrow(/not a length/);
+    const logged = jest.spyOn(console, 'error').mockImplementation(() => undefined);
+    expect(pipe().transform({ mm: 'abc', in: '1' })).toBe('abc mm');
+    expect(logged).toHaveBeenCalledTimes(1);
+    logged.mockRestore();
+  });
+
+  it('when a difference is negative, then it shows with a minus sign in either unit', async () => {
+    // A step 0.12 mm short of the wear; 0.120 mm / 25.4 = 0.004724 in → 0.0047 in (1 in = 25.4 mm,
+    // NIST SP 811), rounded half-up away from zero as decimal.js does for the positive value.
+    await signIn('mm');
+    const short: LengthJson = { mm: '-0.120', in: '-0.00472' };
+    expect(pipe().transform(short)).toBe(`\u2212${reference('0.120', 3)} mm`);
+    expect(pipe().transform(short, 'in')).toBe(`\u2212${reference('0.00472', 4)} in`);
+    // Too small to show at the trade's resolution: zero, not "−0.000".
+    expect(pipe().transform({ mm: '-0.0004', in: '-0.00002' })).toBe('0.000 mm');
   });
 
   it('when the user switches unit, then a rendered length follows at once', async () => {

@@ -33,8 +33,10 @@ import {
   formatIn,
   formatLength,
   formatMm,
+  lengthJsonToNm,
   mmToNm,
   parseLength,
+  type LengthJson,
   type LengthUnit,
 } from '../../../shared/lengths';
 import { apiErrorMessage } from '../core/api-error';
@@ -199,15 +201,36 @@ export class CylinderPage {
     return formatLength(nm, unit);
   }
 
+  /**
+   * A step's finished bore minus the largest worn diameter. Below the step that cleans up it is
+   * negative: the step does not even reach the wear, which is a real answer, so it reads "short by".
+   */
+  protected cleanupText(cleanup: LengthJson): string {
+    const unit = this.unit();
+    const nm = lengthJsonToNm(cleanup, unit);
+    return nm < 0 ? `short by ${formatLength(-nm, unit)}` : formatLength(nm, unit);
+  }
+
+  protected isShort(cleanup: LengthJson): boolean {
+    return lengthJsonToNm(cleanup, 'mm') < 0;
+  }
+
   private readonly recReloads = signal(0);
   private readonly recLoaded = toSignal(
     toObservable(
-      computed(() => ({
-        id: this.id(),
-        n: this.cylinderNo(),
-        measured: this.cylinder()?.measuredAt ?? null,
-        reload: this.recReloads(),
-      })),
+      computed(
+        () => ({
+          id: this.id(),
+          n: this.cylinderNo(),
+          measured: this.cylinder()?.measuredAt ?? null,
+          reload: this.recReloads(),
+        }),
+        // The job reloads after every change; only a new measurement or an asked reload refetches.
+        {
+          equal: (a, b) =>
+            a.id === b.id && a.n === b.n && a.measured === b.measured && a.reload === b.reload,
+        },
+      ),
     ).pipe(
       switchMap(({ id, n, measured }) =>
         measured
