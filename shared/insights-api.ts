@@ -253,6 +253,7 @@ export interface StockValueAnswer {
 export interface DeadStockItem {
   partId: string;
   onHand: number;
+  /** Value of the free units (on hand less held) at average cost. */
   value: string;
   lastIssuedAt: string | null;
   sku: string;

@@ -243,7 +243,9 @@ export interface DeadStockDb {
 }
 
 /**
- * Parts on the shelf with no issue in the last :months months, most money first. Always at least
+ * Parts with free stock (on hand less what is held for jobs) and neither an issue nor a receipt in
+ * the last :months months, valued at their free units, most money first. A part received lately is
+ * new stock, not dead, and units held for a job are spoken for. Always at least
  * one row: the cut-off moment, with part_id null when nothing is dead.
  */
 export async function deadStock(months: number, k: Knex = db): Promise<DeadStockDb[]> {
@@ -251,7 +253,8 @@ export async function deadStock(months: number, k: Knex = db): Promise<DeadStock
     `
     WITH cut AS (SELECT now() - make_interval(months => :months) AS since),
     dead AS (
-      SELECT p.id AS part_id, pl.on_hand, pl.held, pl.on_hand * p.average_cost AS value,
+      SELECT p.id AS part_id, pl.on_hand, pl.held,
+             (pl.on_hand - pl.held) * p.average_cost AS value,
              li.at AS last_issued_at, lr.at AS last_received_at,
              p.sku, p.description, p.kind, p.family_id, ef.code AS family_code,
              p.step_id, ss.label AS step_label
@@ -265,8 +268,9 @@ export async function deadStock(months: number, k: Knex = db): Promise<DeadStock
            WHERE l.part_id = p.id AND l.kind = 'receipt' ORDER BY l.at DESC LIMIT 1) lr ON true
         LEFT JOIN engine_families ef ON ef.id = p.family_id
         LEFT JOIN series_steps ss ON ss.id = p.step_id
-       WHERE pl.on_hand > 0
+       WHERE pl.on_hand - pl.held > 0
          AND (li.at IS NULL OR li.at < (SELECT since FROM cut))
+         AND (lr.at IS NULL OR lr.at < (SELECT since FROM cut))
     )
     SELECT cut.since, d.*, sum(d.value) OVER () AS total_value
       FROM cut

@@ -390,12 +390,14 @@ describe('what sits', () => {
     expect(shortRow).toMatchObject({ openingValue: '72.00', costOfIssues: '67.50' });
   });
 
-  it('when parts sit without an issue for the months asked, then dead stock lists them with the money tied up', async () => {
+  it('when parts sit without an issue or a receipt for the months asked, then dead stock lists their free units with the money tied up', async () => {
     const family = await makeFamily(owner);
     const sleeper = (await makePart(owner, family, 'piston', 3)).id;
-    const neverSold = (await makePart(owner, family, 'rings', 4)).id;
+    const newStock = (await makePart(owner, family, 'rings', 4)).id;
     const mover = (await makePart(owner, family, 'piston', 1)).id;
     const empty = (await makePart(owner, family, 'piston', 2)).id;
+    const oldStock = (await makePart(owner, family, 'rings', 0)).id;
+    const allHeld = (await makePart(owner, family, 'piston', 4)).id;
     const lastIssue = await db.raw(`SELECT now() - interval '14 months' AS at`);
     const lastIssuedAt: Date = lastIssue.rows[0].at;
     await ledger([
@@ -414,13 +416,7 @@ describe('what sits', () => {
         sale_price: '25.00',
         at: lastIssuedAt.toISOString(),
       },
-      {
-        part_id: neverSold,
-        kind: 'receipt',
-        quantity: 2,
-        unit_cost: '7.2500',
-        at: ago('3 months'),
-      },
+      { part_id: newStock, kind: 'receipt', quantity: 2, unit_cost: '7.2500', at: ago('2 days') },
       { part_id: mover, kind: 'receipt', quantity: 6, unit_cost: '11.0000', at: ago('9 months') },
       {
         part_id: mover,
@@ -430,25 +426,40 @@ describe('what sits', () => {
         sale_price: '25.00',
         at: ago('2 months'),
       },
+      {
+        part_id: oldStock,
+        kind: 'receipt',
+        quantity: 3,
+        unit_cost: '4.2000',
+        at: ago('20 months'),
+      },
+      { part_id: allHeld, kind: 'receipt', quantity: 2, unit_cost: '9.0000', at: ago('20 months') },
     ]);
     await setLevels(sleeper, 4, '10.5000', 1);
-    await setLevels(neverSold, 2, '7.2500');
+    await setLevels(newStock, 2, '7.2500');
     await setLevels(mover, 5, '11.0000');
     await setLevels(empty, 0, '9.0000');
+    await setLevels(oldStock, 3, '4.2000');
+    await setLevels(allHeld, 2, '9.0000', 2);
 
     const res = await buyer.get('/api/insights/dead-stock?months=12');
     expect(res.status).toBe(200);
     const byPart = new Map<string, Record<string, unknown>>(
       res.body.items.map((i: { partId: string }) => [i.partId, i]),
     );
+    // Worked by hand: the sleeper has 4 on hand, 1 held for a job → 3 free × 10.50 = 31.50.
     expect(byPart.get(sleeper)).toMatchObject({
       partId: sleeper,
       onHand: 4,
       held: 1,
-      value: '42.00',
+      value: '31.50',
       lastIssuedAt: lastIssuedAt.toISOString(),
     });
-    expect(byPart.get(neverSold)).toMatchObject({ onHand: 2, value: '14.50', lastIssuedAt: null });
+    // Never issued, received 20 months ago: 3 × 4.20 = 12.60.
+    expect(byPart.get(oldStock)).toMatchObject({ onHand: 3, value: '12.60', lastIssuedAt: null });
+    // Received two days ago: new stock, not dead. Every unit held: nothing free to be dead.
+    expect(byPart.has(newStock)).toBe(false);
+    expect(byPart.has(allHeld)).toBe(false);
     expect(byPart.has(mover)).toBe(false);
     expect(byPart.has(empty)).toBe(false);
     const listed = sum(res.body.items.map((i: { value: string }) => i.value));
@@ -463,7 +474,8 @@ describe('what sits', () => {
     const longer = await buyer.get('/api/insights/dead-stock?months=18');
     const ids = longer.body.items.map((i: { partId: string }) => i.partId);
     expect(ids).not.toContain(sleeper);
-    expect(ids).toContain(neverSold);
+    expect(ids).toContain(oldStock);
+    expect(ids).not.toContain(newStock);
 
     const bad = await buyer.get('/api/insights/dead-stock?months=0');
     expect(bad.status).toBe(400);
