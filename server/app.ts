@@ -15,7 +15,7 @@ import { configurePassport } from './auth/passport-setup';
 import { xsrfGuard } from './auth/xsrf';
 import { errorHandler } from './http/error-handler';
 import { registerAllRoutes } from './routes';
-import { registerHealthRoutes } from './health/health-routes';
+import { createHealthProbe, registerHealthRoutes } from './health/health-routes';
 import { NotFound } from './errors';
 import { assertEveryRouteDeclared } from './http/route';
 
@@ -74,7 +74,8 @@ export function createApp(opts: { databaseUrl?: string; serveClient?: boolean } 
 
   // Health answers before sessions, so it still answers when the session store is down.
   const early = express.Router();
-  registerHealthRoutes(early);
+  const health = createHealthProbe(opts.databaseUrl);
+  registerHealthRoutes(early, health);
   app.use(early);
 
   const sessions = sessionMiddleware(opts.databaseUrl);
@@ -106,7 +107,7 @@ export function createApp(opts: { databaseUrl?: string; serveClient?: boolean } 
     app,
     routers: [early, api],
     close: async () => {
-      await sessions.pool.end();
+      await Promise.all([sessions.pool.end(), health.close()]);
     },
   };
 }

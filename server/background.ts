@@ -4,6 +4,7 @@
 import { startMailBackground } from './mail/mail-background';
 import { startDigestSweep } from './alerts/digest-sweep';
 import { startHoldSweep } from './jobs/hold-sweep';
+import { startRateLimitSweep } from './http/rate-limit-sweep';
 
 export interface Background {
   stop(): Promise<void>;
@@ -11,7 +12,12 @@ export interface Background {
 
 type Starter = () => Promise<Background> | Background;
 
-const starters: Starter[] = [startMailBackground, startDigestSweep, startHoldSweep];
+const starters: Starter[] = [
+  startMailBackground,
+  startDigestSweep,
+  startHoldSweep,
+  startRateLimitSweep,
+];
 
 export async function startBackgroundWork(): Promise<Background> {
   if (process.env.STEPSTOCK_NO_BACKGROUND === '1') return { stop: async () => undefined };

@@ -21,6 +21,10 @@ const schema = z.object({
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
   PHOTO_DIR: z.string().optional(),
   DIST_DIR: z.string().optional(),
+  /** Connections in the request pool; PostgreSQL's max_connections must cover every process. */
+  DB_POOL_SIZE: z.coerce.number().int().min(2).max(200).default(10),
+  /** Failed sign-ins allowed from one address (across all e-mails) in 15 minutes. */
+  SIGN_IN_FAILURES_PER_ADDRESS: z.coerce.number().int().min(1).max(10000).default(30),
 });
 
 export type Config = Readonly<z.infer<typeof schema>> & {

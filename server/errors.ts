@@ -59,12 +59,19 @@ export class UnsupportedMediaType extends AppError {
   }
 }
 export class TooManyRequests extends AppError {
-  constructor(message: string) {
+  /** Sent as the Retry-After header, so a client knows when to try again. */
+  constructor(
+    message: string,
+    readonly retryAfterSeconds?: number,
+  ) {
     super(429, 'throttled', message);
   }
 }
 export class ServiceUnavailable extends AppError {
-  constructor(message = 'The database cannot be reached just now. Try again in a moment.') {
+  constructor(
+    message = 'The database cannot be reached just now. Try again in a moment.',
+    readonly retryAfterSeconds = 2,
+  ) {
     super(503, 'unavailable', message);
   }
 }

@@ -2,6 +2,7 @@
 // users, settings…) with who made it, when, and the record before and after. The owner browses it;
 // the query schema is shared so the page and the server refuse the same filters with the same words.
 import { z } from 'zod';
+import { atMost } from './text-rules';
 import { isCalendarDay } from './insights-api';
 
 /** A recorded entity or action name: lower-case words joined by _ . or - ("part", "stock.receipt"). */
@@ -10,17 +11,24 @@ const NAME = /^[a-z][a-z0-9_.-]{0,59}$/;
 const day = z
   .string()
   .trim()
+  .max(10, atMost(10, 'must be a calendar day written YYYY-MM-DD'))
   .refine(isCalendarDay, 'must be a calendar day written YYYY-MM-DD, e.g. 2027-03-14');
 
 export const AUDIT_PAGE_SIZES = [25, 50, 100, 200] as const;
 
 export const auditQuery = z
   .object({
-    entity: z.string().trim().regex(NAME, 'must be an entity name such as part or user').optional(),
+    entity: z
+      .string()
+      .trim()
+      .max(60, atMost(60))
+      .regex(NAME, 'must be an entity name such as part or user')
+      .optional(),
     entityId: z.string().trim().min(1).max(100, 'at most 100 characters').optional(),
     action: z
       .string()
       .trim()
+      .max(60, atMost(60))
       .regex(NAME, 'must be an action name such as stock.receipt')
       .optional(),
     /** Who made the change. */

@@ -4,6 +4,7 @@
 import { z } from 'zod';
 import { normalizeGtin, gtinProblem } from './gtin';
 import { parseLength, type LengthJson, type Nm, type ParseLengthOptions } from './lengths';
+import { atMost, singleLine } from './text-rules';
 
 export const STROKE_TYPES = ['two', 'four'] as const;
 export type StrokeType = (typeof STROKE_TYPES)[number];
@@ -14,24 +15,30 @@ export type PartKind = (typeof PART_KINDS)[number];
 export const PISTON_MATERIALS = ['cast', 'forged'] as const;
 export type PistonMaterial = (typeof PISTON_MATERIALS)[number];
 
+/** A typed length is short ("2.5555 in"); anything longer is refused before it is read. */
+const MAX_LENGTH_TEXT = 40;
 const LENGTH_HINT = 'must be text with its unit, for example "64.91 mm" or "2.5555 in"';
 
 /** A length typed with its unit ("2.5555 in"), read into exact nanometres or refused with a reason. */
 export function lengthField(opts: ParseLengthOptions = {}) {
-  return z.string({ error: LENGTH_HINT }).transform((text, ctx): Nm => {
-    const parsed = parseLength(text, opts);
-    if (!parsed.ok) {
-      ctx.addIssue({ code: 'custom', message: parsed.message });
-      return z.NEVER;
-    }
-    return parsed.nm;
-  });
+  return z
+    .string({ error: LENGTH_HINT })
+    .max(MAX_LENGTH_TEXT, atMost(MAX_LENGTH_TEXT))
+    .transform((text, ctx): Nm => {
+      const parsed = parseLength(text, opts);
+      if (!parsed.ok) {
+        ctx.addIssue({ code: 'custom', message: parsed.message });
+        return z.NEVER;
+      }
+      return parsed.nm;
+    });
 }
 
 /** A length that may be left out or cleared (null or ""): null means "not recorded". */
 export function optionalLengthField(opts: ParseLengthOptions = {}) {
   return z
     .string({ error: LENGTH_HINT })
+    .max(MAX_LENGTH_TEXT, atMost(MAX_LENGTH_TEXT))
     .nullable()
     .transform((text, ctx): Nm | null => {
       if (text === null || text.trim() === '') return null;
@@ -48,6 +55,7 @@ export function optionalLengthField(opts: ParseLengthOptions = {}) {
 export const moneyText = z
   .string({ error: 'must be an amount written as text, e.g. "12.50"' })
   .trim()
+  .max(20, atMost(20))
   .regex(
     /^\d{1,10}(\.\d{1,4})?$/,
     'must be an amount, 0 or more, like "12.50" (at most 4 decimals)',
@@ -59,6 +67,7 @@ export const moneyText = z
  */
 export const gtinField = z
   .string({ error: 'must be the digits under the barcode' })
+  .max(40, atMost(40))
   .nullable()
   .transform((text, ctx): string | null => {
     if (text === null || text.trim() === '') return null;
@@ -78,8 +87,8 @@ export function displayGtin(gtin14: string): string {
   return gtin14;
 }
 
-const code = z.string().trim().min(1, 'enter a code').max(24, 'at most 24 characters');
-const name = z.string().trim().min(1, 'enter a name').max(120, 'at most 120 characters');
+const code = singleLine(24).pipe(z.string().min(1, 'enter a code'));
+const name = singleLine(120).pipe(z.string().min(1, 'enter a name'));
 const uuid = z.string().uuid('must be a valid id');
 const bore = lengthField({ max: 500_000_000 });
 const smallLength = lengthField({ allowZero: true, max: 10_000_000 });
@@ -133,7 +142,7 @@ const partFields = {
     .string()
     .trim()
     .min(1, 'enter our part number')
-    .max(40, 'at most 40 characters')
+    .max(40, atMost(40))
     .regex(/^[A-Za-z0-9][A-Za-z0-9._/+-]*$/, 'letters, digits and . _ / + - only'),
   familyId: uuid.nullable().optional(),
   stepId: uuid.nullable().optional(),

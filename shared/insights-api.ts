@@ -4,6 +4,7 @@
 // input with the same words. Money is exact decimal text ("1234.50"); shares are fractions ("0.8125").
 import { DateTime } from 'luxon';
 import { z } from 'zod';
+import { atMost } from './text-rules';
 
 /** Longest period one request may cover: ten years of months is already more than any chart shows. */
 export const MAX_PERIOD_DAYS = 3660;
@@ -50,6 +51,7 @@ export function defaultPeriod(
 const day = z
   .string({ error: 'must be a date written YYYY-MM-DD' })
   .trim()
+  .max(10, atMost(10, 'must be a date written YYYY-MM-DD'))
   .refine(isCalendarDay, 'must be a real date written YYYY-MM-DD, e.g. "2026-03-31"');
 
 /** Both ends of a period or neither; the end not before the start; not longer than ten years. */

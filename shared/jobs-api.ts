@@ -2,6 +2,7 @@
 // sheet and closing a job. The zod schemas are used by the server routes and the Angular forms, so
 // both refuse the same input with the same words.
 import { z } from 'zod';
+import { atMost, isOneEmailAddress, MAX_EMAIL_LENGTH } from './text-rules';
 import { optionalLengthField, type Page } from './catalog-api';
 import { parseLength, type LengthJson, type LengthUnit } from './lengths';
 import type { Axis, Depth } from './bore-wear';
@@ -84,13 +85,14 @@ const uuid = z.string().uuid('must be a valid id');
 /** Optional text: left out stays undefined (no change), "" or null become null (cleared). */
 const optionalText = (max: number) =>
   z
-    .union([z.null(), z.string().trim().max(max, `at most ${max} characters`)])
+    .union([z.null(), z.string().trim().max(max, atMost(max))])
     .optional()
     .transform((v) => (v === '' ? null : v));
 
 /** A calendar date written as YYYY-MM-DD, and a real one (no 31 April). */
 export const isoDate = z
   .string({ error: 'must be a date written as YYYY-MM-DD' })
+  .max(10, atMost(10, 'must be a date written as YYYY-MM-DD'))
   .regex(/^\d{4}-\d{2}-\d{2}$/, 'must be a date written as YYYY-MM-DD')
   .refine((text) => {
     const [y, m, d] = text.split('-').map(Number);
@@ -114,9 +116,9 @@ const customerFields = {
     (v) => v === null || v === undefined || /^[0-9+()\-./\s]{3,40}$/.test(v),
     'digits, spaces and + ( ) - . / only',
   ),
-  customerEmail: optionalText(254).refine(
-    (v) => v === null || v === undefined || z.string().email().safeParse(v).success,
-    'is not an e-mail address',
+  customerEmail: optionalText(MAX_EMAIL_LENGTH).refine(
+    (v) => v === null || v === undefined || isOneEmailAddress(v),
+    'is not one e-mail address (like name@example.test)',
   ),
   askedFor: z.string().trim().max(300, 'at most 300 characters').optional(),
   dueDate: isoDate.nullable().optional(),

@@ -1,6 +1,7 @@
 // What the purchasing API accepts and answers: reorder rules and suggestions, sourcing offers and
 // exchange rates, purchase orders, receiving against them, and jobs waiting on an order line.
 import { z } from 'zod';
+import { atMost } from './text-rules';
 import { moneyText } from './catalog-api';
 import { skirtField, MAX_PISTONS_PER_RECEIPT } from './stock-api';
 import { currencyCode, type WaitingItemJson } from './suppliers-api';
@@ -16,6 +17,7 @@ const count = (max = 1_000_000) =>
     .max(max, `at most ${max}`);
 const isoDate = z
   .string()
+  .max(10, atMost(10, 'must be a date like 2027-03-14'))
   .regex(/^\d{4}-\d{2}-\d{2}$/, 'must be a date like 2027-03-14')
   // Date.parse would roll 2027-02-30 over to 2 March; a calendar check refuses it.
   .refine(isCalendarDay, 'is not a calendar date');
@@ -225,6 +227,7 @@ export const rateInput = z
     rate: z
       .string({ error: 'must be a rate written as text, e.g. "0.9215"' })
       .trim()
+      .max(20, atMost(20))
       .regex(
         /^\d{1,6}(\.\d{1,8})?$/,
         'must be a positive number like "0.9215" (at most 8 decimals)',

@@ -3,10 +3,12 @@
 import { z } from 'zod';
 import type { LengthJson } from './lengths';
 import { isCurrencyCode } from './money';
+import { atMost, emailAddress } from './text-rules';
 
 export const currencyCode = z
   .string({ error: 'must be a three-letter ISO 4217 code, e.g. "EUR"' })
   .trim()
+  .max(3, atMost(3, 'must be a three-letter ISO 4217 code, e.g. "EUR"'))
   .transform((v) => v.toUpperCase())
   .refine((v) => isCurrencyCode(v), {
     message: 'is not an ISO 4217 currency code (e.g. EUR, USD, GBP)',
@@ -15,17 +17,15 @@ export const currencyCode = z
 const amount = z
   .string({ error: 'must be an amount written as text, e.g. "12.50"' })
   .trim()
+  .max(20, atMost(20))
   .regex(
     /^\d{1,10}(\.\d{1,4})?$/,
     'must be an amount, 0 or more, like "12.50" (at most 4 decimals)',
   );
 
-const email = z
-  .string()
-  .trim()
-  .toLowerCase()
-  .max(200, 'at most 200 characters')
-  .refine((v) => /^[^\s@]+@[^\s@]+\.[^\s@]+$/.test(v), { message: 'is not an e-mail address' });
+// One address a purchase order can be sent to; a list or a name with brackets is refused here
+// rather than failing (or reaching only part of it) at sending time.
+const email = emailAddress(200);
 
 export const supplierInput = z.strictObject({
   name: z.string().trim().min(1, 'enter a name').max(120, 'at most 120 characters'),

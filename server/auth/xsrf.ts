@@ -1,6 +1,8 @@
 // Angular's XSRF convention with a signed double-submit cookie: the server sets XSRF-TOKEN (readable
-// by the page), and every mutating /api request must echo it in X-XSRF-TOKEN. The token is signed
-// with the session secret so a cookie planted by a sibling domain is refused too.
+// by the page), and every mutating /api request must echo it in X-XSRF-TOKEN. The token is an HMAC,
+// under the session secret, of a nonce and the session it was minted for: a cookie planted by a
+// sibling domain is refused, and so is a token minted for one visitor (or for nobody signed in)
+// presented with another person's session cookie.
 import { createHmac, randomBytes, timingSafeEqual } from 'node:crypto';
 import type { RequestHandler, Response, Request } from 'express';
 import { config } from '../config';
@@ -9,19 +11,26 @@ import { Forbidden } from '../errors';
 export const XSRF_COOKIE = 'XSRF-TOKEN';
 export const XSRF_HEADER = 'x-xsrf-token';
 
-function sign(nonce: string): string {
-  return createHmac('sha256', config.sessionSecret).update(nonce).digest('base64url');
+/** What a token is bound to: the signed-in session's id, or nobody before sign-in. */
+function boundTo(req: Request): string {
+  return req.user && req.sessionID ? `session:${req.sessionID}` : 'anonymous';
 }
 
-export function newXsrfToken(): string {
+function sign(nonce: string, binding: string): string {
+  return createHmac('sha256', config.sessionSecret)
+    .update(`${binding}\n${nonce}`)
+    .digest('base64url');
+}
+
+export function newXsrfToken(req: Request): string {
   const nonce = randomBytes(18).toString('base64url');
-  return `${nonce}.${sign(nonce)}`;
+  return `${nonce}.${sign(nonce, boundTo(req))}`;
 }
 
-function validToken(token: string): boolean {
+function validToken(req: Request, token: string): boolean {
   const [nonce, mac] = token.split('.');
   if (!nonce || !mac) return false;
-  const expected = Buffer.from(sign(nonce));
+  const expected = Buffer.from(sign(nonce, boundTo(req)));
   const given = Buffer.from(mac);
   return expected.length === given.length && timingSafeEqual(expected, given);
 }
@@ -36,8 +45,17 @@ function readCookie(req: Request, name: string): string | undefined {
   return undefined;
 }
 
+/**
+ * Sets a fresh token for the request's session, replacing one this answer already carries (sign-in
+ * mints a token for the new session after the guard may have set one for the visitor).
+ */
 export function setXsrfCookie(res: Response): void {
-  res.cookie(XSRF_COOKIE, newXsrfToken(), {
+  const earlier = ([] as string[])
+    .concat((res.getHeader('set-cookie') as string | string[] | undefined) ?? [])
+    .filter((c) => !c.startsWith(`${XSRF_COOKIE}=`));
+  if (earlier.length) res.setHeader('set-cookie', earlier);
+  else res.removeHeader('set-cookie');
+  res.cookie(XSRF_COOKIE, newXsrfToken(res.req), {
     httpOnly: false,
     sameSite: 'lax',
     // Behind a TLS proxy the token travels only over HTTPS, like the session cookie.
@@ -55,10 +73,10 @@ function exempt(req: Request): boolean {
 
 export const xsrfGuard: RequestHandler = (req, res, next) => {
   const cookie = readCookie(req, XSRF_COOKIE);
-  if (!cookie || !validToken(cookie)) setXsrfCookieOnce(res);
+  if (!cookie || !validToken(req, cookie)) setXsrfCookie(res);
   if (SAFE.has(req.method) || !req.path.startsWith('/api/') || exempt(req)) return next();
   const header = req.get(XSRF_HEADER);
-  if (!header || !cookie || header !== cookie || !validToken(header)) {
+  if (!header || !cookie || header !== cookie || !validToken(req, header)) {
     return next(
       new Forbidden(
         'This request is missing its XSRF token. Reload the page and try again.',
@@ -68,7 +86,3 @@ export const xsrfGuard: RequestHandler = (req, res, next) => {
   }
   next();
 };
-
-function setXsrfCookieOnce(res: Response) {
-  if (!res.getHeader('set-cookie')?.toString().includes(XSRF_COOKIE)) setXsrfCookie(res);
-}

@@ -107,7 +107,9 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, next) => {
   // Part of the answer is already out (a streamed export): Express's own handler cuts the
   // connection, so the client sees a failed download rather than waiting forever.
   if (res.headersSent) return next(err);
-  if (appError.status === 503) res.setHeader('Retry-After', '2');
+  const retryAfter = (appError as { retryAfterSeconds?: number }).retryAfterSeconds;
+  if (retryAfter !== undefined) res.setHeader('Retry-After', String(retryAfter));
+  else if (appError.status === 503) res.setHeader('Retry-After', '2');
   res.status(appError.status).json({
     error: {
       code: appError.code,

@@ -46,11 +46,30 @@ export interface DeclaredRoute {
 /** Every route declared in this process, for the route × role matrix and the API description. */
 export const declaredRoutes: DeclaredRoute[] = [];
 
+type Issue = z.core.$ZodIssue;
+
+/**
+ * A value that fits none of a union's forms ("an e-mail, or empty, or null") reports the reason of
+ * the form it came closest to (the one whose type matched), not zod's bare "Invalid input".
+ */
+function closestIssue(issue: Issue): Issue {
+  if (issue.code !== 'invalid_union' || !issue.errors?.length) return issue;
+  const branch = issue.errors.find(
+    (b) => b.length > 0 && b.every((i) => i.code !== 'invalid_type'),
+  );
+  if (!branch) return issue;
+  const inner = closestIssue(branch[0]);
+  return { ...inner, path: [...issue.path, ...inner.path] };
+}
+
 export function zodDetails(error: z.ZodError, where: string): ErrorDetail[] {
-  return error.issues.map((issue) => ({
-    field: issue.path.length ? issue.path.join('.') : where,
-    message: issue.message,
-  }));
+  return error.issues.map((raw) => {
+    const issue = closestIssue(raw);
+    return {
+      field: issue.path.length ? issue.path.join('.') : where,
+      message: issue.message,
+    };
+  });
 }
 
 function parseOrThrow<T>(schema: ZodType<T> | undefined, value: unknown, where: string): T {

@@ -1,29 +1,18 @@
 import type { Router, Request } from 'express';
 import { z } from 'zod';
-import passport from 'passport';
 import { route } from '../http/route';
-import { TooManyRequests, Unauthorized } from '../errors';
+import { Unauthorized } from '../errors';
 import { setXsrfCookie } from '../auth/xsrf';
-import { clearFailures, countRecentFailures, recordFailure } from '../users/users-repository';
 import { getSettings } from '../settings/settings-service';
+import { checkSignIn } from './sign-in-service';
+import { atMost } from '../../shared/text-rules';
 import type { SessionUser } from '../../shared/session-types';
 
-// Throttling: at most this many failed sign-ins per account and address in the window.
-export const MAX_FAILURES = 10;
-export const FAILURE_WINDOW_MINUTES = 15;
-
+// The e-mail is normalised here, once: every counter and the account look-up see the same text.
 const signInBody = z.object({
-  email: z.string().trim().min(1, 'enter your e-mail').max(320),
-  password: z.string().min(1, 'enter your password').max(200),
+  email: z.string().max(320, atMost(320)).trim().toLowerCase().min(1, 'enter your e-mail'),
+  password: z.string().min(1, 'enter your password').max(200, atMost(200)),
 });
-
-function authenticate(req: Request): Promise<SessionUser | false> {
-  return new Promise((resolve, reject) => {
-    passport.authenticate('local', (err: unknown, user: SessionUser | false) =>
-      err ? reject(err) : resolve(user),
-    )(req);
-  });
-}
 
 function logIn(req: Request, user: SessionUser): Promise<void> {
   return new Promise((resolve, reject) => req.logIn(user, (e) => (e ? reject(e) : resolve())));
@@ -41,20 +30,7 @@ export function registerSessionRoutes(router: Router): void {
     access: 'public',
     body: signInBody,
     handler: async ({ body, req, res }) => {
-      const address = req.ip ?? 'unknown';
-      if (
-        (await countRecentFailures(body.email, address, FAILURE_WINDOW_MINUTES)) >= MAX_FAILURES
-      ) {
-        throw new TooManyRequests(
-          `Too many failed sign-ins for this account from this address. Wait ${FAILURE_WINDOW_MINUTES} minutes or ask the owner to reset the password.`,
-        );
-      }
-      const user = await authenticate(req);
-      if (!user) {
-        await recordFailure(body.email, address);
-        throw new Unauthorized('Wrong e-mail or password, or the account is deactivated.');
-      }
-      await clearFailures(body.email, address);
+      const user = await checkSignIn(req, res, body.email, body.password);
       // passport 0.7 regenerates the session in logIn: a fresh id at sign-in defeats fixation.
       await logIn(req, user);
       setXsrfCookie(res);

@@ -11,12 +11,13 @@ import { parseLength } from '../../shared/lengths';
 import { STEP_POLICIES, type StepPolicy } from '../../shared/bore-choice';
 import { BAR_RESOLUTIONS, type BarResolution } from '../../shared/pass-plan';
 import { isCurrencyCode, parseMoney } from '../../shared/money';
+import { atMost, singleLine } from '../../shared/text-rules';
 
 const lengthSetting = (opts: { allowEmpty?: boolean } = {}) =>
   z
     .string()
     .trim()
-    .max(30)
+    .max(30, atMost(30))
     .refine(
       (v) => (opts.allowEmpty && v === '') || parseLength(v).ok,
       'must be a length with its unit, e.g. "0.020 in" or "0.50 mm"',
@@ -25,13 +26,13 @@ const lengthSetting = (opts: { allowEmpty?: boolean } = {}) =>
 const amountSetting = z
   .string()
   .trim()
-  .max(30)
+  .max(30, atMost(30))
   .refine((v) => parseMoney(v).ok, 'must be an amount like "25.00", not negative');
 
 const percentSetting = z
   .string()
   .trim()
-  .max(10)
+  .max(10, atMost(10))
   .refine(
     (v) => /^\d{1,3}(\.\d{1,3})?$/.test(v) && Number(v) <= 100,
     'must be a percent between 0 and 100, e.g. "20" or "7.7"',
@@ -39,13 +40,13 @@ const percentSetting = z
 
 export const shopSettingsSchema = z
   .object({
-    shopName: z.string().trim().min(1).max(120),
-    shopHours: z.string().trim().max(300),
+    shopName: singleLine(120).pipe(z.string().min(1, 'enter the shop name')),
+    shopHours: z.string().trim().max(300, atMost(300)),
     timeZone: z
       .string()
       .trim()
       .min(1)
-      .max(60)
+      .max(60, atMost(60))
       .refine(
         (v) => IANAZone.isValidZone(v),
         'must be a time zone name such as "Europe/Paris" or "UTC"',
@@ -66,7 +67,10 @@ export const shopSettingsSchema = z
       'must be a yearly rate between 0 and 1',
     ),
     serviceLevel: z.number().min(0.5).max(0.999),
-    homeCurrency: z.string().length(3).refine(isCurrencyCode, 'must be an ISO 4217 currency code'),
+    homeCurrency: z
+      .string()
+      .length(3, atMost(3, 'must be a three-letter code'))
+      .refine(isCurrencyCode, 'must be an ISO 4217 currency code'),
     taxRate: percentSetting,
     pricesIncludeTax: z.boolean(),
     depositPercent: percentSetting,

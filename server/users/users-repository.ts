@@ -102,20 +102,3 @@ export async function deleteSessionsOf(
   if (exceptSid) query.andWhereNot({ sid: exceptSid });
   return query.delete();
 }
-
-export async function countRecentFailures(email: string, address: string, minutes: number) {
-  const row = await db('sign_in_failures')
-    .where({ email: email.trim().toLowerCase(), address })
-    .andWhere('at', '>', db.raw(`now() - make_interval(mins => ?)`, [minutes]))
-    .count<{ count: number }[]>('* as count')
-    .first();
-  return Number(row?.count ?? 0);
-}
-
-export async function recordFailure(email: string, address: string): Promise<void> {
-  await db('sign_in_failures').insert({ email: email.trim().toLowerCase().slice(0, 320), address });
-}
-
-export async function clearFailures(email: string, address: string): Promise<void> {
-  await db('sign_in_failures').where({ email: email.trim().toLowerCase(), address }).delete();
-}

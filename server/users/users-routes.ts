@@ -3,6 +3,7 @@ import { z } from 'zod';
 import { pageQuery, route, uuidParam } from '../http/route';
 import { ROLES } from '../../shared/session-types';
 import { MIN_PASSWORD_LENGTH } from '../auth/passwords';
+import { emailAddress, singleLine } from '../../shared/text-rules';
 import { changeUser, createUser, getUsers } from './users-service';
 
 const role = z.enum(ROLES as ['owner', 'buyer', 'machinist', 'staff']);
@@ -13,8 +14,8 @@ const password = z
 
 const newUser = z
   .object({
-    email: z.string().trim().toLowerCase().email('must be an e-mail address').max(320),
-    name: z.string().trim().min(1, 'enter a name').max(120),
+    email: emailAddress(),
+    name: singleLine(120).pipe(z.string().min(1, 'enter a name')),
     role,
     password,
   })
@@ -22,7 +23,7 @@ const newUser = z
 
 const userPatch = z
   .object({
-    name: z.string().trim().min(1).max(120).optional(),
+    name: singleLine(120).pipe(z.string().min(1, 'enter a name')).optional(),
     role: role.optional(),
     active: z.boolean().optional(),
     password: password.optional(),

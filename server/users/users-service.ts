@@ -2,6 +2,7 @@ import { db } from '../db/knex';
 import { recordAudit } from '../audit/audit';
 import { hashPassword, verifyPassword } from '../auth/passwords';
 import { BadRequest, Conflict, NotFound, Unauthorized } from '../errors';
+import { liftSignInLocks } from '../session/sign-in-service';
 import type { Role, LengthUnit } from '../../shared/session-types';
 import {
   deleteSessionsOf,
@@ -60,8 +61,16 @@ export async function changeUser(
   id: string,
   patch: { name?: string; role?: Role; active?: boolean; password?: string },
 ) {
+  // A password is changed for oneself only with the current one (the account page): an
+  // unattended signed-in screen must not be enough to take the account.
+  if (id === actorId && patch.password !== undefined) {
+    throw new BadRequest(
+      'Change your own password on your account page, with your current password.',
+      [{ field: 'password', message: 'not allowed on yourself here' }],
+    );
+  }
   const password_hash = patch.password ? await hashPassword(patch.password) : undefined;
-  return db.transaction(async (trx) => {
+  const result = await db.transaction(async (trx) => {
     const before = await findUserById(id, trx);
     if (!before) throw new NotFound('That user');
     if (id === actorId && (patch.active === false || (patch.role && patch.role !== 'owner'))) {
@@ -88,6 +97,9 @@ export async function changeUser(
     });
     return { user: toUserJson(after) };
   });
+  // The reset is what the locked-out person was told to ask for: it lifts their sign-in locks.
+  if (password_hash) await liftSignInLocks(result.user.email);
+  return result;
 }
 
 export async function changeOwnPassword(
@@ -115,6 +127,7 @@ export async function changeOwnPassword(
       entityId: userId,
     });
   });
+  await liftSignInLocks(user.email);
 }
 
 export async function changeOwnPreferences(
