@@ -6,7 +6,7 @@
 import { createHmac, randomBytes, timingSafeEqual } from 'node:crypto';
 import type { RequestHandler, Response, Request } from 'express';
 import { config } from '../config';
-import { Forbidden } from '../errors';
+import { Forbidden, Unauthorized } from '../errors';
 
 export const XSRF_COOKIE = 'XSRF-TOKEN';
 export const XSRF_HEADER = 'x-xsrf-token';
@@ -77,6 +77,11 @@ export const xsrfGuard: RequestHandler = (req, res, next) => {
   if (SAFE.has(req.method) || !req.path.startsWith('/api/') || exempt(req)) return next();
   const header = req.get(XSRF_HEADER);
   if (!header || !cookie || header !== cookie || !validToken(req, header)) {
+    // A session that ended (idle timeout, signed out elsewhere) leaves the page a token bound to
+    // it: say so, so the page asks the person to sign in rather than to reload.
+    if (!req.user && readCookie(req, 'stepstock.sid')) {
+      return next(new Unauthorized('Your session has ended. Sign in again.'));
+    }
     return next(
       new Forbidden(
         'This request is missing its XSRF token. Reload the page and try again.',
