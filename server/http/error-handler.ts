@@ -23,7 +23,7 @@ function isDatabaseDown(err: unknown): boolean {
   if (e.code && DB_DOWN_CODES.has(e.code)) return true;
   if (e.name === 'KnexTimeoutError') return true;
   const m = e.message ?? '';
-  return /Connection terminated|connect ECONNREFUSED|timeout exceeded when trying to connect|Client has encountered a connection error/i.test(
+  return /Connection terminated|connect ECONNREFUSED|timeout exceeded when trying to connect|^timeout expired$|Client has encountered a connection error/i.test(
     m,
   );
 }

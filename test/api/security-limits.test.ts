@@ -165,7 +165,8 @@ describe('V2.2.1 / V11.1.4 sign-in floods and guessing', () => {
     const checked = statuses.filter((s) => s === 401).length;
     // Each 401 is one password comparison; everything past the allowance was refused before it.
     expect(checked).toBeLessThanOrEqual(config.SIGN_IN_FAILURES_PER_ADDRESS);
-    expect(statuses.filter((s) => s === 429 || s === 503).length).toBe(200 - checked);
+    // The rest were refused (429), or told the server is busy (503), never a failure.
+    expect(statuses.filter((s) => s !== 401 && s !== 429 && s !== 503)).toEqual([]);
     // Health never reports the database down and never waits behind the flood (it used to take
     // 10-12 s). Here the flood's 200 clients share this process with the server, so the bound is
     // generous; the 1 s figure against a server process of its own is measured by the bench.
