@@ -1,7 +1,7 @@
 // Bore wear from bore-gauge readings. A bore is measured at up to three depths (top of ring travel, middle,
 // bottom) in two directions (along the piston-pin axis and at 90° to it, the thrust axis). Taper is the
 // difference between depths, out-of-round the difference between directions; both are on the diameter.
-import { formatLength, isNm } from './lengths';
+import { formatLengthsApart, isNm } from './lengths';
 import type { LengthUnit, Nm } from './lengths';
 
 export type Depth = 'top' | 'middle' | 'bottom';
@@ -86,13 +86,14 @@ export function computeWear(readings: readonly Reading[], standardBoreNm?: Nm): 
 /** Plain-words warnings when wear is past the engine maker's limits (the limits come from the caller). */
 export function wearWarnings(wear: Wear, limits: WearLimits, unit: LengthUnit = 'mm'): string[] {
   const warnings: string[] = [];
-  const show = (nm: Nm) => formatLength(nm, unit);
   if (limits.maxTaperNm !== undefined) {
     checkLimit(limits.maxTaperNm, 'taper');
     if (!wear.taperKnown) {
       warnings.push('Taper is unknown: measure at two depths or more along one axis.');
     } else if (wear.taper > limits.maxTaperNm) {
-      warnings.push(`Taper ${show(wear.taper)} is over the limit of ${show(limits.maxTaperNm)}.`);
+      // Compared exactly; shown with the digits that make the difference visible.
+      const [taper, limit] = formatLengthsApart(wear.taper, limits.maxTaperNm, unit);
+      warnings.push(`Taper ${taper} is over the limit of ${limit}.`);
     }
   }
   if (limits.maxOutOfRoundNm !== undefined) {
@@ -100,9 +101,8 @@ export function wearWarnings(wear: Wear, limits: WearLimits, unit: LengthUnit = 
     if (!wear.outOfRoundKnown) {
       warnings.push('Out-of-round is unknown: measure both axes at one depth or more.');
     } else if (wear.outOfRound > limits.maxOutOfRoundNm) {
-      warnings.push(
-        `Out-of-round ${show(wear.outOfRound)} is over the limit of ${show(limits.maxOutOfRoundNm)}.`,
-      );
+      const [outOfRound, limit] = formatLengthsApart(wear.outOfRound, limits.maxOutOfRoundNm, unit);
+      warnings.push(`Out-of-round ${outOfRound} is over the limit of ${limit}.`);
     }
   }
   return warnings;

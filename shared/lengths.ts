@@ -174,6 +174,29 @@ export function formatLength(nm: Nm, unit: LengthUnit, withUnit = true): string 
   return withUnit ? `${value} ${unit}` : value;
 }
 
+/** Most decimals a length can need: mm to the nanometre, inches to 0.0000001 in (2.54 nm). */
+const MOST_DECIMALS: Record<LengthUnit, number> = { mm: 6, in: 7 };
+
+/**
+ * Two lengths for one sentence that compares them ("0.0508 mm is over the limit of 0.050 mm"): at
+ * the trade's resolution, or with as many more decimals as it takes for two different lengths not
+ * to read the same. A message may never say "0.0020 in is over the limit of 0.0020 in".
+ */
+export function formatLengthsApart(a: Nm, b: Nm, unit: LengthUnit): [string, string] {
+  assertNm(a);
+  assertNm(b);
+  const per = unit === 'mm' ? NM_PER_MM : NM_PER_IN;
+  const at = (nm: Nm, decimals: number) => {
+    const digits = new D(Math.abs(nm)).dividedBy(per).toFixed(decimals, Decimal.ROUND_HALF_UP);
+    return `${nm < 0 && /[1-9]/.test(digits) ? '\u2212' : ''}${digits} ${unit}`;
+  };
+  let decimals = unit === 'mm' ? 3 : 4;
+  while (a !== b && at(a, decimals) === at(b, decimals) && decimals < MOST_DECIMALS[unit]) {
+    decimals += 1;
+  }
+  return [at(a, decimals), at(b, decimals)];
+}
+
 /**
  * Like formatLength, with one trailing zero dropped for amounts in sentences: mm at 2–3 decimals
  * ("0.08 mm", "0.035 mm"), inches at 3–4 ("0.003 in", "0.0015 in").

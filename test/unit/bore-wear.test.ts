@@ -98,6 +98,27 @@ describe('wearWarnings', () => {
     ]);
   });
 
+  it('when the wear is over the limit by less than the display resolution, then the message shows the digits that tell them apart', () => {
+    // Readings typed in inches: top pin 2.1895, thrust 2.1875 → out-of-round 0.0020 in = 50 800 nm.
+    // Limit 0.050 mm = 50 000 nm. 50 000 / 25 400 000 = 0.0019685… in (NIST SP 811 factor, by hand):
+    // both read 0.0020 in at 4 decimals; at 5 they read 0.00200 and 0.00197.
+    const inch = computeWear([
+      { depth: 'top', axis: 'pin', nm: inToNm('2.1895') },
+      { depth: 'top', axis: 'thrust', nm: inToNm('2.1875') },
+    ]);
+    expect(wearWarnings(inch, { maxOutOfRoundNm: 50_000 }, 'in')).toEqual([
+      'Out-of-round 0.00200 in is over the limit of 0.00197 in.',
+    ]);
+    // In millimetres 0.0508 mm rounds to 0.051, already apart from 0.050.
+    expect(wearWarnings(inch, { maxOutOfRoundNm: 50_000 }, 'mm')).toEqual([
+      'Out-of-round 0.051 mm is over the limit of 0.050 mm.',
+    ]);
+    // Over by 1 nm: the comparison is exact, so the message goes to the nanometre.
+    expect(wearWarnings(inch, { maxOutOfRoundNm: 50_799 }, 'mm')).toEqual([
+      'Out-of-round 0.050800 mm is over the limit of 0.050799 mm.',
+    ]);
+  });
+
   it('when a limit is set but the readings cannot show it, then the warning says what to measure', () => {
     const one = computeWear([{ depth: 'top', axis: 'pin', nm: mmToNm('54.1') }]);
     expect(wearWarnings(one, { maxTaperNm: 50_000, maxOutOfRoundNm: 30_000 })).toEqual([

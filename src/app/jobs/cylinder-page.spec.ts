@@ -118,6 +118,18 @@ describe('CylinderPage', () => {
     expect(preview).toContain('Taper 0.0055 in is over the limit of 0.0040 in.');
   });
 
+  it('when out-of-round is over the limit by less than 0.0001 in, then the warning shows the digits that differ', async () => {
+    const fixture = await render();
+    const element = fixture.nativeElement as HTMLElement;
+    type(element, 'Top of ring travel, along the pin', '2.52601');
+    type(element, 'Top of ring travel, across (thrust)', '2.52400');
+    await fixture.whenStable();
+    // By hand: 2.52601 − 2.52400 = 0.00201 in, over the family's 0.0020 in limit; at 4 decimals both
+    // would read 0.0020 in, so the message goes to 5.
+    const preview = element.querySelector('.preview')?.textContent ?? '';
+    expect(preview).toContain('Out-of-round 0.00201 in is over the limit of 0.00200 in.');
+  });
+
   it('when a reading is not a length, then its field says why and saving is off', async () => {
     const fixture = await render();
     const element = fixture.nativeElement as HTMLElement;
