@@ -490,7 +490,10 @@ export interface BoreSheetJson {
   cutAt: string | null;
   measuredAfterHone: LengthJson | null;
   ringGapMeasured: LengthJson | null;
+  /** The usual cautions, with the engine's own first (two-stroke ports). */
   cautions: string[];
+  /** What to tick after honing, worded for this engine (port edges only on a two-stroke). */
+  afterHoningChecks: string[];
 }
 
 export interface SweepResultJson {

@@ -14,6 +14,7 @@ import {
   computeBoreSheet,
   pistonCleanup,
 } from '../../shared/bore-sheet';
+import { afterHoningChecks, engineCautions } from '../../shared/bore-sheet-wording';
 import { barGridNm, passStartNm } from '../../shared/pass-plan';
 import { formatLength, toLengthJson, type LengthUnit, type Nm } from '../../shared/lengths';
 import { stepNominalBore } from '../../shared/step-series';
@@ -185,7 +186,9 @@ export async function boreSheet(
     cutAt: cylinder.cut_at ? cylinder.cut_at.toISOString() : null,
     measuredAfterHone: lengthOrNull(cylinder.measured_after_hone_nm),
     ringGapMeasured: lengthOrNull(cylinder.ring_gap_nm),
-    cautions: [...BORE_SHEET_CAUTIONS],
+    // The engine's own caution first: it is the one this sheet adds to the usual list.
+    cautions: [...engineCautions(family.stroke_type), ...BORE_SHEET_CAUTIONS],
+    afterHoningChecks: afterHoningChecks(family.stroke_type),
   };
 }
 

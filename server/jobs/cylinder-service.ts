@@ -20,7 +20,7 @@ import type {
 import * as repo from './jobs-repository';
 import * as holdsRepo from './holds-repository';
 import { requireCylinder, requireOpenJob } from './jobs-service';
-import { advanceState } from './job-state';
+import { advanceAfterHoning, advanceState } from './job-state';
 import { cylinderJson, familyLimits, lengthOrNull } from './jobs-json';
 
 type Conn = Knex;
@@ -271,6 +271,9 @@ export async function patchCylinder(
           kind: 'work',
           text: `Cylinder ${n}: ${notes.join(', ')}.`,
         });
+      }
+      if (patch.measuredAfterHone !== undefined || patch.ringGap !== undefined) {
+        await advanceAfterHoning(trx, job, actorId);
       }
     }
   });

@@ -48,3 +48,29 @@ export async function advanceState(
     text: `${JOB_STATE_LABELS[job.state]} → ${JOB_STATE_LABELS[to]}.`,
   });
 }
+
+/**
+ * After a honed bore or a ring gap is recorded, the job moves on by itself: to "at the hone" once
+ * one cylinder has its honed bore, and to "ready to go" once every cylinder with a step is cut and
+ * has both its honed bore and its ring gap. Returns the state it moved to, or null.
+ */
+export async function advanceAfterHoning(
+  trx: Conn,
+  job: { id: string; state: JobState },
+  userId: string | null,
+): Promise<JobState | null> {
+  const cylinders = await repo.cylindersOf(job.id, trx);
+  const toBore = cylinders.filter((c) => c.chosen_step_id !== null);
+  const finished =
+    toBore.length > 0 &&
+    toBore.every(
+      (c) => c.cut_at !== null && c.measured_after_hone_nm !== null && c.ring_gap_nm !== null,
+    );
+  const honed = cylinders.some((c) => c.measured_after_hone_nm !== null);
+  const to: JobState | null = finished ? 'ready_to_go' : honed ? 'at_the_hone' : null;
+  if (!to) return null;
+  const before = job.state;
+  await advanceState(trx, job, to, userId);
+  const after = (await repo.findJob(job.id, trx))?.state ?? before;
+  return after !== before ? after : null;
+}

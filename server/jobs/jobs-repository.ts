@@ -26,6 +26,7 @@ export interface FamilyRow {
   ring_gap_min_nm: number | null;
   ring_gap_max_nm: number | null;
   step_series_id: string;
+  stroke_type: 'two' | 'four';
   active: boolean;
 }
 
@@ -136,6 +137,7 @@ const FAMILY_COLUMNS = [
   'ring_gap_min_nm',
   'ring_gap_max_nm',
   'step_series_id',
+  'stroke_type',
   'active',
 ];
 

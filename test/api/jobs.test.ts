@@ -403,6 +403,29 @@ describe('the bore sheet and the cut', () => {
     expect((await machinist.get(`/api/jobs/${job.id}`)).body.state).toBe('parts_set_aside');
   });
 
+  it('when the engine is a two-stroke, then the sheet leads with dressing every port edge and why; a four-stroke sheet does not mention ports', async () => {
+    const two = await machinist.get(`/api/jobs/${job.id}/cylinders/1/bore-sheet`);
+    expect(two.status).toBe(200);
+    expect(two.body.cautions[0]).toMatch(/chamfer and deburr the edge of every port/);
+    expect(two.body.cautions[0]).toMatch(/ring that catches a sharp port edge breaks/);
+    expect(two.body.afterHoningChecks).toEqual([
+      'Every port edge chamfered and deburred',
+      'Bore washed clean of honing grit',
+    ]);
+
+    const patched = await owner.patch(`/api/engine-families/${family.id}`, { strokeType: 'four' });
+    expect(patched.status).toBe(200);
+    try {
+      const four = await machinist.get(`/api/jobs/${job.id}/cylinders/1/bore-sheet`);
+      expect(four.status).toBe(200);
+      expect(JSON.stringify(four.body.cautions)).not.toMatch(/\bports?\b/i);
+      expect(four.body.cautions.join(' ')).toMatch(/eye and hearing protection/i);
+      expect(four.body.afterHoningChecks).toEqual(['Bore washed clean of honing grit']);
+    } finally {
+      await owner.patch(`/api/engine-families/${family.id}`, { strokeType: 'two' });
+    }
+  });
+
   it('when the clearance is set within the range, then the finished bore follows; outside it, 400', async () => {
     const set = await machinist.patch(`/api/jobs/${job.id}/cylinders/1`, {
       clearance: '0.0020 in',
@@ -426,7 +449,7 @@ describe('the bore sheet and the cut', () => {
     expect(res.status).toBe(403);
   });
 
-  it('when the honed bore is recorded before the cut, then 409; after the cut, it is kept', async () => {
+  it('when the honed bore is recorded before the cut, then 409; after the cut, it is kept and the job moves on to the hone, then to ready to go with the ring gap', async () => {
     const early = await machinist.patch(`/api/jobs/${job.id}/cylinders/1`, {
       measuredAfterHone: '2.5571 in',
     });
@@ -436,16 +459,29 @@ describe('the bore sheet and the cut', () => {
     expect(cut.body.cutAt).toEqual(expect.any(String));
     const again = await machinist.post(`/api/jobs/${job.id}/cylinders/1/cut`);
     expect(again.status).toBe(409);
-    const after = await machinist.patch(`/api/jobs/${job.id}/cylinders/1`, {
+    expect((await machinist.get(`/api/jobs/${job.id}`)).body.state).toBe('on_the_bar');
+    // The honed bore alone: the job has been at the hone, so it moves on there by itself.
+    const honed = await machinist.patch(`/api/jobs/${job.id}/cylinders/1`, {
       measuredAfterHone: '2.5571 in',
+    });
+    expect(honed.status).toBe(200);
+    expect(honed.body.measuredAfterHone).toEqual({ mm: '64.95034', in: '2.5571' });
+    expect((await machinist.get(`/api/jobs/${job.id}`)).body.state).toBe('at_the_hone');
+    // With the ring gap too, everything "ready to go" needs is recorded for its only cylinder.
+    const after = await machinist.patch(`/api/jobs/${job.id}/cylinders/1`, {
       ringGap: '0.012 in',
     });
     expect(after.status).toBe(200);
-    expect(after.body.measuredAfterHone).toEqual({ mm: '64.95034', in: '2.5571' });
     expect(after.body.ringGap.in).toBe('0.0120');
     expect(after.body.ringGapOk).toBe(true);
     const jobRes = await machinist.get(`/api/jobs/${job.id}`);
-    expect(jobRes.body.state).toBe('on_the_bar');
+    expect(jobRes.body.state).toBe('ready_to_go');
+    const moves = (jobRes.body.events as { kind: string; text: string }[])
+      .filter((e) => e.kind === 'state')
+      .map((e) => e.text);
+    expect(moves).toEqual(
+      expect.arrayContaining(['On the bar → At the hone.', 'At the hone → Ready to go.']),
+    );
     // The piston now belongs with the bore: its hold no longer lapses and cannot be released.
     const hold = jobRes.body.cylinderDetails[0].piston;
     expect(hold.expiresAt).toBeNull();

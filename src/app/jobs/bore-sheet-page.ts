@@ -9,7 +9,12 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { RouterLink } from '@angular/router';
 import { catchError, map, of, switchMap, tap } from 'rxjs';
 
-import { isOpenState, type BoreSheetJson } from '../../../shared/jobs-api';
+import {
+  isOpenState,
+  JOB_STATE_LABELS,
+  type BoreSheetJson,
+  type JobState,
+} from '../../../shared/jobs-api';
 import { formatIn, formatMm, parseLength, type LengthUnit, type Nm } from '../../../shared/lengths';
 import { apiErrorMessage } from '../core/api-error';
 import { LengthPipe } from '../core/length-pipe';
@@ -91,6 +96,13 @@ export class BoreSheetPage {
   protected readonly honedText = signal('');
   protected readonly gapText = signal('');
   protected readonly overrideText = signal('');
+  /** The job's state when the sizes after honing were sent: the page says when the job moved on. */
+  private readonly stateWhenRecorded = signal<JobState | null>(null);
+  protected readonly movedOnTo = computed(() => {
+    const before = this.stateWhenRecorded();
+    const now = this.sheet()?.job.state;
+    return before && now && now !== before ? JOB_STATE_LABELS[now] : null;
+  });
 
   protected print(): void {
     window.print();
@@ -153,6 +165,7 @@ export class BoreSheetPage {
       changes[key] = exact(parsed.nm, parsed.unit);
     }
     if (Object.keys(changes).length === 0) return;
+    this.stateWhenRecorded.set(this.sheet()?.job.state ?? null);
     this.save(changes, 'Sizes after honing recorded.', () => {
       this.honedText.set('');
       this.gapText.set('');

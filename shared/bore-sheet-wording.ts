@@ -1,0 +1,26 @@
+// What the bore sheet says about the machine work, in one place: the cautions printed on every
+// sheet, the ones that depend on the engine, and the ticks to make after honing. The server sends
+// the list for one cylinder; the sheet prints it as it is, so wording is never repeated in a page.
+import type { StrokeType } from './catalog-api';
+
+/**
+ * Why a two-stroke bore needs its ports dressed: the rings pass over the port windows on every
+ * stroke, and boring leaves a sharp burr at each window's edge. Common practice (no source); the
+ * chamfer size and method come from the engine maker.
+ */
+export const TWO_STROKE_PORT_CAUTION =
+  'Two-stroke: after boring, chamfer and deburr the edge of every port (exhaust, transfer and ' +
+  'inlet) all round, then hone. A ring that catches a sharp port edge breaks, and the broken ring ' +
+  "takes the piston and the bore with it. Use the engine maker's chamfer size and method.";
+
+/** After-honing ticks; the port check is only for engines with ports in the bore. */
+export const CHECK_PORTS_DRESSED = 'Every port edge chamfered and deburred';
+export const CHECK_BORE_CLEAN = 'Bore washed clean of honing grit';
+
+export function engineCautions(strokeType: StrokeType): string[] {
+  return strokeType === 'two' ? [TWO_STROKE_PORT_CAUTION] : [];
+}
+
+export function afterHoningChecks(strokeType: StrokeType): string[] {
+  return strokeType === 'two' ? [CHECK_PORTS_DRESSED, CHECK_BORE_CLEAN] : [CHECK_BORE_CLEAN];
+}
