@@ -11,9 +11,11 @@ import { catchError, map, of } from 'rxjs';
 
 import type { HoldJson, ProposalJson, ProposedUnitJson } from '../../../shared/jobs-api';
 import { pistonCleanup } from '../../../shared/bore-sheet';
-import { mmToNm, toLengthJson } from '../../../shared/lengths';
+import { formatIn, formatMm, mmToNm, parseLength, toLengthJson } from '../../../shared/lengths';
 import { apiErrorBody, apiErrorMessage } from '../core/api-error';
 import { LengthPipe } from '../core/length-pipe';
+import { Session } from '../core/session';
+import { StockApi } from '../stock/stock-api';
 import { JobsApi } from './jobs-api';
 
 export interface HoldDialogData {
@@ -89,6 +91,44 @@ export class HoldDialog {
       short: toLengthJson(Math.max(0, -check.spareNm)),
     };
   });
+
+  // Measuring the proposed piston here, before it is held: a skirt read at the bench just now beats
+  // one recorded at delivery (a piston may have been swapped, mislabelled or measured in haste).
+  private readonly stock = inject(StockApi);
+  protected readonly unitName = inject(Session).unit;
+  protected readonly skirtText = signal('');
+  protected readonly measureError = signal('');
+  /** Ids of the pistons measured in this dialog, so the choice can say so. */
+  protected readonly measuredNow = signal<ReadonlySet<string>>(new Set());
+
+  protected measureChoice(): void {
+    const unit = this.choice();
+    if (!unit || this.busy()) return;
+    const parsed = parseLength(this.skirtText(), {
+      defaultUnit: this.unitName(),
+      max: 500_000_000,
+    });
+    if (!parsed.ok) {
+      this.measureError.set(parsed.message);
+      return;
+    }
+    this.measureError.set('');
+    this.busy.set(true);
+    // Sent exactly as read, in the unit it was typed in.
+    const skirt = parsed.unit === 'in' ? `${formatIn(parsed.nm)} in` : `${formatMm(parsed.nm)} mm`;
+    this.stock.measure(unit.id, skirt).subscribe({
+      next: (change) => {
+        this.busy.set(false);
+        this.skirtText.set('');
+        this.picked.set({ ...unit, skirt: change.unit?.skirt ?? toLengthJson(parsed.nm) });
+        this.measuredNow.update((ids) => new Set([...ids, unit.id]));
+      },
+      error: (error: unknown) => {
+        this.busy.set(false);
+        this.measureError.set(apiErrorMessage(error));
+      },
+    });
+  }
 
   protected readonly label = signal('');
   protected readonly busy = signal(false);
