@@ -143,7 +143,9 @@ export const HARMLESS: readonly Allowance[] = [
     kind: 'console',
     text: /^Failed to load resource: the server responded with a status of 401/,
     url: /\/api\/session$/,
-    why: 'on start the app asks who is signed in; a signed-out visitor is answered 401 and sent to sign-in',
+    why:
+      'on start the app asks who is signed in: a signed-out visitor is answered 401 and sent to ' +
+      'sign-in, and a refused sign-in is a 401 the form shows in words',
   },
 ];
 
@@ -184,7 +186,6 @@ export function takePageProblems(): PageProblem[] {
   allowedThisTest = [];
   return found;
 }
-
 
 export async function openBrowser(): Promise<Browser> {
   const userDataDir = mkdtempSync(path.join(os.tmpdir(), 'stepstock-chromium-'));
@@ -339,3 +340,14 @@ export async function e2eEnvironment(extraEnv: NodeJS.ProcessEnv = {}) {
     },
   };
 }
+// Registered once for every browser-test file that uses this support: after each test, any page
+// error or console error not allowed above fails that test, naming what the browser said.
+afterEach(() => {
+  const found = takePageProblems();
+  if (found.length > 0) {
+    throw new Error(
+      `The browser reported ${found.length} error(s) during this test:\n` +
+        found.map((p) => `  [${p.kind}] ${p.text} (at ${p.url})`).join('\n'),
+    );
+  }
+});
