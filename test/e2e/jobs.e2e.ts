@@ -9,6 +9,7 @@ import {
   ARTIFACTS,
   DEMO,
   e2eEnvironment,
+  failOnPageErrors,
   screenshot,
   screenshotAtWidths,
   seriousA11yViolations,
@@ -16,6 +17,7 @@ import {
 } from './support';
 
 let env: Awaited<ReturnType<typeof e2eEnvironment>>;
+failOnPageErrors();
 
 beforeAll(async () => {
   env = await e2eEnvironment();

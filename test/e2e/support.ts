@@ -340,14 +340,18 @@ export async function e2eEnvironment(extraEnv: NodeJS.ProcessEnv = {}) {
     },
   };
 }
-// Registered once for every browser-test file that uses this support: after each test, any page
-// error or console error not allowed above fails that test, naming what the browser said.
-afterEach(() => {
-  const found = takePageProblems();
-  if (found.length > 0) {
-    throw new Error(
-      `The browser reported ${found.length} error(s) during this test:\n` +
-        found.map((p) => `  [${p.kind}] ${p.text} (at ${p.url})`).join('\n'),
-    );
-  }
-});
+/**
+ * Fails each test of the calling file on any page error or console error not allowed above, naming
+ * what the browser said. Call once at the top of a browser-test file.
+ */
+export function failOnPageErrors(): void {
+  afterEach(() => {
+    const found = takePageProblems();
+    if (found.length > 0) {
+      throw new Error(
+        `The browser reported ${found.length} error(s) during this test:\n` +
+          found.map((p) => `  [${p.kind}] ${p.text} (at ${p.url})`).join('\n'),
+      );
+    }
+  });
+}
