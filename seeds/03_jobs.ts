@@ -12,6 +12,8 @@ import { patchCylinder, putReadings, recommendation } from '../server/jobs/cylin
 import { boreSheet, markCut } from '../server/jobs/bore-sheet-service';
 import { placeHold } from '../server/jobs/holds-service';
 import { proposal } from '../server/jobs/proposal-service';
+import { getEstimate } from '../server/money/estimate-service';
+import { answerByLink, approveAtCounter, sendEstimate } from '../server/money/approval-service';
 import { readDemoCatalog } from './demo/catalog';
 
 /**
@@ -50,6 +52,11 @@ interface DemoJob {
   chooseStep?: boolean;
   /** Hold the proposed piston (and a ring set) for every cylinder with a step. */
   hold?: boolean;
+  /**
+   * The customer's answer to the estimate: agreed at the counter or by phone, or sent by e-mail and
+   * not answered yet. Every job with a cut was agreed first (the shop cuts only after approval).
+   */
+  estimate?: 'counter' | 'phone' | 'sent';
   /** Cylinders marked as cut. */
   cut?: number[];
   /** Record the honed bore (on size, from the bore sheet) and a ring gap mid-range after the cut. */
@@ -94,6 +101,7 @@ const JOBS: DemoJob[] = [
     worn: ['2.9530'],
     chooseStep: true,
     hold: true,
+    estimate: 'sent',
   },
   {
     family: 'GR-9W',
@@ -104,6 +112,7 @@ const JOBS: DemoJob[] = [
     worn: ['2.2010', '2.2004'],
     chooseStep: true,
     hold: true,
+    estimate: 'phone',
     cut: [1],
   },
   {
@@ -115,6 +124,7 @@ const JOBS: DemoJob[] = [
     worn: ['77.105', '77.098'],
     chooseStep: true,
     hold: true,
+    estimate: 'counter',
     cut: [1, 2],
     finish: 'at_the_hone',
   },
@@ -127,6 +137,7 @@ const JOBS: DemoJob[] = [
     worn: ['66.520'],
     chooseStep: true,
     hold: true,
+    estimate: 'sent',
     cut: [1],
     honed: true,
     finish: 'ready_to_go',
@@ -140,6 +151,7 @@ const JOBS: DemoJob[] = [
     worn: ['2.9612'],
     chooseStep: true,
     hold: true,
+    estimate: 'counter',
     cut: [1],
     honed: true,
     finish: 'collect',
@@ -212,6 +224,26 @@ export async function seed(knex: Knex): Promise<void> {
           unit,
           knex,
         );
+      }
+    }
+    if (spec.estimate) {
+      await getEstimate(job.id, knex);
+      if (spec.estimate === 'sent' || spec.cut?.length) {
+        if (spec.customer.email) await sendEstimate(staff.id, job.id, knex);
+      }
+      // A sent estimate the customer agreed to from the link, or one taken by phone or at the counter.
+      if (spec.cut?.length) {
+        if (spec.estimate === 'sent') await answerByLink(job.id, 'approve', knex);
+        else
+          await approveAtCounter(
+            staff.id,
+            job.id,
+            {
+              how: spec.estimate,
+              note: spec.estimate === 'phone' ? 'Agreed on the phone.' : undefined,
+            },
+            knex,
+          );
       }
     }
     for (const n of spec.cut ?? []) {

@@ -18,6 +18,7 @@ import { registerImportsRoutes } from './imports/imports-routes';
 import { registerExportsRoutes } from './exports/exports-routes';
 import { registerAuditRoutes } from './audit/audit-routes';
 import { registerMoneyRoutes } from './money/money-routes';
+import { registerPublicRoutes } from './money/public-routes';
 
 export function registerAllRoutes(api: Router): void {
   registerSessionRoutes(api);
@@ -37,4 +38,5 @@ export function registerAllRoutes(api: Router): void {
   registerExportsRoutes(api);
   registerAuditRoutes(api);
   registerMoneyRoutes(api);
+  registerPublicRoutes(api);
 }

@@ -66,9 +66,18 @@ export function setXsrfCookie(res: Response): void {
 
 const SAFE = new Set(['GET', 'HEAD', 'OPTIONS']);
 
-/** Sign-in itself needs no header: there is no session to ride on yet. */
+/**
+ * Sign-in itself needs no header: there is no session to ride on yet. The customer's page carries
+ * its own credential (the token in the link) and uses no session; the payment service's events are
+ * signed by the service.
+ */
 function exempt(req: Request): boolean {
-  return req.method === 'POST' && req.path === '/api/session';
+  if (req.method !== 'POST') return false;
+  return (
+    req.path === '/api/session' ||
+    req.path.startsWith('/api/public/') ||
+    req.path === '/api/payments/webhook'
+  );
 }
 
 export const xsrfGuard: RequestHandler = (req, res, next) => {

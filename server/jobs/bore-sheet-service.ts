@@ -6,6 +6,7 @@ import type { Knex } from 'knex';
 import { db } from '../db/knex';
 import { BadRequest, Conflict, NotFound } from '../errors';
 import { getSettings } from '../settings/settings-service';
+import { whyNotApproved } from '../money/approval-service';
 import { requiredSettingLength, settingLength } from '../settings/setting-length';
 import {
   BORE_SHEET_CAUTIONS,
@@ -193,7 +194,8 @@ export async function boreSheet(
 }
 
 /**
- * Marks a cylinder as cut; refused unless its measured piston is held for this job, and refused when
+ * Marks a cylinder as cut; refused unless its measured piston is held for this job and (when the
+ * shop says so) the customer agreed to the estimate, and refused when
  * that piston's bore would not clean up unless the machinist gives a reason to cut anyway.
  */
 export async function markCut(
@@ -222,6 +224,8 @@ export async function markCut(
         'not_held',
       );
     }
+    const notApproved = await whyNotApproved(trx, jobId, job.number);
+    if (notApproved) throw new Conflict(notApproved, 'not_approved');
     const facts = await sheetFacts(jobId, n, trx);
     const reason = input.overrideReason?.trim() ?? '';
     const changes: Record<string, unknown> = { cut_at: trx.fn.now(), cut_by: actorId };

@@ -24,6 +24,7 @@ import * as repo from './jobs-repository';
 import * as holdsRepo from './holds-repository';
 import { releaseInTransaction } from './holds-service';
 import { whyNotReadyToCut } from './job-state';
+import { whyNotApproved } from '../money/approval-service';
 import {
   cylinderJson,
   eventJson,
@@ -199,6 +200,10 @@ export async function patchJob(
       if (patch.state === 'parts_set_aside' || patch.state === 'on_the_bar') {
         const why = await whyNotReadyToCut(trx, id);
         if (why) throw new Conflict(why, 'not_held');
+      }
+      if (patch.state === 'on_the_bar') {
+        const why = await whyNotApproved(trx, id, job.number);
+        if (why) throw new Conflict(why, 'not_approved');
       }
       await repo.setJobState(trx, id, patch.state);
       await repo.insertEvent(trx, {

@@ -5,6 +5,7 @@ import { z } from 'zod';
 import { route, uuidParam } from '../http/route';
 import type { Role } from '../../shared/session-types';
 import {
+  approvalInput,
   discountInput,
   labourInput,
   labourPatch,
@@ -13,6 +14,7 @@ import {
 } from '../../shared/api/money';
 import * as labour from './labour-service';
 import * as estimates from './estimate-service';
+import * as approvals from './approval-service';
 
 export const MONEY: Role[] = ['owner', 'staff'];
 const idParams = z.object({ id: uuidParam });
@@ -82,5 +84,21 @@ export function registerMoneyRoutes(router: Router): void {
     body: discountInput,
     status: 201,
     handler: ({ params, body, user }) => estimates.addDiscount(user.id, params.id, body),
+  });
+  route(router, {
+    method: 'post',
+    path: '/api/jobs/:id/estimate/send',
+    access: MONEY,
+    params: idParams,
+    body: z.object({}).strict(),
+    handler: ({ params, user }) => approvals.sendEstimate(user.id, params.id),
+  });
+  route(router, {
+    method: 'post',
+    path: '/api/jobs/:id/estimate/approval',
+    access: MONEY,
+    params: idParams,
+    body: approvalInput,
+    handler: ({ params, body, user }) => approvals.approveAtCounter(user.id, params.id, body),
   });
 }

@@ -248,3 +248,15 @@ export interface InvoiceJson {
   taxRate: string;
   pricesIncludeTax: boolean;
 }
+
+/** Where the job stands, in words for the customer (the public page). */
+export const CUSTOMER_JOB_WORDS: Record<string, string> = {
+  booked_in: 'We have your job and will measure the bores soon.',
+  gauged: 'The bores are measured; the pistons are being chosen to fit them.',
+  parts_set_aside: 'The pistons for your bores are set aside for you.',
+  on_the_bar: 'Your cylinders are being bored.',
+  at_the_hone: 'Your cylinders are being honed and finished.',
+  ready_to_go: 'Your job is finished and ready to collect.',
+  handed_back: 'You have collected this job.',
+  called_off: 'This job was called off.',
+};

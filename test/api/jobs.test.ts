@@ -38,6 +38,8 @@ beforeAll(async () => {
     skipMarginalStep: false,
     stepPolicy: 'first-that-cleans',
     timeZone: 'UTC',
+    // The cut rules here are about held pistons; the approval rule has its own tests.
+    cutOnlyAfterApproval: false,
   });
   family = await makeFamily(owner);
   binId = await makeBin(owner);

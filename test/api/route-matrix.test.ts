@@ -149,6 +149,12 @@ const EXPECTED: Record<string, Access> = {
   'PATCH /api/jobs/:id/estimate/lines/:lineId': ['owner', 'staff'],
   'DELETE /api/jobs/:id/estimate/lines/:lineId': ['owner', 'staff'],
   'POST /api/jobs/:id/estimate/discount': ['owner', 'staff'],
+  'POST /api/jobs/:id/estimate/send': ['owner', 'staff'],
+  'POST /api/jobs/:id/estimate/approval': ['owner', 'staff'],
+  // The customer's page: the token in the link is the credential.
+  'GET /api/public/jobs/:token': 'public',
+  'POST /api/public/jobs/:token/approve': 'public',
+  'POST /api/public/jobs/:token/decline': 'public',
 };
 
 interface Found {

@@ -1,0 +1,78 @@
+// The payments' queries.
+import type { Knex } from 'knex';
+import { db } from '../db/knex';
+import type { PaymentMethod, PaymentPurpose, PaymentState } from '../../shared/api/money';
+
+export interface PaymentRow {
+  id: string;
+  job_id: string;
+  purpose: PaymentPurpose;
+  method: PaymentMethod;
+  amount: string;
+  currency: string;
+  state: PaymentState;
+  checkout_id: string | null;
+  url: string | null;
+  provider_payment: string | null;
+  created_at: Date;
+  paid_at: Date | null;
+  refunded_at: Date | null;
+  refund_reason: string | null;
+}
+
+export async function paymentsOf(jobId: string, k: Knex = db): Promise<PaymentRow[]> {
+  return (await k('payments')
+    .where({ job_id: jobId })
+    .orderBy([{ column: 'created_at' }, { column: 'id' }])) as PaymentRow[];
+}
+
+export async function lockPayment(
+  trx: Knex,
+  jobId: string,
+  id: string,
+): Promise<PaymentRow | undefined> {
+  return (await trx('payments').where({ job_id: jobId, id }).forUpdate().first()) as
+    PaymentRow | undefined;
+}
+
+export async function lockByCheckout(
+  trx: Knex,
+  checkoutId: string,
+): Promise<PaymentRow | undefined> {
+  return (await trx('payments').where({ checkout_id: checkoutId }).forUpdate().first()) as
+    PaymentRow | undefined;
+}
+
+export async function insertPayment(
+  trx: Knex,
+  row: Partial<PaymentRow> &
+    Pick<PaymentRow, 'job_id' | 'purpose' | 'method' | 'amount'> & {
+      currency: string;
+      created_by: string | null;
+    },
+): Promise<PaymentRow> {
+  const [created] = await trx('payments').insert(row).returning('*');
+  return created as PaymentRow;
+}
+
+export async function updatePayment(
+  trx: Knex,
+  id: string,
+  changes: Record<string, unknown>,
+): Promise<PaymentRow> {
+  const [row] = await trx('payments').update(changes).where({ id }).returning('*');
+  return row as PaymentRow;
+}
+
+/** Records an event id; false when it was recorded before (by this or another server). */
+export async function recordEvent(
+  trx: Knex,
+  e: { id: string; type: string; paymentId: string | null },
+): Promise<boolean> {
+  const rows = await trx('payment_events')
+    .insert({ event_id: e.id, type: e.type, payment_id: e.paymentId })
+    .onConflict('event_id')
+    .ignore()
+    .returning('event_id');
+  return rows.length === 1;
+}
