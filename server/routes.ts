@@ -19,6 +19,7 @@ import { registerExportsRoutes } from './exports/exports-routes';
 import { registerAuditRoutes } from './audit/audit-routes';
 import { registerMoneyRoutes } from './money/money-routes';
 import { registerPublicRoutes } from './money/public-routes';
+import { registerCustomersRoutes } from './customers/customers-routes';
 
 export function registerAllRoutes(api: Router): void {
   registerSessionRoutes(api);
@@ -39,4 +40,5 @@ export function registerAllRoutes(api: Router): void {
   registerAuditRoutes(api);
   registerMoneyRoutes(api);
   registerPublicRoutes(api);
+  registerCustomersRoutes(api);
 }

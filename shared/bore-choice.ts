@@ -4,6 +4,7 @@
 // Clean-up is measured on the diameter, like every bore size here.
 import { formatLengthCompact, isNm } from './lengths';
 import type { LengthUnit, Nm } from './lengths';
+import type { StepConstraint } from './bore-history';
 
 export interface StepStock {
   stepId: string;
@@ -35,6 +36,11 @@ export interface RecommendStepInput {
    * from the wear: a bore still under the first oversize's size has not been bored to one.
    */
   firstRebore?: boolean;
+  /**
+   * Further rules a step must pass (a cylinder's earlier bores, for one); each answers why a step
+   * fails, and the first that fails gives the step its reason.
+   */
+  constraints?: readonly StepConstraint[];
   /** Unit for the amounts in the reasons (default mm). */
   unit?: LengthUnit;
 }
@@ -137,8 +143,14 @@ export function recommendStep(input: RecommendStepInput): StepRecommendation {
     const cleanupNm = finishedBoreNm - input.largestWornNm;
     const past = step.offsetNm > input.maxOversizeNm;
     const cleans = cleanupNm >= input.cleanupNm;
+    const refused = past
+      ? null
+      : ((input.constraints ?? [])
+          .map((rule) => rule({ offsetNm: step.offsetNm, finishedBoreNm }))
+          .find((why) => why !== null) ?? null);
     let reason: string;
     if (past) reason = 'past the largest oversize the wall allows';
+    else if (refused !== null) reason = refused;
     else if (!cleans) reason = `does not clean up: ${show(input.cleanupNm - cleanupNm)} short`;
     else reason = `cleans up with ${show(cleanupNm - input.cleanupNm)} to spare`;
     return {
@@ -149,7 +161,7 @@ export function recommendStep(input: RecommendStepInput): StepRecommendation {
       freePistons: step.freePistons,
       freeRings: step.freeRings,
       onOrder: step.onOrder,
-      suitable: !past && cleans,
+      suitable: !past && refused === null && cleans,
       reason,
     };
   });

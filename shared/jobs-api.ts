@@ -129,14 +129,31 @@ const customerFields = {
 export const jobInput = z
   .object({
     ...customerFields,
+    /** The customer's record; the typed name, phone and e-mail still work and find or make one. */
+    customerId: uuid.optional(),
+    customerName: customerFields.customerName.optional(),
     familyId: uuid,
     cylinders: z
       .number({ error: 'must be a whole number' })
       .int('must be a whole number')
       .min(1, 'at least 1')
       .max(24, 'at most 24'),
+    /** The customer's known cylinder for each job cylinder, in order (null: not marked). */
+    cylinderIds: z.array(uuid.nullable()).max(24, 'at most 24').optional(),
   })
-  .strict();
+  .strict()
+  .refine((j) => (j.customerId === undefined) !== (j.customerName === undefined), {
+    message: "give either customerId (a customer's record) or customerName",
+    path: ['customerName'],
+  })
+  .refine((j) => j.customerId === undefined || (!j.customerPhone && !j.customerEmail), {
+    message: "with customerId, change the customer's phone and e-mail on their record",
+    path: ['customerPhone'],
+  })
+  .refine((j) => j.cylinderIds === undefined || j.cylinderIds.length <= j.cylinders, {
+    message: 'more cylinders marked than the job brings',
+    path: ['cylinderIds'],
+  });
 export type JobInput = z.output<typeof jobInput>;
 
 export const jobPatch = z
@@ -187,6 +204,8 @@ const smallLength = optionalLengthField({ allowZero: true, max: 10_000_000 });
 
 export const cylinderPatch = z
   .object({
+    /** The customer's cylinder this job cylinder is (null: unlink). */
+    cylinderId: uuid.nullable(),
     stepId: uuid.nullable(),
     clearance: smallLength,
     measuredAfterHone: optionalLengthField({ max: 500_000_000 }),
@@ -294,6 +313,8 @@ export interface HoldJson {
 
 export interface CylinderJson {
   n: number;
+  /** The customer's cylinder this is, by the shop's mark; null until linked. */
+  cylinder: { id: string; mark: string } | null;
   readings: ReadingJson[];
   wear: (WearJson & { overStandard: LengthJson | null }) | null;
   warnings: string[];
@@ -349,6 +370,7 @@ export interface JobListItemJson {
   id: string;
   number: string;
   state: JobState;
+  customerId: string;
   customerName: string;
   family: { id: string; code: string; name: string };
   cylinders: number;
@@ -402,6 +424,19 @@ export interface RecommendationJson {
   alternative?: StepAlternative;
   largestWorn: LengthJson;
   chosenStepId: string | null;
+  /** Steps still open after the chosen one (or, with none chosen, after the earlier bore). */
+  stepsLeft: number;
+  /** The linked cylinder's last bore before this job; null when unlinked or never bored. */
+  earlierBore: EarlierBoreJson | null;
+  cylinder: { id: string; mark: string } | null;
+}
+
+export interface EarlierBoreJson {
+  jobId: string;
+  jobNumber: string;
+  date: string;
+  stepLabel: string | null;
+  finishedBore: LengthJson;
 }
 
 export interface ProposalJson {
@@ -490,6 +525,9 @@ export interface BoreSheetJson {
   cutAt: string | null;
   measuredAfterHone: LengthJson | null;
   ringGapMeasured: LengthJson | null;
+  /** The cylinder's mark and its last bore before this job, when it has been bored before. */
+  cylinderMark: string | null;
+  previousBore: EarlierBoreJson | null;
   /** The usual cautions, with the engine's own first (two-stroke ports). */
   cautions: string[];
   /** What to tick after honing, worded for this engine (port edges only on a two-stroke). */

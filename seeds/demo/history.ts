@@ -424,12 +424,23 @@ export async function seedDemoHistory(knex: Knex, now: Date = new Date()): Promi
   ).rows.map((r: { n: number }) => Number(r.n));
   jobs.sort((a, b) => a.createdAt - b.createdAt);
 
+  // One customer record per invented name, so a regular's past jobs sit under one customer.
+  const names = [...new Set(jobs.map((j) => j.customer))].sort();
+  const customerIds = new Map<string, string>();
+  for (let i = 0; i < names.length; i += 500) {
+    const rows: { id: string; name: string }[] = await knex('customers')
+      .insert(names.slice(i, i + 500).map((name) => ({ name, accepts_email: false })))
+      .returning(['id', 'name']);
+    for (const row of rows) customerIds.set(row.name, row.id);
+  }
+
   const jobRows = jobs.map((job, i) => {
     const d = new Date(job.createdAt);
     const yymm = `${String(d.getUTCFullYear()).slice(2)}${String(d.getUTCMonth() + 1).padStart(2, '0')}`;
     return {
       id: job.id,
       number: `CY-${yymm}-${String(numbers[i]).padStart(4, '0')}`,
+      customer_id: customerIds.get(job.customer),
       customer_name: job.customer,
       family_id: job.family.id,
       cylinders: job.family.cylinders,

@@ -26,6 +26,8 @@ import { getCylinder } from './cylinder-service';
 import { requireCylinder, requireOpenJob } from './jobs-service';
 import { advanceState } from './job-state';
 import { lengthOrNull, toReadings } from './jobs-json';
+import { earlierBoreJson } from './cylinder-service';
+import { lastBoreBefore } from '../customers/cylinders-service';
 
 /** Everything the sheet and the cut are worked out from, read in one place so they cannot disagree. */
 async function sheetFacts(jobId: string, n: number, k: Knex) {
@@ -125,6 +127,10 @@ export async function boreSheet(
   const f = await sheetFacts(jobId, n, k);
   const { job, family, cylinder, sheet, cleanup } = f;
   const part = await holdsRepo.holdPart(f.piston.part_id, k);
+  // A cylinder bored before: its last bore goes on the sheet, for the machinist to check against.
+  const earlier = f.cylinder.cylinder_id
+    ? await lastBoreBefore(f.cylinder.cylinder_id, jobId, k)
+    : null;
   return {
     job: { id: job.id, number: job.number, customerName: job.customer_name, state: job.state },
     family: { id: family.id, code: family.code, name: family.name },
@@ -187,6 +193,8 @@ export async function boreSheet(
     cutAt: cylinder.cut_at ? cylinder.cut_at.toISOString() : null,
     measuredAfterHone: lengthOrNull(cylinder.measured_after_hone_nm),
     ringGapMeasured: lengthOrNull(cylinder.ring_gap_nm),
+    cylinderMark: cylinder.cylinder_mark,
+    previousBore: earlier ? earlierBoreJson(earlier.json) : null,
     // The engine's own caution first: it is the one this sheet adds to the usual list.
     cautions: [...engineCautions(family.stroke_type), ...BORE_SHEET_CAUTIONS],
     afterHoningChecks: afterHoningChecks(family.stroke_type),

@@ -13,15 +13,20 @@ import { formatLength, toLengthJson, type LengthUnit, type Nm } from '../../shar
 import type {
   CylinderJson,
   CylinderPatch,
+  EarlierBoreJson,
   ReadingsInput,
   ReadingsResultJson,
   RecommendationJson,
 } from '../../shared/jobs-api';
+import { stepNominalBore } from '../../shared/step-series';
+import type { BoreJson } from '../../shared/api/customers';
 import * as repo from './jobs-repository';
 import * as holdsRepo from './holds-repository';
 import { requireCylinder, requireOpenJob } from './jobs-service';
 import { advanceAfterHoning, advanceState } from './job-state';
 import { cylinderJson, familyLimits, lengthOrNull } from './jobs-json';
+import { checkLink, ladderOf, lastBoreBefore } from '../customers/cylinders-service';
+import { lastBoreConstraint, stepsLeftAfter, stepsLeftWarning } from '../../shared/bore-history';
 
 type Conn = Knex;
 
@@ -138,6 +143,11 @@ export async function recommendation(
   const marginal = settings.skipMarginalStep
     ? settingLength('marginal clean-up', settings.marginalCleanup)
     : null;
+  // A cylinder bored before may only go on from its last finished bore; a linked cylinder with
+  // no bores yet is known to be on its first rebore.
+  const earlier = cylinder.cylinder_id
+    ? await lastBoreBefore(cylinder.cylinder_id, jobId, k)
+    : null;
   const stepStock = steps.map((s) => {
     const st = stock.find((x) => x.step_id === s.id);
     return {
@@ -151,7 +161,10 @@ export async function recommendation(
   });
   const verdict = recommendStep({
     policy: settings.stepPolicy,
-    firstRebore: looksLikeFirstRebore(cylinder.largest_nm, family.standard_bore_nm, stepStock),
+    firstRebore: cylinder.cylinder_id
+      ? earlier === null
+      : looksLikeFirstRebore(cylinder.largest_nm, family.standard_bore_nm, stepStock),
+    constraints: earlier ? [lastBoreConstraint(earlier.last, family.cleanup_nm, unit)] : [],
     largestWornNm: cylinder.largest_nm,
     standardBoreNm: family.standard_bore_nm,
     cleanupNm: family.cleanup_nm,
@@ -161,6 +174,15 @@ export async function recommendation(
     unit,
     steps: stepStock,
   });
+  const ladder = await ladderOf(family, k);
+  const chosen = verdict.steps.find((v) => v.stepId === verdict.choice);
+  const stepsLeft = chosen
+    ? stepsLeftAfter(ladder, chosen.finishedBoreNm)
+    : verdict.choice === null && verdict.steps.every((v) => !v.suitable)
+      ? 0
+      : stepsLeftAfter(ladder, earlier?.row.finished_bore_nm ?? null);
+  const lastStep = chosen ? stepsLeftWarning(stepsLeft) : null;
+  const warning = [verdict.warning, lastStep].filter((w) => w).join(' ');
   return {
     steps: verdict.steps.map((v) => ({
       stepId: v.stepId,
@@ -175,10 +197,16 @@ export async function recommendation(
     })),
     choice: verdict.choice,
     ...(verdict.rule ? { rule: verdict.rule } : {}),
-    ...(verdict.warning ? { warning: verdict.warning } : {}),
+    ...(warning ? { warning } : {}),
     ...(verdict.alternative ? { alternative: verdict.alternative } : {}),
     largestWorn: toLengthJson(cylinder.largest_nm),
     chosenStepId: cylinder.chosen_step_id,
+    stepsLeft,
+    earlierBore: earlier ? earlierBoreJson(earlier.json) : null,
+    cylinder:
+      cylinder.cylinder_id && cylinder.cylinder_mark
+        ? { id: cylinder.cylinder_id, mark: cylinder.cylinder_mark }
+        : null,
   };
 }
 
@@ -201,6 +229,16 @@ export async function patchCylinder(
     const changes: Record<string, unknown> = {};
     const notes: string[] = [];
 
+    if (patch.cylinderId !== undefined && patch.cylinderId !== cylinder.cylinder_id) {
+      if (patch.cylinderId === null) {
+        notes.push('no longer linked to a marked cylinder');
+      } else {
+        notes.push(`is cylinder ${await checkLink(trx, job, n, patch.cylinderId)}`);
+      }
+      changes.cylinder_id = patch.cylinderId;
+    }
+    const linkedId = patch.cylinderId !== undefined ? patch.cylinderId : cylinder.cylinder_id;
+
     if (patch.stepId !== undefined && patch.stepId !== cylinder.chosen_step_id) {
       if (cylinder.cut_at) {
         throw new Conflict(`Cylinder ${n} is already cut; its step cannot change.`, 'already_cut');
@@ -215,6 +253,21 @@ export async function patchCylinder(
         }
         if (step.offset_nm > family.max_oversize_nm) {
           const message = `${step.label} is past the largest oversize ${family.code}'s wall allows (${show(family.max_oversize_nm)}): the cylinder needs a sleeve (liner) or replacing`;
+          throw new BadRequest(`stepId: ${message}.`, [{ field: 'stepId', message }]);
+        }
+        const earlier = linkedId ? await lastBoreBefore(linkedId, jobId, trx) : null;
+        const why = earlier
+          ? lastBoreConstraint(
+              earlier.last,
+              family.cleanup_nm,
+              unit,
+            )({
+              offsetNm: step.offset_nm,
+              finishedBoreNm: stepNominalBore(family.standard_bore_nm, step.offset_nm),
+            })
+          : null;
+        if (why !== null) {
+          const message = `${step.label} is ${why}`;
           throw new BadRequest(`stepId: ${message}.`, [{ field: 'stepId', message }]);
         }
         label = step.label;
@@ -278,4 +331,14 @@ export async function patchCylinder(
     }
   });
   return getCylinder(jobId, n, unit, k);
+}
+
+export function earlierBoreJson(b: BoreJson): EarlierBoreJson {
+  return {
+    jobId: b.jobId,
+    jobNumber: b.jobNumber,
+    date: b.date,
+    stepLabel: b.stepLabel,
+    finishedBore: b.finishedBore,
+  };
 }

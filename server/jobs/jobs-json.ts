@@ -103,6 +103,10 @@ export function cylinderJson(
   const gapMax = family.ring_gap_max_nm;
   return {
     n: c.n,
+    cylinder:
+      c.cylinder_id !== null && c.cylinder_mark !== null
+        ? { id: c.cylinder_id, mark: c.cylinder_mark }
+        : null,
     readings: mine.map(readingJson),
     wear: assessment
       ? {
@@ -141,6 +145,7 @@ export function jobListItemJson(row: JobListRow): JobListItemJson {
     id: row.id,
     number: row.number,
     state: row.state,
+    customerId: row.customer_id,
     customerName: row.customer_name,
     family: { id: row.family_id, code: row.family_code, name: row.family_name },
     cylinders: row.cylinders,

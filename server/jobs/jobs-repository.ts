@@ -33,6 +33,7 @@ export interface FamilyRow {
 export interface JobRow {
   id: string;
   number: string;
+  customer_id: string;
   customer_name: string;
   customer_phone: string | null;
   customer_email: string | null;
@@ -55,6 +56,7 @@ export interface JobListRow {
   id: string;
   number: string;
   state: JobState;
+  customer_id: string;
   customer_name: string;
   family_id: string;
   family_code: string;
@@ -72,6 +74,8 @@ export interface JobListRow {
 export interface CylinderRow {
   job_id: string;
   n: number;
+  cylinder_id: string | null;
+  cylinder_mark: string | null;
   largest_nm: number | null;
   taper_nm: number | null;
   out_of_round_nm: number | null;
@@ -164,10 +168,9 @@ export async function findStep(
 
 // ---- Jobs -------------------------------------------------------------------------------------
 
+/** The customer's fields are copied from the customer by the database. */
 export interface NewJob {
-  customer_name: string;
-  customer_phone: string | null;
-  customer_email: string | null;
+  customer_id: string;
   family_id: string;
   cylinders: number;
   asked_for: string;
@@ -177,11 +180,19 @@ export interface NewJob {
   created_by: string | null;
 }
 
-export async function insertJob(trx: Knex, job: NewJob): Promise<{ id: string; number: string }> {
+export async function insertJob(
+  trx: Knex,
+  job: NewJob,
+  cylinderIds: (string | null)[] = [],
+): Promise<{ id: string; number: string }> {
   const [row] = await trx('jobs')
     .insert(job)
     .returning<{ id: string; number: string }[]>(['id', 'number']);
-  const cylinders = Array.from({ length: job.cylinders }, (_, i) => ({ job_id: row.id, n: i + 1 }));
+  const cylinders = Array.from({ length: job.cylinders }, (_, i) => ({
+    job_id: row.id,
+    n: i + 1,
+    cylinder_id: cylinderIds[i] ?? null,
+  }));
   await trx('job_cylinders').insert(cylinders);
   return row;
 }
@@ -192,6 +203,7 @@ function jobBase(k: Knex) {
     .select(
       'j.id',
       'j.number',
+      'j.customer_id',
       'j.customer_name',
       'j.customer_phone',
       'j.customer_email',
@@ -312,6 +324,7 @@ export async function listJobs(
       'j.id',
       'j.number',
       'j.state',
+      'j.customer_id',
       'j.customer_name',
       'j.family_id',
       'f.code as family_code',
@@ -370,9 +383,12 @@ export async function jobListRow(id: string, today: string, k: Knex = db): Promi
 export function cylindersOf(jobId: string, k: Knex = db): Promise<CylinderRow[]> {
   return k('job_cylinders as c')
     .leftJoin('series_steps as s', 's.id', 'c.chosen_step_id')
+    .leftJoin('cylinders as y', 'y.id', 'c.cylinder_id')
     .select(
       'c.job_id',
       'c.n',
+      'c.cylinder_id',
+      'y.mark as cylinder_mark',
       'c.largest_nm',
       'c.taper_nm',
       'c.out_of_round_nm',

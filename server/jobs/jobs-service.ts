@@ -21,6 +21,9 @@ import {
   type Page,
 } from '../../shared/jobs-api';
 import * as repo from './jobs-repository';
+import { findOrCreateForJob, requireLiveCustomer } from '../customers/customers-service';
+import { updateCustomer as updateCustomerFields } from '../customers/customers-repository';
+import { checkLink } from '../customers/cylinders-service';
 import * as holdsRepo from './holds-repository';
 import { releaseInTransaction } from './holds-service';
 import { whyNotReadyToCut } from './job-state';
@@ -85,23 +88,46 @@ export async function createJob(
     throw new BadRequest(`cylinders: ${message}.`, [{ field: 'cylinders', message }]);
   }
   const id = await k.transaction(async (trx) => {
-    const created = await repo.insertJob(trx, {
-      customer_name: input.customerName,
-      customer_phone: input.customerPhone ?? null,
-      customer_email: input.customerEmail ?? null,
-      family_id: family.id,
-      cylinders: input.cylinders,
-      asked_for: input.askedFor ?? '',
-      due_date: input.dueDate ?? null,
-      notes: input.notes ?? '',
-      notify_customer: input.notifyCustomer ?? true,
-      created_by: actorId,
-    });
+    const customerId =
+      input.customerId !== undefined
+        ? (await requireLiveCustomer(trx, input.customerId, 'customerId')).id
+        : await findOrCreateForJob(trx, {
+            name: input.customerName ?? '',
+            phone: input.customerPhone ?? null,
+            email: input.customerEmail ?? null,
+          });
+    const cylinderIds = input.cylinderIds ?? [];
+    const marks: string[] = [];
+    for (const [i, cylinderId] of cylinderIds.entries()) {
+      if (cylinderId === null) continue;
+      if (cylinderIds.indexOf(cylinderId) !== i) {
+        const message = `the same cylinder is listed as cylinder ${cylinderIds.indexOf(cylinderId) + 1} and ${i + 1}`;
+        throw new BadRequest(`cylinderIds.${i}: ${message}.`, [
+          { field: `cylinderIds.${i}`, message },
+        ]);
+      }
+      const job = { id: null, number: 'this job', customer_id: customerId, family_id: family.id };
+      marks.push(await checkLink(trx, job, i + 1, cylinderId, `cylinderIds.${i}`));
+    }
+    const created = await repo.insertJob(
+      trx,
+      {
+        customer_id: customerId,
+        family_id: family.id,
+        cylinders: input.cylinders,
+        asked_for: input.askedFor ?? '',
+        due_date: input.dueDate ?? null,
+        notes: input.notes ?? '',
+        notify_customer: input.notifyCustomer ?? true,
+        created_by: actorId,
+      },
+      cylinderIds,
+    );
     await repo.insertEvent(trx, {
       jobId: created.id,
       userId: actorId,
       kind: 'state',
-      text: `Booked in: ${input.cylinders} cylinder${input.cylinders === 1 ? '' : 's'} of ${family.code}.`,
+      text: `Booked in: ${input.cylinders} cylinder${input.cylinders === 1 ? '' : 's'} of ${family.code}${marks.length > 0 ? ` (marked ${marks.join(', ')})` : ''}.`,
     });
     return created.id;
   });
@@ -147,6 +173,7 @@ export async function getJob(id: string, unit: LengthUnit, k: Conn = db): Promis
     id: job.id,
     number: job.number,
     state: job.state,
+    customerId: job.customer_id,
     customerName: job.customer_name,
     customerPhone: job.customer_phone,
     customerEmail: job.customer_email,
@@ -187,9 +214,18 @@ export async function patchJob(
   await k.transaction(async (trx) => {
     const job = await requireOpenJob(trx, id, 'change');
     const changes: Record<string, unknown> = {};
-    if (patch.customerName !== undefined) changes.customer_name = patch.customerName;
-    if (patch.customerPhone !== undefined) changes.customer_phone = patch.customerPhone;
-    if (patch.customerEmail !== undefined) changes.customer_email = patch.customerEmail;
+    // The job's customer fields are the customer's: changing them here changes the record (and
+    // so every job of that customer reads the new details).
+    const customer: Record<string, unknown> = {};
+    if (patch.customerName !== undefined) customer.name = patch.customerName;
+    if (patch.customerPhone !== undefined) customer.phone = patch.customerPhone;
+    if (patch.customerEmail !== undefined) {
+      customer.email = patch.customerEmail === null ? null : patch.customerEmail.toLowerCase();
+    }
+    if (Object.keys(customer).length > 0) {
+      await requireLiveCustomer(trx, job.customer_id);
+      await updateCustomerFields(trx, job.customer_id, customer);
+    }
     if (patch.askedFor !== undefined) changes.asked_for = patch.askedFor;
     if (patch.dueDate !== undefined) changes.due_date = patch.dueDate;
     if (patch.notes !== undefined) changes.notes = patch.notes;

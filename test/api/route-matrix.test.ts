@@ -72,6 +72,18 @@ const EXPECTED: Record<string, Access> = {
   'POST /api/jobs/:id/photos': ['owner', 'machinist', 'staff'],
   'GET /api/jobs/:id/photos/:photoId': ALL,
   'GET /api/jobs/:id/photos/:photoId/thumbnail': ALL,
+  // Customers and their cylinders: everyone signed in reads (an export is a read); the counter and
+  // the workshop create and edit; merging two records and erasing one are the owner's.
+  'GET /api/customers': ALL,
+  'POST /api/customers': ['owner', 'machinist', 'staff'],
+  'GET /api/customers/:id': ALL,
+  'PATCH /api/customers/:id': ['owner', 'machinist', 'staff'],
+  'POST /api/customers/:id/merge': OWNER,
+  'GET /api/customers/:id/export': ALL,
+  'POST /api/customers/:id/erase': OWNER,
+  'GET /api/customers/:id/cylinders': ALL,
+  'POST /api/customers/:id/cylinders': ['owner', 'machinist', 'staff'],
+  'GET /api/cylinders/:id': ALL,
   // Insights: the owner sees everything; the buyer the stock side. Each table also as CSV.
   'GET /api/insights/sales': OWNER,
   'GET /api/insights/sales.csv': OWNER,

@@ -16,6 +16,7 @@ const JOB: JobJson = {
   id: JOB_ID,
   number: 'CY-2612-0042',
   state: 'booked_in',
+  customerId: 'c1',
   customerName: 'Odile Farrant',
   customerPhone: null,
   customerEmail: null,
@@ -50,6 +51,7 @@ const JOB: JobJson = {
   cylinderDetails: [
     {
       n: 1,
+      cylinder: null,
       readings: [],
       wear: null,
       warnings: [],

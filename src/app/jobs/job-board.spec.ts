@@ -17,6 +17,7 @@ function job(
     id: number,
     number,
     state,
+    customerId: `c-${number}`,
     customerName: `Customer of ${number}`,
     family: { id: 'f1', code: 'TS-64', name: 'Invented single' },
     cylinders: 1,

@@ -1,0 +1,123 @@
+// Customer routes: search and the record for everyone signed in; the counter and the workshop
+// create and edit customers and their cylinders; merging two records and erasing one are the
+// owner's. An export is everything the shop holds about the customer, as JSON or CSV.
+import type { Router } from 'express';
+import { z } from 'zod';
+import { pageQuery, route, uuidParam } from '../http/route';
+import type { Role } from '../../shared/session-types';
+import {
+  customerInput,
+  customerPatch,
+  cylinderInput,
+  eraseInput,
+  EXPORT_FORMATS,
+  mergeInput,
+} from '../../shared/api/customers';
+import { sendCsv } from '../insights/insights-csv';
+import * as customers from './customers-service';
+import * as cylinders from './cylinders-service';
+import { exportCsvTable, exportCustomer } from './customer-export';
+
+const COUNTER: Role[] = ['owner', 'machinist', 'staff'];
+const OWNER: Role[] = ['owner'];
+
+const idParams = z.object({ id: uuidParam });
+const searchQuery = pageQuery.pick({ q: true, page: true, pageSize: true });
+const exportQuery = z
+  .object({
+    format: z
+      .enum(EXPORT_FORMATS, { error: `must be one of ${EXPORT_FORMATS.join(', ')}` })
+      .optional(),
+  })
+  .strict();
+
+export function registerCustomersRoutes(router: Router): void {
+  route(router, {
+    method: 'get',
+    path: '/api/customers',
+    access: 'signed-in',
+    query: searchQuery,
+    handler: ({ query }) => customers.searchCustomers(query),
+  });
+  route(router, {
+    method: 'post',
+    path: '/api/customers',
+    access: COUNTER,
+    body: customerInput,
+    status: 201,
+    handler: ({ body, user }) => customers.createCustomer(user.id, body),
+  });
+  route(router, {
+    method: 'get',
+    path: '/api/customers/:id',
+    access: 'signed-in',
+    params: idParams,
+    handler: ({ params }) => customers.getCustomer(params.id),
+  });
+  route(router, {
+    method: 'patch',
+    path: '/api/customers/:id',
+    access: COUNTER,
+    params: idParams,
+    body: customerPatch,
+    handler: ({ params, body, user }) => customers.patchCustomer(user.id, params.id, body),
+  });
+  route(router, {
+    method: 'post',
+    path: '/api/customers/:id/merge',
+    access: OWNER,
+    params: idParams,
+    body: mergeInput,
+    handler: ({ params, body, user }) => customers.mergeCustomers(user.id, params.id, body.fromId),
+  });
+  route(router, {
+    method: 'get',
+    path: '/api/customers/:id/export',
+    access: 'signed-in',
+    params: idParams,
+    query: exportQuery,
+    handler: async ({ params, query, res }) => {
+      const data = await exportCustomer(params.id);
+      if (query.format === 'csv') {
+        sendCsv(res, exportCsvTable(data));
+        return undefined;
+      }
+      res.setHeader(
+        'Content-Disposition',
+        `attachment; filename="stepstock-customer-${params.id.slice(0, 8)}.json"`,
+      );
+      return data;
+    },
+  });
+  route(router, {
+    method: 'post',
+    path: '/api/customers/:id/erase',
+    access: OWNER,
+    params: idParams,
+    body: eraseInput,
+    handler: ({ params, user }) => customers.eraseCustomer(user.id, params.id),
+  });
+  route(router, {
+    method: 'get',
+    path: '/api/customers/:id/cylinders',
+    access: 'signed-in',
+    params: idParams,
+    handler: ({ params }) => cylinders.listCylinders(params.id),
+  });
+  route(router, {
+    method: 'post',
+    path: '/api/customers/:id/cylinders',
+    access: COUNTER,
+    params: idParams,
+    body: cylinderInput,
+    status: 201,
+    handler: ({ params, body, user }) => cylinders.addCylinder(user.id, params.id, body),
+  });
+  route(router, {
+    method: 'get',
+    path: '/api/cylinders/:id',
+    access: 'signed-in',
+    params: idParams,
+    handler: ({ params }) => cylinders.cylinderDetail(params.id),
+  });
+}

@@ -1,0 +1,181 @@
+// What the customers API accepts and answers: the customer record, search at intake, merging two
+// records of one person, export and erasure, and the customer's cylinders with their bores. The
+// zod schemas serve the server routes and the Angular forms alike.
+import { z } from 'zod';
+import type { LengthJson } from '../lengths';
+import type { JobState } from '../jobs-api';
+
+const uuid = z.string().uuid('must be a valid id');
+
+export const CUSTOMER_NAME_MAX = 120;
+/** What an erased customer's name reads as: no trace of the person, still a distinct row. */
+export const ERASED_NAME_PREFIX = 'Erased customer';
+
+export const customerName = z
+  .string({ error: "enter the customer's name" })
+  .trim()
+  .min(1, "enter the customer's name")
+  .max(CUSTOMER_NAME_MAX, `at most ${CUSTOMER_NAME_MAX} characters`);
+
+/** Left out: no change; "" or null: cleared. */
+const optionalText = (max: number) =>
+  z
+    .union([z.null(), z.string().trim().max(max, `at most ${max} characters`)])
+    .optional()
+    .transform((v) => (v === '' ? null : v));
+
+export const customerPhone = optionalText(40).refine(
+  (v) => v === null || v === undefined || /^[0-9+()\-./\s]{3,40}$/.test(v),
+  'digits, spaces and + ( ) - . / only',
+);
+
+export const customerEmail = optionalText(254)
+  .refine(
+    (v) => v === null || v === undefined || z.string().email().safeParse(v).success,
+    'is not an e-mail address',
+  )
+  .transform((v) => (typeof v === 'string' ? v.toLowerCase() : v));
+
+const customerNotes = z.string().trim().max(2000, 'at most 2000 characters');
+
+export const customerInput = z
+  .object({
+    name: customerName,
+    phone: customerPhone,
+    email: customerEmail,
+    acceptsEmail: z.boolean({ error: 'must be true or false' }).optional(),
+    notes: customerNotes.optional(),
+  })
+  .strict();
+export type CustomerInput = z.output<typeof customerInput>;
+
+export const customerPatch = customerInput
+  .partial()
+  .strict()
+  .refine((p) => Object.values(p).some((v) => v !== undefined), 'nothing to change');
+export type CustomerPatch = z.output<typeof customerPatch>;
+
+export const mergeInput = z.object({ fromId: uuid }).strict();
+
+export const eraseInput = z.object({}).strict();
+
+export const cylinderInput = z
+  .object({
+    mark: z
+      .string({ error: "enter the shop's mark for the cylinder" })
+      .trim()
+      .min(1, "enter the shop's mark for the cylinder")
+      .max(40, 'at most 40 characters')
+      .regex(/^[\x20-\x7e]+$/, 'letters, digits and plain punctuation only, so the tag can print'),
+    familyId: uuid,
+    castNumber: optionalText(60),
+  })
+  .strict();
+export type CylinderInput = z.output<typeof cylinderInput>;
+
+export const EXPORT_FORMATS = ['json', 'csv'] as const;
+
+// ---- Answers ----------------------------------------------------------------------------------
+
+export interface CustomerListItemJson {
+  id: string;
+  name: string;
+  phone: string | null;
+  email: string | null;
+  acceptsEmail: boolean;
+}
+
+export interface CustomerJobJson {
+  id: string;
+  number: string;
+  state: JobState;
+  familyCode: string;
+  cylinders: number;
+  askedFor: string;
+  dueDate: string | null;
+  createdAt: string;
+  closedAt: string | null;
+}
+
+export interface CustomerJson extends CustomerListItemJson {
+  notes: string;
+  erasedAt: string | null;
+  createdAt: string;
+  updatedAt: string;
+  jobs: CustomerJobJson[];
+}
+
+export interface BoreJson {
+  jobId: string;
+  jobNumber: string;
+  /** The job's cylinder number. */
+  n: number;
+  stepId: string | null;
+  stepLabel: string | null;
+  /** Measured after honing when recorded, else the step's nominal bore. */
+  finishedBore: LengthJson;
+  measured: boolean;
+  /** The shop's calendar date of the cut, YYYY-MM-DD. */
+  date: string;
+  /** The measured piston that went in. */
+  piston: string | null;
+}
+
+export interface CustomerCylinderJson {
+  id: string;
+  mark: string;
+  castNumber: string | null;
+  familyId: string;
+  familyCode: string;
+  customerId: string;
+  /** Oldest first. */
+  bores: BoreJson[];
+  /** Steps still open to the next rebore, up to the family's largest oversize. */
+  stepsLeft: number;
+}
+
+export interface CylinderStepJson {
+  id: string;
+  label: string;
+  offset: LengthJson;
+  finishedBore: LengthJson;
+  /** Past the largest oversize the wall allows. */
+  pastWall: boolean;
+}
+
+/** The cylinder page: the cylinder, its bores and the family's ladder to draw them against. */
+export interface CylinderDetailJson extends CustomerCylinderJson {
+  customerName: string;
+  family: {
+    id: string;
+    code: string;
+    name: string;
+    standardBore: LengthJson;
+    cleanup: LengthJson;
+    maxOversize: LengthJson;
+  };
+  steps: CylinderStepJson[];
+  /** Linked job cylinders not cut yet. */
+  openJobs: { jobId: string; jobNumber: string; n: number; state: JobState }[];
+}
+
+export interface CustomerExportJson {
+  exportedAt: string;
+  customer: CustomerJson;
+  cylinders: CustomerCylinderJson[];
+  jobs: {
+    id: string;
+    number: string;
+    state: JobState;
+    familyCode: string;
+    cylinders: number;
+    askedFor: string;
+    notes: string;
+    dueDate: string | null;
+    notifyCustomer: boolean;
+    createdAt: string;
+    closedAt: string | null;
+  }[];
+  /** E-mail the shop queued to the customer's address. */
+  mail: { template: string; status: string; createdAt: string }[];
+}
