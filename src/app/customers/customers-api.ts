@@ -1,0 +1,74 @@
+import { HttpClient, HttpParams } from '@angular/common/http';
+import { inject, Injectable } from '@angular/core';
+import { map, Observable } from 'rxjs';
+
+import type {
+  CustomerCylinderJson,
+  CustomerJson,
+  CustomerListItemJson,
+  CylinderDetailJson,
+} from '../../../shared/api/customers';
+import type { Page } from '../../../shared/jobs-api';
+
+export interface CustomerBody {
+  name?: string;
+  phone?: string | null;
+  email?: string | null;
+  acceptsEmail?: boolean;
+  notes?: string;
+}
+
+/** The customers API as the pages use it: search, the record, merge, export, erase, cylinders. */
+@Injectable({ providedIn: 'root' })
+export class CustomersApi {
+  private readonly http = inject(HttpClient);
+
+  search(q: string, page = 1, pageSize = 8): Observable<Page<CustomerListItemJson>> {
+    const params = new HttpParams()
+      .set('q', q)
+      .set('page', String(page))
+      .set('pageSize', String(pageSize));
+    return this.http.get<Page<CustomerListItemJson>>('/api/customers', { params });
+  }
+
+  get(id: string): Observable<CustomerJson> {
+    return this.http.get<CustomerJson>(`/api/customers/${id}`);
+  }
+
+  create(body: CustomerBody & { name: string }): Observable<CustomerJson> {
+    return this.http.post<CustomerJson>('/api/customers', body);
+  }
+
+  update(id: string, body: CustomerBody): Observable<CustomerJson> {
+    return this.http.patch<CustomerJson>(`/api/customers/${id}`, body);
+  }
+
+  merge(id: string, fromId: string): Observable<CustomerJson> {
+    return this.http.post<CustomerJson>(`/api/customers/${id}/merge`, { fromId });
+  }
+
+  erase(id: string): Observable<CustomerJson> {
+    return this.http.post<CustomerJson>(`/api/customers/${id}/erase`, {});
+  }
+
+  exportUrl(id: string, format: 'json' | 'csv'): string {
+    return `/api/customers/${id}/export${format === 'csv' ? '?format=csv' : ''}`;
+  }
+
+  cylinders(id: string): Observable<CustomerCylinderJson[]> {
+    return this.http
+      .get<{ items: CustomerCylinderJson[] }>(`/api/customers/${id}/cylinders`)
+      .pipe(map((r) => r.items));
+  }
+
+  addCylinder(
+    id: string,
+    body: { mark: string; familyId: string; castNumber?: string | null },
+  ): Observable<CustomerCylinderJson> {
+    return this.http.post<CustomerCylinderJson>(`/api/customers/${id}/cylinders`, body);
+  }
+
+  cylinder(id: string): Observable<CylinderDetailJson> {
+    return this.http.get<CylinderDetailJson>(`/api/cylinders/${id}`);
+  }
+}
