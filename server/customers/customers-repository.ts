@@ -117,8 +117,9 @@ export async function searchCustomers(
 
 /**
  * The customer an old-style job (a typed name, phone and e-mail) belongs to: the same name
- * (ignoring case) with the same phone digits or e-mail; with neither given, the one customer of
- * that name, if only one has it.
+ * (ignoring case) with the same phone digits or e-mail, and no given detail that contradicts the
+ * record (the same name with another e-mail may be another person; a merge joins them later).
+ * With neither phone nor e-mail given: the one customer of that name, if only one has it.
  */
 export async function findByContact(
   c: { name: string; phone: string | null; email: string | null },
@@ -133,12 +134,13 @@ export async function findByContact(
     return rows.length === 1 ? rows[0] : undefined;
   }
   const phoneDigits = c.phone?.replace(/\D/g, '') ?? '';
+  const digitsOf = `regexp_replace(coalesce(phone, ''), '\\D', '', 'g')`;
+  if (c.email !== null) same.whereRaw('(email IS NULL OR lower(email) = lower(?))', [c.email]);
+  if (phoneDigits !== '') same.whereRaw(`(phone IS NULL OR ${digitsOf} = ?)`, [phoneDigits]);
   return (await same
     .where((w) => {
       if (c.email !== null) w.orWhereRaw('lower(email) = lower(?)', [c.email]);
-      if (phoneDigits !== '') {
-        w.orWhereRaw(`regexp_replace(coalesce(phone, ''), '\\D', '', 'g') = ?`, [phoneDigits]);
-      }
+      if (phoneDigits !== '') w.orWhereRaw(`${digitsOf} = ?`, [phoneDigits]);
     })
     .orderBy('created_at')
     .first()) as CustomerRow | undefined;

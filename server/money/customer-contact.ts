@@ -12,8 +12,12 @@ export async function customerContact(
   jobId: string,
   k: Knex = db,
 ): Promise<CustomerContact | null> {
-  const row = await k('jobs').where({ id: jobId }).first('customer_name', 'customer_email');
+  // The job's customer record: its current name, and its address only while they accept e-mail.
+  const row = await k('jobs as j')
+    .join('customers as c', 'c.id', 'j.customer_id')
+    .where('j.id', jobId)
+    .first('c.name', 'c.email', 'c.accepts_email');
   if (!row) return null;
-  const email = typeof row.customer_email === 'string' ? row.customer_email.trim() : '';
-  return { name: row.customer_name as string, email: email === '' ? null : email };
+  const email = typeof row.email === 'string' && row.accepts_email ? row.email.trim() : '';
+  return { name: row.name as string, email: email === '' ? null : email };
 }

@@ -5,7 +5,7 @@ import type { Knex } from 'knex';
 import { createDb, db } from '../../server/db/knex';
 import { migrationConfig } from '../../server/db/migrate';
 
-const MIGRATION = '20261202143000_customers.ts';
+const MIGRATION = '20261202151500_customers.ts';
 const dbName = `mig_${randomUUID().slice(0, 8)}`;
 let scratch: Knex;
 
