@@ -144,6 +144,7 @@ function cylinder(c: Case, stepId: string | null): CylinderJson {
   const step = c.steps.find((s) => s.id === stepId) ?? null;
   return {
     n: 1,
+    cylinder: null,
     readings: [{ depth: 'top', axis: 'pin', diameter: c.largest, unit: c.unit }],
     wear: {
       largest: c.largest,
@@ -169,6 +170,7 @@ function job(c: Case, stepId: string | null): JobJson {
     id: JOB_ID,
     number: 'CY-2612-0077',
     state: 'booked_in',
+    customerId: 'c-ismay',
     customerName: 'Ismay Tarrow',
     customerPhone: null,
     customerEmail: null,
@@ -211,6 +213,9 @@ function recommendation(c: Case, chosen: string | null): RecommendationJson {
     choice: c.choice,
     largestWorn: c.largest,
     chosenStepId: chosen,
+    stepsLeft: c.steps.length - 1 - choiceIndex,
+    earlierBore: null,
+    cylinder: null,
   };
 }
 
