@@ -87,7 +87,8 @@ describe('readingsInput', () => {
     const parsed = readingsInput.parse({
       readings: [
         { depth: 'top', axis: 'pin', diameter: '2.5260 in' },
-        { depth: 'top', axis: 'thrust', diameter: '64,135 mm' },
+        // A decimal comma with four digits is not mistaken for a thousands separator.
+        { depth: 'top', axis: 'thrust', diameter: '64,1350 mm' },
       ],
     });
     expect(parsed.readings.map((r) => r.diameter)).toEqual([
