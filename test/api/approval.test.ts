@@ -1,3 +1,4 @@
+import { randomUUID } from 'node:crypto';
 // The customer's approval before the cut, against the real app, database and a real SMTP server on
 // loopback: the estimate e-mailed with its link, the public page opened without a session, agreed
 // or turned down from it, an approval taken at the counter, and the cut refused until then. Wrong,
@@ -157,7 +158,12 @@ describe('sending the estimate and the customer answering from the link', () => 
 
 describe('links that must open nothing', () => {
   it('when a job has no customer e-mail, then sending is 409 and nothing is queued', async () => {
-    const job = await makePricedJob(owner, staff, machinist, { customerEmail: null });
+    // A customer of their own: a job typed with a known name and phone joins that customer's record.
+    const job = await makePricedJob(owner, staff, machinist, {
+      customerName: `Wynn Castellane ${randomUUID().slice(0, 8)}`,
+      customerPhone: null,
+      customerEmail: null,
+    });
     const before = await db('outbox').count<{ count: string }[]>('* as count');
     const res = await staff.post(`/api/jobs/${job.id}/estimate/send`);
     expect(res.status).toBe(409);

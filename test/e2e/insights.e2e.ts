@@ -164,7 +164,14 @@ describe('insights for the owner', () => {
     await page.getByRole('heading', { name: 'What sits', level: 1 }).waitFor();
     await chartsDrawn(page, 1);
     const notMoved = page.getByRole('region', { name: 'Not moved' });
-    await notMoved.getByRole('row').nth(1).waitFor();
+    // The demo's stock all came in recently, so with receipts counted as movement the list may be
+    // empty: either its rows or its empty-state sentence must show.
+    await notMoved
+      .getByRole('row')
+      .nth(1)
+      .or(notMoved.getByText(/Every part with free stock went out or came in/))
+      .first()
+      .waitFor();
     await notMoved.getByText('24 months', { exact: true }).click();
     await page.waitForURL(/months=24/);
     await settled(page);
