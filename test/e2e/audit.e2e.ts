@@ -1,6 +1,15 @@
 // The owner reads the audit trail: a change made a moment ago is on top with who, what and the
 // values before and after; the filters work from the keyboard; other roles have no way in.
-import { DEMO, e2eEnvironment, screenshot, seriousA11yViolations, signIn } from './support';
+import {
+  DEMO,
+  e2eEnvironment,
+  failOnPageErrors,
+  screenshot,
+  seriousA11yViolations,
+  signIn,
+} from './support';
+
+failOnPageErrors();
 
 jest.setTimeout(180_000);
 

@@ -2,11 +2,14 @@
 import {
   DEMO,
   e2eEnvironment,
+  failOnPageErrors,
   screenshot,
   seriousA11yViolations,
   signIn,
   type DemoRole,
 } from './support';
+
+failOnPageErrors();
 
 let env: Awaited<ReturnType<typeof e2eEnvironment>>;
 

@@ -2,7 +2,17 @@
 // commas), check the detected format and the preview counts, apply it, and find the new prices on the
 // supplier's items. A screenshot of every step goes to test/artifacts/screenshots.
 import path from 'node:path';
-import { DEMO, REPO, e2eEnvironment, screenshot, seriousA11yViolations, signIn } from './support';
+import {
+  DEMO,
+  e2eEnvironment,
+  failOnPageErrors,
+  REPO,
+  screenshot,
+  seriousA11yViolations,
+  signIn,
+} from './support';
+
+failOnPageErrors();
 
 jest.setTimeout(180_000);
 

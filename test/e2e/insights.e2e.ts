@@ -3,7 +3,16 @@
 // up in an accessibility scan. The buyer sees the stock side only.
 import { readFileSync } from 'node:fs';
 import type { Page } from 'playwright-core';
-import { DEMO, e2eEnvironment, screenshot, seriousA11yViolations, signIn } from './support';
+import {
+  DEMO,
+  e2eEnvironment,
+  failOnPageErrors,
+  screenshot,
+  seriousA11yViolations,
+  signIn,
+} from './support';
+
+failOnPageErrors();
 
 // Each step drives a real browser against a real server; on a busy machine that takes seconds.
 jest.setTimeout(180_000);

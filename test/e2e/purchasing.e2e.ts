@@ -2,7 +2,16 @@
 // for the first oversize of the twin to wait on the order line, send the order; staff receive it
 // with each piston's measured skirt; the job shows its held piston; the owner's Mailbox shows the
 // order and the notices. Screenshots of every page and an accessibility scan on each.
-import { DEMO, e2eEnvironment, screenshot, seriousA11yViolations, signIn } from './support';
+import {
+  DEMO,
+  e2eEnvironment,
+  failOnPageErrors,
+  screenshot,
+  seriousA11yViolations,
+  signIn,
+} from './support';
+
+failOnPageErrors();
 
 jest.setTimeout(180_000);
 

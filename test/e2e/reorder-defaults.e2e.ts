@@ -1,5 +1,14 @@
 // The buyer sets a family-wide reorder default from the reorder page.
-import { DEMO, e2eEnvironment, screenshot, seriousA11yViolations, signIn } from './support';
+import {
+  DEMO,
+  e2eEnvironment,
+  failOnPageErrors,
+  screenshot,
+  seriousA11yViolations,
+  signIn,
+} from './support';
+
+failOnPageErrors();
 
 let env: Awaited<ReturnType<typeof e2eEnvironment>>;
 

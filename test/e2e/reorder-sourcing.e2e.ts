@@ -4,7 +4,16 @@
 // waiting in the mapping queue that might be it. Screenshots at 1280 and 800 px wide.
 import pg from 'pg';
 import type { Page } from 'playwright-core';
-import { DEMO, e2eEnvironment, screenshot, seriousA11yViolations, signIn } from './support';
+import {
+  DEMO,
+  e2eEnvironment,
+  failOnPageErrors,
+  screenshot,
+  seriousA11yViolations,
+  signIn,
+} from './support';
+
+failOnPageErrors();
 
 jest.setTimeout(180_000);
 

@@ -1,7 +1,16 @@
 // Staff receives three measured pistons typing sizes in inches; the machinist, who reads
 // millimetres, finds them on the family's step ladder with the sizes converted exactly
 // (1 in = 25.4 mm, international yard and pound agreement of 1959, NIST SP 811 appendix B).
-import { DEMO, e2eEnvironment, screenshot, seriousA11yViolations, signIn } from './support';
+import {
+  DEMO,
+  e2eEnvironment,
+  failOnPageErrors,
+  screenshot,
+  seriousA11yViolations,
+  signIn,
+} from './support';
+
+failOnPageErrors();
 
 // Each test walks several pages in a real browser.
 jest.setTimeout(120_000);
