@@ -262,13 +262,16 @@ export function registerJobsRoutes(router: Router): void {
   });
 }
 
-/** Photos never change once stored, so the browser may keep them (privately: they are a customer's). */
+/**
+ * A customer's photo must not outlive the session on a shared counter PC: the browser keeps no copy
+ * (ASVS 4.0.3 V8.2.1), so after sign-out the picture cannot be reopened from the cache.
+ */
 function sendImage(
   res: import('express').Response,
   file: { contentType: string; data: Buffer },
 ): undefined {
   res.setHeader('Content-Type', file.contentType);
-  res.setHeader('Cache-Control', 'private, max-age=86400, immutable');
+  res.setHeader('Cache-Control', 'private, no-store');
   res.setHeader('Content-Disposition', 'inline');
   res.status(200).end(file.data);
   return undefined;
