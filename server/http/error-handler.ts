@@ -41,6 +41,20 @@ function isPoolTimeout(err: unknown): boolean {
   );
 }
 
+/**
+ * A compressed body that does not decompress (gzip, deflate or br): zlib's codes are Z_* and
+ * brotli's ERR_*; body-parser marks them as the client's fault (status 400).
+ */
+export function isUndecodableBody(err: unknown): boolean {
+  const e = err as { status?: number; code?: unknown; errno?: unknown } | null;
+  return (
+    e?.status === 400 &&
+    typeof e.errno === 'number' &&
+    typeof e.code === 'string' &&
+    /^(Z_|ERR_)/.test(e.code)
+  );
+}
+
 /** Maps Express and library errors onto our error model. */
 function toAppError(err: unknown): AppError {
   if (err instanceof AppError) return err;
@@ -57,6 +71,12 @@ function toAppError(err: unknown): AppError {
     return new AppError(400, 'invalid_json', 'The request body is not valid JSON.');
   if (e?.type === 'charset.unsupported' || e?.type === 'encoding.unsupported')
     return new AppError(415, 'unsupported_type', 'Send JSON in UTF-8.');
+  if (isUndecodableBody(err))
+    return new AppError(
+      400,
+      'invalid_body',
+      'The request body could not be decompressed: it does not match its Content-Encoding.',
+    );
   if (e?.code === 'LIMIT_FILE_SIZE')
     return new AppError(413, 'too_large', 'The file is larger than the limit for this upload.');
   if (typeof e?.code === 'string' && e.code.startsWith('LIMIT_'))
@@ -103,6 +123,12 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, next) => {
   const appError = toAppError(err);
   if (appError.status >= 500) {
     (req.log ?? logger).error({ err }, 'request failed');
+  } else if (isUndecodableBody(err)) {
+    // Bad input, not a server fault: a warning with the reason, no stack (ASVS 4.0.3 V7.4.1).
+    (req.log ?? logger).warn(
+      { code: (err as { code: string }).code, encoding: req.headers['content-encoding'] },
+      'request body could not be decompressed',
+    );
   }
   // Part of the answer is already out (a streamed export): Express's own handler cuts the
   // connection, so the client sees a failed download rather than waiting forever.

