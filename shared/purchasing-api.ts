@@ -105,10 +105,14 @@ export interface ReorderSuggestionJson {
   sku: string;
   window: { from: string; to: string; days: number };
   issued: Figure;
+  /** Asked for when none was free and never supplied: counted in the demand. */
+  lostDemand: Figure;
   meanDaily: Figure;
   sigmaDaily: Figure;
   annualDemand: Figure;
   leadDays: Figure;
+  /** The supplier's delivery-time spread, when it has delivered often enough to measure it. */
+  sigmaLeadDays: Figure | null;
   serviceLevel: Figure;
   z: Figure;
   demandOverLead: Figure;

@@ -35,10 +35,36 @@ export function safetyStock(z: number, sigmaDaily: number, leadDays: number): nu
   return z * sigmaDaily * Math.sqrt(leadDays);
 }
 
+/**
+ * Safety stock when the lead time varies too: z · √(L·σd² + d²·σL²), demand per day (mean d,
+ * standard deviation σd) and lead time in days (mean L, standard deviation σL), both taken as
+ * independent and normal. With σL = 0 it is the formula above.
+ */
+export function safetyStockVariableLead(
+  z: number,
+  meanDaily: number,
+  sigmaDaily: number,
+  leadDays: number,
+  sigmaLeadDays: number,
+): number {
+  requireNumber('z', z);
+  requireNonNegative('mean daily demand', meanDaily);
+  requireNonNegative('daily standard deviation', sigmaDaily);
+  requireNonNegative('lead time', leadDays);
+  requireNonNegative('lead-time standard deviation', sigmaLeadDays);
+  return z * Math.sqrt(leadDays * sigmaDaily ** 2 + meanDaily ** 2 * sigmaLeadDays ** 2);
+}
+
 export interface ReorderPointInput {
   meanDaily: number;
   sigmaDaily: number;
+  /** The mean lead time in days. */
   leadDays: number;
+  /**
+   * The lead time's standard deviation in days, from the supplier's deliveries; absent when there is
+   * too little history, and then the lead time is taken as fixed.
+   */
+  sigmaLeadDays?: number;
   /** Cycle service level, 0 < p < 1. */
   serviceLevel: number;
 }
@@ -58,12 +84,19 @@ export function reorderPoint(input: ReorderPointInput): ReorderPoint {
   requireNonNegative('lead time', input.leadDays);
   const z = zForServiceLevel(input.serviceLevel);
   const demandOverLead = input.meanDaily * input.leadDays;
-  const safety = safetyStock(z, input.sigmaDaily, input.leadDays);
+  const sigmaLead = input.sigmaLeadDays;
+  const safety =
+    sigmaLead === undefined
+      ? safetyStock(z, input.sigmaDaily, input.leadDays)
+      : safetyStockVariableLead(z, input.meanDaily, input.sigmaDaily, input.leadDays, sigmaLead);
   // Safety stock goes negative below a 50% service level; a reorder point below zero means nothing.
   const value = Math.max(0, ceilWhole(demandOverLead + safety));
+  const level = `Safety stock for a ${fmt(input.serviceLevel * 100)}% service level`;
   const explanation = [
     `Demand over the lead time: ${fmt(input.meanDaily)} a day × ${fmt(input.leadDays)} days = ${fmt(demandOverLead)}.`,
-    `Safety stock for a ${fmt(input.serviceLevel * 100)}% service level: z ${z.toFixed(4)} × σ ${fmt(input.sigmaDaily)} × √${fmt(input.leadDays)} = ${fmt(safety)}.`,
+    sigmaLead === undefined
+      ? `${level}: z ${z.toFixed(4)} × σ ${fmt(input.sigmaDaily)} × √${fmt(input.leadDays)} = ${fmt(safety)}.`
+      : `${level}, with a lead time that varies: z ${z.toFixed(4)} × √(${fmt(input.leadDays)} days × σ ${fmt(input.sigmaDaily)}² + ${fmt(input.meanDaily)} a day² × σ lead ${fmt(sigmaLead)} days²) = ${fmt(safety)}.`,
     `Reorder point: ${fmt(demandOverLead)} + ${fmt(safety)}, rounded up to ${value}.`,
   ];
   return { value, demandOverLead, safety, z, explanation };

@@ -155,6 +155,56 @@ export async function dailyIssues(
   return rows;
 }
 
+/**
+ * Demand the shop could not meet, per day asked: each time a piston of this part's family and step
+ * was needed and none was free (a refused hold, a counter request, a step chosen with nothing on the
+ * shelf), counted when that need was never met by an issue of such a piston to the same job. A job
+ * that later got its piston is demand already counted by its issue; a counter request is always
+ * lost. Only pistons: shortages are recorded per step, which rings do not have.
+ */
+export async function dailyLostDemand(
+  partId: string,
+  from: Date,
+  to: Date,
+  timeZone: string,
+  k: Knex = db,
+): Promise<{ day: string; quantity: number }[]> {
+  const { rows } = (await k.raw(
+    `SELECT to_char((s.at AT TIME ZONE ?)::date, 'YYYY-MM-DD') AS day, count(*)::int AS quantity
+       FROM parts p
+       JOIN step_shortages s ON s.family_id = p.family_id AND s.step_id = p.step_id
+      WHERE p.id = ? AND p.kind = 'piston' AND s.at >= ? AND s.at < ?
+        AND (s.job_id IS NULL OR NOT EXISTS (
+              SELECT 1 FROM stock_ledger l JOIN parts lp ON lp.id = l.part_id
+               WHERE l.job_id = s.job_id AND l.kind = 'issue' AND lp.kind = 'piston'
+                 AND lp.family_id = s.family_id AND lp.step_id = s.step_id))
+      GROUP BY 1 ORDER BY 1`,
+    [timeZone, partId, from, to],
+  )) as { rows: { day: string; quantity: number }[] };
+  return rows;
+}
+
+/**
+ * Days from sending an order to each delivery of it, per receipt, for a supplier's orders received
+ * in the last year (calendar days in the shop's time zone): how long this supplier really takes.
+ */
+export async function deliveryLeadDays(
+  supplierId: string,
+  timeZone: string,
+  k: Knex = db,
+): Promise<number[]> {
+  const { rows } = (await k.raw(
+    `SELECT ((r.received_at AT TIME ZONE :tz)::date - (o.sent_at AT TIME ZONE :tz)::date)::int AS days
+       FROM purchase_order_receipts r
+       JOIN purchase_orders o ON o.id = r.order_id
+      WHERE o.supplier_id = :supplierId AND o.sent_at IS NOT NULL
+        AND r.received_at >= now() - interval '1 year'
+      ORDER BY r.received_at`,
+    { tz: timeZone, supplierId },
+  )) as { rows: { days: number }[] };
+  return rows.map((r) => r.days);
+}
+
 // ---- Defaults -------------------------------------------------------------------------------
 
 export interface DefaultRow {

@@ -25,12 +25,18 @@ import type {
   ReorderSuggestionQuery,
 } from '../../shared/purchasing-api';
 import { D, moneyOut } from '../../shared/purchase-money';
+import { mean, sampleStandardDeviation } from 'simple-statistics';
 import * as repo from './reorder-repository';
 import { bestOffer, offersFor, shopToday } from './sourcing-service';
 
 /** Used when no supplier offers the part and none is given: an assumption, shown as one. */
 export const FALLBACK_LEAD_DAYS = 14;
 const DAYS_PER_YEAR = 365;
+/**
+ * Deliveries needed before a supplier's lead-time spread is trusted; fewer, and the lead time is
+ * taken as fixed (common practice, no source: a spread from two or three points is mostly noise).
+ */
+export const MIN_DELIVERIES_FOR_SPREAD = 5;
 
 function fieldError(field: string, message: string): BadRequest {
   return new BadRequest(`${field}: ${message}`, [{ field, message }]);
@@ -164,12 +170,27 @@ export async function suggestion(
     settings.timeZone,
     k,
   );
+  const lost = await repo.dailyLostDemand(
+    partId,
+    from.toJSDate(),
+    to.toJSDate(),
+    settings.timeZone,
+    k,
+  );
+  // What the shop could not sell was demand too: it counts on the day it was asked for.
   const byDay = new Map(issued.map((d) => [d.day, d.quantity]));
+  for (const d of lost) byDay.set(d.day, (byDay.get(d.day) ?? 0) + d.quantity);
   const daily: number[] = [];
   for (let d = from; d < to; d = d.plus({ days: 1 }))
     daily.push(byDay.get(d.toISODate() ?? '') ?? 0);
-  const total = daily.reduce((a, b) => a + b, 0);
+  const lostTotal = lost.reduce((a, d) => a + d.quantity, 0);
+  const total = daily.reduce((a, b) => a + b, 0) - lostTotal;
   const notes: string[] = [];
+  if (lostTotal > 0) {
+    notes.push(
+      `Demand includes ${lostTotal} asked for when none was free and never supplied (lost sales).`,
+    );
+  }
 
   let stats;
   try {
@@ -201,6 +222,28 @@ export async function suggestion(
     notes.push('No supplier offers this part: the lead time is an assumption.');
   }
 
+  // How late the supplier really is: its deliveries' spread, once there are enough of them.
+  let sigmaLeadDays: Figure | null = null;
+  const deliveries = best ? await repo.deliveryLeadDays(best.supplierId, settings.timeZone, k) : [];
+  if (best && deliveries.length >= MIN_DELIVERIES_FOR_SPREAD) {
+    const actual = mean(deliveries);
+    const spread = sampleStandardDeviation(deliveries);
+    if (q.leadDays === undefined) {
+      leadDays = fig(
+        round(actual, 2),
+        `${round(actual, 2)} days: how long ${best.supplierName} actually took, on average over ${deliveries.length} deliveries in the last year (quoted ${best.leadDays}).`,
+      );
+    }
+    sigmaLeadDays = fig(
+      round(spread, 4),
+      `Sample standard deviation of ${best.supplierName}'s ${deliveries.length} delivery times in the last year = ${round(spread, 4)} days.`,
+    );
+  } else if (best) {
+    notes.push(
+      `${best.supplierName} has delivered ${deliveries.length} time(s) in the last year; with fewer than ${MIN_DELIVERIES_FOR_SPREAD}, the lead time is taken as fixed.`,
+    );
+  }
+
   const serviceLevel = q.serviceLevel ?? settings.serviceLevel;
   let point;
   try {
@@ -208,6 +251,7 @@ export async function suggestion(
       meanDaily: stats.mean,
       sigmaDaily: stats.sigma,
       leadDays: leadDays.value,
+      sigmaLeadDays: sigmaLeadDays?.value,
       serviceLevel,
     });
   } catch (e) {
@@ -260,9 +304,13 @@ export async function suggestion(
       total,
       `${total} issued in the ${q.windowDays} days from ${from.toISODate()} to ${to.minus({ days: 1 }).toISODate()}.`,
     ),
+    lostDemand: fig(
+      lostTotal,
+      `${lostTotal} asked for in the same days when none was free, and never supplied.`,
+    ),
     meanDaily: fig(
       round(stats.mean, 6),
-      `${total} ÷ ${q.windowDays} days = ${round(stats.mean, 4)} a day.`,
+      `${total + lostTotal} ÷ ${q.windowDays} days = ${round(stats.mean, 4)} a day${lostTotal > 0 ? ` (${total} issued + ${lostTotal} lost)` : ''}.`,
     ),
     sigmaDaily: fig(
       round(stats.sigma, 6),
@@ -273,6 +321,7 @@ export async function suggestion(
       `${round(stats.mean, 4)} a day × ${DAYS_PER_YEAR} = ${round(annual, 2)} a year.`,
     ),
     leadDays,
+    sigmaLeadDays,
     serviceLevel: fig(
       serviceLevel,
       `${round(serviceLevel * 100, 1)}%: the chance of not running out while an order is on its way${q.serviceLevel === undefined ? ' (the shop setting)' : ''}.`,

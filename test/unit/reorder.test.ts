@@ -5,6 +5,7 @@ import {
   economicOrderQuantity,
   reorderPoint,
   safetyStock,
+  safetyStockVariableLead,
   zForServiceLevel,
 } from '../../shared/reorder';
 
@@ -74,6 +75,47 @@ describe('reorderPoint and safetyStock', () => {
     ).toThrow(/mean daily demand must not be negative/);
     expect(() => safetyStock(1.64, Number.NaN, 5)).toThrow(ReorderError);
     expect(() => safetyStock(1.64, 1, -5)).toThrow(/lead time/);
+  });
+});
+
+describe('safety stock when the supplier is sometimes late', () => {
+  // The standard formula for variable demand and variable lead time (Chopra & Meindl, "Supply Chain
+  // Management: Strategy, Planning, and Operation", chapter on safety inventory, the example with an
+  // uncertain lead time): SS = z·√(L·σd² + d²·σL²).
+  it('when the textbook case is worked (2,500 a week, σ 500, lead 7 weeks, σ lead 7 weeks, 90%), then SS is about 22,491', () => {
+    // By hand: 7 × 500² = 1,750,000; 2,500² × 7² = 306,250,000; √308,000,000 = 17,549.93;
+    // × z(90%) 1.2816 = 22,491 (figures of the textbook's example from memory; the arithmetic here).
+    const ss = safetyStockVariableLead(zForServiceLevel(0.9), 2500, 500, 7, 7);
+    expect(ss).toBeGreaterThan(22_490);
+    expect(ss).toBeLessThan(22_492);
+  });
+
+  it('when demand is 2 a day (σ 1.5), the lead 9 days (σ 3 days), at 95%, then the reorder point is 31', () => {
+    // By hand: √(9 × 1.5² + 2² × 3²) = √(20.25 + 36) = √56.25 = 7.5; SS = 1.6449 × 7.5 = 12.337;
+    // demand over lead 18; 18 + 12.337 = 30.337 → 31 whole units (26 with a fixed lead, above).
+    const rop = reorderPoint({
+      meanDaily: 2,
+      sigmaDaily: 1.5,
+      leadDays: 9,
+      sigmaLeadDays: 3,
+      serviceLevel: 0.95,
+    });
+    expect(rop.safety).toBeCloseTo(12.3366, 3);
+    expect(rop.value).toBe(31);
+    expect(rop.explanation[1]).toBe(
+      'Safety stock for a 95% service level, with a lead time that varies: z 1.6449 × √(9 days × σ 1.5² + 2 a day² × σ lead 3 days²) = 12.34.',
+    );
+  });
+
+  it('when the lead time never varies, then it is the fixed-lead formula', () => {
+    // σL = 0 leaves z·√(L·σd²) = z·σd·√L: 1.6449 × 1.5 × 3 = 7.402, as worked above.
+    expect(safetyStockVariableLead(1.6449, 2, 1.5, 9, 0)).toBeCloseTo(7.402, 3);
+  });
+
+  it('when the lead-time spread is negative, then a ReorderError names it', () => {
+    expect(() => safetyStockVariableLead(1.64, 2, 1, 5, -1)).toThrow(
+      /lead-time standard deviation must not be negative/,
+    );
   });
 });
 

@@ -122,10 +122,12 @@ export class ReorderRulePage {
   protected figures(s: ReorderSuggestionJson): { label: string; figure: Figure }[] {
     const rows: { label: string; figure: Figure | null }[] = [
       { label: 'Issued in the window', figure: s.issued },
+      { label: 'Asked for, none free (lost sales)', figure: s.lostDemand },
       { label: 'Average a day', figure: s.meanDaily },
       { label: 'Day-to-day spread (σ)', figure: s.sigmaDaily },
       { label: 'A year at that rate', figure: s.annualDemand },
       { label: 'Lead time, days', figure: s.leadDays },
+      { label: 'Lead-time spread (σ), days', figure: s.sigmaLeadDays },
       { label: 'Service level', figure: s.serviceLevel },
       { label: 'z', figure: s.z },
       { label: 'Used during the lead time', figure: s.demandOverLead },
