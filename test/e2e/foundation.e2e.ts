@@ -20,11 +20,28 @@ afterAll(async () => {
   await env?.close();
 });
 
-const NAV: Record<DemoRole, { sees: string[]; hidden: string[] }> = {
-  owner: { sees: ['Home', 'Users', 'My account'], hidden: [] },
-  buyer: { sees: ['Home', 'My account'], hidden: ['Users'] },
-  machinist: { sees: ['Home', 'My account'], hidden: ['Users'] },
-  staff: { sees: ['Home', 'My account'], hidden: ['Users'] },
+// The navigation's named groups each role sees, in order; a group with nothing for the role is left out.
+const NAV: Record<DemoRole, { groups: string[]; sees: string[]; hidden: string[] }> = {
+  owner: {
+    groups: ['Daily work', 'Shelf and stock', 'Buying', 'Figures', 'Shop and account'],
+    sees: ['Home', 'Users', 'My account'],
+    hidden: [],
+  },
+  buyer: {
+    groups: ['Daily work', 'Shelf and stock', 'Buying', 'Figures', 'Shop and account'],
+    sees: ['Home', 'My account'],
+    hidden: ['Users'],
+  },
+  machinist: {
+    groups: ['Daily work', 'Shelf and stock', 'Buying', 'Shop and account'],
+    sees: ['Home', 'My account'],
+    hidden: ['Users', 'What sits'],
+  },
+  staff: {
+    groups: ['Daily work', 'Shelf and stock', 'Buying', 'Shop and account'],
+    sees: ['Home', 'My account'],
+    hidden: ['Users', 'What sits'],
+  },
 };
 
 describe('signing in', () => {
@@ -43,6 +60,13 @@ describe('signing in', () => {
       await signIn(page, env.baseUrl, DEMO[role]);
       const nav = page.getByRole('navigation', { name: /main/i });
       for (const label of NAV[role].sees) await nav.getByRole('link', { name: label }).waitFor();
+      const toggles = nav.getByRole('heading', { level: 2 }).getByRole('button');
+      expect(
+        (await toggles.allTextContents()).map((t) => t.replace(/expand_\w+/, '').trim()),
+      ).toEqual(NAV[role].groups);
+      // Every group is open on a new device, so a hidden entry is absent, not merely folded away.
+      for (const toggle of await toggles.all())
+        expect(await toggle.getAttribute('aria-expanded')).toBe('true');
       for (const label of NAV[role].hidden)
         expect(await nav.getByRole('link', { name: label }).count()).toBe(0);
       await screenshot(page, `foundation-home-${role}`);

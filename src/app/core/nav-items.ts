@@ -1,26 +1,39 @@
 import { ROLES, type Role } from '../../../shared/session-types';
 
-/** One entry of the side navigation, and one card on the home page. */
+/** The named sections of the side navigation, in display order. */
+export const NAV_GROUPS = [
+  { id: 'today', label: 'Daily work' },
+  { id: 'stock', label: 'Shelf and stock' },
+  { id: 'buying', label: 'Buying' },
+  { id: 'figures', label: 'Figures' },
+  { id: 'shop', label: 'Shop and account' },
+] as const;
+export type NavGroupId = (typeof NAV_GROUPS)[number]['id'];
+
+/** One entry of the side navigation. */
 export interface NavItem {
   /** Absolute router path, e.g. '/admin/users'. */
   path: string;
+  /** The section it is listed under. */
+  group: NavGroupId;
   label: string;
   /** A Material Symbols Outlined ligature name, e.g. 'group'. */
   icon: string;
   /** Who sees the entry; keep it equal to the `data.roles` of the route it opens. */
   roles: Role[];
-  /** One line for the home page card: what a person does there. */
+  /** One line on what a person does there (the link's description). */
   hint?: string;
 }
 
 /**
- * Everything the side navigation can show, in display order. Each feature appends its own
- * entries here; the shell and the home page show each person only the entries of their role.
+ * Everything the side navigation can show, in display order within each group. Each feature
+ * appends its own entries here; the shell shows each person only the entries of their role.
  */
 export const NAV_ITEMS: NavItem[] = [
-  { path: '/', label: 'Home', icon: 'home', roles: [...ROLES] },
+  { path: '/', group: 'today', label: 'Home', icon: 'home', roles: [...ROLES] },
   {
     path: '/admin/users',
+    group: 'shop',
     label: 'Users',
     icon: 'group',
     roles: ['owner'],
@@ -28,6 +41,7 @@ export const NAV_ITEMS: NavItem[] = [
   },
   {
     path: '/admin/settings',
+    group: 'shop',
     label: 'Shop settings',
     icon: 'tune',
     roles: ['owner'],
@@ -35,6 +49,7 @@ export const NAV_ITEMS: NavItem[] = [
   },
   {
     path: '/admin/audit',
+    group: 'shop',
     label: 'Audit trail',
     icon: 'manage_history',
     roles: ['owner'],
@@ -42,6 +57,7 @@ export const NAV_ITEMS: NavItem[] = [
   },
   {
     path: '/catalog/families',
+    group: 'stock',
     label: 'Engine families',
     icon: 'stairs',
     roles: [...ROLES],
@@ -49,6 +65,7 @@ export const NAV_ITEMS: NavItem[] = [
   },
   {
     path: '/catalog/parts',
+    group: 'stock',
     label: 'Parts',
     icon: 'inventory_2',
     roles: [...ROLES],
@@ -56,6 +73,7 @@ export const NAV_ITEMS: NavItem[] = [
   },
   {
     path: '/stock/receive',
+    group: 'stock',
     label: 'Receive',
     icon: 'move_to_inbox',
     roles: ['owner', 'buyer', 'staff'],
@@ -63,6 +81,7 @@ export const NAV_ITEMS: NavItem[] = [
   },
   {
     path: '/stock/units',
+    group: 'stock',
     label: 'Pistons on the shelf',
     icon: 'straighten',
     roles: [...ROLES],
@@ -70,6 +89,7 @@ export const NAV_ITEMS: NavItem[] = [
   },
   {
     path: '/stock/exposure',
+    group: 'stock',
     label: 'Empty steps',
     icon: 'report',
     roles: [...ROLES],
@@ -77,6 +97,7 @@ export const NAV_ITEMS: NavItem[] = [
   },
   {
     path: '/stock/bins',
+    group: 'stock',
     label: 'Bins',
     icon: 'shelves',
     roles: ['owner', 'buyer', 'staff'],
@@ -84,6 +105,7 @@ export const NAV_ITEMS: NavItem[] = [
   },
   {
     path: '/stock/ledger',
+    group: 'stock',
     label: 'Stock movements',
     icon: 'receipt_long',
     roles: [...ROLES],
@@ -91,6 +113,7 @@ export const NAV_ITEMS: NavItem[] = [
   },
   {
     path: '/jobs',
+    group: 'today',
     label: 'Job bench',
     icon: 'view_kanban',
     roles: [...ROLES],
@@ -98,6 +121,7 @@ export const NAV_ITEMS: NavItem[] = [
   },
   {
     path: '/jobs/new',
+    group: 'today',
     label: 'Take in a job',
     icon: 'add_box',
     roles: ['owner', 'machinist', 'staff'],
@@ -105,6 +129,7 @@ export const NAV_ITEMS: NavItem[] = [
   },
   {
     path: '/insights/sales',
+    group: 'figures',
     label: 'What sells',
     icon: 'trending_up',
     roles: ['owner'],
@@ -112,6 +137,7 @@ export const NAV_ITEMS: NavItem[] = [
   },
   {
     path: '/insights/stock',
+    group: 'figures',
     label: 'What sits',
     icon: 'inventory',
     roles: ['owner', 'buyer'],
@@ -119,6 +145,7 @@ export const NAV_ITEMS: NavItem[] = [
   },
   {
     path: '/insights/abc',
+    group: 'figures',
     label: 'ABC classes',
     icon: 'leaderboard',
     roles: ['owner', 'buyer'],
@@ -126,6 +153,7 @@ export const NAV_ITEMS: NavItem[] = [
   },
   {
     path: '/insights/exposure',
+    group: 'figures',
     label: 'Ran short',
     icon: 'hourglass_top',
     roles: ['owner', 'buyer'],
@@ -133,6 +161,7 @@ export const NAV_ITEMS: NavItem[] = [
   },
   {
     path: '/suppliers',
+    group: 'buying',
     label: 'Suppliers',
     icon: 'local_shipping',
     roles: ['owner', 'buyer', 'staff'],
@@ -140,6 +169,7 @@ export const NAV_ITEMS: NavItem[] = [
   },
   {
     path: '/imports/new',
+    group: 'buying',
     label: 'Bring in a price list',
     icon: 'upload_file',
     roles: ['owner', 'buyer', 'staff'],
@@ -147,6 +177,7 @@ export const NAV_ITEMS: NavItem[] = [
   },
   {
     path: '/imports',
+    group: 'buying',
     label: 'Price-list log',
     icon: 'history',
     roles: ['owner', 'buyer', 'staff'],
@@ -154,6 +185,7 @@ export const NAV_ITEMS: NavItem[] = [
   },
   {
     path: '/suppliers/unmapped',
+    group: 'buying',
     label: 'Items to map',
     icon: 'link',
     roles: ['owner', 'buyer'],
@@ -161,6 +193,7 @@ export const NAV_ITEMS: NavItem[] = [
   },
   {
     path: '/alerts',
+    group: 'buying',
     label: 'Stock alerts',
     icon: 'notifications',
     roles: ['owner', 'buyer'],
@@ -168,6 +201,7 @@ export const NAV_ITEMS: NavItem[] = [
   },
   {
     path: '/purchasing/reorder',
+    group: 'buying',
     label: 'Reorder',
     icon: 'production_quantity_limits',
     roles: ['owner', 'buyer'],
@@ -175,6 +209,7 @@ export const NAV_ITEMS: NavItem[] = [
   },
   {
     path: '/purchasing/sourcing',
+    group: 'buying',
     label: 'Sourcing',
     icon: 'travel_explore',
     roles: ['owner', 'buyer'],
@@ -182,6 +217,7 @@ export const NAV_ITEMS: NavItem[] = [
   },
   {
     path: '/purchasing/orders',
+    group: 'buying',
     label: 'Purchase orders',
     icon: 'receipt',
     roles: [...ROLES],
@@ -189,6 +225,7 @@ export const NAV_ITEMS: NavItem[] = [
   },
   {
     path: '/purchasing/receiving',
+    group: 'stock',
     label: 'Receive an order',
     icon: 'qr_code_scanner',
     roles: ['owner', 'buyer', 'staff'],
@@ -196,6 +233,7 @@ export const NAV_ITEMS: NavItem[] = [
   },
   {
     path: '/purchasing/rates',
+    group: 'buying',
     label: 'Exchange rates',
     icon: 'currency_exchange',
     roles: ['owner', 'buyer'],
@@ -203,6 +241,7 @@ export const NAV_ITEMS: NavItem[] = [
   },
   {
     path: '/alerts/mailbox',
+    group: 'shop',
     label: 'Mailbox',
     icon: 'mail',
     roles: ['owner'],
@@ -210,6 +249,7 @@ export const NAV_ITEMS: NavItem[] = [
   },
   {
     path: '/account',
+    group: 'shop',
     label: 'My account',
     icon: 'manage_accounts',
     roles: [...ROLES],
@@ -220,4 +260,36 @@ export const NAV_ITEMS: NavItem[] = [
 /** The entries a role may see, in the order they are declared. */
 export function navItemsFor(role: Role, items: readonly NavItem[] = NAV_ITEMS): NavItem[] {
   return items.filter((item) => item.roles.includes(role));
+}
+
+/** One section of a role's navigation with the entries that role may see. */
+export interface NavGroup {
+  id: NavGroupId;
+  label: string;
+  items: NavItem[];
+}
+
+/** A role's navigation in its named groups; a group with nothing for the role is left out. */
+export function navGroupsFor(role: Role, items: readonly NavItem[] = NAV_ITEMS): NavGroup[] {
+  const mine = navItemsFor(role, items);
+  return NAV_GROUPS.map((group) => ({
+    id: group.id,
+    label: group.label,
+    items: mine.filter((item) => item.group === group.id),
+  })).filter((group) => group.items.length > 0);
+}
+
+/**
+ * The one entry to highlight for a URL: the entry whose path is the longest whole-segment prefix
+ * of it, so "/jobs/new" lights "Take in a job" only, and "/jobs/1234" still lights "Job bench".
+ */
+export function activeNavPath(url: string, items: readonly NavItem[]): string | null {
+  const path = url.split(/[?#]/)[0].replace(/\/+$/, '') || '/';
+  let best: string | null = null;
+  for (const item of items) {
+    const matches =
+      item.path === '/' ? path === '/' : path === item.path || path.startsWith(`${item.path}/`);
+    if (matches && (best === null || item.path.length > best.length)) best = item.path;
+  }
+  return best;
 }

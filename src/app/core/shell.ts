@@ -1,5 +1,12 @@
 import { BreakpointObserver } from '@angular/cdk/layout';
-import { ChangeDetectionStrategy, Component, computed, inject, viewChild } from '@angular/core';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  computed,
+  inject,
+  signal,
+  viewChild,
+} from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
@@ -7,14 +14,28 @@ import { MatListModule } from '@angular/material/list';
 import { MatMenuModule } from '@angular/material/menu';
 import { MatSidenav, MatSidenavModule } from '@angular/material/sidenav';
 import { MatToolbarModule } from '@angular/material/toolbar';
-import { Router, RouterLink, RouterLinkActive, RouterOutlet } from '@angular/router';
-import { map } from 'rxjs';
+import { NavigationEnd, Router, RouterLink, RouterOutlet } from '@angular/router';
+import { filter, map, startWith } from 'rxjs';
 
 import { apiErrorMessage } from './api-error';
-import { navItemsFor } from './nav-items';
+import { activeNavPath, NAV_GROUPS, navGroupsFor, type NavGroupId } from './nav-items';
 import { Notifier } from './notifier';
 import { ROLE_LABELS } from './role-labels';
 import { Session } from './session';
+
+/** Where the sections a person folded away are remembered on this device. */
+const COLLAPSED_KEY = 'stepstock.nav.collapsed';
+
+function readCollapsed(): NavGroupId[] {
+  try {
+    const stored: unknown = JSON.parse(localStorage.getItem(COLLAPSED_KEY) ?? '[]');
+    return Array.isArray(stored)
+      ? stored.filter((id): id is NavGroupId => NAV_GROUPS.some((group) => group.id === id))
+      : [];
+  } catch {
+    return [];
+  }
+}
 
 /** Below this width (a tablet held upright) the side navigation becomes an overlay. */
 const NARROW = '(max-width: 1023.98px)';
@@ -30,7 +51,6 @@ const NARROW = '(max-width: 1023.98px)';
     MatSidenavModule,
     MatToolbarModule,
     RouterLink,
-    RouterLinkActive,
     RouterOutlet,
   ],
   templateUrl: './shell.html',
@@ -50,14 +70,52 @@ export class Shell {
       .pipe(map((state) => state.matches)),
     { initialValue: false },
   );
-  protected readonly items = computed(() => {
+  protected readonly groups = computed(() => {
     const user = this.session.user();
-    return user ? navItemsFor(user.role) : [];
+    return user ? navGroupsFor(user.role) : [];
   });
+  private readonly url = toSignal(
+    this.router.events.pipe(
+      filter((event) => event instanceof NavigationEnd),
+      map(() => this.router.url),
+      startWith(this.router.url),
+    ),
+    { initialValue: this.router.url },
+  );
+  /** Exactly one entry is highlighted: the most specific one for the page shown. */
+  protected readonly activePath = computed(() =>
+    activeNavPath(
+      this.url(),
+      this.groups().flatMap((group) => group.items),
+    ),
+  );
+  private readonly collapsed = signal<NavGroupId[]>(readCollapsed());
   protected readonly roleLabel = computed(() => {
     const user = this.session.user();
     return user ? ROLE_LABELS[user.role] : '';
   });
+
+  /** A folded section still opens when it holds the page shown, so the highlight is never hidden. */
+  protected isCollapsed(id: NavGroupId): boolean {
+    if (!this.collapsed().includes(id)) return false;
+    const active = this.activePath();
+    return !this.groups().some(
+      (group) => group.id === id && group.items.some((item) => item.path === active),
+    );
+  }
+
+  protected toggleGroup(id: NavGroupId): void {
+    const folded = this.isCollapsed(id);
+    const next = folded
+      ? this.collapsed().filter((other) => other !== id)
+      : [...this.collapsed().filter((other) => other !== id), id];
+    this.collapsed.set(next);
+    try {
+      localStorage.setItem(COLLAPSED_KEY, JSON.stringify(next));
+    } catch {
+      /* private mode: the choice lasts only this visit */
+    }
+  }
 
   protected toggleNav(): void {
     void this.nav().toggle();
