@@ -4,8 +4,9 @@
 // starts with the requirement it shows.
 import zlib from 'node:zlib';
 import request from 'supertest';
+import { db } from '../../server/db/knex';
 import { startServer } from '../drills/support';
-import { closeTestApp, makeUser, signedIn, testApp } from '../support/api';
+import { Client, closeTestApp, makeUser, signedIn, testApp } from '../support/api';
 import { makeFamily, makeJob } from '../support/jobs-fixtures';
 
 afterAll(async () => {
@@ -112,6 +113,73 @@ describe('V5.1 / V7.4.1 a compressed body that does not decompress is bad input'
       expect(server.log()).not.toMatch(/"stack"|at \S+ \(/);
     } finally {
       await server.stop();
+    }
+  });
+});
+
+function cookieValue(res: request.Response, name: string): string {
+  for (const c of ([] as string[]).concat(res.headers['set-cookie'] ?? [])) {
+    if (c.startsWith(`${name}=`)) return decodeURIComponent(c.slice(name.length + 1).split(';')[0]);
+  }
+  return '';
+}
+
+describe('V4.2.2 / V3.5.3 the XSRF token is bound to the session it was minted for', () => {
+  /** A change the owner may make, sent with the owner's session cookie and the given token. */
+  async function renameWith(sid: string, token: string, userId: string, name: string) {
+    return request(testApp())
+      .patch(`/api/users/${userId}`)
+      .set(
+        'Cookie',
+        `stepstock.sid=${encodeURIComponent(sid)}; XSRF-TOKEN=${encodeURIComponent(token)}`,
+      )
+      .set('X-XSRF-TOKEN', token)
+      .send({ name });
+  }
+
+  it("when a token minted for an anonymous visitor or for another session is sent as cookie and header with the owner's session, then 403 and nothing changes; the owner's own token works", async () => {
+    const target = await makeUser('staff');
+    const owner = new Client();
+    const signIn = await owner.signIn(await makeUser('owner'));
+    const ownerSid = cookieValue(signIn, 'stepstock.sid');
+    const ownerToken = cookieValue(signIn, 'XSRF-TOKEN');
+    expect(ownerSid).not.toBe('');
+    expect(ownerToken).not.toBe('');
+
+    // A visitor who never signed in: the token the server hands to anybody who asks.
+    const visitor = await request(testApp()).get('/api/session');
+    const anonymousToken = cookieValue(visitor, 'XSRF-TOKEN');
+    expect(anonymousToken).toMatch(/^[\w-]+\.[\w-]+$/);
+    // Another person's signed-in session (the attacker's own account).
+    const other = new Client();
+    const otherSignIn = await other.signIn(await makeUser('staff'));
+    const otherToken = cookieValue(otherSignIn, 'XSRF-TOKEN');
+    expect(otherToken).not.toBe('');
+
+    for (const token of [anonymousToken, otherToken]) {
+      const res = await renameWith(ownerSid, token, target.id, 'Renamed by a stray token');
+      expect(res.status).toBe(403);
+      expect(res.body.error.code).toBe('xsrf_missing');
+    }
+    expect((await db('users').where({ id: target.id }).first()).name).toBe('Test staff');
+
+    const mine = await renameWith(ownerSid, ownerToken, target.id, 'Renamed by the owner');
+    expect(mine.status).toBe(200);
+    expect((await db('users').where({ id: target.id }).first()).name).toBe('Renamed by the owner');
+  });
+
+  it('when someone signs in, then the answer sets the XSRF-TOKEN cookie exactly once, bound to the new session', async () => {
+    for (const primed of [false, true]) {
+      const visitor = new Client();
+      if (primed) await visitor.prime();
+      const res = await visitor.signIn(await makeUser('buyer'));
+      expect(res.status).toBe(200);
+      const xsrf = ([] as string[])
+        .concat(res.headers['set-cookie'] ?? [])
+        .filter((c) => c.startsWith('XSRF-TOKEN='));
+      expect(xsrf).toHaveLength(1);
+      const ok = await visitor.patch('/api/account', { unit: 'in' });
+      expect(ok.status).toBe(200);
     }
   });
 });
