@@ -6,6 +6,7 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
+import { MatTooltipModule } from '@angular/material/tooltip';
 
 import { PASSWORD_MIN_LENGTH, ROLES, type Role } from '../../../shared/session-types';
 import { apiErrorBody, apiErrorMessage, apiFieldErrors } from '../core/api-error';
@@ -24,6 +25,7 @@ function isField(name: string): name is Field {
 @Component({
   selector: 'app-user-add-dialog',
   imports: [
+    MatTooltipModule,
     MatButtonModule,
     MatDialogModule,
     MatFormFieldModule,

@@ -17,6 +17,7 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectChange, MatSelectModule } from '@angular/material/select';
 import { MatSortModule, Sort } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
+import { MatTooltipModule } from '@angular/material/tooltip';
 import { catchError, map, of, switchMap, tap } from 'rxjs';
 
 import { ROLES, type Role } from '../../../shared/session-types';
@@ -42,6 +43,7 @@ const SORTABLE: UserSortField[] = ['name', 'email', 'role', 'createdAt'];
 @Component({
   selector: 'app-user-list',
   imports: [
+    MatTooltipModule,
     DatePipe,
     MatButtonModule,
     MatIconModule,

@@ -7,6 +7,7 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatPaginatorModule, PageEvent } from '@angular/material/paginator';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatTableModule } from '@angular/material/table';
+import { MatTooltipModule } from '@angular/material/tooltip';
 import { RouterLink } from '@angular/router';
 import { catchError, map, of, switchMap, tap } from 'rxjs';
 
@@ -21,6 +22,7 @@ type Loaded = { ok: true; page: AlertsPageJson } | { ok: false; message: string 
 @Component({
   selector: 'app-alert-list',
   imports: [
+    MatTooltipModule,
     DatePipe,
     MatButtonModule,
     MatButtonToggleModule,

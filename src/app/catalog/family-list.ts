@@ -7,6 +7,7 @@ import { MatPaginatorModule } from '@angular/material/paginator';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSortModule } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
+import { MatTooltipModule } from '@angular/material/tooltip';
 import { Router, RouterLink } from '@angular/router';
 
 import type { FamilyJson } from '../../../shared/catalog-api';
@@ -21,6 +22,7 @@ const SORTABLE = ['code', 'name', 'standardBore', 'strokeType'] as const;
 @Component({
   selector: 'app-family-list',
   imports: [
+    MatTooltipModule,
     LengthPipe,
     MatButtonModule,
     MatFormFieldModule,

@@ -17,6 +17,7 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
+import { MatTooltipModule } from '@angular/material/tooltip';
 import { Router, RouterLink } from '@angular/router';
 import { catchError, debounceTime, distinctUntilChanged, map, of, switchMap } from 'rxjs';
 
@@ -56,6 +57,7 @@ type Loaded =
 @Component({
   selector: 'app-part-form',
   imports: [
+    MatTooltipModule,
     LengthPipe,
     MatAutocompleteModule,
     MatButtonModule,

@@ -14,6 +14,7 @@ import { MatListModule } from '@angular/material/list';
 import { MatMenuModule } from '@angular/material/menu';
 import { MatSidenav, MatSidenavModule } from '@angular/material/sidenav';
 import { MatToolbarModule } from '@angular/material/toolbar';
+import { MatTooltipModule } from '@angular/material/tooltip';
 import { NavigationEnd, Router, RouterLink, RouterOutlet } from '@angular/router';
 import { filter, map, startWith } from 'rxjs';
 
@@ -44,6 +45,7 @@ const NARROW = '(max-width: 1023.98px)';
 @Component({
   selector: 'app-shell',
   imports: [
+    MatTooltipModule,
     MatButtonModule,
     MatIconModule,
     MatListModule,

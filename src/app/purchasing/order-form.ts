@@ -7,6 +7,7 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
+import { MatTooltipModule } from '@angular/material/tooltip';
 import { Router, RouterLink } from '@angular/router';
 import { catchError, map, of } from 'rxjs';
 
@@ -27,6 +28,7 @@ const MONEY = /^\d{1,10}(\.\d{1,4})?$/;
 @Component({
   selector: 'app-order-form',
   imports: [
+    MatTooltipModule,
     MatAutocompleteModule,
     MatButtonModule,
     MatFormFieldModule,

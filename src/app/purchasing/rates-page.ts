@@ -7,6 +7,7 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatTableModule } from '@angular/material/table';
+import { MatTooltipModule } from '@angular/material/tooltip';
 
 import type { ExchangeRateJson } from '../../../shared/purchasing-api';
 import { apiErrorMessage, apiFieldErrors } from '../core/api-error';
@@ -18,6 +19,7 @@ import { PurchasingApi } from './purchasing-api';
 @Component({
   selector: 'app-rates-page',
   imports: [
+    MatTooltipModule,
     DatePipe,
     MatButtonModule,
     MatFormFieldModule,

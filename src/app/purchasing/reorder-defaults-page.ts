@@ -7,6 +7,7 @@ import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { MatTableModule } from '@angular/material/table';
+import { MatTooltipModule } from '@angular/material/tooltip';
 
 import type { FamilyJson, LadderStepJson } from '../../../shared/catalog-api';
 import type { ReorderDefaultJson } from '../../../shared/purchasing-api';
@@ -21,6 +22,7 @@ import { PurchasingApi } from './purchasing-api';
 @Component({
   selector: 'app-reorder-defaults-page',
   imports: [
+    MatTooltipModule,
     MatButtonModule,
     MatFormFieldModule,
     MatIconModule,

@@ -8,6 +8,7 @@ import { MatPaginatorModule, PageEvent } from '@angular/material/paginator';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSlideToggleModule } from '@angular/material/slide-toggle';
 import { MatTableModule } from '@angular/material/table';
+import { MatTooltipModule } from '@angular/material/tooltip';
 import { RouterLink } from '@angular/router';
 import { catchError, debounceTime, distinctUntilChanged, map, of, switchMap, tap } from 'rxjs';
 
@@ -33,6 +34,7 @@ const SOURCE_WORDS: Record<RuleSource, string> = {
 @Component({
   selector: 'app-reorder-list',
   imports: [
+    MatTooltipModule,
     MatButtonModule,
     MatFormFieldModule,
     MatIconModule,

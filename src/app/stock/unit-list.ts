@@ -20,6 +20,7 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { MatSortModule, Sort } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
+import { MatTooltipModule } from '@angular/material/tooltip';
 import { RouterLink } from '@angular/router';
 import {
   catchError,
@@ -53,6 +54,7 @@ type StatusFilter = UnitStatus | 'on-shelf' | '';
 @Component({
   selector: 'app-unit-list',
   imports: [
+    MatTooltipModule,
     DatePipe,
     LengthPipe,
     MatButtonModule,

@@ -8,6 +8,7 @@ import { MatPaginatorModule } from '@angular/material/paginator';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSortModule } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
+import { MatTooltipModule } from '@angular/material/tooltip';
 import { Router, RouterLink } from '@angular/router';
 
 import type { SupplierJson } from '../../../shared/suppliers-api';
@@ -21,6 +22,7 @@ const SORTABLE = ['name', 'currency', 'leadDays', 'items', 'lastImport'] as cons
 @Component({
   selector: 'app-supplier-list',
   imports: [
+    MatTooltipModule,
     DatePipe,
     MatButtonModule,
     MatFormFieldModule,

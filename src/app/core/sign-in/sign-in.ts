@@ -6,6 +6,7 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatTooltipModule } from '@angular/material/tooltip';
 import { ActivatedRoute, Router } from '@angular/router';
 
 import { apiErrorBody, apiErrorMessage } from '../api-error';
@@ -15,6 +16,7 @@ import { Session } from '../session';
 @Component({
   selector: 'app-sign-in',
   imports: [
+    MatTooltipModule,
     MatButtonModule,
     MatFormFieldModule,
     MatIconModule,
