@@ -138,7 +138,7 @@ describe('UserAddDialog', () => {
     const dialog = await loader.getHarness(MatDialogHarness);
     const host = await dialog.host();
     expect(await host.text()).toContain('Someone already signs in with that e-mail.');
-    expect(await errorsOf('E-mail')).toEqual(['Already in use']);
+    expect(await errorsOf('E-mail')).toEqual(['Already in use.']);
     expect(closedWith).toBe('open');
   });
 });

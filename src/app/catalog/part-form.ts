@@ -30,7 +30,8 @@ import {
   type StepSeriesJson,
 } from '../../../shared/catalog-api';
 import { gtinProblem } from '../../../shared/gtin';
-import { apiErrorBody, apiErrorMessage, apiFieldErrors } from '../core/api-error';
+import { apiErrorMessage, apiFieldErrors } from '../core/api-error';
+import { placeApiErrors } from '../core/field-errors';
 import { LengthPipe } from '../core/length-pipe';
 import { Notifier } from '../core/notifier';
 import { Session } from '../core/session';
@@ -269,16 +270,9 @@ export class PartForm {
       },
       error: (error: unknown) => {
         this.busy.set(false);
-        const fields = apiFieldErrors(error);
-        this.serverErrors.set(fields);
-        for (const [field, message] of Object.entries(fields)) {
-          const control = this.form.get(field);
-          if (control) {
-            control.setErrors({ server: message });
-            control.markAsTouched();
-          }
-        }
-        this.problem.set(apiErrorBody(error)?.error.message ?? apiErrorMessage(error));
+        this.serverErrors.set(apiFieldErrors(error));
+        // Each reason once, under its own field; only what no field shows stays above the form.
+        this.problem.set(placeApiErrors(this.form, error));
       },
     });
   }

@@ -1,6 +1,6 @@
 import { HttpErrorResponse } from '@angular/common/http';
 
-import { apiErrorMessage, apiFieldErrors } from './api-error';
+import { apiErrorMessage, apiFieldErrors, apiUnplacedMessage, fieldLabel } from './api-error';
 
 function failure(status: number, body: unknown): HttpErrorResponse {
   return new HttpErrorResponse({ status, error: body, url: '/api/things' });
@@ -20,7 +20,35 @@ describe('apiErrorMessage', () => {
       },
     });
     expect(apiErrorMessage(error)).toBe(
-      'Check the list. email: Not an e-mail address. Line 12: Price is missing. Two columns share one name.',
+      'Check the list. Email: Not an e-mail address. Line 12: Price is missing. Two columns share one name.',
+    );
+  });
+
+  it('when a validation error repeats its first detail with the raw path, then it reads once, in words', () => {
+    const error = failure(400, {
+      error: {
+        code: 'invalid',
+        message: 'lines.0.quantity: must be at least 1',
+        details: [{ field: 'lines.0.quantity', message: 'must be at least 1' }],
+      },
+    });
+    expect(apiErrorMessage(error)).toBe('Quantity on line 1 must be at least 1.');
+  });
+
+  it('when two details say the same, then the sentence is said once', () => {
+    const error = failure(400, {
+      error: {
+        code: 'invalid',
+        message: 'skirt: not a length',
+        details: [
+          { field: 'skirt', message: 'not a length' },
+          { field: 'skirt', message: 'not a length' },
+        ],
+      },
+    });
+    expect(apiErrorMessage(error)).toBe('Skirt not a length.');
+    expect(apiErrorMessage(error, { skirt: 'Skirt diameter' })).toBe(
+      'Skirt diameter not a length.',
     );
   });
 
@@ -56,10 +84,34 @@ describe('apiFieldErrors', () => {
         ],
       },
     });
-    expect(apiFieldErrors(error)).toEqual({ email: 'Already in use', name: 'Required' });
+    expect(apiFieldErrors(error)).toEqual({ email: 'Already in use.', name: 'Required.' });
   });
 
   it('when there is no error body, then there are no field errors', () => {
     expect(apiFieldErrors(failure(500, null))).toEqual({});
+  });
+});
+
+describe('fieldLabel', () => {
+  it('when a path has an index, then the line is counted from one', () => {
+    expect(fieldLabel('maxCutPerPass')).toBe('Max cut per pass');
+    expect(fieldLabel('lines.2.unitPrice')).toBe('Unit price on line 3');
+    expect(fieldLabel('lines.2.unitPrice', { 'lines.*.unitPrice': 'Price' })).toBe(
+      'Price on line 3',
+    );
+  });
+});
+
+describe('apiUnplacedMessage', () => {
+  it('when every field error sits at its field, then only a short pointer is left', () => {
+    const error = failure(400, {
+      error: {
+        code: 'invalid',
+        message: 'timeZone: unknown time zone',
+        details: [{ field: 'timeZone', message: 'unknown time zone' }],
+      },
+    });
+    expect(apiUnplacedMessage(error, () => true)).toBe('Check the marked fields.');
+    expect(apiUnplacedMessage(error, () => false)).toBe('Time zone unknown time zone.');
   });
 });

@@ -15,9 +15,16 @@ export class Notifier {
     return this.open(message, 'OK', { duration: 4000, politeness: 'polite' });
   }
 
-  /** Errors stay until dismissed: a person at a machine may look away for longer than a few seconds. */
+  /**
+   * Errors that belong to no form field (a refused move, a lost connection). They go by themselves
+   * after a while, so they never sit over the controls of a tablet; field errors sit at the field.
+   */
   error(message: string): Promise<void> {
-    return this.open(message, 'Dismiss', { politeness: 'assertive', panelClass: 'snack-error' });
+    return this.open(message, 'Dismiss', {
+      duration: 8000,
+      politeness: 'assertive',
+      panelClass: 'snack-error',
+    });
   }
 
   private async open(message: string, action: string, config: MatSnackBarConfig): Promise<void> {

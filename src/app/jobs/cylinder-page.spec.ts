@@ -5,6 +5,7 @@ import { provideRouter } from '@angular/router';
 
 import type { JobJson } from '../../../shared/jobs-api';
 import type { SessionResponse } from '../../../shared/session-types';
+import { Notifier } from '../core/notifier';
 import { Session } from '../core/session';
 import { CylinderPage } from './cylinder-page';
 
@@ -162,5 +163,37 @@ describe('CylinderPage', () => {
         { depth: 'middle', axis: 'thrust', diameter: '64.135 mm' },
       ],
     });
+  });
+
+  it('when the server refuses one reading, then its reason shows under that reading, once, and no snack bar opens', async () => {
+    const fixture = await render();
+    const element = fixture.nativeElement as HTMLElement;
+    const notifier = TestBed.inject(Notifier);
+    const snack = jest.spyOn(notifier, 'error');
+    type(element, 'Top of ring travel, along the pin', '2.5260');
+    type(element, 'Middle, across (thrust)', '64.135 mm');
+    await fixture.whenStable();
+    Array.from(element.querySelectorAll('button'))
+      .find((b) => b.textContent?.includes('Save readings'))
+      ?.click();
+    http.expectOne(`/api/jobs/${JOB_ID}/cylinders/1/readings`).flush(
+      {
+        error: {
+          code: 'invalid',
+          message: 'readings.1.diameter: is far from the other readings',
+          details: [{ field: 'readings.1.diameter', message: 'is far from the other readings' }],
+        },
+      },
+      { status: 400, statusText: 'Bad Request' },
+    );
+    await fixture.whenStable();
+    const errors = Array.from(element.querySelectorAll('.cell-error'), (e) =>
+      e.textContent?.trim(),
+    );
+    expect(errors).toEqual(['Is far from the other readings.']);
+    const cell = element.querySelector('input[aria-label="Middle, across (thrust)"]');
+    expect(cell?.getAttribute('aria-invalid')).toBe('true');
+    expect(element.textContent).not.toContain('readings.1');
+    expect(snack).not.toHaveBeenCalled();
   });
 });

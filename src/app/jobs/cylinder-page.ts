@@ -39,7 +39,7 @@ import {
   type LengthJson,
   type LengthUnit,
 } from '../../../shared/lengths';
-import { apiErrorMessage } from '../core/api-error';
+import { apiErrorMessage, apiFieldErrors, apiUnplacedMessage } from '../core/api-error';
 import { LengthPipe } from '../core/length-pipe';
 import { Notifier } from '../core/notifier';
 import { Session } from '../core/session';
@@ -260,8 +260,30 @@ export class CylinderPage {
 
   protected readonly busy = signal(false);
 
+  /** The server's reasons, under the reading each is about, until that reading is typed again. */
+  protected readonly serverCellErrors = signal<Partial<Record<CellKey, string>>>({});
+  protected readonly readingsProblem = signal('');
+
   protected setCell(key: CellKey, value: string): void {
     this.cells.update((cells) => ({ ...cells, [key]: value }));
+    this.serverCellErrors.update(({ [key]: _gone, ...rest }) => rest);
+  }
+
+  /** "readings.2.diameter" is about the third reading sent, which is one of the six cells. */
+  private placeReadingErrors(error: unknown, sent: CellKey[]): void {
+    const errors: Partial<Record<CellKey, string>> = {};
+    for (const [field, message] of Object.entries(apiFieldErrors(error))) {
+      const index = /^readings\.(\d+)/.exec(field)?.[1];
+      const key = index === undefined ? undefined : sent[Number(index)];
+      if (key && !errors[key]) errors[key] = message;
+    }
+    this.serverCellErrors.set(errors);
+    const placed = (field: string) => {
+      const index = /^readings\.(\d+)/.exec(field)?.[1];
+      return index !== undefined && sent[Number(index)] !== undefined;
+    };
+    const rest = apiUnplacedMessage(error, placed, { readings: 'Readings' });
+    this.readingsProblem.set(rest === 'Check the marked fields.' ? '' : rest);
   }
 
   protected saveReadings(): void {
@@ -270,6 +292,7 @@ export class CylinderPage {
     if (!job || this.busy() || !preview.assessment) return;
     const unit = this.unit();
     const body: ReadingBody[] = [];
+    const sent: CellKey[] = [];
     for (const cell of CELLS) {
       const text = this.cells()[cell.key].trim();
       if (!text) continue;
@@ -279,8 +302,11 @@ export class CylinderPage {
       const diameter =
         parsed.unit === 'in' ? `${formatIn(parsed.nm)} in` : `${formatMm(parsed.nm)} mm`;
       body.push({ depth: cell.depth, axis: cell.axis, diameter });
+      sent.push(cell.key);
     }
     this.busy.set(true);
+    this.serverCellErrors.set({});
+    this.readingsProblem.set('');
     this.api.saveReadings(job.id, this.cylinderNo(), body).subscribe({
       next: () => {
         this.busy.set(false);
@@ -290,7 +316,7 @@ export class CylinderPage {
       },
       error: (error: unknown) => {
         this.busy.set(false);
-        this.notifier.error(apiErrorMessage(error));
+        this.placeReadingErrors(error, sent);
       },
     });
   }

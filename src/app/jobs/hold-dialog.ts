@@ -12,7 +12,7 @@ import { catchError, map, of } from 'rxjs';
 import type { HoldJson, ProposalJson, ProposedUnitJson } from '../../../shared/jobs-api';
 import { pistonCleanup } from '../../../shared/bore-sheet';
 import { formatIn, formatMm, mmToNm, parseLength, toLengthJson } from '../../../shared/lengths';
-import { apiErrorBody, apiErrorMessage } from '../core/api-error';
+import { apiErrorBody, apiErrorMessage, apiFieldErrors } from '../core/api-error';
 import { LengthPipe } from '../core/length-pipe';
 import { Session } from '../core/session';
 import { StockApi } from '../stock/stock-api';
@@ -125,7 +125,8 @@ export class HoldDialog {
       },
       error: (error: unknown) => {
         this.busy.set(false);
-        this.measureError.set(apiErrorMessage(error));
+        // The reason once, in words, under the skirt field it is about.
+        this.measureError.set(apiFieldErrors(error)['skirt'] ?? apiErrorMessage(error));
       },
     });
   }

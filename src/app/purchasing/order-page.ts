@@ -17,7 +17,7 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { RouterLink } from '@angular/router';
 
 import type { OrderJson, OrderLineJson, WaitCandidateJson } from '../../../shared/purchasing-api';
-import { apiErrorMessage } from '../core/api-error';
+import { apiErrorMessage, apiFieldErrors, apiUnplacedMessage } from '../core/api-error';
 import { Notifier } from '../core/notifier';
 import { Session } from '../core/session';
 import { PurchasingApi } from './purchasing-api';
@@ -128,8 +128,39 @@ export class OrderPage {
       quantity: Number(this.edit(l).quantity),
       unitPrice: String(this.edit(l).unitPrice).trim(),
     }));
-    this.act(this.promise(this.api.updateOrder(order.id, { lines })), 'Changes saved.');
+    if (this.busy()) return;
+    this.busy.set(true);
+    this.lineErrors.set({});
+    this.linesProblem.set('');
+    this.api.updateOrder(order.id, { lines }).subscribe({
+      next: () => {
+        this.busy.set(false);
+        void this.notifier.success('Changes saved.');
+        this.load();
+      },
+      error: (e: unknown) => {
+        this.busy.set(false);
+        // "lines.0.quantity" is the first line's quantity: said under that field, in words, once.
+        const at = (field: string): string | null => {
+          const m = /^lines\.(\d+)\.(quantity|unitPrice)$/.exec(field);
+          const line = m ? order.lines[Number(m[1])] : undefined;
+          return m && line ? `${line.id}.${m[2]}` : null;
+        };
+        const errors: Record<string, string> = {};
+        for (const [field, message] of Object.entries(apiFieldErrors(e))) {
+          const key = at(field);
+          if (key) errors[key] = message;
+        }
+        this.lineErrors.set(errors);
+        const rest = apiUnplacedMessage(e, (field) => at(field) !== null);
+        this.linesProblem.set(rest === 'Check the marked fields.' ? '' : rest);
+      },
+    });
   }
+
+  /** The server's reasons under the line field each is about (keyed "lineId.quantity"). */
+  protected readonly lineErrors = signal<Record<string, string>>({});
+  protected readonly linesProblem = signal('');
 
   protected send(order: OrderJson): void {
     this.act(

@@ -161,4 +161,32 @@ describe('ReceiveOrder', () => {
     );
     expect(el().querySelector('.outcome')?.textContent).toContain('all in');
   });
+
+  it('when the server refuses a quantity, then its reason shows under the line it is about, in words, once', async () => {
+    // Only line 2 is sent, so the server's "lines.0" is line 2 on the page.
+    const qty = el().querySelectorAll<HTMLInputElement>('li.line input[type="number"]');
+    await type(qty[1], '1');
+    (
+      Array.from(el().querySelectorAll('button')).find((b) =>
+        b.textContent?.includes('Take it in'),
+      ) as HTMLButtonElement
+    ).click();
+    http.expectOne('/api/purchase-orders/o1/receipts').flush(
+      {
+        error: {
+          code: 'invalid',
+          message: 'lines.0.quantity: must be at most the 1 still to come',
+          details: [{ field: 'lines.0.quantity', message: 'must be at most the 1 still to come' }],
+        },
+      },
+      { status: 400, statusText: 'Bad Request' },
+    );
+    await fixture.whenStable();
+    const lines = el().querySelectorAll('li.line');
+    expect(lines[1].querySelector('.field-error')?.textContent?.trim()).toBe(
+      'Must be at most the 1 still to come.',
+    );
+    expect(lines[0].querySelector('.field-error')).toBeNull();
+    expect(el().textContent).not.toContain('lines.0');
+  });
 });

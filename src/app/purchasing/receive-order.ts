@@ -18,7 +18,7 @@ import { RouterLink } from '@angular/router';
 import { normalizeGtin } from '../../../shared/gtin';
 import { parseLength } from '../../../shared/lengths';
 import type { OrderJson, OrderLineJson, OrderReceiptJson } from '../../../shared/purchasing-api';
-import { apiErrorMessage, apiFieldErrors } from '../core/api-error';
+import { apiErrorMessage, apiFieldErrors, apiUnplacedMessage } from '../core/api-error';
 import { LengthPipe } from '../core/length-pipe';
 import { Notifier } from '../core/notifier';
 import { Session } from '../core/session';
@@ -186,8 +186,21 @@ export class ReceiveOrder {
       },
       error: (e: unknown) => {
         this.saving.set(false);
-        this.error.set(apiErrorMessage(e));
-        this.fieldErrors.set(apiFieldErrors(e));
+        // "lines.1.quantity" counts the lines sent, not the lines shown: key each by its line's id.
+        const sent = lines.map((l) => l.lineId);
+        const at = (field: string): string | null => {
+          const m = /^lines\.(\d+)\.(quantity|units\.\d+\.skirt)$/.exec(field);
+          const id = m ? sent[Number(m[1])] : undefined;
+          return m && id ? `${id}.${m[2]}` : null;
+        };
+        const fields: Record<string, string> = {};
+        for (const [field, message] of Object.entries(apiFieldErrors(e))) {
+          const key = at(field);
+          if (key) fields[key] = message;
+        }
+        this.fieldErrors.set(fields);
+        const rest = apiUnplacedMessage(e, (field) => at(field) !== null);
+        this.error.set(rest === 'Check the marked fields.' ? '' : rest);
       },
     });
   }

@@ -147,7 +147,9 @@ describe('ReceivePage', () => {
     );
     await fixture.whenStable();
     const text = (fixture.nativeElement as HTMLElement).textContent ?? '';
-    expect(text).toContain('far from the bore');
-    expect((fixture.nativeElement as HTMLElement).querySelector('[role=alert]')).not.toBeNull();
+    // Said once, at the piston's own field, in words; no raw path above the form.
+    const errors = (fixture.nativeElement as HTMLElement).querySelectorAll('mat-error');
+    expect(Array.from(errors, (e) => e.textContent?.trim())).toEqual(['Far from the bore.']);
+    expect(text).not.toContain('units.0.skirt');
   });
 });

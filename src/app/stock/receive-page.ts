@@ -29,7 +29,8 @@ import { catchError, map, of } from 'rxjs';
 import type { PartDetailJson, PartJson } from '../../../shared/catalog-api';
 import { formatLength, mmToNm, parseLength } from '../../../shared/lengths';
 import { MAX_PISTONS_PER_RECEIPT, type BinJson, type ReceiptJson } from '../../../shared/stock-api';
-import { apiErrorBody, apiErrorMessage, apiFieldErrors } from '../core/api-error';
+import { apiErrorMessage, apiFieldErrors } from '../core/api-error';
+import { placeApiErrors } from '../core/field-errors';
 import { LengthPipe } from '../core/length-pipe';
 import { Notifier } from '../core/notifier';
 import { Session } from '../core/session';
@@ -229,16 +230,9 @@ export class ReceivePage {
         },
         error: (error: unknown) => {
           this.busy.set(false);
-          const fields = apiFieldErrors(error);
-          this.serverErrors.set(fields);
-          for (const [field, message] of Object.entries(fields)) {
-            const control = this.form.get(field);
-            if (control) {
-              control.setErrors({ server: message });
-              control.markAsTouched();
-            }
-          }
-          this.problem.set(apiErrorBody(error)?.error.message ?? apiErrorMessage(error));
+          this.serverErrors.set(apiFieldErrors(error));
+          // Each reason once, under its own field; only what no field shows stays above the form.
+          this.problem.set(placeApiErrors(this.form, error));
         },
       });
   }

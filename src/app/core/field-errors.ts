@@ -1,0 +1,43 @@
+import type { AbstractControl } from '@angular/forms';
+
+import { apiErrorBody, apiFieldErrors, apiUnplacedMessage } from './api-error';
+
+/**
+ * Puts each field error of a failed request under its own control (found by the detail's path,
+ * "lines.0.quantity" included) and returns what is left to say above the form, or '' when every
+ * error found its field. The control's own validators clear the mark at the next edit.
+ */
+export function placeApiErrors(
+  form: AbstractControl,
+  error: unknown,
+  labels: Readonly<Record<string, string>> = {},
+  aliases: Readonly<Record<string, string>> = {},
+): string {
+  const fields = apiFieldErrors(error);
+  const placed = new Set<string>();
+  for (const [field, message] of Object.entries(fields)) {
+    const control = form.get(aliases[field] ?? field);
+    if (!control || control === form) continue;
+    control.setErrors({ ...(control.errors ?? {}), server: message });
+    control.markAsTouched();
+    placed.add(field);
+  }
+  if (!apiErrorBody(error)) return apiUnplacedMessage(error, () => false, labels);
+  const rest = apiUnplacedMessage(error, (field) => placed.has(field), labels);
+  return rest === 'Check the marked fields.' && placed.size > 0 ? '' : rest;
+}
+
+/** The words under a field: the server's reason first, then the common validators'. */
+export function controlError(control: AbstractControl | null, what = 'a value'): string {
+  const errors = control?.errors;
+  if (!errors) return '';
+  if (typeof errors['server'] === 'string') return errors['server'];
+  if (typeof errors['schema'] === 'string') return errors['schema'];
+  if (errors['required']) return `Enter ${what}.`;
+  if (errors['min']) return `Must be at least ${errors['min'].min}.`;
+  if (errors['max']) return `Must be at most ${errors['max'].max}.`;
+  if (errors['maxlength']) return `At most ${errors['maxlength'].requiredLength} characters.`;
+  if (errors['email']) return 'That is not an e-mail address.';
+  if (errors['pattern']) return 'Not in the expected form.';
+  return '';
+}
