@@ -80,23 +80,63 @@ describe('SettingsPage', () => {
     expect(notifier.success).toHaveBeenCalledWith('Shop settings saved.');
   });
 
-  it('when the server refuses a field, then its message is shown to the owner', async () => {
-    const zone = await loader.getHarness(
-      MatInputHarness.with({ selector: '[formControlName=timeZone]' }),
-    );
-    await zone.setValue('Mars/Olympus');
+  async function field(name: string): Promise<MatInputHarness> {
+    return loader.getHarness(MatInputHarness.with({ selector: `[formControlName=${name}]` }));
+  }
+
+  function errorText(): string[] {
+    const errors = fixture.nativeElement.querySelectorAll('mat-error') as NodeListOf<HTMLElement>;
+    return Array.from(errors, (e) => e.textContent?.trim() ?? '').filter(Boolean);
+  }
+
+  it('when an unknown time zone, the currency "XYZ" or letters for a cut are typed, then each is refused at its field at once and nothing is sent', async () => {
+    await (await field('timeZone')).setValue('Mars/Olympus');
+    await (await field('homeCurrency')).setValue('XYZ');
+    await (await field('maxCutPerPass')).setValue('deep');
+    await fixture.whenStable();
+    expect(errorText()).toEqual([
+      'Must be a time zone name such as "Europe/Paris" or "UTC".',
+      'Must be an ISO 4217 currency code.',
+      'Must be a length with its unit, e.g. "0.020 in" or "0.50 mm".',
+    ]);
+    await (await loader.getHarness(MatButtonHarness.with({ text: 'Save settings' }))).click();
+    http.expectNone('/api/settings');
+  });
+
+  it('when the deepest cut per pass is 0.5 in, then a caution shows the usual range and it still saves', async () => {
+    // Usual range: common practice (no source), kept in shared/settings-ranges.ts.
+    await (await field('maxCutPerPass')).setValue('0.5 in');
+    await fixture.whenStable();
+    const warning = fixture.nativeElement.querySelector('.setting-warning') as HTMLElement;
+    expect(warning.textContent).toContain('Far outside the usual 0.0020–0.0394 in');
+    expect(warning.textContent).toContain('(0.050–1.000 mm)');
+    expect(errorText()).toEqual([]);
+    await (await loader.getHarness(MatButtonHarness.with({ text: 'Save settings' }))).click();
+    const req = http.expectOne('/api/settings');
+    expect(req.request.body.maxCutPerPass).toBe('0.5 in');
+    req.flush({ ...SETTINGS, maxCutPerPass: '0.5 in' });
+    await fixture.whenStable();
+  });
+
+  it('when the server refuses a field, then its reason shows at that field in words, once, and no snack bar opens', async () => {
+    await (await field('orderCost')).setValue('26.00');
     await (await loader.getHarness(MatButtonHarness.with({ text: 'Save settings' }))).click();
     http.expectOne('/api/settings').flush(
       {
         error: {
           code: 'invalid',
-          message: 'timeZone: must be a time zone name',
-          details: [{ field: 'timeZone', message: 'must be a time zone name' }],
+          message: 'orderCost: must be at most 10000',
+          details: [
+            { field: 'orderCost', message: 'must be at most 10000' },
+            { field: 'orderCost', message: 'must be at most 10000' },
+          ],
         },
       },
       { status: 400, statusText: 'Bad Request' },
     );
     await fixture.whenStable();
-    expect(notifier.error).toHaveBeenCalled();
+    expect(errorText()).toEqual(['Must be at most 10000.']);
+    expect(fixture.nativeElement.textContent).not.toContain('orderCost');
+    expect(notifier.error).not.toHaveBeenCalled();
   });
 });

@@ -1,5 +1,13 @@
-import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
-import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
+import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
+import { toSignal } from '@angular/core/rxjs-interop';
+import {
+  NonNullableFormBuilder,
+  ReactiveFormsModule,
+  type AbstractControl,
+  type ValidationErrors,
+  type ValidatorFn,
+} from '@angular/forms';
+import { ErrorStateMatcher, ShowOnDirtyErrorStateMatcher } from '@angular/material/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatCheckboxModule } from '@angular/material/checkbox';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -8,12 +16,25 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 
 import type { ShopSettingsJson } from '../../../shared/settings-api';
-import { apiErrorMessage, apiFieldErrors } from '../core/api-error';
+import { settingWarning } from '../../../shared/settings-ranges';
+import { shopSettingsSchema } from '../../../shared/settings-schema';
+import { apiErrorMessage, detailSentence } from '../core/api-error';
+import { controlError, placeApiErrors } from '../core/field-errors';
 import { Notifier } from '../core/notifier';
 import { SettingsApi } from './settings-api';
 
-/** A percent as the server takes it: 0 to 100 with at most 3 decimals. */
-const PERCENT = /^(100(\.0{1,3})?|\d{1,2}(\.\d{1,3})?)$/;
+type Key = keyof ShopSettingsJson;
+
+/** The server's own rule for one setting, checked at every keystroke. */
+function schemaRule(key: Key): ValidatorFn {
+  const rule = shopSettingsSchema.shape[key];
+  return (control: AbstractControl): ValidationErrors | null => {
+    const checked = rule.safeParse(control.value);
+    if (checked.success) return null;
+    const message = checked.error.issues[0]?.message ?? 'not valid';
+    return { schema: detailSentence({ message }).replace(/^./, (c) => c.toUpperCase()) };
+  };
+}
 
 /** The owner's shop settings: name and hours for e-mails, bench and buying policies, tax, deposits. */
 @Component({
@@ -29,6 +50,8 @@ const PERCENT = /^(100(\.0{1,3})?|\d{1,2}(\.\d{1,3})?)$/;
   ],
   templateUrl: './settings-page.html',
   styleUrl: './settings-page.scss',
+  // A refused value shows while it is typed, not only after leaving the field or pressing Save.
+  providers: [{ provide: ErrorStateMatcher, useClass: ShowOnDirtyErrorStateMatcher }],
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class SettingsPage {
@@ -39,31 +62,49 @@ export class SettingsPage {
   protected readonly loading = signal(true);
   protected readonly saving = signal(false);
   protected readonly loadError = signal('');
-  protected readonly fieldErrors = signal<Record<string, string>>({});
+  protected readonly problem = signal('');
 
   protected readonly form = this.fb.group({
-    shopName: ['', [Validators.required, Validators.maxLength(120)]],
-    shopHours: ['', Validators.maxLength(300)],
-    timeZone: ['', Validators.required],
-    holdExpiryDays: [14, [Validators.required, Validators.min(1), Validators.max(365)]],
-    clearancePolicy: ['mid' as ShopSettingsJson['clearancePolicy']],
-    maxCutPerPass: ['', Validators.required],
-    finishPass: [''],
-    truingPass: [''],
-    minCutPerPass: ['', Validators.required],
-    barResolution: ['0.0001 in' as ShopSettingsJson['barResolution']],
-    skipMarginalStep: [false],
-    stepPolicy: ['first-that-cleans' as ShopSettingsJson['stepPolicy']],
-    marginalCleanup: ['', Validators.required],
-    orderCost: ['', Validators.required],
-    holdingCostRate: ['', Validators.required],
-    serviceLevel: [0.95, [Validators.required, Validators.min(0.5), Validators.max(0.999)]],
-    homeCurrency: ['', [Validators.required, Validators.pattern(/^[A-Z]{3}$/)]],
-    taxRate: ['', [Validators.required, Validators.pattern(PERCENT)]],
-    pricesIncludeTax: [false],
-    depositPercent: ['', [Validators.required, Validators.pattern(PERCENT)]],
-    cutOnlyAfterApproval: [true],
+    shopName: ['', schemaRule('shopName')],
+    shopHours: ['', schemaRule('shopHours')],
+    timeZone: ['', schemaRule('timeZone')],
+    holdExpiryDays: [14, schemaRule('holdExpiryDays')],
+    clearancePolicy: ['mid' as ShopSettingsJson['clearancePolicy'], schemaRule('clearancePolicy')],
+    maxCutPerPass: ['', schemaRule('maxCutPerPass')],
+    finishPass: ['', schemaRule('finishPass')],
+    truingPass: ['', schemaRule('truingPass')],
+    minCutPerPass: ['', schemaRule('minCutPerPass')],
+    barResolution: ['0.0001 in' as ShopSettingsJson['barResolution'], schemaRule('barResolution')],
+    skipMarginalStep: [false, schemaRule('skipMarginalStep')],
+    stepPolicy: ['first-that-cleans' as ShopSettingsJson['stepPolicy'], schemaRule('stepPolicy')],
+    marginalCleanup: ['', schemaRule('marginalCleanup')],
+    orderCost: ['', schemaRule('orderCost')],
+    holdingCostRate: ['', schemaRule('holdingCostRate')],
+    serviceLevel: [0.95, schemaRule('serviceLevel')],
+    homeCurrency: ['', schemaRule('homeCurrency')],
+    taxRate: ['', schemaRule('taxRate')],
+    pricesIncludeTax: [false, schemaRule('pricesIncludeTax')],
+    depositPercent: ['', schemaRule('depositPercent')],
+    cutOnlyAfterApproval: [true, schemaRule('cutOnlyAfterApproval')],
   });
+
+  private readonly values = toSignal(this.form.valueChanges, {
+    initialValue: this.form.getRawValue(),
+  });
+  /** Cautions (not refusals) for values far outside what shops usually set, with the range. */
+  protected readonly warnings = computed(() => {
+    const values = this.values();
+    const out: Partial<Record<string, string>> = {};
+    for (const key of Object.keys(values) as Key[]) {
+      const warning = settingWarning(key, values[key]);
+      if (warning) out[key] = warning;
+    }
+    return out;
+  });
+
+  protected errorFor(key: Key): string {
+    return controlError(this.form.controls[key]);
+  }
 
   constructor() {
     this.api.get().subscribe({
@@ -84,7 +125,7 @@ export class SettingsPage {
       return;
     }
     this.saving.set(true);
-    this.fieldErrors.set({});
+    this.problem.set('');
     this.api.save(this.form.getRawValue()).subscribe({
       next: (s) => {
         this.form.setValue(s);
@@ -94,8 +135,7 @@ export class SettingsPage {
       },
       error: (e) => {
         this.saving.set(false);
-        this.fieldErrors.set(apiFieldErrors(e));
-        void this.notifier.error(apiErrorMessage(e));
+        this.problem.set(placeApiErrors(this.form, e));
       },
     });
   }
