@@ -3,7 +3,8 @@
 // the purchasing services, so the sent order's e-mail sits in the outbox like any other. Nothing is
 // received here: the stock the catalog seed put on the shelf stays as it is.
 import type { Knex } from 'knex';
-import { createOrder, sendOrder } from '../server/purchasing/orders-service';
+import { createOrder } from '../server/purchasing/orders-service';
+import { sendOrder } from '../server/purchasing/order-send-service';
 import { bestOffer, offersFor, setRate } from '../server/purchasing/sourcing-service';
 
 /** One unit of each currency in euros, the demo's home currency (invented figures). */

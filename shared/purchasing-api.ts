@@ -399,6 +399,11 @@ export interface OrderJson {
   createdBy: string | null;
   sentAt: string | null;
   closedAt: string | null;
+  /**
+   * Why the last sending did not reach the supplier (its mail server refused the message for
+   * good); the order went back to drafting. Null when nothing failed or it was sent again.
+   */
+  sendError: string | null;
 }
 
 export interface OrderListItemJson {

@@ -31,7 +31,17 @@ function addressText(a: AddressObject | AddressObject[] | undefined): string {
   return (Array.isArray(a) ? a : [a]).map((x) => x.text).join(', ');
 }
 
-export async function startLocalSmtp(opts: { db?: Knex; port?: number } = {}): Promise<LocalSmtp> {
+export interface LocalSmtpOptions {
+  db?: Knex;
+  port?: number;
+  /**
+   * Recipients to refuse for good (SMTP 550), the way a supplier's mail server answers an address
+   * it does not know; the tests use it to show what a permanent refusal does.
+   */
+  refuseRecipient?: (address: string) => boolean;
+}
+
+export async function startLocalSmtp(opts: LocalSmtpOptions = {}): Promise<LocalSmtp> {
   const db = opts.db ?? defaultDb;
   const received: ReceivedMail[] = [];
   const server = new SMTPServer({
@@ -41,6 +51,16 @@ export async function startLocalSmtp(opts: { db?: Knex; port?: number } = {}): P
     authOptional: true,
     logger: false,
     size: 10 * 1024 * 1024,
+    onRcptTo(address, _session, callback) {
+      if (opts.refuseRecipient?.(address.address)) {
+        return callback(
+          Object.assign(new Error(`Mailbox ${address.address} does not exist`), {
+            responseCode: 550,
+          }),
+        );
+      }
+      callback();
+    },
     onData(stream, session, callback) {
       simpleParser(stream)
         .then(async (parsed) => {

@@ -18,6 +18,7 @@ export interface OrderRow {
   created_by_name: string | null;
   sent_at: Date | null;
   closed_at: Date | null;
+  send_error: string | null;
 }
 
 export interface LineRow {
@@ -75,6 +76,7 @@ function ordersBase(k: Knex) {
       'u.name as created_by_name',
       'o.sent_at',
       'o.closed_at',
+      'o.send_error',
     );
 }
 
@@ -214,15 +216,13 @@ export async function updateOrder(
     sent_at: Date | Knex.Raw;
     sent_by: string;
     closed_at: Date | Knex.Raw | null;
+    send_outbox_id: string | null;
+    send_error: string | null;
   }>,
 ): Promise<void> {
   await k('purchase_orders')
     .where({ id })
     .update({ ...patch, updated_at: k.fn.now() });
-}
-
-export async function addReceived(k: Knex, lineId: string, quantity: number): Promise<void> {
-  await k('purchase_order_lines').where({ id: lineId }).increment('received_quantity', quantity);
 }
 
 export async function lineTotals(
@@ -236,20 +236,6 @@ export async function lineTotals(
       k.raw('coalesce(sum(received_quantity), 0)::int AS received'),
     );
   return row as { quantity: number; received: number };
-}
-
-export async function insertReceipt(
-  k: Knex,
-  r: { id: string; order_id: string; received_by: string; note: string },
-): Promise<void> {
-  await k('purchase_order_receipts').insert(r);
-}
-
-export async function insertReceiptLine(
-  k: Knex,
-  r: { receipt_id: string; line_id: string; quantity: number; stock_receipt_id: string },
-): Promise<void> {
-  await k('purchase_order_receipt_lines').insert(r);
 }
 
 export interface SupplierRef {

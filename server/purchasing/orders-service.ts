@@ -5,8 +5,6 @@ import type { Knex } from 'knex';
 import { db } from '../db/knex';
 import { recordAudit } from '../audit/audit';
 import { BadRequest, Conflict, NotFound } from '../errors';
-import { enqueueMail } from '../mail/outbox';
-import { getSettings } from '../settings/settings-service';
 import { displayGtin, type Page } from '../../shared/catalog-api';
 import { normalizeGtin } from '../../shared/gtin';
 import {
@@ -23,9 +21,7 @@ import {
   type WaitJson,
 } from '../../shared/purchasing-api';
 import { D, moneyOut } from '../../shared/purchase-money';
-import { orderMail } from './order-mail';
 import * as repo from './orders-repository';
-import { shopToday } from './sourcing-service';
 
 function fieldError(field: string, message: string): BadRequest {
   return new BadRequest(`${field}: ${message}`, [{ field, message }]);
@@ -93,6 +89,7 @@ function orderJson(o: repo.OrderRow, lines: repo.LineRow[], waits: repo.WaitRow[
     createdBy: o.created_by_name,
     sentAt: o.sent_at?.toISOString() ?? null,
     closedAt: o.closed_at?.toISOString() ?? null,
+    sendError: o.send_error,
   };
 }
 
@@ -205,7 +202,7 @@ export async function createOrder(
   return getOrder(id, k);
 }
 
-async function lockDrafting(trx: Knex, id: string, doing: string): Promise<repo.OrderRow> {
+export async function lockDrafting(trx: Knex, id: string, doing: string): Promise<repo.OrderRow> {
   const order = await repo.lockOrder(trx, id);
   if (!order) throw new NotFound('That purchase order');
   if (order.state !== 'drafting') {
@@ -247,44 +244,6 @@ export async function patchOrder(
       entityId: id,
       before: { number: order.number, expectedOn: order.expected_on, notes: order.notes },
       after: patch,
-    });
-  });
-  return getOrder(id, k);
-}
-
-/**
- * Sends a drafted order: the supplier's e-mail (lines as CSV) goes into the outbox in the same
- * transaction that marks the order sent, so the order is never "sent" without its message.
- */
-export async function sendOrder(actorId: string, id: string, k: Knex = db): Promise<OrderJson> {
-  const settings = await getSettings(k);
-  const today = await shopToday(k);
-  await k.transaction(async (trx) => {
-    const order = await lockDrafting(trx, id, 'sent');
-    if (!order.supplier_email) {
-      throw new Conflict(
-        `${order.supplier_name} has no ordering e-mail address: add one to the supplier first.`,
-        'no_supplier_email',
-      );
-    }
-    const lines = await repo.orderLines([id], trx);
-    if (lines.length === 0) throw new Conflict(`${order.number} has no lines to send.`, 'no_lines');
-    const expectedOn =
-      order.expected_on ?? today.plus({ days: order.supplier_lead_days }).toISODate() ?? null;
-    const mail = orderMail(settings.shopName, order, lines, expectedOn);
-    await enqueueMail(trx, { to: order.supplier_email, ...mail });
-    await repo.updateOrder(trx, id, {
-      state: 'sent_out',
-      sent_at: trx.fn.now(),
-      sent_by: actorId,
-      expected_on: expectedOn,
-    });
-    await recordAudit(trx, {
-      userId: actorId,
-      action: 'purchase_order.send',
-      entity: 'purchase_order',
-      entityId: id,
-      after: { to: order.supplier_email, expectedOn },
     });
   });
   return getOrder(id, k);

@@ -23,6 +23,7 @@ import {
 import type { Role } from '../../shared/session-types';
 import * as drafts from './drafts-service';
 import * as orders from './orders-service';
+import { sendOrder } from './order-send-service';
 import { receiveAgainstOrder } from './receiving-service';
 import * as reorder from './reorder-service';
 import * as sourcing from './sourcing-service';
@@ -176,7 +177,7 @@ export function registerPurchasingRoutes(router: Router): void {
     access: BUYERS,
     params: idParams,
     body: z.object({}).strict(),
-    handler: ({ params, user }) => orders.sendOrder(user.id, params.id),
+    handler: ({ params, user }) => sendOrder(user.id, params.id),
   });
   route(router, {
     method: 'post',

@@ -24,6 +24,7 @@ import type { UnitJson } from '../../shared/stock-api';
 import { D } from '../../shared/purchase-money';
 import { arrivalMailForCustomer, arrivalMailForMachinist, type JobArrival } from './order-mail';
 import * as repo from './orders-repository';
+import * as receipts from './receiving-repository';
 import { getOrder } from './orders-service';
 
 /** Where deliveries go when nobody says where and the part has no place yet. */
@@ -141,7 +142,7 @@ export async function receiveAgainstOrder(
     if (!locked) throw new NotFound('That purchase order');
     requireOpen(locked);
     await repo.lockLines(trx, orderId);
-    await repo.insertReceipt(trx, {
+    await receipts.insertReceipt(trx, {
       id: receiptId,
       order_id: orderId,
       received_by: actorId,
@@ -171,8 +172,8 @@ export async function receiveAgainstOrder(
         throw underLine(e, p.index);
       }
       // The database CHECK refuses more received than ordered if two deliveries raced.
-      await repo.addReceived(trx, p.line.id, p.quantity);
-      await repo.insertReceiptLine(trx, {
+      await receipts.addReceived(trx, p.line.id, p.quantity);
+      await receipts.insertReceiptLine(trx, {
         receipt_id: receiptId,
         line_id: p.line.id,
         quantity: p.quantity,

@@ -72,6 +72,7 @@ const ORDER: OrderJson = {
   createdBy: 'Teodor Vance',
   sentAt: '2026-12-01T09:00:00.000Z',
   closedAt: null,
+  sendError: null,
 };
 
 describe('ReceiveOrder', () => {
