@@ -5,6 +5,7 @@ import { z } from 'zod';
 import { normalizeGtin, gtinProblem } from './gtin';
 import { parseLength, type LengthJson, type Nm, type ParseLengthOptions } from './lengths';
 import { atMost, singleLine } from './text-rules';
+import type { NeededPart } from './part-needs';
 
 export const STROKE_TYPES = ['two', 'four'] as const;
 export type StrokeType = (typeof STROKE_TYPES)[number];
@@ -242,10 +243,14 @@ export interface LadderStepJson {
   nominalBore: LengthJson;
   pistons: CountsJson;
   rings: CountsJson;
+  /** Free pistons not yet measured: on hand, but not free for a bore until measured. */
+  pistonsToMeasure: number;
   /** Kits that could be put together for this step from free parts. */
   kitsFree: number;
-  /** No free piston at this step: a job needing it waits. */
+  /** The step is empty: no free piston or no free ring set (shared/part-needs), so a job waits. */
   nothingFree: boolean;
+  /** What it lacks, piston first. */
+  missing: NeededPart[];
   units: LadderUnitJson[];
 }
 
@@ -266,7 +271,12 @@ export interface ExposureItemJson {
   pistonParts: number;
   pistonsOnHand: number;
   pistonsHeld: number;
+  /** Measured pistons nobody holds, and free ones still to measure. */
+  pistonsFree: number;
+  pistonsToMeasure: number;
   ringsFree: number;
+  /** What the step lacks (no free piston, no free ring set, or both), piston first. */
+  missing: NeededPart[];
   /** Pistons of this step ever issued: how often it is asked for. */
   issued: number;
 }

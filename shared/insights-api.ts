@@ -5,6 +5,7 @@
 import { DateTime } from 'luxon';
 import { z } from 'zod';
 import { atMost } from './text-rules';
+import type { NeededPart } from './part-needs';
 
 /** Longest period one request may cover: ten years of months is already more than any chart shows. */
 export const MAX_PERIOD_DAYS = 3660;
@@ -321,13 +322,18 @@ export interface ExposureItem {
   familyName: string;
   stepLabel: string;
   stepPosition: number;
-  /** Jobs still waiting for a part at this step now. */
+  /** Jobs waiting for a part at this step now (the job bench's "waiting for parts" rule). */
   stillWaiting: number;
+  /** Which parts ran short here in the period, and which the waiting jobs wait for now. */
+  partsShort: NeededPart[];
+  waitingFor: NeededPart[];
   lastShortAt: string | null;
 }
 
 export interface ExposureAnswer {
   items: ExposureItem[];
+  /** Open jobs waiting for parts now, each once: the job bench's "waiting for parts" count. */
+  jobsWaitingNow: number;
   months: number;
 }
 

@@ -6,6 +6,7 @@ import { atMost, isOneEmailAddress, MAX_EMAIL_LENGTH } from './text-rules';
 import { optionalLengthField, type Page } from './catalog-api';
 import { parseLength, type LengthJson, type LengthUnit } from './lengths';
 import type { Axis, Depth } from './bore-wear';
+import type { NeededPart } from './part-needs';
 import type { BarResolution, PassKind } from './pass-plan';
 import type { StepAlternative } from './bore-choice';
 
@@ -377,8 +378,9 @@ export interface JobListItemJson {
   askedFor: string;
   dueDate: string | null;
   overdue: boolean;
-  /** Some cylinder's chosen step has no piston held and none free on the shelf. */
+  /** A cylinder waits for a piston or a ring set (the one rule every page counts: part-needs). */
   waitingForParts: boolean;
+  waitingFor: NeededPart[];
   pistonsHeld: number;
   cylindersCut: number;
   createdAt: string;

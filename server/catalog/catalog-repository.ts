@@ -2,6 +2,7 @@
 // exposure list. Rows come out with database names; the service shapes them for the API.
 import type { Knex } from 'knex';
 import { db } from '../db/knex';
+import { familyEmptyStepsSql } from '../stock/part-needs-repository';
 import type { PartKind } from '../../shared/catalog-api';
 
 export interface SeriesRow {
@@ -170,11 +171,12 @@ export async function insertSeries(
 
 // ---- Engine families --------------------------------------------------------------------------
 
-// Per family: pistons on the shelf, free, and steps within the largest oversize with none free.
+// Per family: pistons on the shelf, free, and steps within the largest oversize that are empty
+// (by the one rule every page counts: stock/part-needs).
 const FAMILY_STOCK = `LEFT JOIN LATERAL (
     SELECT coalesce(sum(x.on_hand), 0)::int AS pistons_on_hand,
            coalesce(sum(x.free), 0)::int AS pistons_free,
-           (count(*) FILTER (WHERE x.free = 0))::int AS empty_steps
+           ${familyEmptyStepsSql('f')} AS empty_steps
       FROM (SELECT ss.id,
                    coalesce(sum(pl.on_hand), 0) AS on_hand,
                    coalesce(sum(pl.on_hand - pl.held), 0) AS free
@@ -370,79 +372,6 @@ export interface KitRow {
 
 export function familyKits(familyId: string, k: Knex = db): Promise<KitRow[]> {
   return k('parts').select('id', 'step_id').where({ family_id: familyId, kind: 'kit' });
-}
-
-export interface ExposureRow {
-  family_id: string;
-  family_code: string;
-  family_name: string;
-  standard_bore_nm: number;
-  step_id: string;
-  step_label: string;
-  offset_nm: number;
-  piston_parts: number;
-  pistons_on_hand: number;
-  pistons_held: number;
-  rings_free: number;
-  issued: number;
-}
-
-/**
- * Every (family, step) within the family's largest oversize with no free piston, the steps that
- * were issued most often first. Inactive families are left out: the shop no longer works on them.
- */
-export async function exposure(
-  opts: { q?: string; familyId?: string; page: number; pageSize: number },
-  k: Knex = db,
-): Promise<{ rows: ExposureRow[]; total: number }> {
-  const params: unknown[] = [];
-  let where = 'f.active';
-  if (opts.q) {
-    where += ' AND (f.code ILIKE ? OR f.name ILIKE ?)';
-    params.push(containsPattern(opts.q), containsPattern(opts.q));
-  }
-  if (opts.familyId) {
-    where += ' AND f.id = ?';
-    params.push(opts.familyId);
-  }
-  const sql = `
-    WITH step_stock AS (
-      SELECT f.id AS family_id, f.code AS family_code, f.name AS family_name,
-             f.standard_bore_nm, ss.id AS step_id, ss.label AS step_label, ss.offset_nm,
-             ss.position,
-             (count(p.id) FILTER (WHERE p.kind = 'piston'))::int AS piston_parts,
-             coalesce(sum(pl.on_hand) FILTER (WHERE p.kind = 'piston'), 0)::int AS pistons_on_hand,
-             coalesce(sum(pl.held) FILTER (WHERE p.kind = 'piston'), 0)::int AS pistons_held,
-             coalesce(sum(pl.on_hand - pl.held) FILTER (WHERE p.kind = 'rings'), 0)::int AS rings_free
-        FROM engine_families f
-        JOIN series_steps ss ON ss.series_id = f.step_series_id AND ss.offset_nm <= f.max_oversize_nm
-        LEFT JOIN parts p ON p.family_id = f.id AND p.step_id = ss.id AND p.kind IN ('piston', 'rings')
-        LEFT JOIN part_levels pl ON pl.part_id = p.id
-       WHERE ${where}
-       GROUP BY f.id, ss.id
-    ), asked AS (
-      SELECT p.family_id, p.step_id, count(*)::int AS issued
-        FROM stock_ledger l
-        JOIN parts p ON p.id = l.part_id AND p.kind = 'piston'
-       WHERE l.kind = 'issue'
-       GROUP BY p.family_id, p.step_id
-    )
-    SELECT s.*, coalesce(a.issued, 0) AS issued, count(*) OVER () AS total
-      FROM step_stock s
-      LEFT JOIN asked a ON a.family_id = s.family_id AND a.step_id = s.step_id
-     WHERE s.pistons_on_hand - s.pistons_held = 0
-     ORDER BY coalesce(a.issued, 0) DESC, s.family_code ASC, s.position ASC
-     LIMIT ? OFFSET ?`;
-  params.push(opts.pageSize, (opts.page - 1) * opts.pageSize);
-  const result = await k.raw<{ rows: (ExposureRow & { total: number })[] }>(sql, params as never);
-  const rows = result.rows;
-  let total = rows[0]?.total ?? 0;
-  if (rows.length === 0 && opts.page > 1) {
-    // Past the last page: count on its own so the paginator still shows the right total.
-    const counted = await exposure({ ...opts, page: 1, pageSize: 1 }, k);
-    total = counted.total;
-  }
-  return { rows, total: Number(total) };
 }
 
 // ---- Parts ------------------------------------------------------------------------------------

@@ -15,6 +15,7 @@ import {
 } from '../../shared/catalog-api';
 import type { Role } from '../../shared/session-types';
 import * as service from './catalog-service';
+import * as ladders from './ladder-service';
 
 const CATALOG_EDITORS: Role[] = ['owner', 'buyer'];
 const idParams = z.object({ id: uuidParam });
@@ -89,7 +90,7 @@ export function registerCatalogRoutes(router: Router): void {
     path: '/api/engine-families/:id/ladder',
     access: 'signed-in',
     params: idParams,
-    handler: ({ params }) => service.ladder(params.id),
+    handler: ({ params }) => ladders.ladder(params.id),
   });
 
   route(router, {
@@ -97,7 +98,7 @@ export function registerCatalogRoutes(router: Router): void {
     path: '/api/exposure',
     access: 'signed-in',
     query: exposureQuery,
-    handler: ({ query }) => service.listExposure(query),
+    handler: ({ query }) => ladders.listExposure(query),
   });
 
   route(router, {

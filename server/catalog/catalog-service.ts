@@ -6,11 +6,8 @@ import { recordAudit } from '../audit/audit';
 import { BadRequest, Conflict, NotFound } from '../errors';
 import { normalizeGtin } from '../../shared/gtin';
 import {
-  type ExposureItemJson,
   type FamilyInput,
   type FamilyPatch,
-  type LadderJson,
-  type LadderStepJson,
   type Page,
   type PartDetailJson,
   type PartInput,
@@ -20,11 +17,10 @@ import {
   type StepSeriesInput,
   type StepSeriesJson,
 } from '../../shared/catalog-api';
-import { kitFree } from '../../shared/kits';
 import { toLengthJson } from '../../shared/lengths';
 import { customSeries, stepNominalBore, StepSeriesError } from '../../shared/step-series';
 import * as repo from './catalog-repository';
-import { familyJson, lengthOrNull, partJson, partLevels } from './catalog-json';
+import { familyJson, partJson, partLevels } from './catalog-json';
 
 type Conn = Knex;
 
@@ -258,91 +254,6 @@ export async function updateFamily(
     throw e;
   }
   return getFamily(id, k);
-}
-
-// ---- Ladder and exposure ----------------------------------------------------------------------
-
-export async function ladder(familyId: string, k: Conn = db): Promise<LadderJson> {
-  const row = await repo.findFamily(familyId, k);
-  if (!row) throw new NotFound('That engine family');
-  const [steps, levels, onOrder, units, kits] = await Promise.all([
-    repo.stepsWithin(row.step_series_id, row.max_oversize_nm, k),
-    repo.familyStepLevels(familyId, k),
-    repo.familyStepOnOrder(familyId, k),
-    repo.familyShelfUnits(familyId, k),
-    repo.familyKits(familyId, k),
-  ]);
-  const components = await repo.componentsOf(
-    kits.map((kit) => kit.id),
-    k,
-  );
-
-  const counts = (stepId: string, kind: 'piston' | 'rings') => {
-    const l = levels.find((x) => x.step_id === stepId && x.kind === kind);
-    const onHand = l?.on_hand ?? 0;
-    const held = l?.held ?? 0;
-    const ordered = onOrder.find((x) => x.step_id === stepId && x.kind === kind)?.quantity ?? 0;
-    return { onHand, held, free: onHand - held, onOrder: ordered };
-  };
-
-  const ladderSteps: LadderStepJson[] = steps.map((step) => {
-    const pistons = counts(step.id, 'piston');
-    const kitsFree = kits
-      .filter((kit) => kit.step_id === step.id)
-      .map((kit) => components.filter((c) => c.kit_part_id === kit.id))
-      .filter((list) => list.length > 0)
-      .reduce(
-        (sum, list) =>
-          sum + kitFree(list.map((c) => ({ free: c.on_hand - c.held, perKit: c.quantity }))),
-        0,
-      );
-    return {
-      stepId: step.id,
-      label: step.label,
-      offset: toLengthJson(step.offset_nm),
-      nominalBore: toLengthJson(stepNominalBore(row.standard_bore_nm, step.offset_nm)),
-      pistons,
-      rings: counts(step.id, 'rings'),
-      kitsFree,
-      nothingFree: pistons.free === 0,
-      units: units
-        .filter((u) => u.step_id === step.id)
-        .map((u) => ({
-          id: u.id,
-          partId: u.part_id,
-          label: u.label,
-          skirt: lengthOrNull(u.skirt_nm),
-          status: u.status,
-          bin: u.bin_code,
-          binId: u.bin_id,
-        })),
-    };
-  });
-  return { family: familyJson(row), steps: ladderSteps };
-}
-
-export async function listExposure(
-  query: { q?: string; familyId?: string; page: number; pageSize: number },
-  k: Conn = db,
-): Promise<Page<ExposureItemJson>> {
-  const { rows, total } = await repo.exposure(query, k);
-  return {
-    items: rows.map((r) => ({
-      familyId: r.family_id,
-      familyCode: r.family_code,
-      familyName: r.family_name,
-      stepId: r.step_id,
-      stepLabel: r.step_label,
-      offset: toLengthJson(r.offset_nm),
-      nominalBore: toLengthJson(stepNominalBore(r.standard_bore_nm, r.offset_nm)),
-      pistonParts: r.piston_parts,
-      pistonsOnHand: r.pistons_on_hand,
-      pistonsHeld: r.pistons_held,
-      ringsFree: r.rings_free,
-      issued: Number(r.issued),
-    })),
-    total,
-  };
 }
 
 // ---- Parts ------------------------------------------------------------------------------------

@@ -3,7 +3,7 @@
 // shared CSV writer; lengths go out in both units, exactly.
 import { toLengthJson } from '../../shared/lengths';
 import type { CsvTable } from '../insights/insights-csv';
-import { ladder } from '../catalog/catalog-service';
+import { ladder } from '../catalog/ladder-service';
 import type { LadderStepJson } from '../../shared/catalog-api';
 import * as repo from './exports-repository';
 

@@ -23,6 +23,8 @@ import type {
   TopSellerRank,
 } from '../../shared/insights-api';
 import * as repo from './insights-repository';
+import * as shortages from './shortages-repository';
+import type { NeededPart } from '../../shared/part-needs';
 
 /** NUMERIC text as the API writes money: at least the cents, no trailing zeros past them. */
 export function moneyOut(value: string | null | undefined): string {
@@ -232,7 +234,10 @@ export async function abc(months: number, k: Knex = db): Promise<AbcAnswer> {
 }
 
 export async function exposure(months: number, k: Knex = db): Promise<ExposureAnswer> {
-  const rows = await repo.exposure(months, k);
+  const [rows, jobsWaitingNow] = await Promise.all([
+    shortages.exposure(months, k),
+    shortages.jobsWaitingNow(k),
+  ]);
   return {
     items: rows.map((r) => ({
       familyId: r.family_id,
@@ -245,8 +250,11 @@ export async function exposure(months: number, k: Knex = db): Promise<ExposureAn
       stepLabel: r.step_label,
       stepPosition: r.step_position,
       stillWaiting: r.still_waiting,
+      partsShort: r.parts_short,
+      waitingFor: r.waiting_for,
       lastShortAt: iso(r.last_short_at),
     })),
+    jobsWaitingNow,
     months,
   };
 }
@@ -285,11 +293,13 @@ export interface ShortageInput {
   cylinder?: number | null;
   /** hold: a hold was refused because nothing was free; counter: asked for at the counter. */
   source: 'hold' | 'counter';
+  /** What was not free: a piston (the default) or a ring set. */
+  part?: NeededPart;
   userId?: string | null;
 }
 
 /**
- * Notes that a piston was needed at a step and none was free. Call it from a refused hold or a
+ * Notes that a piston or a ring set was needed at a step and none was free. Call it from a refused hold or a
  * counter enquiry, outside the transaction that failed (so the note survives the rollback).
  * Choosing a cylinder's step is noted by the database itself. Returns false when this job's
  * cylinder was already noted short at that step.
@@ -298,13 +308,14 @@ export async function recordShortage(input: ShortageInput, k: Knex = db): Promis
   if (input.cylinder !== undefined && input.cylinder !== null && !input.jobId) {
     throw new BadRequest('A cylinder number needs the job it belongs to.');
   }
-  return repo.insertShortage(
+  return shortages.insertShortage(
     {
       family_id: input.familyId,
       step_id: input.stepId,
       job_id: input.jobId ?? null,
       cylinder: input.cylinder ?? null,
       source: input.source,
+      part: input.part ?? 'piston',
       user_id: input.userId ?? null,
     },
     k,

@@ -166,6 +166,7 @@ export function exposureTable(answer: ExposureAnswer): CsvTable<ExposureAnswer['
       { header: 'Jobs that waited', value: (r) => r.jobsWaited },
       { header: 'Days waited', value: (r) => r.daysWaited },
       { header: 'Jobs still waiting', value: (r) => r.stillWaiting },
+      { header: 'Short of', text: (r) => r.partsShort.join(' ') },
       { header: 'Last time short', value: (r) => r.lastShortAt },
       { header: 'Family id', value: (r) => r.familyId },
       { header: 'Step id', value: (r) => r.stepId },

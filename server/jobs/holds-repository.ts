@@ -507,16 +507,16 @@ export async function holdTargetStep(
   jobId: string,
   input: { unitId?: string; partId?: string },
   k: Knex = db,
-): Promise<{ familyId: string; stepId: string | null } | null> {
+): Promise<{ familyId: string; stepId: string | null; kind: string | null } | null> {
   const job = await k('jobs').where({ id: jobId }).first('family_id');
   if (!job) return null;
   const part = input.unitId
     ? await k('piston_units as u')
         .join('parts as p', 'p.id', 'u.part_id')
         .where('u.id', input.unitId)
-        .first('p.step_id')
+        .first('p.step_id', 'p.kind')
     : input.partId
-      ? await k('parts').where({ id: input.partId }).first('step_id')
+      ? await k('parts').where({ id: input.partId }).first('step_id', 'kind')
       : null;
-  return { familyId: job.family_id, stepId: part?.step_id ?? null };
+  return { familyId: job.family_id, stepId: part?.step_id ?? null, kind: part?.kind ?? null };
 }

@@ -167,8 +167,7 @@ export async function placeHold(
       return holdOut(holdId, trx);
     });
   } catch (e) {
-    // Nothing free at that step: the owner's exposure page counts it. Written after the rollback,
-    // on its own, so the note survives the refused hold.
+    // Nothing free at that step: noted for Ran short after the rollback, so the note survives.
     if (e instanceof NotAvailable && !e.extra.nextBest) {
       await noteShortage(actorId, jobId, input).catch((err) =>
         logger.warn({ err }, 'could not record a shortage'),
@@ -186,13 +185,14 @@ export async function placeHold(
 
 async function noteShortage(actorId: string, jobId: string, input: HoldInput): Promise<void> {
   const target = await repo.holdTargetStep(jobId, input);
-  if (!target?.stepId) return;
+  if (!target?.stepId || (target.kind !== 'piston' && target.kind !== 'rings')) return;
   await recordShortage({
     familyId: target.familyId,
     stepId: target.stepId,
     jobId,
     cylinder: input.cylinder,
     source: 'hold',
+    part: target.kind,
     userId: actorId,
   });
 }

@@ -153,6 +153,7 @@ export function jobListItemJson(row: JobListRow): JobListItemJson {
     dueDate: row.due_date,
     overdue: row.overdue,
     waitingForParts: row.waiting_for_parts,
+    waitingFor: row.waiting_for,
     pistonsHeld: row.pistons_held,
     cylindersCut: row.cylinders_cut,
     createdAt: row.created_at.toISOString(),

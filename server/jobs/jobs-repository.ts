@@ -9,6 +9,8 @@ import { containsPattern } from '../catalog/catalog-repository';
 import type { Axis, Depth } from '../../shared/bore-wear';
 import type { LengthUnit } from '../../shared/lengths';
 import { OPEN_STATES, type JobState } from '../../shared/jobs-api';
+import type { NeededPart } from '../../shared/part-needs';
+import { waitingForSql, waitingSql } from '../stock/part-needs-repository';
 
 export interface FamilyRow {
   id: string;
@@ -66,6 +68,7 @@ export interface JobListRow {
   due_date: string | null;
   overdue: boolean;
   waiting_for_parts: boolean;
+  waiting_for: NeededPart[];
   pistons_held: number;
   cylinders_cut: number;
   created_at: Date;
@@ -284,15 +287,9 @@ export interface JobFilter {
   today: string;
 }
 
-/** Some cylinder of an open job has a step chosen, no piston held, and none free on the shelf. */
-const WAITING_SQL = `(j.state IN (${OPEN_STATES.map((s) => `'${s}'`).join(', ')}) AND EXISTS (
-  SELECT 1 FROM job_cylinders c
-  WHERE c.job_id = j.id AND c.chosen_step_id IS NOT NULL AND c.cut_at IS NULL
-    AND NOT EXISTS (SELECT 1 FROM holds h WHERE h.job_id = j.id AND h.cylinder = c.n
-                    AND h.unit_id IS NOT NULL AND h.released_at IS NULL)
-    AND NOT EXISTS (SELECT 1 FROM piston_units pu JOIN parts p ON p.id = pu.part_id
-                    WHERE p.family_id = j.family_id AND p.step_id = c.chosen_step_id
-                      AND pu.status = 'free' AND pu.skirt_nm IS NOT NULL)))`;
+/** Waiting for parts has one definition, shared with every other count (stock/part-needs). */
+const WAITING_SQL = waitingSql('j');
+const WAITING_FOR_SQL = waitingForSql('j');
 
 export async function listJobs(
   f: JobFilter,
@@ -337,6 +334,7 @@ export async function listJobs(
         [f.today],
       ),
       k.raw(`${WAITING_SQL} AS waiting_for_parts`),
+      k.raw(`${WAITING_FOR_SQL} AS waiting_for`),
       k.raw(
         `(SELECT count(*) FROM holds h WHERE h.job_id = j.id AND h.unit_id IS NOT NULL
             AND h.released_at IS NULL)::int AS pistons_held`,
@@ -358,6 +356,7 @@ export async function jobListRow(id: string, today: string, k: Knex = db): Promi
     .join('engine_families as f', 'f.id', 'j.family_id')
     .select(
       k.raw(`${WAITING_SQL} AS waiting_for_parts`),
+      k.raw(`${WAITING_FOR_SQL} AS waiting_for`),
       k.raw(
         `(j.due_date IS NOT NULL AND j.due_date < ?::date AND j.state IN (${OPEN_STATES.map((s) => `'${s}'`).join(', ')})) AS overdue`,
         [today],

@@ -183,6 +183,7 @@ export async function getJob(id: string, unit: LengthUnit, k: Conn = db): Promis
     dueDate: job.due_date,
     overdue: flags.overdue,
     waitingForParts: flags.waiting_for_parts,
+    waitingFor: flags.waiting_for,
     pistonsHeld: flags.pistons_held,
     cylindersCut: flags.cylinders_cut,
     notes: job.notes,

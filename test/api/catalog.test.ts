@@ -190,9 +190,13 @@ describe('step ladder', () => {
       // 2.500 in + 0.020 in = 2.520 in = 64.008 mm exactly.
       offset: { mm: '0.508', in: '0.0200' },
       nominalBore: { mm: '64.008', in: '2.5200' },
-      pistons: { onHand: 2, held: 0, free: 2, onOrder: 0 },
+      // The piston still to measure is on hand but not free for a bore (the one rule of
+      // stock/part-needs that the job bench uses too).
+      pistons: { onHand: 2, held: 0, free: 1, onOrder: 0 },
+      pistonsToMeasure: 1,
       rings: { onHand: 4, held: 0, free: 4, onOrder: 0 },
       nothingFree: false,
+      missing: [],
     });
     // Measured first, then the one "to measure": free with no skirt.
     expect(step.units).toHaveLength(2);
@@ -209,6 +213,7 @@ describe('step ladder', () => {
       nominalBore: { mm: '63.500', in: '2.5000' },
       pistons: { onHand: 0, held: 0, free: 0, onOrder: 0 },
       nothingFree: true,
+      missing: ['piston', 'rings'],
       units: [],
     });
   });
@@ -231,6 +236,9 @@ describe('exposure', () => {
     const b = await makeFamily(owner, { code: `${prefix}-B` });
     const pa = await makePart(owner, a, 'piston', 0);
     const pb = await makePart(owner, b, 'piston', 1);
+    // A step is stocked only with a free piston and a free ring set.
+    const ra = await makePart(owner, a, 'rings', 0);
+    await receive(staff, { partId: ra.id, quantity: 1, binId: a.binId });
     await receive(staff, {
       partId: pa.id,
       quantity: 1,
@@ -273,7 +281,12 @@ describe('exposure', () => {
       `${prefix}-A +0.030 in`,
       `${prefix}-A +0.040 in`,
     ]);
-    expect(res.body.items[0]).toMatchObject({ issued: 1, pistonParts: 1, pistonsOnHand: 0 });
+    expect(res.body.items[0]).toMatchObject({
+      issued: 1,
+      pistonParts: 1,
+      pistonsOnHand: 0,
+      missing: ['piston', 'rings'],
+    });
   });
 });
 

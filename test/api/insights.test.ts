@@ -603,6 +603,13 @@ describe('exposure', () => {
       quantity: 1,
       created_at: ago('7 days'),
     });
+    // Still waiting means what the job bench means: the step is chosen, no piston is held and none
+    // is free (a ring set is free here, so it waits for the piston alone).
+    const rings = (await makePart(owner, family, 'rings', 2)).id;
+    await db('part_levels').where({ part_id: rings }).update({ on_hand: 2 });
+    await db('job_cylinders')
+      .update({ chosen_step_id: step })
+      .where({ job_id: stillWaiting, n: 1 });
     // A counter enquiry: short, but no job waited for it.
     expect(
       await recordShortage({ familyId: family.familyId, stepId: step, source: 'counter' }),
@@ -644,6 +651,11 @@ describe('exposure', () => {
     });
     // An unmeasured piston does not count as free: it cannot be matched to a bore yet.
     await db('piston_units').insert({ part_id: shortPiston, skirt_nm: null, status: 'free' });
+    // Ring sets are free at both steps, so only the piston can be short here.
+    for (const index of [1, 3]) {
+      const rings = (await makePart(owner, family, 'rings', index)).id;
+      await db('part_levels').where({ part_id: rings }).update({ on_hand: 2 });
+    }
     const job = await openJob(3);
     const count = async () =>
       (await db('step_shortages').where({ job_id: job }).count<{ n: number }[]>('* as n'))[0].n;

@@ -55,8 +55,10 @@ const LADDER: LadderJson = {
       nominalBore: toLengthJson(63_500_000),
       pistons: { onHand: 1, held: 1, free: 0, onOrder: 2 },
       rings: { onHand: 0, held: 0, free: 0, onOrder: 0 },
+      pistonsToMeasure: 0,
       kitsFree: 0,
       nothingFree: true,
+      missing: ['piston', 'rings'],
       units: [
         {
           id: 'u-held',
@@ -76,8 +78,10 @@ const LADDER: LadderJson = {
       nominalBore: toLengthJson(63_754_000),
       pistons: { onHand: 2, held: 0, free: 2, onOrder: 0 },
       rings: { onHand: 3, held: 1, free: 2, onOrder: 0 },
+      pistonsToMeasure: 1,
       kitsFree: 2,
       nothingFree: false,
+      missing: [],
       units: [
         // 2.5083 in = 63 710 820 nm
         {
@@ -99,6 +103,20 @@ const LADDER: LadderJson = {
           binId: 'b2',
         },
       ],
+    },
+    {
+      // A free piston but no free ring set: still an empty step, a cylinder bored to it waits.
+      stepId: 'st2',
+      label: '+0.020 in',
+      offset: toLengthJson(508_000),
+      nominalBore: toLengthJson(64_008_000),
+      pistons: { onHand: 1, held: 0, free: 1, onOrder: 0 },
+      pistonsToMeasure: 0,
+      rings: { onHand: 1, held: 1, free: 0, onOrder: 0 },
+      kitsFree: 0,
+      nothingFree: true,
+      missing: ['rings'],
+      units: [],
     },
   ],
 };
@@ -128,15 +146,27 @@ describe('StepLadder', () => {
     return fixture.nativeElement as HTMLElement;
   }
 
-  it('when loaded, then each step shows its bore and counts, and an empty step says so in words', () => {
+  it('when loaded, then each step shows its bore and counts, and an empty step says which part is missing', () => {
     const steps = el().querySelectorAll('li.step');
-    expect(steps).toHaveLength(2);
+    expect(steps).toHaveLength(3);
     expect(steps[0].classList).toContain('nothing-free');
-    expect(steps[0].textContent).toContain('Nothing free');
+    expect(steps[0].querySelector('.flag')?.textContent).toContain(
+      'No free piston and no free ring set',
+    );
     expect(steps[0].textContent).toContain('63.500 mm');
     expect(steps[1].classList).not.toContain('nothing-free');
-    expect(steps[1].textContent).not.toContain('Nothing free');
-    expect(el().querySelector('.summary')?.textContent).toMatch(/1 of 2\s+step has no free piston/);
+    expect(steps[1].querySelector('.flag')).toBeNull();
+    expect(steps[1].textContent).toMatch(/To measure\s*1/);
+    expect(steps[2].classList).toContain('nothing-free');
+    const flag = steps[2].querySelector('.flag')?.textContent ?? '';
+    expect(flag).toContain('No free ring set');
+    expect(flag).not.toContain('piston');
+    // A step with a free piston but no ring set is not "every step has a free piston".
+    const summary = el().querySelector('.summary')?.textContent ?? '';
+    expect(summary).toMatch(
+      /2 of 3\s+steps are empty: 1 with no free\s+piston, 2 with no free ring set/,
+    );
+    expect(summary).not.toContain('Every step');
   });
 
   it('when a step has free pistons, then each shows as a chip with its measured size or "to measure"', () => {

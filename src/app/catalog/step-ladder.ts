@@ -18,6 +18,7 @@ import { catchError, combineLatest, map, of, startWith, switchMap } from 'rxjs';
 
 import type { LadderJson, LadderStepJson, LadderUnitJson } from '../../../shared/catalog-api';
 import type { LengthUnit } from '../../../shared/lengths';
+import { emptyStepWords, type NeededPart } from '../../../shared/part-needs';
 import { apiErrorMessage } from '../core/api-error';
 import { LengthPipe } from '../core/length-pipe';
 import { Session } from '../core/session';
@@ -81,6 +82,16 @@ export class StepLadder {
   protected readonly emptySteps = computed(
     () => this.ladder()?.steps.filter((step) => step.nothingFree).length ?? 0,
   );
+  protected readonly missingWords = emptyStepWords;
+
+  /** How many steps lack this part (a step may lack both). */
+  protected shortOf(part: NeededPart): number {
+    return this.ladder()?.steps.filter((step) => step.missing.includes(part)).length ?? 0;
+  }
+
+  protected capitalized(text: string): string {
+    return text.charAt(0).toUpperCase() + text.slice(1);
+  }
 
   /** Starts in the person's own unit; the toggle switches this page only. */
   protected readonly unit = linkedSignal<LengthUnit>(() => this.session.unit());

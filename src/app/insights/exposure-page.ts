@@ -3,6 +3,7 @@ import { MatButtonToggleModule } from '@angular/material/button-toggle';
 import { MatTableModule } from '@angular/material/table';
 import { Router } from '@angular/router';
 
+import { waitingForWords, type NeededPart } from '../../../shared/part-needs';
 import { InsightChart } from './insight-chart';
 import { loadEach } from './insight-loader';
 import { InsightPanel } from './insight-panel';
@@ -12,7 +13,7 @@ import { formatCount, formatShare } from './insights-format';
 import { MONTH_CHOICES, monthsFrom } from './stock-page';
 
 /**
- * Where the shop ran short: steps asked for with no measured piston free, the jobs that waited and
+ * Where the shop ran short: steps asked for with no measured piston or ring set free, the jobs that waited and
  * for how long; and which suppliers deliver when they said they would.
  */
 @Component({
@@ -41,15 +42,12 @@ export class ExposurePage {
     const answer = this.suppliers.value();
     return answer && answer.items.length ? supplierChart(answer) : null;
   });
-  protected readonly totals = computed(() => {
-    const items = this.exposure.value()?.items ?? [];
-    return {
-      steps: items.length,
-      stillWaiting: items.reduce((n, i) => n + i.stillWaiting, 0),
-    };
-  });
+  protected readonly totals = computed(() => ({
+    steps: this.exposure.value()?.items.length ?? 0,
+  }));
 
-  protected readonly shortColumns = ['step', 'times', 'jobs', 'days', 'waiting'];
+  protected readonly shortColumns = ['step', 'parts', 'times', 'jobs', 'days', 'waiting'];
+  protected readonly waitingWords = waitingForWords;
   protected readonly supplierColumns = [
     'supplier',
     'orders',
@@ -64,6 +62,11 @@ export class ExposurePage {
     exposure: this.api.csvUrl('exposure', { months: this.window() }),
     suppliers: this.api.csvUrl('supplier-reliability', { months: this.window() }),
   }));
+
+  /** "piston", "ring set", "piston and ring set". */
+  protected partWords(parts: readonly NeededPart[]): string {
+    return parts.map((p) => (p === 'piston' ? 'piston' : 'ring set')).join(' and ');
+  }
 
   /** Days with one decimal, "32.0" rather than "32", so the column lines up. */
   protected days(value: number): string {

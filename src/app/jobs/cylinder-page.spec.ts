@@ -40,6 +40,7 @@ const JOB: JobJson = {
   dueDate: null,
   overdue: false,
   waitingForParts: false,
+  waitingFor: [],
   pistonsHeld: 0,
   cylindersCut: 0,
   notes: '',

@@ -180,6 +180,7 @@ function job(c: Case, stepId: string | null): JobJson {
     dueDate: null,
     overdue: false,
     waitingForParts: false,
+    waitingFor: [],
     pistonsHeld: 0,
     cylindersCut: 0,
     notes: '',

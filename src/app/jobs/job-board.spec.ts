@@ -25,6 +25,7 @@ function job(
     dueDate: null,
     overdue: false,
     waitingForParts: false,
+    waitingFor: [],
     pistonsHeld: 0,
     cylindersCut: 0,
     createdAt: '2026-12-01T09:00:00.000Z',
@@ -59,6 +60,7 @@ describe('JobBoard', () => {
           dueDate: '2026-11-28',
           overdue: true,
           waitingForParts: true,
+          waitingFor: ['rings'],
         }),
         job('CY-2612-0003', 'booked_in', { dueDate: '2026-12-02' }),
         job('CY-2612-0001', 'booked_in'),
@@ -82,7 +84,10 @@ describe('JobBoard', () => {
       n.textContent?.trim(),
     );
     expect(booked).toEqual(['CY-2612-0003', 'CY-2612-0001']);
-    expect(columns[1].textContent).toContain('Waiting for parts');
+    // The badge names the part that is missing, as the server's one rule found it.
+    expect(columns[1].querySelector('.waiting-badge')?.textContent).toContain(
+      'Waiting for a ring set',
+    );
     expect(columns[1].querySelector('.due.overdue')?.textContent).toContain('Overdue');
     expect(element.querySelector('.summary')?.textContent).toContain(
       '3 open jobs, 1 waiting for parts.',

@@ -18,6 +18,7 @@ import {
   type JobListItemJson,
   type Page,
 } from '../../../shared/jobs-api';
+import { waitingForWords } from '../../../shared/part-needs';
 import { apiErrorMessage } from '../core/api-error';
 import { Session } from '../core/session';
 import { JobsApi, type JobListQuery } from './jobs-api';
@@ -120,6 +121,8 @@ export class JobBoard {
       jobs: this.jobs().filter((job) => job.state === state),
     })),
   );
+  /** "a piston", "a ring set" or both: which part a waiting job lacks. */
+  protected readonly waitingWords = waitingForWords;
   protected readonly waitingCount = computed(
     () => this.jobs().filter((job) => job.waitingForParts).length,
   );

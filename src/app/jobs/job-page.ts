@@ -29,6 +29,7 @@ import {
   type JobJson,
   type OpenState,
 } from '../../../shared/jobs-api';
+import { waitingForWords } from '../../../shared/part-needs';
 import { apiErrorMessage } from '../core/api-error';
 import { LengthPipe } from '../core/length-pipe';
 import { Notifier } from '../core/notifier';
@@ -69,6 +70,7 @@ export class JobPage {
   protected readonly labels = JOB_STATE_LABELS;
   protected readonly hints = JOB_STATE_HINTS;
   protected readonly openStates = OPEN_STATES;
+  protected readonly waitingWords = waitingForWords;
   protected readonly photoTypes = PHOTO_TYPES.join(',');
 
   private readonly role = computed(() => this.session.user()?.role);

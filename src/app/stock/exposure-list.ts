@@ -11,6 +11,7 @@ import { RouterLink } from '@angular/router';
 import { catchError, debounceTime, distinctUntilChanged, map, of, switchMap, tap } from 'rxjs';
 
 import type { ExposureItemJson, Page } from '../../../shared/catalog-api';
+import { emptyStepWords } from '../../../shared/part-needs';
 import { apiErrorMessage } from '../core/api-error';
 import { LengthPipe } from '../core/length-pipe';
 import { StockApi } from './stock-api';
@@ -18,8 +19,8 @@ import { StockApi } from './stock-api';
 type Loaded = { ok: true; page: Page<ExposureItemJson> } | { ok: false; message: string };
 
 /**
- * Shop-wide: every step of every family with no free piston, the most asked-for first. A worn
- * cylinder that needs one of these waits.
+ * Shop-wide: every step of every family with no free piston or no free ring set (the server's one
+ * rule), the most asked-for first, and which part is missing. A worn cylinder that needs one waits.
  */
 @Component({
   selector: 'app-exposure-list',
@@ -41,7 +42,9 @@ type Loaded = { ok: true; page: Page<ExposureItemJson> } | { ok: false; message:
 export class ExposureList {
   private readonly api = inject(StockApi);
 
-  protected readonly columns = ['family', 'step', 'bore', 'pistons', 'rings', 'issued'];
+  protected readonly columns = ['family', 'step', 'missing', 'bore', 'pistons', 'rings', 'issued'];
+  /** "no free piston", "no free ring set" or both, in the words every page uses. */
+  protected readonly missingWords = emptyStepWords;
   protected readonly text = signal('');
   protected readonly pageIndex = signal(0);
   protected readonly pageSize = signal(50);
