@@ -24,3 +24,32 @@ export function engineCautions(strokeType: StrokeType): string[] {
 export function afterHoningChecks(strokeType: StrokeType): string[] {
   return strokeType === 'two' ? [CHECK_PORTS_DRESSED, CHECK_BORE_CLEAN] : [CHECK_BORE_CLEAN];
 }
+
+export interface HoningFacts {
+  strokeType: StrokeType;
+  /** The family's stroke, in the machinist's unit, ready to print ("54.00 mm"). */
+  stroke: string;
+  crosshatchDeg: string;
+  /** The family's grits, as the shop wrote them ("coarse 280, plateau 400"); '' when not given. */
+  grits: string;
+}
+
+/**
+ * The honing lines of the sheet: grits, the crosshatch the shop aims for, and the stroke to set the
+ * hone's travel against. The angle is the included angle between the scratch lines; about 45° is
+ * common practice (no source), and the family's figure is printed. The hone maker's speeds and
+ * strokes per minute for that angle govern.
+ */
+export function honingGuidance(f: HoningFacts): string[] {
+  const lines = [
+    f.grits.trim() === ''
+      ? 'Grits: as the hone maker advises for this bore (none set for the family).'
+      : `Grits: ${f.grits.trim()}.`,
+    `Crosshatch: aim for about ${Number(f.crosshatchDeg)}° included angle; set spindle speed and stroke rate by the hone maker's chart.`,
+    `Engine stroke ${f.stroke}: set the hone's travel so the stones run just past both ends of ring travel, without dropping out of the bore.`,
+  ];
+  if (f.strokeType === 'two') {
+    lines.push('Hone after the ports are chamfered, so the stones do not catch a sharp port edge.');
+  }
+  return lines;
+}

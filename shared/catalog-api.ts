@@ -95,6 +95,13 @@ const bore = lengthField({ max: 500_000_000 });
 const smallLength = lengthField({ allowZero: true, max: 10_000_000 });
 const optionalSmallLength = optionalLengthField({ allowZero: true, max: 10_000_000 });
 
+const ringGapFactor = z
+  .string({ error: 'must be a decimal such as 0.004' })
+  .trim()
+  .max(8, 'at most 5 decimals, such as 0.00450')
+  .regex(/^0?\.\d{1,5}$/, 'must be a decimal below 1 such as 0.004')
+  .refine((v) => Number(v) > 0 && Number(v) < 0.02, 'must be above 0 and below 0.02 of the bore');
+
 export const familyInput = z
   .object({
     code,
@@ -114,6 +121,19 @@ export const familyInput = z
     maxOutOfRound: optionalSmallLength.optional(),
     ringGapMin: optionalSmallLength.optional(),
     ringGapMax: optionalSmallLength.optional(),
+    /** A clearance range of its own for forged pistons; both empty: the range above for every piston. */
+    forgedClearanceMin: optionalSmallLength.optional(),
+    forgedClearanceMax: optionalSmallLength.optional(),
+    /** Ring end gap per unit of bore (in per in, or mm per mm), e.g. "0.004". */
+    ringGapPerBore: ringGapFactor.optional(),
+    /** The hone's crosshatch, included angle in degrees. */
+    honeCrosshatch: z
+      .number({ error: 'must be a number of degrees' })
+      .min(10, 'at least 10°')
+      .max(90, 'at most 90°')
+      .optional(),
+    /** The stones, as the shop writes them ("coarse 280, plateau 400"). */
+    honeGrits: singleLine(120).optional(),
     notes: z.string().max(2000).optional(),
   })
   .strict();
@@ -207,6 +227,10 @@ export interface FamilyJson {
   maxTaper: LengthJson | null;
   maxOutOfRound: LengthJson | null;
   ringGap: { min: LengthJson | null; max: LengthJson | null };
+  /** Null: forged pistons use the family's one range. */
+  forgedClearance: { min: LengthJson; max: LengthJson } | null;
+  ringGapPerBore: string;
+  hone: { crosshatchDeg: number; grits: string };
   stepSeriesId: string;
   stepSeries: { id: string; code: string; name: string };
   notes: string;

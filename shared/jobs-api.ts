@@ -331,6 +331,19 @@ export interface CylinderJson {
   ringGap: LengthJson | null;
   /** The recorded ring end gap is within the family's range (null: not recorded or no range). */
   ringGapOk: boolean | null;
+  /** Honed bore − the held piston's skirt, against the range for its material; null until honed. */
+  honedFit: HonedFitJson | null;
+  /** The end gap the honed bore calls for (the family's factor × the bore); null until honed. */
+  ringGapSuggested: LengthJson | null;
+  /** The recorded end gap against that suggestion; null until both are known. */
+  ringGapCheck: { verdict: 'ok' | 'tight' | 'wide'; text: string } | null;
+}
+
+export interface HonedFitJson {
+  clearance: LengthJson;
+  range: { min: LengthJson; max: LengthJson; basis: 'family' | 'forged' };
+  verdict: 'in_range' | 'tight' | 'loose';
+  text: string;
 }
 
 export interface PhotoJson {
@@ -527,6 +540,12 @@ export interface BoreSheetJson {
   cutAt: string | null;
   measuredAfterHone: LengthJson | null;
   ringGapMeasured: LengthJson | null;
+  /** The end gap this bore calls for: the family's factor × the finished bore. */
+  ringGapSuggested: LengthJson;
+  /** After honing: the clearance the piston has in the honed bore, checked; null until recorded. */
+  honedFit: HonedFitJson | null;
+  /** Grits, crosshatch and the hone's travel, printed under the passes. */
+  honing: string[];
   /** The cylinder's mark and its last bore before this job, when it has been bored before. */
   cylinderMark: string | null;
   previousBore: EarlierBoreJson | null;

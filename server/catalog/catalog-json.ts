@@ -33,6 +33,16 @@ export function familyJson(row: FamilyRow): FamilyJson {
     maxTaper: lengthOrNull(row.max_taper_nm),
     maxOutOfRound: lengthOrNull(row.max_out_of_round_nm),
     ringGap: { min: lengthOrNull(row.ring_gap_min_nm), max: lengthOrNull(row.ring_gap_max_nm) },
+    forgedClearance:
+      row.forged_clearance_min_nm !== null && row.forged_clearance_max_nm !== null
+        ? {
+            min: toLengthJson(row.forged_clearance_min_nm),
+            max: toLengthJson(row.forged_clearance_max_nm),
+          }
+        : null,
+    // NUMERIC text without the padding zeros: "0.004", not "0.00400".
+    ringGapPerBore: String(Number(row.ring_gap_per_bore)),
+    hone: { crosshatchDeg: Number(row.hone_crosshatch_deg), grits: row.hone_grits },
     stepSeriesId: row.step_series_id,
     stepSeries: { id: row.step_series_id, code: row.series_code, name: row.series_name },
     notes: row.notes,

@@ -40,6 +40,11 @@ export interface FamilyRow {
   max_out_of_round_nm: number | null;
   ring_gap_min_nm: number | null;
   ring_gap_max_nm: number | null;
+  forged_clearance_min_nm: number | null;
+  forged_clearance_max_nm: number | null;
+  ring_gap_per_bore: string;
+  hone_crosshatch_deg: string;
+  hone_grits: string;
   notes: string;
   active: boolean;
   created_at: Date;

@@ -150,6 +150,11 @@ function familyColumns(input: Partial<FamilyInput> & { active?: boolean }): Part
   if (input.maxOutOfRound !== undefined) c.max_out_of_round_nm = input.maxOutOfRound;
   if (input.ringGapMin !== undefined) c.ring_gap_min_nm = input.ringGapMin;
   if (input.ringGapMax !== undefined) c.ring_gap_max_nm = input.ringGapMax;
+  if (input.forgedClearanceMin !== undefined) c.forged_clearance_min_nm = input.forgedClearanceMin;
+  if (input.forgedClearanceMax !== undefined) c.forged_clearance_max_nm = input.forgedClearanceMax;
+  if (input.ringGapPerBore !== undefined) c.ring_gap_per_bore = input.ringGapPerBore;
+  if (input.honeCrosshatch !== undefined) c.hone_crosshatch_deg = String(input.honeCrosshatch);
+  if (input.honeGrits !== undefined) c.hone_grits = input.honeGrits;
   if (input.notes !== undefined) c.notes = input.notes;
   if (input.active !== undefined) c.active = input.active;
   return c;
@@ -169,6 +174,19 @@ async function checkFamily(k: Conn, f: FamilyColumns): Promise<void> {
   ) {
     throw new BadRequest('ringGapMax: must not be smaller than ringGapMin.', [
       { field: 'ringGapMax', message: 'must not be smaller than ringGapMin' },
+    ]);
+  }
+  const forgedMin = f.forged_clearance_min_nm ?? null;
+  const forgedMax = f.forged_clearance_max_nm ?? null;
+  if ((forgedMin === null) !== (forgedMax === null)) {
+    const field = forgedMin === null ? 'forgedClearanceMin' : 'forgedClearanceMax';
+    throw new BadRequest(`${field}: give both ends of the forged range, or neither.`, [
+      { field, message: 'give both ends of the forged range, or neither' },
+    ]);
+  }
+  if (forgedMin !== null && forgedMax !== null && forgedMax < forgedMin) {
+    throw new BadRequest('forgedClearanceMax: must not be smaller than forgedClearanceMin.', [
+      { field: 'forgedClearanceMax', message: 'must not be smaller than forgedClearanceMin' },
     ]);
   }
   if (!(await repo.findSeries(f.step_series_id, k))) {

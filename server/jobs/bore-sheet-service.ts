@@ -15,7 +15,8 @@ import {
   computeBoreSheet,
   pistonCleanup,
 } from '../../shared/bore-sheet';
-import { afterHoningChecks, engineCautions } from '../../shared/bore-sheet-wording';
+import { afterHoningChecks, engineCautions, honingGuidance } from '../../shared/bore-sheet-wording';
+import { clearanceRangeFor, honedFit, suggestedRingGapNm } from '../../shared/finish-checks';
 import { barGridNm, passStartNm } from '../../shared/pass-plan';
 import { formatLength, toLengthJson, type LengthUnit, type Nm } from '../../shared/lengths';
 import { stepNominalBore } from '../../shared/step-series';
@@ -25,7 +26,7 @@ import * as holdsRepo from './holds-repository';
 import { getCylinder } from './cylinder-service';
 import { requireCylinder, requireOpenJob } from './jobs-service';
 import { advanceState } from './job-state';
-import { lengthOrNull, toReadings } from './jobs-json';
+import { familyClearances, honedFitJson, lengthOrNull, toReadings } from './jobs-json';
 import { earlierBoreJson } from './cylinder-service';
 import { lastBoreBefore } from '../customers/cylinders-service';
 
@@ -65,9 +66,11 @@ async function sheetFacts(jobId: string, n: number, k: Knex) {
   const minCut = requiredSettingLength('smallest cut per pass', settings.minCutPerPass);
   const finishPass = settingLength('finishing pass', settings.finishPass);
   const truingPass = settingLength('truing pass', settings.truingPass);
+  // Forged pistons may have a range of their own: the policy picks within the held piston's.
+  const material = (await holdsRepo.holdPart(piston.part_id, k))?.material ?? null;
+  const range = clearanceRangeFor(familyClearances(family), material);
   const clearanceNm =
-    cylinder.clearance_nm ??
-    chooseClearance(family.clearance_min_nm, family.clearance_max_nm, settings.clearancePolicy);
+    cylinder.clearance_nm ?? chooseClearance(range.minNm, range.maxNm, settings.clearancePolicy);
   let sheet;
   try {
     sheet = computeBoreSheet({
@@ -101,6 +104,8 @@ async function sheetFacts(jobId: string, n: number, k: Knex) {
     finishPass,
     truingPass,
     clearanceNm,
+    range,
+    material,
     sheet,
     cleanup,
   };
@@ -126,7 +131,6 @@ export async function boreSheet(
 ): Promise<BoreSheetJson> {
   const f = await sheetFacts(jobId, n, k);
   const { job, family, cylinder, sheet, cleanup } = f;
-  const part = await holdsRepo.holdPart(f.piston.part_id, k);
   // A cylinder bored before: its last bore goes on the sheet, for the machinist to check against.
   const earlier = f.cylinder.cylinder_id
     ? await lastBoreBefore(f.cylinder.cylinder_id, jobId, k)
@@ -149,14 +153,11 @@ export async function boreSheet(
       unitId: f.piston.unit_id,
       label: f.piston.unit_label,
       sku: f.piston.sku,
-      material: part?.material ?? null,
+      material: f.material,
     },
     skirt: toLengthJson(f.skirtNm),
     clearance: toLengthJson(f.clearanceNm),
-    clearanceRange: {
-      min: toLengthJson(family.clearance_min_nm),
-      max: toLengthJson(family.clearance_max_nm),
-    },
+    clearanceRange: { min: toLengthJson(f.range.minNm), max: toLengthJson(f.range.maxNm) },
     clearanceFrom: cylinder.clearance_nm === null ? 'policy' : 'cylinder',
     finishedBore: toLengthJson(sheet.finishedBoreNm),
     boreTo: toLengthJson(sheet.boreToNm),
@@ -193,6 +194,25 @@ export async function boreSheet(
     cutAt: cylinder.cut_at ? cylinder.cut_at.toISOString() : null,
     measuredAfterHone: lengthOrNull(cylinder.measured_after_hone_nm),
     ringGapMeasured: lengthOrNull(cylinder.ring_gap_nm),
+    ringGapSuggested: toLengthJson(
+      suggestedRingGapNm(
+        cylinder.measured_after_hone_nm ?? sheet.finishedBoreNm,
+        family.ring_gap_per_bore,
+      ),
+    ),
+    honedFit:
+      cylinder.measured_after_hone_nm === null
+        ? null
+        : honedFitJson(
+            honedFit(cylinder.measured_after_hone_nm, f.skirtNm, f.range, unit),
+            f.range,
+          ),
+    honing: honingGuidance({
+      strokeType: family.stroke_type,
+      stroke: formatLength(family.stroke_nm, unit),
+      crosshatchDeg: family.hone_crosshatch_deg,
+      grits: family.hone_grits,
+    }),
     cylinderMark: cylinder.cylinder_mark,
     previousBore: earlier ? earlierBoreJson(earlier.json) : null,
     // The engine's own caution first: it is the one this sheet adds to the usual list.

@@ -24,7 +24,8 @@ import * as repo from './jobs-repository';
 import * as holdsRepo from './holds-repository';
 import { requireCylinder, requireOpenJob } from './jobs-service';
 import { advanceAfterHoning, advanceState } from './job-state';
-import { cylinderJson, familyLimits, lengthOrNull } from './jobs-json';
+import { cylinderJson, familyClearances, familyLimits, lengthOrNull } from './jobs-json';
+import { clearanceRangeFor } from '../../shared/finish-checks';
 import { checkLink, ladderOf, lastBoreBefore } from '../customers/cylinders-service';
 import { lastBoreConstraint, stepsLeftAfter, stepsLeftWarning } from '../../shared/bore-history';
 
@@ -288,8 +289,13 @@ export async function patchCylinder(
 
     if (patch.clearance !== undefined) {
       const c = patch.clearance;
-      if (c !== null && (c < family.clearance_min_nm || c > family.clearance_max_nm)) {
-        const message = `must be within ${family.code}'s range, ${show(family.clearance_min_nm)} to ${show(family.clearance_max_nm)}`;
+      const piston = (await holdsRepo.holdsOfJob(jobId, { activeOnly: true }, trx)).find(
+        (h) => h.cylinder === n && h.unit_id !== null,
+      );
+      const range = clearanceRangeFor(familyClearances(family), piston?.material ?? null);
+      if (c !== null && (c < range.minNm || c > range.maxNm)) {
+        const whose = range.basis === 'forged' ? ` for a forged piston` : '';
+        const message = `must be within ${family.code}'s range${whose}, ${show(range.minNm)} to ${show(range.maxNm)}`;
         throw new BadRequest(`clearance: ${message}.`, [{ field: 'clearance', message }]);
       }
       changes.clearance_nm = c;

@@ -22,6 +22,7 @@ export interface HoldRow {
   unit_id: string | null;
   unit_label: string | null;
   skirt_nm: number | null;
+  material: string | null;
   bin_code: string | null;
   quantity: number;
   expires_at: Date | null;
@@ -62,6 +63,7 @@ export interface FreeUnitRow {
   part_id: string;
   sku: string;
   skirt_nm: number;
+  material: string | null;
   bin_code: string | null;
   step_label: string | null;
 }
@@ -97,6 +99,7 @@ function holdBase(k: Knex) {
         'h.unit_id',
         'u.label as unit_label',
         'u.skirt_nm',
+        'p.material',
         'b.code as bin_code',
         'h.quantity',
         'h.expires_at',
@@ -429,6 +432,7 @@ export function nearestFreeUnits(
       'u.part_id',
       'p.sku',
       'u.skirt_nm',
+      'p.material',
       'b.code as bin_code',
       's.label as step_label',
     )

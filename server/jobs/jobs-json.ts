@@ -1,11 +1,21 @@
 // Database rows → API answers for jobs. Lengths go out as { mm, in }.
 import { assessBore } from '../../shared/bore-assessment';
 import type { Reading } from '../../shared/bore-wear';
+import {
+  checkRingGap,
+  clearanceRangeFor,
+  honedFit,
+  suggestedRingGapNm,
+  type ClearanceRange,
+  type FamilyClearances,
+  type HonedFit,
+} from '../../shared/finish-checks';
 import { toLengthJson, type LengthJson, type LengthUnit } from '../../shared/lengths';
 import { stepNominalBore } from '../../shared/step-series';
 import type {
   CylinderJson,
   HoldJson,
+  HonedFitJson,
   JobEventJson,
   JobFamilyJson,
   JobListItemJson,
@@ -33,6 +43,25 @@ export function familyLimits(f: FamilyRow) {
     maxOversizeNm: f.max_oversize_nm,
     maxTaperNm: f.max_taper_nm,
     maxOutOfRoundNm: f.max_out_of_round_nm,
+  };
+}
+
+/** The family's clearance ranges, as the shared finish checks read them. */
+export function familyClearances(f: FamilyRow): FamilyClearances {
+  return {
+    clearanceMinNm: f.clearance_min_nm,
+    clearanceMaxNm: f.clearance_max_nm,
+    forgedMinNm: f.forged_clearance_min_nm,
+    forgedMaxNm: f.forged_clearance_max_nm,
+  };
+}
+
+export function honedFitJson(fit: HonedFit, range: ClearanceRange): HonedFitJson {
+  return {
+    clearance: toLengthJson(fit.clearanceNm),
+    range: { min: toLengthJson(range.minNm), max: toLengthJson(range.maxNm), basis: range.basis },
+    verdict: fit.verdict,
+    text: fit.text,
   };
 }
 
@@ -101,6 +130,17 @@ export function cylinderJson(
   const piston = active.find((h) => h.unit_id !== null);
   const gapMin = family.ring_gap_min_nm;
   const gapMax = family.ring_gap_max_nm;
+  const honed = c.measured_after_hone_nm;
+  const range = clearanceRangeFor(familyClearances(family), piston?.material ?? null);
+  const fit =
+    honed !== null && piston?.skirt_nm != null
+      ? honedFitJson(honedFit(honed, piston.skirt_nm, range, unit), range)
+      : null;
+  const gapSuggested = honed === null ? null : suggestedRingGapNm(honed, family.ring_gap_per_bore);
+  const gapCheck =
+    gapSuggested !== null && c.ring_gap_nm !== null
+      ? checkRingGap(c.ring_gap_nm, gapSuggested, gapMax, unit)
+      : null;
   return {
     n: c.n,
     cylinder:
@@ -137,6 +177,9 @@ export function cylinderJson(
         ? null
         : (gapMin === null || c.ring_gap_nm >= gapMin) &&
           (gapMax === null || c.ring_gap_nm <= gapMax),
+    honedFit: fit,
+    ringGapSuggested: lengthOrNull(gapSuggested),
+    ringGapCheck: gapCheck ? { verdict: gapCheck.verdict, text: gapCheck.text } : null,
   };
 }
 

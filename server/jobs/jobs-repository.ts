@@ -27,6 +27,13 @@ export interface FamilyRow {
   max_out_of_round_nm: number | null;
   ring_gap_min_nm: number | null;
   ring_gap_max_nm: number | null;
+  forged_clearance_min_nm: number | null;
+  forged_clearance_max_nm: number | null;
+  /** Ring end gap per unit of bore, exact decimal text ("0.00400"). */
+  ring_gap_per_bore: string;
+  stroke_nm: number;
+  hone_crosshatch_deg: string;
+  hone_grits: string;
   step_series_id: string;
   stroke_type: 'two' | 'four';
   active: boolean;
@@ -143,6 +150,12 @@ const FAMILY_COLUMNS = [
   'max_out_of_round_nm',
   'ring_gap_min_nm',
   'ring_gap_max_nm',
+  'forged_clearance_min_nm',
+  'forged_clearance_max_nm',
+  'ring_gap_per_bore',
+  'stroke_nm',
+  'hone_crosshatch_deg',
+  'hone_grits',
   'step_series_id',
   'stroke_type',
   'active',

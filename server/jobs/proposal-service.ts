@@ -6,12 +6,13 @@ import { db } from '../db/knex';
 import { BadRequest, Conflict, NotFound } from '../errors';
 import { getSettings } from '../settings/settings-service';
 import { chooseClearance, pistonCleanup } from '../../shared/bore-sheet';
+import { clearanceRangeFor } from '../../shared/finish-checks';
 import { toLengthJson } from '../../shared/lengths';
 import { stepNominalBore } from '../../shared/step-series';
 import type { ProposalJson, ProposedUnitJson } from '../../shared/jobs-api';
 import * as repo from './holds-repository';
 import * as jobsRepo from './jobs-repository';
-import { holdJson } from './jobs-json';
+import { familyClearances, holdJson } from './jobs-json';
 import { proposedJson } from './holds-service';
 
 export async function proposal(
@@ -48,15 +49,22 @@ export async function proposal(
     repo.holdsOfJob(jobId, { activeOnly: true }, k),
     getSettings(k),
   ]);
-  const clearanceNm =
-    cylinder?.clearance_nm ??
-    chooseClearance(family.clearance_min_nm, family.clearance_max_nm, settings.clearancePolicy);
+  // The clearance for a piston of this material: a forged one may have a range of its own.
+  const clearanceFor = (material: string | null) => {
+    if (cylinder?.clearance_nm != null) return cylinder.clearance_nm;
+    const range = clearanceRangeFor(familyClearances(family), material);
+    return chooseClearance(range.minNm, range.maxNm, settings.clearancePolicy);
+  };
   const largest = cylinder?.largest_nm ?? null;
-  const judged: ProposedUnitJson[] = units.map((u) => ({
+  const judged: (ProposedUnitJson & { material: string | null })[] = units.map((u) => ({
     ...proposedJson(u),
+    material: u.material,
     ...(largest === null
       ? {}
-      : { cleansUp: pistonCleanup(u.skirt_nm + clearanceNm, largest, family.cleanup_nm).cleansUp }),
+      : {
+          cleansUp: pistonCleanup(u.skirt_nm + clearanceFor(u.material), largest, family.cleanup_nm)
+            .cleansUp,
+        }),
   }));
   // Stable: nearest first within those that clean up, then the rest.
   const ordered = [
@@ -64,10 +72,12 @@ export async function proposal(
     ...judged.filter((u) => u.cleansUp === false),
   ];
   const piston = holds.find((h) => h.cylinder === n && h.unit_id !== null);
+  const basisNm = clearanceFor(piston?.material ?? ordered[0]?.material ?? null);
+  const unitJson = ({ material: _material, ...u }: (typeof ordered)[number]): ProposedUnitJson => u;
   return {
     step: { id: step.id, label: step.label, nominalBore: toLengthJson(nominal) },
-    unit: ordered[0] ?? null,
-    others: ordered.slice(1),
+    unit: ordered[0] ? unitJson(ordered[0]) : null,
+    others: ordered.slice(1).map(unitJson),
     rings: rings.map((r) => ({
       partId: r.id,
       sku: r.sku,
@@ -79,13 +89,14 @@ export async function proposal(
       largest === null
         ? null
         : {
-            clearance: toLengthJson(clearanceNm),
+            clearance: toLengthJson(basisNm),
             largestWorn: toLengthJson(largest),
             allowance: toLengthJson(family.cleanup_nm),
           },
     heldCleansUp:
       piston && piston.skirt_nm !== null && largest !== null
-        ? pistonCleanup(piston.skirt_nm + clearanceNm, largest, family.cleanup_nm).cleansUp
+        ? pistonCleanup(piston.skirt_nm + clearanceFor(piston.material), largest, family.cleanup_nm)
+            .cleansUp
         : null,
   };
 }

@@ -51,6 +51,11 @@ export interface FamilyBody {
   maxOutOfRound?: string | null;
   ringGapMin?: string | null;
   ringGapMax?: string | null;
+  forgedClearanceMin?: string | null;
+  forgedClearanceMax?: string | null;
+  ringGapPerBore?: string;
+  honeCrosshatch?: number;
+  honeGrits?: string;
   notes?: string;
   active?: boolean;
 }

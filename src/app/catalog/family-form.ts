@@ -56,6 +56,18 @@ const LENGTHS = [
     required: true,
   },
   {
+    key: 'forgedClearanceMin',
+    label: 'Forged piston clearance, least',
+    hint: 'Empty: forged pistons use the range above',
+    required: false,
+  },
+  {
+    key: 'forgedClearanceMax',
+    label: 'Forged piston clearance, most',
+    hint: 'Empty: forged pistons use the range above',
+    required: false,
+  },
+  {
     key: 'honeAllowance',
     label: 'Hone allowance',
     hint: 'Left on the diameter for the hone',
@@ -141,6 +153,16 @@ export class FamilyForm {
     cooling: this.fb.control<'air' | 'liquid'>('air'),
     stepSeriesId: ['', Validators.required],
     notes: ['', Validators.maxLength(2000)],
+    ringGapPerBore: [
+      '0.004',
+      [Validators.required, Validators.pattern(/^0?\.\d{1,5}$/), Validators.max(0.0199)],
+    ],
+    honeCrosshatch: this.fb.control(45, [
+      Validators.required,
+      Validators.min(10),
+      Validators.max(90),
+    ]),
+    honeGrits: ['', Validators.maxLength(120)],
     active: [true],
     lengths: this.fb.group(
       Object.fromEntries(
@@ -283,6 +305,9 @@ export class FamilyForm {
     take('cooling', c.cooling.dirty, v.cooling);
     take('stepSeriesId', c.stepSeriesId.dirty, v.stepSeriesId);
     take('notes', c.notes.dirty, v.notes);
+    take('ringGapPerBore', c.ringGapPerBore.dirty, v.ringGapPerBore.trim());
+    take('honeCrosshatch', c.honeCrosshatch.dirty, Number(v.honeCrosshatch));
+    take('honeGrits', c.honeGrits.dirty, v.honeGrits.trim());
     if (editing) take('active', c.active.dirty, v.active);
     for (const l of LENGTHS) {
       const control = c.lengths.controls[l.key];
@@ -306,6 +331,9 @@ export class FamilyForm {
       cooling: f.cooling,
       stepSeriesId: f.stepSeriesId,
       notes: f.notes,
+      ringGapPerBore: f.ringGapPerBore,
+      honeCrosshatch: f.hone.crosshatchDeg,
+      honeGrits: f.hone.grits,
       active: f.active,
       lengths: {
         standardBore: lengthForField(f.standardBore, unit),
@@ -319,6 +347,8 @@ export class FamilyForm {
         maxOutOfRound: lengthForField(f.maxOutOfRound, unit),
         ringGapMin: lengthForField(f.ringGap.min, unit),
         ringGapMax: lengthForField(f.ringGap.max, unit),
+        forgedClearanceMin: lengthForField(f.forgedClearance?.min ?? null, unit),
+        forgedClearanceMax: lengthForField(f.forgedClearance?.max ?? null, unit),
       },
     });
   }

@@ -162,6 +162,9 @@ function cylinder(c: Case, stepId: string | null): CylinderJson {
     measuredAfterHone: null,
     ringGap: null,
     ringGapOk: null,
+    honedFit: null,
+    ringGapSuggested: null,
+    ringGapCheck: null,
   };
 }
 
