@@ -20,6 +20,7 @@ import { registerAuditRoutes } from './audit/audit-routes';
 import { registerMoneyRoutes } from './money/money-routes';
 import { registerPublicRoutes } from './money/public-routes';
 import { registerCustomersRoutes } from './customers/customers-routes';
+import { registerHomeRoutes } from './home/home-routes';
 
 export function registerAllRoutes(api: Router): void {
   registerSessionRoutes(api);
@@ -41,4 +42,5 @@ export function registerAllRoutes(api: Router): void {
   registerMoneyRoutes(api);
   registerPublicRoutes(api);
   registerCustomersRoutes(api);
+  registerHomeRoutes(api);
 }

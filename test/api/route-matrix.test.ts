@@ -24,6 +24,7 @@ const EXPECTED: Record<string, Access> = {
   'PATCH /api/account': ALL,
   'POST /api/account/password': ALL,
   'GET /api/settings': ALL,
+  'GET /api/home': ALL,
   'PATCH /api/settings': OWNER,
   // Catalog and stock: everyone reads; owner and buyer keep the catalog; receiving, moves and bins
   // are staff work too; anyone at the bench may measure a piston; adjustments stay with owner and buyer.

@@ -44,6 +44,20 @@ const NAV: Record<DemoRole, { groups: string[]; sees: string[]; hidden: string[]
   },
 };
 
+// The sections of each role's home page, in order.
+const HOME: Record<DemoRole, string[]> = {
+  owner: [
+    'Due today',
+    'Waiting for parts',
+    'Waiting for the customer’s approval',
+    'Stock alerts',
+    'Orders on the way',
+  ],
+  buyer: ['Waiting for parts', 'Stock alerts', 'Orders on the way'],
+  machinist: ['Due today', 'Waiting for parts', 'Waiting for the customer’s approval'],
+  staff: ['Due today', 'Waiting for the customer’s approval', 'Orders on the way'],
+};
+
 describe('signing in', () => {
   it('when the sign-in page opens, then it has no serious accessibility problems', async () => {
     await env.page.goto(`${env.baseUrl}/sign-in`);
@@ -69,6 +83,13 @@ describe('signing in', () => {
         expect(await toggle.getAttribute('aria-expanded')).toBe('true');
       for (const label of NAV[role].hidden)
         expect(await nav.getByRole('link', { name: label }).count()).toBe(0);
+      // Home is the role's day's work, not a second copy of the navigation.
+      const main = page.getByRole('main');
+      await main.locator('.panel').first().waitFor();
+      expect(await main.getByRole('heading', { level: 2 }).allTextContents()).toEqual(
+        HOME[role].map((title) => expect.stringContaining(title)),
+      );
+      expect(await main.getByRole('link', { name: 'Users' }).count()).toBe(0);
       await screenshot(page, `foundation-home-${role}`);
       expect(await seriousA11yViolations(page)).toEqual([]);
     },
