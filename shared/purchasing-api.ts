@@ -192,6 +192,9 @@ export interface OfferJson {
   currency: string;
   /** Price plus this quantity's share of the supplier's shipping, in the home currency; null without a rate. */
   landedCost: string | null;
+  /** The price alone and the supplier's shipping for one order, each in the home currency. */
+  priceHome: string | null;
+  shippingHome: string | null;
   homeCurrency: string;
   landedHow: string;
   available: number | null;

@@ -261,17 +261,24 @@ export async function suggestion(
   }
   const annual = stats.mean * DAYS_PER_YEAR;
 
-  // Holding cost per unit and year = the owner's holding cost rate × what a unit costs us.
+  // Holding cost per unit and year = the owner's holding cost rate × what a unit costs us. Without a
+  // received cost, the offer's price alone: its shipping is paid once per order, so it belongs to
+  // the cost of ordering, not to one unit's price.
   const average = new D(part.average_cost);
-  const unitCost = average.gt(0) ? average : best?.landedCost ? new D(best.landedCost) : null;
+  const unitCost = average.gt(0) ? average : best?.priceHome ? new D(best.priceHome) : null;
   const unitCostHow = average.gt(0)
     ? `the moving average cost ${moneyOut(average)} ${settings.homeCurrency}`
-    : best?.landedCost
-      ? `the best offer's landed cost ${best.landedCost} ${settings.homeCurrency}`
+    : best?.priceHome
+      ? `the best offer's price ${best.priceHome} ${settings.homeCurrency}`
       : null;
   let orderQuantity: Figure | null = null;
   const holdingRate = new D(settings.holdingCostRate || '0');
-  const orderCost = new D(settings.orderCost || '0');
+  const shopOrderCost = new D(settings.orderCost || '0');
+  const shipping = best?.shippingHome ? new D(best.shippingHome) : new D(0);
+  const orderCost = shopOrderCost.plus(shipping);
+  const orderCostHow = shipping.gt(0)
+    ? `order cost ${moneyOut(orderCost)} (${moneyOut(shopOrderCost)} to place it + ${best?.supplierName}'s shipping ${moneyOut(shipping)})`
+    : `order cost ${moneyOut(orderCost)}`;
   if (unitCost && unitCostHow && holdingRate.gt(0)) {
     const h = holdingRate.times(unitCost);
     const eoq = economicOrderQuantity({
@@ -281,7 +288,7 @@ export async function suggestion(
     });
     orderQuantity = fig(
       eoq.value,
-      `√(2 × ${round(annual)} a year × order cost ${moneyOut(orderCost)} ÷ holding ${moneyOut(h)} a unit a year) = ${round(eoq.exact)}, rounded to ${eoq.value}; holding = rate ${holdingRate.toFixed()} × ${unitCostHow}.`,
+      `√(2 × ${round(annual)} a year × ${orderCostHow} ÷ holding ${moneyOut(h)} a unit a year) = ${round(eoq.exact)}, rounded to ${eoq.value}; holding = rate ${holdingRate.toFixed()} × ${unitCostHow}.`,
     );
   } else {
     notes.push(

@@ -74,6 +74,8 @@ export async function offersFor(
       price: moneyOut(r.price),
       currency: r.currency,
       landedCost: landed ? moneyOut(landed) : null,
+      priceHome: price ? moneyOut(price) : null,
+      shippingHome: shipping ? moneyOut(shipping) : null,
       homeCurrency: home,
       landedHow,
       available: r.available,

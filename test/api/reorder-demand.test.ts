@@ -41,14 +41,18 @@ function daysAgo(n: number): Date {
   return d;
 }
 
-async function supplierOffering(partId: string, leadDays: number): Promise<string> {
+async function supplierOffering(
+  partId: string,
+  leadDays: number,
+  shippingCost = '0.00',
+): Promise<string> {
   const name = uniq('Supplier');
   const res = await buyer.post('/api/suppliers', {
     name,
     email: `${name.toLowerCase()}@example.test`,
     currency: 'EUR',
     leadDays,
-    shippingCost: '0.00',
+    shippingCost,
   });
   expect(res.status).toBe(201);
   await db('supplier_items').insert({
@@ -156,5 +160,28 @@ describe('GET /api/parts/:id/reorder-suggestion with lost sales and a late suppl
     // demand over the lead 0.571429 × 9 = 5.142857; 10.1810 → 11.
     expect(late.body.safetyStock.value).toBeCloseTo(5.04, 2);
     expect(late.body.reorderPoint.value).toBe(11);
+  });
+});
+
+describe('the order quantity when nothing has been received yet', () => {
+  it('when the only cost known is an offer of 40.00 with 15.00 shipping an order, then holding is priced on the 40.00 and the shipping joins the cost of ordering', async () => {
+    const part = await makePart(owner, family, '+0.030 in', 'piston');
+    await supplierOffering(part, 7, '15.00');
+    await db('stock_ledger').insert([
+      { part_id: part, kind: 'issue', quantity: -2, at: daysAgo(2) },
+      { part_id: part, kind: 'issue', quantity: -1, at: daysAgo(5) },
+      { part_id: part, kind: 'issue', quantity: -3, at: daysAgo(9) },
+    ]);
+    const res = await buyer.get(`/api/parts/${part}/reorder-suggestion?windowDays=14`);
+    expect(res.status).toBe(200);
+    // EOQ √(2DS/H) (the Wilson lot-size formula), worked by hand: D = 6/14 a day × 365 = 156.4286
+    // a year; S = 25.00 to place an order + 15.00 shipping = 40.00; H = 0.25 × 40.00 = 10.00 a unit
+    // a year; √(2 × 156.4286 × 40 / 10) = √1251.43 = 35.38 → 35. (Pricing one unit at its landed
+    // 55.00 with the whole shipping in it, and S = 25.00, would give √568.8 = 23.85 → 24.)
+    expect(res.body.orderQuantity.value).toBe(35);
+    expect(res.body.orderQuantity.how).toMatch(
+      /order cost 40\.00 \(25\.00 to place it \+ .*shipping 15\.00\)/,
+    );
+    expect(res.body.orderQuantity.how).toMatch(/best offer's price 40\.00/);
   });
 });
