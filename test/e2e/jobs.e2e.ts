@@ -107,11 +107,19 @@ const INCH_FOUR_STROKE: WornCase = {
   suggested: '+0.040 in',
 };
 
+/** At intake: a customer new to the shop, added without leaving the form. */
+async function addNewCustomer(page: Page, name: string): Promise<void> {
+  await page.getByRole('button', { name: 'New customer' }).click();
+  await page.getByLabel('Customer name').fill(name);
+  await page.getByLabel('Phone').fill('555 0199');
+  await page.getByRole('button', { name: 'Add the customer' }).click();
+  await page.getByRole('link', { name }).waitFor();
+}
+
 async function takeInJob(page: Page, family: RegExp, customer: string): Promise<string> {
   await page.goto(`${env.baseUrl}/jobs/new`);
   await page.getByRole('heading', { name: 'Take in a job' }).waitFor();
-  await page.getByLabel('Customer name').fill(customer);
-  await page.getByLabel('Phone').fill('555 0199');
+  await addNewCustomer(page, customer);
   await page.getByLabel('Engine family').click();
   await page.getByRole('option', { name: family }).click();
   await page.getByRole('button', { name: 'Bore and hone to the next size that cleans up' }).click();
@@ -208,8 +216,7 @@ describe('a cylinder job from intake to hand-back', () => {
     const page = env.page;
     await page.getByRole('link', { name: 'Take in a job' }).first().click();
     await page.getByRole('heading', { name: 'Take in a job' }).waitFor();
-    await page.getByLabel('Customer name').fill('Rowena Calloway');
-    await page.getByLabel('Phone').fill('555 0199');
+    await addNewCustomer(page, 'Rowena Calloway');
     await page.getByLabel('Engine family').click();
     await page.getByRole('option', { name: MM_TWO_STROKE.family }).click();
     await page

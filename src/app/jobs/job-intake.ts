@@ -12,22 +12,18 @@ import { Router, RouterLink } from '@angular/router';
 import { catchError, map, of } from 'rxjs';
 
 import type { FamilyJson } from '../../../shared/catalog-api';
+import type { CustomerListItemJson } from '../../../shared/api/customers';
 import { jobInput } from '../../../shared/jobs-api';
 import { apiErrorBody, apiErrorMessage, apiFieldErrors } from '../core/api-error';
 import { LengthPipe } from '../core/length-pipe';
 import { Notifier } from '../core/notifier';
+import { CustomersApi } from '../customers/customers-api';
+import { CustomerSearch } from '../customers/customer-search';
+import { IntakeCustomerForm } from './intake-customer-form';
+import { IntakeCylinders } from './intake-cylinders';
 import { JobsApi, type NewJob } from './jobs-api';
 
-const FIELDS = [
-  'customerName',
-  'customerPhone',
-  'customerEmail',
-  'familyId',
-  'cylinders',
-  'askedFor',
-  'dueDate',
-  'notes',
-] as const;
+const FIELDS = ['customerId', 'familyId', 'cylinders', 'askedFor', 'dueDate', 'notes'] as const;
 type Field = (typeof FIELDS)[number];
 
 function isField(name: string): name is Field {
@@ -43,10 +39,16 @@ const QUICK_ASKS = [
 
 type Families = { ok: true; items: FamilyJson[] } | { ok: false; message: string };
 
-/** Taking a cylinder job in at the counter: who, which engine, how many cylinders, by when. */
+/**
+ * Taking a cylinder job in at the counter: who (found as you type, or added on the spot), which
+ * engine, how many cylinders and which of the customer's cylinders they are, by when.
+ */
 @Component({
   selector: 'app-job-intake',
   imports: [
+    CustomerSearch,
+    IntakeCustomerForm,
+    IntakeCylinders,
     LengthPipe,
     MatButtonModule,
     MatButtonToggleModule,
@@ -64,15 +66,13 @@ type Families = { ok: true; items: FamilyJson[] } | { ok: false; message: string
 })
 export class JobIntake {
   private readonly api = inject(JobsApi);
+  private readonly customers = inject(CustomersApi);
   private readonly router = inject(Router);
   private readonly notifier = inject(Notifier);
   private readonly fb = inject(NonNullableFormBuilder);
 
   protected readonly quickAsks = QUICK_ASKS;
   protected readonly form = this.fb.group({
-    customerName: ['', [Validators.required, Validators.maxLength(120)]],
-    customerPhone: ['', [Validators.maxLength(40)]],
-    customerEmail: ['', [Validators.email, Validators.maxLength(254)]],
     familyId: ['', Validators.required],
     cylinders: [1, [Validators.required, Validators.min(1)]],
     askedFor: ['', Validators.maxLength(300)],
@@ -96,9 +96,18 @@ export class JobIntake {
     return loaded && !loaded.ok ? loaded.message : '';
   });
 
-  private readonly familyId = toSignal(this.form.controls.familyId.valueChanges, {
+  protected readonly familyId = toSignal(this.form.controls.familyId.valueChanges, {
     initialValue: '',
   });
+  protected readonly cylinderCount = toSignal(this.form.controls.cylinders.valueChanges, {
+    initialValue: 1,
+  });
+
+  /** The customer the job is for: picked from the search or just added. */
+  protected readonly customer = signal<CustomerListItemJson | null>(null);
+  protected readonly addingCustomer = signal(false);
+  /** The customer's cylinder for each job cylinder (null: not marked). */
+  protected readonly cylinderIds = signal<(string | null)[]>([]);
   protected readonly family = computed(
     () => this.families().find((f) => f.id === this.familyId()) ?? null,
   );
@@ -118,6 +127,36 @@ export class JobIntake {
     if (family) this.form.controls.cylinders.setValue(family.cylinders);
   }
 
+  protected pickCustomer(customer: CustomerListItemJson): void {
+    this.customer.set(customer);
+    this.addingCustomer.set(false);
+    this.cylinderIds.set([]);
+    this.problem.set('');
+    // A returning engine: when every cylinder on record is of one family, that is the family.
+    if (this.form.controls.familyId.value) return;
+    this.customers.cylinders(customer.id).subscribe({
+      next: (cylinders) => {
+        const families = new Set(cylinders.map((c) => c.familyId));
+        const [only] = [...families];
+        if (families.size === 1 && !this.form.controls.familyId.value && this.familyKnown(only)) {
+          this.form.controls.familyId.setValue(only);
+          this.chooseFamily(only);
+        }
+      },
+      // The cylinders panel shows its own error; the family is then chosen by hand.
+      error: () => undefined,
+    });
+  }
+
+  protected changeCustomer(): void {
+    this.customer.set(null);
+    this.cylinderIds.set([]);
+  }
+
+  private familyKnown(id: string): boolean {
+    return this.families().some((f) => f.id === id);
+  }
+
   protected ask(text: string): void {
     this.form.controls.askedFor.setValue(text);
     this.form.controls.askedFor.markAsDirty();
@@ -127,15 +166,19 @@ export class JobIntake {
     if (this.busy()) return;
     this.serverErrors.set({});
     this.problem.set('');
-    if (this.form.invalid) {
+    const customer = this.customer();
+    if (!customer) {
+      this.problem.set('Find the customer, or add them as a new customer, first.');
+    }
+    if (this.form.invalid || !customer) {
       this.form.markAllAsTouched();
       return;
     }
     const v = this.form.getRawValue();
+    const linked = this.cylinderIds().slice(0, v.cylinders);
     const body: NewJob = {
-      customerName: v.customerName,
-      customerPhone: v.customerPhone.trim() || null,
-      customerEmail: v.customerEmail.trim() || null,
+      customerId: customer.id,
+      ...(linked.some((id) => id !== null) ? { cylinderIds: linked } : {}),
       familyId: v.familyId,
       cylinders: v.cylinders,
       askedFor: v.askedFor,
@@ -151,8 +194,7 @@ export class JobIntake {
         const field = String(issue.path[0] ?? '');
         if (isField(field) && !errors[field]) {
           errors[field] = issue.message;
-          this.form.controls[field].setErrors({ server: true });
-          this.form.controls[field].markAsTouched();
+          this.markControl(field);
         }
       }
       this.serverErrors.set(errors);
@@ -171,8 +213,7 @@ export class JobIntake {
         for (const [field, message] of fields) {
           if (isField(field)) {
             known[field] = message;
-            this.form.controls[field].setErrors({ server: true });
-            this.form.controls[field].markAsTouched();
+            this.markControl(field);
           }
         }
         this.serverErrors.set(known);
@@ -181,5 +222,12 @@ export class JobIntake {
         this.problem.set(allPlaced && summary ? summary : apiErrorMessage(error));
       },
     });
+  }
+
+  /** The customer has no control of its own: its error shows under the customer's pick. */
+  private markControl(field: Field): void {
+    if (field === 'customerId') return;
+    this.form.controls[field].setErrors({ server: true });
+    this.form.controls[field].markAsTouched();
   }
 }

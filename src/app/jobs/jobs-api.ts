@@ -30,9 +30,12 @@ export interface JobListQuery {
   pageSize: number;
 }
 
-/** A new job as the intake form sends it. */
+/** A new job as the intake form sends it: the customer's record, or typed details. */
 export interface NewJob {
-  customerName: string;
+  customerId?: string;
+  /** The customer's cylinder for each job cylinder, in order (null: not marked). */
+  cylinderIds?: (string | null)[];
+  customerName?: string;
   customerPhone?: string | null;
   customerEmail?: string | null;
   familyId: string;

@@ -1,0 +1,122 @@
+import { ChangeDetectionStrategy, Component, inject, input, output, signal } from '@angular/core';
+import { toObservable, toSignal } from '@angular/core/rxjs-interop';
+import { MatAutocompleteModule } from '@angular/material/autocomplete';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+import { catchError, debounceTime, map, Observable, of, switchMap } from 'rxjs';
+
+import type { CustomerListItemJson } from '../../../shared/api/customers';
+import { apiErrorMessage } from '../core/api-error';
+import { CustomersApi } from './customers-api';
+
+type Found = { items: CustomerListItemJson[]; message: string; text: string };
+
+/** Fewest characters searched: two keystrokes find a returning customer. */
+export const SEARCH_MIN = 2;
+
+/**
+ * Finds a customer as you type: by name, phone (digits alone are enough) or e-mail. The server
+ * puts names that start with the text and recent customers first.
+ */
+@Component({
+  selector: 'app-customer-search',
+  imports: [MatAutocompleteModule, MatFormFieldModule, MatIconModule, MatInputModule],
+  template: `
+    <mat-form-field appearance="outline" class="search" subscriptSizing="dynamic">
+      <mat-label>{{ label() }}</mat-label>
+      <mat-icon matPrefix>person_search</mat-icon>
+      <input
+        matInput
+        type="search"
+        autocomplete="off"
+        [value]="text()"
+        [matAutocomplete]="auto"
+        (input)="onType($any($event.target).value)"
+      />
+      <mat-autocomplete
+        #auto="matAutocomplete"
+        [displayWith]="blank"
+        (optionSelected)="choose($event.option.value)"
+      >
+        @for (c of shown().items; track c.id) {
+          <mat-option [value]="c">
+            <strong>{{ c.name }}</strong>
+            @if (c.phone) {
+              · {{ c.phone }}
+            }
+            @if (c.email) {
+              · {{ c.email }}
+            }
+          </mat-option>
+        }
+      </mat-autocomplete>
+      @if (shown().message) {
+        <mat-hint class="problem">{{ shown().message }}</mat-hint>
+      } @else {
+        <mat-hint>Name, phone or e-mail; two letters are enough</mat-hint>
+      }
+    </mat-form-field>
+  `,
+  styles: `
+    .search {
+      width: 100%;
+    }
+    .problem {
+      color: var(--mat-sys-error);
+    }
+  `,
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class CustomerSearch {
+  private readonly api = inject(CustomersApi);
+
+  readonly label = input('Find the customer');
+  /** Left out of the answers (merging a customer into itself makes no sense). */
+  readonly excludeId = input<string | null>(null);
+  readonly picked = output<CustomerListItemJson>();
+
+  protected readonly text = signal('');
+  /** The field empties once a customer is picked: the pick shows beside it. */
+  protected readonly blank = (): string => '';
+
+  private readonly found = toSignal(
+    toObservable(this.text).pipe(
+      debounceTime(150),
+      switchMap((text): Observable<Found> => {
+        const q = text.trim();
+        if (q.length < SEARCH_MIN) return of({ items: [], message: '', text });
+        return this.api.search(q).pipe(
+          map((page) => ({
+            items: page.items,
+            message: page.items.length === 0 ? `No customer found for “${q}”.` : '',
+            text,
+          })),
+          catchError((error: unknown) => of({ items: [], message: apiErrorMessage(error), text })),
+        );
+      }),
+    ),
+    { initialValue: { items: [], message: '', text: '' } as Found },
+  );
+
+  protected shown(): Found {
+    const f = this.found();
+    const skip = this.excludeId();
+    if (!skip) return f;
+    const items = f.items.filter((c) => c.id !== skip);
+    return {
+      ...f,
+      items,
+      message: f.items.length > 0 && items.length === 0 ? 'Only this customer matches.' : f.message,
+    };
+  }
+
+  protected onType(value: string): void {
+    this.text.set(value);
+  }
+
+  protected choose(customer: CustomerListItemJson): void {
+    this.text.set('');
+    this.picked.emit(customer);
+  }
+}
