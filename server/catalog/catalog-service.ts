@@ -21,17 +21,9 @@ import { toLengthJson } from '../../shared/lengths';
 import { customSeries, stepNominalBore, StepSeriesError } from '../../shared/step-series';
 import * as repo from './catalog-repository';
 import { familyJson, partJson, partLevels } from './catalog-json';
+import { isUniqueViolation, pgConstraint } from '../db/pg-errors';
 
 type Conn = Knex;
-
-function pgCode(e: unknown): string | undefined {
-  return typeof e === 'object' && e !== null ? (e as { code?: string }).code : undefined;
-}
-function pgConstraint(e: unknown): string {
-  return typeof e === 'object' && e !== null
-    ? ((e as { constraint?: string }).constraint ?? '')
-    : '';
-}
 
 // ---- Step series ------------------------------------------------------------------------------
 
@@ -99,7 +91,7 @@ export async function createStepSeries(
     if (!created) throw new NotFound('The new step series');
     return created;
   } catch (e) {
-    if (pgCode(e) === '23505') {
+    if (isUniqueViolation(e)) {
       throw new Conflict(`A step series with the code "${input.code}" already exists.`);
     }
     throw e;
@@ -221,7 +213,7 @@ export async function createFamily(actorId: string | null, input: FamilyInput, k
     });
     return getFamily(id, k);
   } catch (e) {
-    if (pgCode(e) === '23505') {
+    if (isUniqueViolation(e)) {
       throw new Conflict(`An engine family with the code "${input.code}" already exists.`);
     }
     throw e;
@@ -266,7 +258,7 @@ export async function updateFamily(
       });
     });
   } catch (e) {
-    if (pgCode(e) === '23505') {
+    if (isUniqueViolation(e)) {
       throw new Conflict(`An engine family with the code "${patch.code ?? ''}" already exists.`);
     }
     throw e;
@@ -478,7 +470,7 @@ export async function createPart(actorId: string | null, input: PartInput, k: Co
     });
     return getPart(id, k);
   } catch (e) {
-    if (pgCode(e) === '23505') uniqueConflict(e, input.sku);
+    if (isUniqueViolation(e)) uniqueConflict(e, input.sku);
     throw e;
   }
 }
@@ -522,7 +514,7 @@ export async function updatePart(
       });
     });
   } catch (e) {
-    if (pgCode(e) === '23505') uniqueConflict(e, patch.sku);
+    if (isUniqueViolation(e)) uniqueConflict(e, patch.sku);
     throw e;
   }
   return getPart(id, k);

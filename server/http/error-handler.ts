@@ -1,26 +1,12 @@
 import type { ErrorRequestHandler } from 'express';
 import { AppError, ServiceUnavailable } from '../errors';
 import { logger } from '../logger';
-
-const DB_DOWN_CODES = new Set([
-  'ECONNREFUSED',
-  'ECONNRESET',
-  'ETIMEDOUT',
-  'EPIPE',
-  '57P01', // admin_shutdown
-  '57P02', // crash_shutdown
-  '57P03', // cannot_connect_now
-  '08000',
-  '08003',
-  '08006',
-  '08001',
-  '08004',
-]);
+import { isConnectionLost, isOutOfRangeValue, isUnstorableText } from '../db/pg-errors';
 
 function isDatabaseDown(err: unknown): boolean {
   if (typeof err !== 'object' || err === null) return false;
   const e = err as { code?: string; name?: string; message?: string };
-  if (e.code && DB_DOWN_CODES.has(e.code)) return true;
+  if (isConnectionLost(err)) return true;
   if (e.name === 'KnexTimeoutError') return true;
   const m = e.message ?? '';
   return /Connection terminated|connect ECONNREFUSED|timeout exceeded when trying to connect|^timeout expired$|Client has encountered a connection error/i.test(
@@ -93,7 +79,7 @@ function toAppError(err: unknown): AppError {
     return new AppError(400, 'invalid_upload', `The upload could not be read: ${why}.`);
   }
   // Text PostgreSQL cannot store (the NUL character): the whole change is rolled back.
-  if (e?.code === '22021' || e?.code === '22P05') {
+  if (isUnstorableText(err)) {
     return new AppError(
       400,
       'invalid_text',
@@ -102,7 +88,7 @@ function toAppError(err: unknown): AppError {
   }
   // A value the column cannot hold (a day like 2027-02-30, a number past the column's range) that
   // slipped past a schema: the change is rolled back and the caller told, not a 500.
-  if (e?.code === '22007' || e?.code === '22008' || e?.code === '22003') {
+  if (isOutOfRangeValue(err)) {
     return new AppError(
       400,
       'invalid_value',

@@ -27,6 +27,7 @@ import * as jobsRepo from './jobs-repository';
 import { holdJson } from './jobs-json';
 import { advanceState } from './job-state';
 import { recordShortage } from '../insights/insights-service';
+import { isCheckViolation, isUniqueViolation } from '../db/pg-errors';
 
 type Conn = Knex;
 
@@ -41,13 +42,6 @@ const UNIT_STATUS_WORDS: Record<repo.HoldUnitRow['status'], string> = {
   returned: 'sent back to the supplier',
   scrapped: 'scrapped',
 };
-
-function isCheckViolation(e: unknown): boolean {
-  return typeof e === 'object' && e !== null && (e as { code?: string }).code === '23514';
-}
-function isUniqueViolation(e: unknown): boolean {
-  return typeof e === 'object' && e !== null && (e as { code?: string }).code === '23505';
-}
 
 export function proposedJson(row: repo.FreeUnitRow): ProposedUnitJson {
   return {

@@ -22,6 +22,7 @@ import {
 } from '../../shared/purchasing-api';
 import { D, moneyOut } from '../../shared/purchase-money';
 import * as repo from './orders-repository';
+import { isUniqueViolation } from '../db/pg-errors';
 
 function fieldError(field: string, message: string): BadRequest {
   return new BadRequest(`${field}: ${message}`, [{ field, message }]);
@@ -372,7 +373,7 @@ export async function addWait(actorId: string, input: WaitInput, k: Knex = db): 
       return newId;
     });
   } catch (e) {
-    if ((e as { code?: string }).code === '23505') {
+    if (isUniqueViolation(e)) {
       throw new Conflict(
         `Cylinder ${input.cylinder} of job ${job.number} is already waiting on an order line.`,
         'already_waiting',

@@ -26,15 +26,12 @@ import type {
 } from '../../shared/stock-api';
 import * as repo from './stock-repository';
 import { binJson, ledgerJson, levelsJson, unitJson } from './stock-json';
+import { isCheckViolation, isUniqueViolation } from '../db/pg-errors';
 
 type Conn = Knex;
 
 function fieldError(field: string, message: string): BadRequest {
   return new BadRequest(`${field}: ${message}`, [{ field, message }]);
-}
-
-function isCheckViolation(e: unknown): boolean {
-  return typeof e === 'object' && e !== null && (e as { code?: string }).code === '23514';
 }
 
 const STATUS_WORDS: Record<UnitStatus, string> = {
@@ -118,7 +115,7 @@ export async function createBin(
     if (!bin) throw new NotFound('The new bin');
     return binJson(bin);
   } catch (e) {
-    if (typeof e === 'object' && e !== null && (e as { code?: string }).code === '23505') {
+    if (isUniqueViolation(e)) {
       throw new Conflict(`A bin with the code "${input.code}" already exists.`);
     }
     throw e;

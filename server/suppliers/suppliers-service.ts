@@ -17,12 +17,9 @@ import type {
   WaitingItemJson,
 } from '../../shared/suppliers-api';
 import * as repo from './suppliers-repository';
+import { isUniqueViolation } from '../db/pg-errors';
 
 type Conn = Knex;
-
-function pgCode(e: unknown): string | undefined {
-  return typeof e === 'object' && e !== null ? (e as { code?: string }).code : undefined;
-}
 
 export function supplierJson(r: repo.SupplierRow): SupplierJson {
   return {
@@ -127,7 +124,7 @@ export async function createSupplier(
     });
     return getSupplier(id, k);
   } catch (e) {
-    if (pgCode(e) === '23505') throw nameConflict(input.name);
+    if (isUniqueViolation(e)) throw nameConflict(input.name);
     throw e;
   }
 }
@@ -155,7 +152,7 @@ export async function updateSupplier(
       });
     });
   } catch (e) {
-    if (pgCode(e) === '23505') throw nameConflict(input.name);
+    if (isUniqueViolation(e)) throw nameConflict(input.name);
     throw e;
   }
   return getSupplier(id, k);

@@ -13,13 +13,10 @@ import {
   updateUser,
   type UserRow,
 } from './users-repository';
+import { isUniqueViolation } from '../db/pg-errors';
 
 function auditView(u: UserRow) {
   return { email: u.email, name: u.name, role: u.role, active: u.active, unit: u.unit };
-}
-
-function isUniqueViolation(e: unknown): boolean {
-  return typeof e === 'object' && e !== null && (e as { code?: string }).code === '23505';
 }
 
 export async function getUsers(opts: Parameters<typeof listUsers>[0] = {}) {

@@ -2,6 +2,7 @@
 // person, export and erasure, cylinders under the shop's mark, and the bench rule that a cylinder
 // bored before is never offered a step its earlier bore has already passed.
 import { db } from '../../server/db/knex';
+import { saveSettings } from '../../server/settings/settings-service';
 import { closeTestApp, signedIn, uniq, type Client } from '../support/api';
 import {
   makeBin,
@@ -26,6 +27,8 @@ beforeAll(async () => {
   buyer = await signedIn('buyer');
   family = await makeFamily(owner, { cylinders: 2 });
   binId = await makeBin(owner);
+  // The cuts here record a cylinder's history; the customer's approval has its own tests.
+  await saveSettings(null, { cutOnlyAfterApproval: false });
 });
 
 afterAll(closeTestApp);
