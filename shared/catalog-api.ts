@@ -319,7 +319,8 @@ export interface PartJson {
   pinDiameter: LengthJson | null;
   gtin: string | null;
   salePrice: string;
-  averageCost: string;
+  /** Absent for roles that may not see costs (shared/money-visibility.ts). */
+  averageCost?: string;
   onHand: number;
   held: number;
   free: number;

@@ -380,8 +380,9 @@ export interface OrderLineJson {
   quantity: number;
   received: number;
   open: number;
-  unitPrice: string;
-  lineTotal: string;
+  /** Prices are the shop's costs: absent for roles that may not see them. */
+  unitPrice?: string;
+  lineTotal?: string;
   waits: WaitJson[];
 }
 
@@ -396,7 +397,8 @@ export interface OrderJson {
   stateLabel: string;
   expectedOn: string | null;
   notes: string;
-  total: string;
+  /** Absent for roles that may not see costs. */
+  total?: string;
   lines: OrderLineJson[];
   createdAt: string;
   createdBy: string | null;
@@ -421,7 +423,8 @@ export interface OrderListItemJson {
   lines: number;
   quantity: number;
   received: number;
-  total: string;
+  /** Absent for roles that may not see costs. */
+  total?: string;
   createdAt: string;
   sentAt: string | null;
 }

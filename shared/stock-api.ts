@@ -118,7 +118,8 @@ export interface UnitJson {
   bin: string | null;
   receivedAt: string;
   measuredAt: string | null;
-  unitCost: string;
+  /** Absent for roles that may not see costs (shared/money-visibility.ts). */
+  unitCost?: string;
   heldForJobId: string | null;
   heldCylinder: number | null;
   holdExpiresAt: string | null;
@@ -136,8 +137,9 @@ export interface LedgerJson {
   kind: LedgerKind;
   quantity: number;
   heldDelta: number;
-  unitCost: string | null;
-  salePrice: string | null;
+  /** Absent for roles that may not see costs; salePrice (what an issue sold for) likewise. */
+  unitCost?: string | null;
+  salePrice?: string | null;
   jobId: string | null;
   reason: string | null;
   fromBinId: string | null;
@@ -151,7 +153,8 @@ export interface LevelsJson {
   onHand: number;
   held: number;
   free: number;
-  averageCost: string;
+  /** Absent for roles that may not see costs. */
+  averageCost?: string;
 }
 
 export interface ReceiptJson {

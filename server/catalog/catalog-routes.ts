@@ -13,11 +13,14 @@ import {
   partPatch,
   stepSeriesInput,
 } from '../../shared/catalog-api';
+import type { MoneyFields } from '../../shared/money-visibility';
 import type { Role } from '../../shared/session-types';
 import * as service from './catalog-service';
 import * as ladders from './ladder-service';
 
 const CATALOG_EDITORS: Role[] = ['owner', 'buyer'];
+/** A part's average cost is the shop's cost; its sale price is the list price everyone quotes. */
+const PART_MONEY: MoneyFields = { cost: ['averageCost'] };
 const idParams = z.object({ id: uuidParam });
 const activeFilter = z
   .enum(['true', 'false', 'all'], { error: 'must be true, false or all' })
@@ -105,6 +108,7 @@ export function registerCatalogRoutes(router: Router): void {
     method: 'get',
     path: '/api/parts',
     access: 'signed-in',
+    money: PART_MONEY,
     query: partsQuery,
     handler: ({ query }) => service.listParts(query),
   });
@@ -112,6 +116,7 @@ export function registerCatalogRoutes(router: Router): void {
     method: 'post',
     path: '/api/parts',
     access: CATALOG_EDITORS,
+    money: PART_MONEY,
     body: partInput,
     status: 201,
     handler: ({ body, user }) => service.createPart(user.id, body),
@@ -120,6 +125,7 @@ export function registerCatalogRoutes(router: Router): void {
     method: 'get',
     path: '/api/parts/:id',
     access: 'signed-in',
+    money: PART_MONEY,
     params: idParams,
     handler: ({ params }) => service.getPart(params.id),
   });
@@ -127,6 +133,7 @@ export function registerCatalogRoutes(router: Router): void {
     method: 'patch',
     path: '/api/parts/:id',
     access: CATALOG_EDITORS,
+    money: PART_MONEY,
     params: idParams,
     body: partPatch,
     handler: ({ params, body, user }) => service.updatePart(user.id, params.id, body),

@@ -14,7 +14,7 @@ export function registerExportsRoutes(router: Router): void {
     method: 'get',
     path: '/api/exports/stock.csv',
     access: STOCK_READERS,
-    handler: async ({ res }) => sendCsv(res, await service.stockTable()),
+    handler: async ({ res, user }) => sendCsv(res, await service.stockTable(user.role)),
   });
   route(router, {
     method: 'get',

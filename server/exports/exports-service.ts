@@ -5,9 +5,12 @@ import { toLengthJson } from '../../shared/lengths';
 import type { CsvTable } from '../insights/insights-csv';
 import { ladder } from '../catalog/ladder-service';
 import type { LadderStepJson } from '../../shared/catalog-api';
+import { maySeeMoney } from '../../shared/money-visibility';
+import type { Role } from '../../shared/session-types';
 import * as repo from './exports-repository';
 
-export async function stockTable(): Promise<CsvTable<repo.StockRow>> {
+/** The stock list; the average cost column only for roles that may see costs (staff may not). */
+export async function stockTable(role: Role): Promise<CsvTable<repo.StockRow>> {
   const rows = await repo.stockList();
   const nominal = (r: repo.StockRow) => (r.nominal_nm === null ? null : toLengthJson(r.nominal_nm));
   return {
@@ -26,7 +29,9 @@ export async function stockTable(): Promise<CsvTable<repo.StockRow>> {
       { header: 'Free', value: (r) => r.on_hand - r.held },
       { header: 'Bin', text: (r) => r.bin },
       { header: 'Sale price', value: (r) => r.sale_price },
-      { header: 'Average cost', value: (r) => r.average_cost },
+      ...(maySeeMoney(role, 'cost')
+        ? [{ header: 'Average cost', value: (r: repo.StockRow) => r.average_cost }]
+        : []),
       { header: 'GTIN', value: (r) => r.gtin },
     ],
   };

@@ -6,6 +6,7 @@ import { z, type ZodType } from 'zod';
 import type { Role } from '../../shared/session-types';
 import { BadRequest, Forbidden, Unauthorized, type ErrorDetail } from '../errors';
 import type { SessionUser } from '../../shared/session-types';
+import { hiddenMoneyFields, withoutMoney, type MoneyFields } from '../../shared/money-visibility';
 
 export type Access = 'public' | 'signed-in' | readonly Role[];
 export type Method = 'get' | 'post' | 'put' | 'patch' | 'delete';
@@ -30,6 +31,11 @@ export interface RouteSpec<B = unknown, Q = unknown, P = unknown> {
   before?: RequestHandler[];
   /** Status for a returned value; default 200. */
   status?: number;
+  /**
+   * The money in the answer, by kind: each role gets the answer without the kinds it may not see
+   * (shared/money-visibility.ts). Declared here, beside `access`, so one place says both.
+   */
+  money?: MoneyFields;
   handler: (input: RouteInput<B, Q, P>) => Promise<unknown> | unknown;
 }
 
@@ -41,6 +47,7 @@ export interface DeclaredRoute {
   query?: ZodType;
   params?: ZodType;
   status?: number;
+  money?: MoneyFields;
 }
 
 /** Every route declared in this process, for the route × role matrix and the API description. */
@@ -100,6 +107,12 @@ export function accessGuard(access: Access): AccessGuard {
   return Object.assign(guard, { access });
 }
 
+/** Nobody signed in sees no money of a route that declares some. */
+function moneyHiddenFrom(user: SessionUser | undefined, money: MoneyFields): Set<string> {
+  if (user) return hiddenMoneyFields(user.role, money);
+  return new Set(Object.values(money).flatMap((names) => [...(names ?? [])]));
+}
+
 export function route<B, Q, P>(router: Router, spec: RouteSpec<B, Q, P>): void {
   if (!declaredRoutes.some((r) => r.method === spec.method && r.path === spec.path)) {
     declaredRoutes.push({
@@ -110,6 +123,7 @@ export function route<B, Q, P>(router: Router, spec: RouteSpec<B, Q, P>): void {
       query: spec.query,
       params: spec.params,
       status: spec.status,
+      money: spec.money,
     });
   }
   const run: RequestHandler = async (req, res) => {
@@ -121,8 +135,9 @@ export function route<B, Q, P>(router: Router, spec: RouteSpec<B, Q, P>): void {
       req,
       res,
     };
-    const result = await spec.handler(input);
+    const raw = await spec.handler(input);
     if (res.headersSent) return;
+    const result = spec.money ? withoutMoney(raw, moneyHiddenFrom(input.user, spec.money)) : raw;
     if (result === undefined) {
       res.status(spec.status ?? 204).end();
       return;

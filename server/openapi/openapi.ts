@@ -2,6 +2,7 @@
 // requests, so it cannot drift from what the server accepts.
 import { z, type ZodType } from 'zod';
 import { declaredRoutes, type DeclaredRoute } from '../http/route';
+import { MONEY_SEEN_BY } from '../../shared/money-visibility';
 
 type Json = Record<string, unknown>;
 
@@ -38,6 +39,18 @@ function accessText(r: DeclaredRoute): string {
   return `Roles: ${r.access.join(', ')}.`;
 }
 
+/** Which money fields each role gets: the ones a role may not see are left out of its answer. */
+function moneyText(r: DeclaredRoute): string {
+  if (!r.money) return '';
+  const kinds = Object.entries(r.money)
+    .map(([kind, names]) => `${kind}: ${(names ?? []).join(', ')}`)
+    .join('; ');
+  const seen = Object.entries(MONEY_SEEN_BY)
+    .map(([role, k]) => `${role} sees ${k.length ? k.join(', ') : 'none'}`)
+    .join('; ');
+  return ` Money fields (${kinds}) are left out for roles that may not see them (${seen}).`;
+}
+
 export function buildOpenApi(routes: readonly DeclaredRoute[] = declaredRoutes): Json {
   const paths: Record<string, Json> = {};
   for (const r of routes) {
@@ -47,8 +60,9 @@ export function buildOpenApi(routes: readonly DeclaredRoute[] = declaredRoutes):
     const ok = String(r.status ?? 200);
     (paths[p] as Json)[r.method] = {
       summary: `${r.method.toUpperCase()} ${r.path}`,
-      description: accessText(r),
+      description: accessText(r) + moneyText(r),
       'x-access': r.access,
+      ...(r.money ? { 'x-money': r.money } : {}),
       parameters: parameters(r),
       ...(body
         ? { requestBody: { required: true, content: { 'application/json': { schema: body } } } }

@@ -20,6 +20,7 @@ import {
   waitInput,
   waitsQuery,
 } from '../../shared/purchasing-api';
+import type { MoneyFields } from '../../shared/money-visibility';
 import type { Role } from '../../shared/session-types';
 import * as drafts from './drafts-service';
 import * as orders from './orders-service';
@@ -31,6 +32,10 @@ import * as sourcing from './sourcing-service';
 const BUYERS: Role[] = ['owner', 'buyer'];
 const RECEIVERS: Role[] = ['owner', 'buyer', 'staff'];
 const WAIT_KEEPERS: Role[] = ['owner', 'buyer', 'machinist'];
+/** What the shop agreed to pay a supplier, and the unit costs of pistons received against it. */
+const ORDER_MONEY: MoneyFields = {
+  cost: ['unitPrice', 'lineTotal', 'total', 'unitCost', 'averageCost'],
+};
 const idParams = z.object({ id: uuidParam });
 
 export function registerPurchasingRoutes(router: Router): void {
@@ -128,6 +133,7 @@ export function registerPurchasingRoutes(router: Router): void {
     method: 'get',
     path: '/api/purchase-orders',
     access: 'signed-in',
+    money: ORDER_MONEY,
     query: ordersQuery,
     handler: ({ query }) => orders.listOrders(query),
   });
@@ -135,6 +141,7 @@ export function registerPurchasingRoutes(router: Router): void {
     method: 'post',
     path: '/api/purchase-orders',
     access: BUYERS,
+    money: ORDER_MONEY,
     body: orderInput,
     status: 201,
     handler: ({ body, user }) => orders.createOrder(user.id, body),
@@ -143,6 +150,7 @@ export function registerPurchasingRoutes(router: Router): void {
     method: 'post',
     path: '/api/purchase-orders/drafts',
     access: BUYERS,
+    money: ORDER_MONEY,
     body: draftsInput,
     status: 201,
     handler: ({ body, user }) => drafts.draftFromSuggestions(user.id, body),
@@ -151,6 +159,7 @@ export function registerPurchasingRoutes(router: Router): void {
     method: 'get',
     path: '/api/purchase-orders/open-lines',
     access: RECEIVERS,
+    money: ORDER_MONEY,
     query: z.object({
       gtin: z.string({ error: 'scan or type a GTIN' }).trim().min(1, 'scan or type a GTIN').max(40),
     }),
@@ -160,6 +169,7 @@ export function registerPurchasingRoutes(router: Router): void {
     method: 'get',
     path: '/api/purchase-orders/:id',
     access: 'signed-in',
+    money: ORDER_MONEY,
     params: idParams,
     handler: ({ params }) => orders.getOrder(params.id),
   });
@@ -167,6 +177,7 @@ export function registerPurchasingRoutes(router: Router): void {
     method: 'patch',
     path: '/api/purchase-orders/:id',
     access: BUYERS,
+    money: ORDER_MONEY,
     params: idParams,
     body: orderPatch,
     handler: ({ params, body, user }) => orders.patchOrder(user.id, params.id, body),
@@ -175,6 +186,7 @@ export function registerPurchasingRoutes(router: Router): void {
     method: 'post',
     path: '/api/purchase-orders/:id/send',
     access: BUYERS,
+    money: ORDER_MONEY,
     params: idParams,
     body: z.object({}).strict(),
     handler: ({ params, user }) => sendOrder(user.id, params.id),
@@ -183,6 +195,7 @@ export function registerPurchasingRoutes(router: Router): void {
     method: 'post',
     path: '/api/purchase-orders/:id/cancel',
     access: BUYERS,
+    money: ORDER_MONEY,
     params: idParams,
     body: z.object({}).strict(),
     handler: ({ params, user }) => orders.cancelOrder(user.id, params.id),
@@ -191,6 +204,7 @@ export function registerPurchasingRoutes(router: Router): void {
     method: 'post',
     path: '/api/purchase-orders/:id/receipts',
     access: RECEIVERS,
+    money: ORDER_MONEY,
     params: idParams,
     body: receiptLinesInput,
     status: 201,

@@ -3,6 +3,7 @@
 import type { Router } from 'express';
 import { z } from 'zod';
 import { pageQuery, route, uuidParam } from '../http/route';
+import type { MoneyFields } from '../../shared/money-visibility';
 import type { Role } from '../../shared/session-types';
 import {
   adjustmentInput,
@@ -21,6 +22,8 @@ const RECEIVERS: Role[] = ['owner', 'buyer', 'staff'];
 const MEASURERS: Role[] = ['owner', 'buyer', 'staff', 'machinist'];
 const ADJUSTERS: Role[] = ['owner', 'buyer'];
 const SCRAPPERS: Role[] = ['owner', 'buyer', 'staff'];
+/** Unit and average costs are the shop's costs; an issue's sale price is what it sold for. */
+const STOCK_MONEY: MoneyFields = { cost: ['unitCost', 'averageCost'], sold: ['salePrice'] };
 
 const idParams = z.object({ id: uuidParam });
 
@@ -65,6 +68,7 @@ export function registerStockRoutes(router: Router): void {
     method: 'post',
     path: '/api/stock/receipts',
     access: RECEIVERS,
+    money: STOCK_MONEY,
     body: receiptInput,
     status: 201,
     handler: ({ body, user }) => service.receive(user.id, body),
@@ -73,6 +77,7 @@ export function registerStockRoutes(router: Router): void {
     method: 'post',
     path: '/api/stock/adjustments',
     access: ADJUSTERS,
+    money: STOCK_MONEY,
     body: adjustmentInput,
     status: 201,
     handler: ({ body, user }) => service.adjust(user.id, body),
@@ -81,6 +86,7 @@ export function registerStockRoutes(router: Router): void {
     method: 'post',
     path: '/api/stock/moves',
     access: RECEIVERS,
+    money: STOCK_MONEY,
     body: moveInput,
     handler: ({ body, user }) => service.move(user.id, body),
   });
@@ -89,6 +95,7 @@ export function registerStockRoutes(router: Router): void {
     method: 'get',
     path: '/api/stock/units',
     access: 'signed-in',
+    money: STOCK_MONEY,
     query: unitsQuery,
     handler: ({ query }) => {
       const { status, ...rest } = query;
@@ -101,6 +108,7 @@ export function registerStockRoutes(router: Router): void {
     method: 'get',
     path: '/api/stock/units/by-label/:label',
     access: 'signed-in',
+    money: STOCK_MONEY,
     params: z.object({ label: z.string().trim().min(1).max(40) }),
     handler: ({ params }) => service.unitByLabel(params.label),
   });
@@ -108,6 +116,7 @@ export function registerStockRoutes(router: Router): void {
     method: 'get',
     path: '/api/stock/units/:id',
     access: 'signed-in',
+    money: STOCK_MONEY,
     params: idParams,
     handler: ({ params }) => service.getUnit(params.id),
   });
@@ -115,6 +124,7 @@ export function registerStockRoutes(router: Router): void {
     method: 'post',
     path: '/api/stock/units/:id/scrap',
     access: SCRAPPERS,
+    money: STOCK_MONEY,
     params: idParams,
     body: scrapInput,
     handler: ({ params, body, user }) => service.scrap(user.id, params.id, body.reason),
@@ -123,6 +133,7 @@ export function registerStockRoutes(router: Router): void {
     method: 'post',
     path: '/api/stock/units/:id/measure',
     access: MEASURERS,
+    money: STOCK_MONEY,
     params: idParams,
     body: measureInput,
     handler: ({ params, body, user }) => service.measure(user.id, params.id, body.skirt),
@@ -132,6 +143,7 @@ export function registerStockRoutes(router: Router): void {
     method: 'get',
     path: '/api/stock/ledger',
     access: 'signed-in',
+    money: STOCK_MONEY,
     query: ledgerQuery,
     handler: ({ query }) => service.listLedger(query),
   });

@@ -96,10 +96,13 @@ describe('POST /api/stock/receipts', () => {
       partId: piston.id,
       kind: 'receipt',
       quantity: 1,
-      unitCost: '12.50',
       reason: 'Delivery 4471',
       toBinId: fx.binId,
     });
+    // Staff may not see costs: the cost is kept on the ledger row, not answered to them.
+    expect(res.body.ledger[0]).not.toHaveProperty('unitCost');
+    const rows = await db('stock_ledger').where({ part_id: piston.id, kind: 'receipt' });
+    expect(rows.map((r) => r.unit_cost)).toEqual(['12.5000', '12.5000', '12.5000']);
     expect(res.body.units).toHaveLength(3);
     const bySkirt = res.body.units.map((u: { skirt: unknown }) => u.skirt);
     // 2.5555 in × 25.4 = 64.9097 mm; 64.91 mm ÷ 25.4 = 2.555511… in → 2.5555 at 0.0001 in.
@@ -115,7 +118,7 @@ describe('POST /api/stock/receipts', () => {
       });
       expect(u.label).toMatch(/^PU-\d{6,}$/);
     }
-    expect(res.body.levels).toEqual({ onHand: 3, held: 0, free: 3, averageCost: '12.50' });
+    expect(res.body.levels).toEqual({ onHand: 3, held: 0, free: 3 });
     expect(await levels(piston.id)).toMatchObject({ on_hand: 3, held: 0 });
     expect((await ledgerSums(piston.id)).q).toBe(3);
     const stored = await db('piston_units')
@@ -173,8 +176,10 @@ describe('POST /api/stock/receipts', () => {
       unitCost: '14.00',
     });
     expect(res.status).toBe(201);
-    expect(res.body.levels).toEqual({ onHand: 40, held: 0, free: 40, averageCost: '13.00' });
-    expect(res.body.ledger).toEqual([expect.objectContaining({ quantity: 30, unitCost: '14.00' })]);
+    // Staff receive without seeing costs; the owner reads the average.
+    expect(res.body.levels).toEqual({ onHand: 40, held: 0, free: 40 });
+    expect(res.body.ledger).toEqual([expect.objectContaining({ quantity: 30 })]);
+    expect((await owner.get(`/api/parts/${rings.id}`)).body.averageCost).toBe('13.00');
     expect((await db('parts').where({ id: rings.id }).first()).average_cost).toBe('13.0000');
   });
 
@@ -438,7 +443,9 @@ describe('piston units: hold, move, scrap, measure', () => {
     expect(res.status).toBe(200);
     expect(res.body.unit.status).toBe('scrapped');
     expect(res.body.levels).toMatchObject({ onHand: 0, held: 0 });
-    expect(res.body.ledger[0]).toMatchObject({ kind: 'scrap', quantity: -1, unitCost: '25.00' });
+    expect(res.body.ledger[0]).toMatchObject({ kind: 'scrap', quantity: -1 });
+    const scrapRow = await db('stock_ledger').where({ unit_id: unit.id, kind: 'scrap' }).first();
+    expect(scrapRow.unit_cost).toBe('25.0000');
     expect((await ledgerSums(partId)).q).toBe(0);
     const twice = await staff.post(`/api/stock/units/${unit.id}/scrap`, { reason: 'again' });
     expect(twice.status).toBe(409);

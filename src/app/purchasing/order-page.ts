@@ -85,7 +85,7 @@ export class OrderPage {
         this.order.set(order);
         this.edits.set(
           Object.fromEntries(
-            order.lines.map((l) => [l.id, { quantity: l.quantity, unitPrice: l.unitPrice }]),
+            order.lines.map((l) => [l.id, { quantity: l.quantity, unitPrice: l.unitPrice ?? '' }]),
           ),
         );
       },
@@ -94,7 +94,7 @@ export class OrderPage {
   }
 
   protected edit(line: OrderLineJson): LineEdit {
-    return this.edits()[line.id] ?? { quantity: line.quantity, unitPrice: line.unitPrice };
+    return this.edits()[line.id] ?? { quantity: line.quantity, unitPrice: line.unitPrice ?? '' };
   }
 
   protected setEdit(line: OrderLineJson, change: Partial<LineEdit>): void {

@@ -132,6 +132,22 @@ describe('ReceivePage', () => {
     );
   });
 
+  it('when the answer carries no average cost (staff may not see costs), then the receipt still shows what came in', async () => {
+    await fillDelivery();
+    await (await loader.getHarness(MatButtonHarness.with({ text: /Receive into stock/ }))).click();
+    http.expectOne('/api/stock/receipts').flush({
+      receiptId: 'r2',
+      ledger: [{ quantity: 1 }, { quantity: 1 }],
+      units: [],
+      levels: { onHand: 2, held: 0, free: 2 },
+    });
+    await fixture.whenStable();
+    const done = (fixture.nativeElement as HTMLElement).querySelector('.done')?.textContent ?? '';
+    expect(done).toContain('2 × TR-2-PC-010');
+    expect(done).toContain('On hand now:');
+    expect(done).not.toMatch(/average cost|undefined/i);
+  });
+
   it('when the server refuses one skirt, then its message shows under that piston', async () => {
     await fillDelivery();
     await (await loader.getHarness(MatButtonHarness.with({ text: /Receive into stock/ }))).click();

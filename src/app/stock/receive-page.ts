@@ -135,7 +135,11 @@ export class ReceivePage {
         this.part.set(part);
         this.done.set(null);
         if (part.binId) this.form.controls.binId.setValue(part.binId);
-        if (!this.form.controls.unitCost.value && Number(part.averageCost) > 0) {
+        if (
+          !this.form.controls.unitCost.value &&
+          part.averageCost &&
+          Number(part.averageCost) > 0
+        ) {
           this.form.controls.unitCost.setValue(part.averageCost);
         }
         this.sizeUnits();
