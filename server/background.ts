@@ -5,6 +5,7 @@ import { startMailBackground } from './mail/mail-background';
 import { startDigestSweep } from './alerts/digest-sweep';
 import { startHoldSweep } from './jobs/hold-sweep';
 import { startRateLimitSweep } from './http/rate-limit-sweep';
+import { startPreviewSweep } from './imports/preview-sweep';
 
 export interface Background {
   stop(): Promise<void>;
@@ -17,6 +18,7 @@ const starters: Starter[] = [
   startDigestSweep,
   startHoldSweep,
   startRateLimitSweep,
+  startPreviewSweep,
 ];
 
 export async function startBackgroundWork(): Promise<Background> {

@@ -25,6 +25,12 @@ const schema = z.object({
   DB_POOL_SIZE: z.coerce.number().int().min(2).max(200).default(10),
   /** Failed sign-ins allowed from one address (across all e-mails) in 15 minutes. */
   SIGN_IN_FAILURES_PER_ADDRESS: z.coerce.number().int().min(1).max(10000).default(30),
+  /** Hours an uncommitted price-list preview (and its staged rows) is kept before it is swept. */
+  PRICE_LIST_PREVIEW_HOURS: z.coerce
+    .number()
+    .min(0.01)
+    .max(24 * 365)
+    .default(24),
 });
 
 export type Config = Readonly<z.infer<typeof schema>> & {

@@ -140,18 +140,6 @@ export async function findCommittedBySha(
     .first();
 }
 
-/** Earlier previews of the same file for the supplier are replaced by a new one. */
-export async function deleteStalePreviews(
-  k: Knex,
-  supplierId: string,
-  sha256: string,
-): Promise<void> {
-  await k('price_list_imports')
-    .where({ supplier_id: supplierId, sha256 })
-    .whereIn('status', ['previewed', 'failed'])
-    .delete();
-}
-
 function jsonColumns(columns: ImportColumns): Record<string, unknown> {
   const out: Record<string, unknown> = { ...columns };
   for (const key of [

@@ -4,6 +4,7 @@
 import { createHash } from 'node:crypto';
 import { createReadStream } from 'node:fs';
 import type { Knex } from 'knex';
+import { config } from '../config';
 import { db } from '../db/knex';
 import { recordAudit } from '../audit/audit';
 import { logger } from '../logger';
@@ -29,11 +30,14 @@ import { detectFileFormat } from './detect-format';
 import { readPriceListBatches, type ParseCounts } from './parse-price-list';
 import { proposeMapping, resolveMapping, type ColumnMapping } from './propose-mapping';
 import * as repo from './imports-repository';
+import * as previews from './previews-repository';
 
 /** Row errors and warnings kept with an import (the counts say how many there were in all). */
 export const MAX_ISSUES = 500;
 export const SAMPLE_ROWS = 20;
 export const LARGEST_CHANGES = 100;
+/** What a commit of a preview that is no longer there is told. */
+const GONE = `That price-list preview (a preview expires after ${config.PRICE_LIST_PREVIEW_HOURS} hours, and a newer upload of the same file replaces it)`;
 
 export interface UploadedFile {
   path: string;
@@ -131,10 +135,18 @@ export async function previewPriceList(
     throw e;
   }
 
-  const importId = await k.transaction(async (trx) => {
+  const staged = await k.transaction(async (trx) => {
     await repo.allowLongStatements(trx);
+    // One live preview per supplier and file: concurrent uploads of the same bytes wait here for
+    // each other. The same file read the same way keeps the preview already made (so every
+    // caller gets an id that exists); another reading of it replaces that preview.
+    await previews.lockPreviewSlot(trx, supplierId, sha256);
+    const committed = await repo.findCommittedBySha(supplierId, sha256, trx);
+    if (committed) return { id: null, duplicate: committed };
+    const live = await previews.livePreview(trx, supplierId, sha256);
+    if (live && sameMapping(live.mapping, mapping)) return { id: live.id, duplicate: null };
     await repo.markProgress(trx, progressToken, 'reading');
-    await repo.deleteStalePreviews(trx, supplierId, sha256);
+    await previews.deleteStalePreviews(trx, supplierId, sha256);
     const id = await repo.insertImport(trx, {
       supplier_id: supplierId,
       user_id: user.id,
@@ -192,10 +204,24 @@ export async function previewPriceList(
       sample: sample.map(sampleJson),
       price_changes: changesJson(changes) as unknown as Record<string, unknown>,
     });
-    return id;
+    return { id, duplicate: null };
   });
-  logger.info({ importId, supplierId, file: file.originalName }, 'price list previewed');
-  return getImport(importId, k);
+  if (staged.duplicate) {
+    return duplicateAnswer(staged.duplicate.id, staged.duplicate.committed_at);
+  }
+  logger.info({ importId: staged.id, supplierId, file: file.originalName }, 'price list previewed');
+  return getImport(staged.id as string, k);
+}
+
+/** Two mappings say the same when they name the same columns (key order aside). */
+function sameMapping(a: Record<string, unknown>, b: ColumnMapping): boolean {
+  const canonical = (m: Record<string, unknown>) =>
+    JSON.stringify(
+      Object.keys(m)
+        .sort()
+        .map((key) => [key, m[key] ?? null]),
+    );
+  return canonical(a) === canonical(b as Record<string, unknown>);
 }
 
 function sampleJson(r: repo.StagedRow): SampleRowJson {
@@ -309,7 +335,7 @@ export async function commitImport(
       await repo.allowLongStatements(trx);
       await repo.markProgress(trx, progressToken, 'committing');
       const found = await repo.lockImport(trx, importId);
-      if (!found) throw new NotFound('That price-list import');
+      if (!found) throw new NotFound(GONE);
       await suppliers.lockSupplier(trx, found.supplier_id);
       // Read again under the supplier lock: a commit of another list may have finished meanwhile.
       const imp = (await repo.lockImport(trx, importId)) as repo.ImportRow;
