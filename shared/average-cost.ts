@@ -1,6 +1,8 @@
 // Weighted-average cost (perpetual moving average): each receipt blends its unit cost into the average,
 // weighted by quantity; issues, reservations and holds take stock out at the current average and leave it
 // unchanged. Money is exact decimal text; the average is kept to 4 decimals, rounded half-up.
+// The value of the stock is kept exactly beside its quantity (receiptValue below) and the average is
+// derived from the two, so it never drifts by rounding an average of an average.
 import Decimal from 'decimal.js';
 
 const D = Decimal.clone({ precision: 40, rounding: Decimal.ROUND_HALF_UP });
@@ -24,17 +26,34 @@ export class AverageCostError extends Error {
   }
 }
 
-export function receiveAtCost(state: CostState, quantity: number, unitCost: string): CostState {
-  const current = checkState(state);
+export interface ValueState {
+  quantity: number;
+  /** What the stock on hand is worth, exact decimal text. */
+  value: string;
+}
+
+export interface ValuedReceipt extends ValueState {
+  /** value ÷ quantity, to 4 decimals, half-up: what the part's average cost shows. */
+  averageCost: string;
+}
+
+/**
+ * A receipt against the exact value: value + quantity × unit cost, and the average derived from it.
+ * Three receipts of one unit at 1, 1 and 2 are worth 4 with an average of 1.3333 — never the
+ * 3 × 1.3333 = 3.9999 that rounding the average at each step gives.
+ */
+export function receiptValue(state: ValueState, quantity: number, unitCost: string): ValuedReceipt {
+  requireCount('quantity in stock', state.quantity, 0);
   requireCount('received quantity', quantity, 1);
+  const before = parseCost(state.value, 'stock value');
   const cost = parseCost(unitCost, 'unit cost');
   const newQuantity = state.quantity + quantity;
-  const average = current
-    .times(state.quantity)
-    .plus(cost.times(quantity))
-    .dividedBy(newQuantity)
-    .toDecimalPlaces(AVERAGE_COST_DECIMALS);
-  return { quantity: newQuantity, averageCost: average.toFixed(AVERAGE_COST_DECIMALS) };
+  const value = before.plus(cost.times(quantity));
+  return {
+    quantity: newQuantity,
+    value: value.toFixed(),
+    averageCost: value.dividedBy(newQuantity).toFixed(AVERAGE_COST_DECIMALS),
+  };
 }
 
 export function issueAtCost(state: CostState, quantity: number): IssueResult {

@@ -11,7 +11,7 @@
 // the delivery. Rows go in as multi-row inserts inside one transaction: a second or two.
 import type { Knex } from 'knex';
 import Decimal from 'decimal.js';
-import { issueAtCost, receiveAtCost, type CostState } from '../../shared/average-cost';
+import { issueAtCost, receiptValue, type ValuedReceipt } from '../../shared/average-cost';
 import { inToNm, mmToNm, type Nm } from '../../shared/lengths';
 import { DEMO_FAMILIES, seededRandom } from './catalog';
 
@@ -492,10 +492,10 @@ export async function seedDemoHistory(knex: Knex, now: Date = new Date()): Promi
       ...list.map((r): Event => ({ at: r.at, receipt: r })),
       ...needs.map((n): Event => ({ at: n.job.closedAt, need: n })),
     ].sort((a, b) => a.at - b.at || (a.receipt ? -1 : 1));
-    let state: CostState = { quantity: 0, averageCost: '0' };
+    let state: ValuedReceipt = { quantity: 0, value: '0', averageCost: '0' };
     for (const e of events) {
       if (e.receipt) {
-        state = receiveAtCost(state, e.receipt.quantity, e.receipt.unitCost);
+        state = receiptValue(state, e.receipt.quantity, e.receipt.unitCost);
         const ref = seededUuid(random);
         if (part.kind === 'piston') {
           for (const unitId of e.receipt.unitIds) {
@@ -543,7 +543,12 @@ export async function seedDemoHistory(knex: Knex, now: Date = new Date()): Promi
       } else if (e.need) {
         const need = e.need;
         const cost = issueAtCost(state, need.quantity);
-        state = cost;
+        state = {
+          quantity: cost.quantity,
+          value:
+            cost.quantity === 0 ? '0' : new Decimal(state.value).minus(cost.issuedValue).toFixed(),
+          averageCost: cost.averageCost,
+        };
         holdRows.push({
           id: need.holdId,
           job_id: need.job.id,

@@ -168,7 +168,8 @@ export interface StockValueDb {
 }
 
 /**
- * Stock at moving average cost per family, and turnover over the last :months months.
+ * Stock at its value (kept exactly beside its count) per family, and turnover over the last
+ * :months months.
  * Inventory turnover = cost of goods issued ÷ average inventory at cost, the average being
  * (opening + closing) ÷ 2. The opening value is rebuilt from the ledger by the cost-flow identity
  * closing = opening + Σ(signed quantity × unit cost) over the window's movements.
@@ -180,7 +181,7 @@ export async function stockValue(months: number, k: Knex = db): Promise<StockVal
       SELECT now() - make_interval(months => :months) AS start,
              extract(epoch FROM now() - (now() - make_interval(months => :months))) / 86400 AS days
     ), closing AS (
-      SELECT p.family_id, sum(pl.on_hand)::bigint AS on_hand, sum(pl.on_hand * p.average_cost) AS value
+      SELECT p.family_id, sum(pl.on_hand)::bigint AS on_hand, sum(pl.stock_value) AS value
         FROM part_levels pl
         JOIN parts p ON p.id = pl.part_id
        GROUP BY p.family_id

@@ -172,10 +172,10 @@ export async function stockPart(id: string, k: Knex = db): Promise<StockPartRow 
 export async function lockLevels(
   k: Knex,
   partId: string,
-): Promise<LevelsRow & { average_cost: string }> {
+): Promise<LevelsRow & { average_cost: string; stock_value: string }> {
   const row = await k('part_levels as pl')
     .join('parts as p', 'p.id', 'pl.part_id')
-    .select('pl.on_hand', 'pl.held', 'pl.bin_id', 'p.average_cost')
+    .select('pl.on_hand', 'pl.held', 'pl.bin_id', 'pl.stock_value', 'p.average_cost')
     .where('pl.part_id', partId)
     .forUpdate('pl')
     .first();
@@ -186,9 +186,11 @@ export async function lockLevels(
 export async function changeLevels(
   k: Knex,
   partId: string,
-  change: { onHand?: number; held?: number; binId?: string | null },
+  change: { onHand?: number; held?: number; binId?: string | null; stockValue?: string },
 ): Promise<LevelsRow> {
   const update: Record<string, unknown> = { updated_at: k.fn.now() };
+  // Stock coming in says what it is worth; stock going out leaves that to the database's trigger.
+  if (change.stockValue !== undefined) update.stock_value = change.stockValue;
   if (change.onHand) update.on_hand = k.raw('on_hand + ?', [change.onHand]);
   if (change.held) update.held = k.raw('held + ?', [change.held]);
   if (change.binId !== undefined) update.bin_id = change.binId;

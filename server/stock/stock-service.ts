@@ -8,7 +8,8 @@ import { db } from '../db/knex';
 import { recordAudit } from '../audit/audit';
 import { BadRequest, Conflict, NotAvailable, NotFound } from '../errors';
 import { faultPoint } from '../testing-faults';
-import { issueAtCost, receiveAtCost } from '../../shared/average-cost';
+import Decimal from 'decimal.js';
+import { issueAtCost, receiptValue } from '../../shared/average-cost';
 import { formatLength, type Nm } from '../../shared/lengths';
 import { stepNominalBore } from '../../shared/step-series';
 import type { Page, UnitStatus } from '../../shared/catalog-api';
@@ -159,8 +160,8 @@ export async function receive(
   const receiptId = randomUUID();
   return k.transaction(async (trx) => {
     const before = await repo.lockLevels(trx, part.id);
-    const cost = receiveAtCost(
-      { quantity: before.on_hand, averageCost: before.average_cost },
+    const cost = receiptValue(
+      { quantity: before.on_hand, value: before.stock_value },
       input.quantity,
       input.unitCost,
     );
@@ -209,6 +210,7 @@ export async function receive(
     faultPoint('stock.receipt.afterLedger');
     const after = await repo.changeLevels(trx, part.id, {
       onHand: input.quantity,
+      stockValue: cost.value,
       // A counted part lives in one bin: the delivery's bin becomes its place.
       binId: part.kind === 'piston' ? undefined : input.binId,
     });
@@ -280,7 +282,17 @@ export async function adjust(
           reason: input.reason,
         },
       ]);
-      const after = await repo.changeLevels(trx, part.id, { onHand: input.quantity });
+      // More found than counted comes in at the average cost; fewer leaves its share of the value.
+      const after = await repo.changeLevels(trx, part.id, {
+        onHand: input.quantity,
+        ...(input.quantity > 0
+          ? {
+              stockValue: new Decimal(before.stock_value)
+                .plus(new Decimal(before.average_cost).times(input.quantity))
+                .toFixed(),
+            }
+          : {}),
+      });
       await recordAudit(trx, {
         userId: actorId,
         action: 'stock.adjustment',

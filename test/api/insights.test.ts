@@ -6,7 +6,6 @@ import Decimal from 'decimal.js';
 import { DateTime } from 'luxon';
 import { db } from '../../server/db/knex';
 import { recordShortage, supplierReliability } from '../../server/insights/insights-service';
-import { issueAtCost, receiveAtCost, type CostState } from '../../shared/average-cost';
 import { neutralizeCell } from '../../shared/csv-safety';
 import { closeTestApp, signedIn, type Client } from '../support/api';
 import { makeFamily, makePart, type Fixture } from '../support/catalog-fixtures';
@@ -38,7 +37,14 @@ async function ledger(rows: LedgerRow[]): Promise<void> {
 
 /** Sets a part's levels and average cost as if its movements had gone through the stock service. */
 async function setLevels(partId: string, onHand: number, averageCost: string, held = 0) {
-  await db('part_levels').update({ on_hand: onHand, held }).where({ part_id: partId });
+  // Stock brought to this level at this cost is worth on hand × average cost.
+  await db('part_levels')
+    .update({
+      on_hand: onHand,
+      held,
+      stock_value: new Decimal(averageCost).times(onHand).toFixed(),
+    })
+    .where({ part_id: partId });
   await db('parts').update({ average_cost: averageCost }).where({ id: partId });
 }
 
@@ -332,12 +338,11 @@ describe('what sits', () => {
   it('when receipts and issues at different costs go through, then stock value and turnover follow the weighted-average cost method', async () => {
     valued = await makeFamily(owner);
     const part = (await makePart(owner, valued, 'piston', 1)).id;
-    // Weighted-average cost method (perpetual moving average), as shared/average-cost.ts keeps it:
-    // receive 10 @ 12.00, issue 4, receive 6 @ 15.00 (→ 13.5000), issue 5 → 7 left @ 13.5000.
-    let state: CostState = receiveAtCost({ quantity: 0, averageCost: '0' }, 10, '12.00');
-    const first = issueAtCost(state, 4);
-    state = receiveAtCost(first, 6, '15.00');
-    const second = issueAtCost(state, 5);
+    // Weighted-average cost method (perpetual moving average), worked by hand: receive 10 @ 12.00,
+    // issue 4 @ 12.0000, receive 6 @ 15.00 → (6 × 12 + 6 × 15) ÷ 12 = 13.5000, issue 5 @ 13.5000
+    // → 7 left @ 13.5000.
+    const first = { averageCost: '12.0000' };
+    const second = { quantity: 7, averageCost: '13.5000' };
     await ledger([
       { part_id: part, kind: 'receipt', quantity: 10, unit_cost: '12.0000', at: ago('6 months') },
       {
