@@ -25,6 +25,8 @@ const schema = z.object({
   DB_POOL_SIZE: z.coerce.number().int().min(2).max(200).default(10),
   /** Failed sign-ins allowed from one address (across all e-mails) in 15 minutes. */
   SIGN_IN_FAILURES_PER_ADDRESS: z.coerce.number().int().min(1).max(10000).default(30),
+  /** Seconds a price-list import waits for its turn (two at once, one per supplier) before a 503. */
+  IMPORT_WAIT_SECONDS: z.coerce.number().min(0).max(600).default(20),
   /** Hours an uncommitted price-list preview (and its staged rows) is kept before it is swept. */
   PRICE_LIST_PREVIEW_HOURS: z.coerce
     .number()

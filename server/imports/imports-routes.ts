@@ -11,7 +11,9 @@ import { BadRequest, UnsupportedMediaType } from '../errors';
 import type { Role } from '../../shared/session-types';
 import { IMPORT_STATUSES, commitInput, mappingInput } from '../../shared/suppliers-api';
 import type { ColumnMapping } from './propose-mapping';
+import { refuseLargerThan } from '../http/upload-limits';
 import * as service from './imports-service';
+import { withImportSlot } from './import-slots';
 
 export const IMPORTERS: Role[] = ['owner', 'buyer', 'staff'];
 export const MAX_UPLOAD_BYTES = 50 * 1024 * 1024;
@@ -103,7 +105,13 @@ export function registerImportsRoutes(router: Router): void {
     access: IMPORTERS,
     params: idParams,
     query: progressQuery,
-    before: [requireMultipart, upload.single('file'), removeUploadAfterwards],
+    before: [
+      requireMultipart,
+      // The file plus a few small fields and the multipart framing.
+      refuseLargerThan(MAX_UPLOAD_BYTES + 256 * 1024, 'The price list'),
+      upload.single('file'),
+      removeUploadAfterwards,
+    ],
     status: 201,
     handler: async ({ params, query, user, req, res }) => {
       const file = req.file;
@@ -113,13 +121,16 @@ export function registerImportsRoutes(router: Router): void {
         ]);
       }
       const body = (req.body ?? {}) as Record<string, unknown>;
-      const answer = await service.previewPriceList({
-        user,
-        supplierId: params.id,
-        file: { path: file.path, originalName: cleanName(file.originalname), size: file.size },
-        mapping: mappingField(body.mapping),
-        progressToken: query.progress,
-      });
+      const mapping = mappingField(body.mapping);
+      const answer = await withImportSlot(params.id, () =>
+        service.previewPriceList({
+          user,
+          supplierId: params.id,
+          file: { path: file.path, originalName: cleanName(file.originalname), size: file.size },
+          mapping,
+          progressToken: query.progress,
+        }),
+      );
       if (answer.status === 'duplicate') {
         res.status(200).json(answer);
         return undefined;
@@ -134,8 +145,12 @@ export function registerImportsRoutes(router: Router): void {
     params: idParams,
     query: progressQuery,
     body: commitInput,
-    handler: ({ params, query, body, user }) =>
-      service.commitImport(user, params.id, body, query.progress),
+    handler: async ({ params, query, body, user }) => {
+      const supplierId = await service.supplierOfImport(params.id);
+      return withImportSlot(supplierId, () =>
+        service.commitImport(user, params.id, body, query.progress),
+      );
+    },
   });
   route(router, {
     method: 'get',

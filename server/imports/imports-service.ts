@@ -290,6 +290,13 @@ function importJson(r: repo.ImportRow): ImportJson {
   };
 }
 
+/** The supplier of an import, to queue its commit behind that supplier's other import. */
+export async function supplierOfImport(id: string, k: Knex = db): Promise<string> {
+  const row = await repo.findImport(id, k);
+  if (!row) throw new NotFound(GONE);
+  return row.supplier_id;
+}
+
 export async function getImport(id: string, k: Knex = db): Promise<ImportJson> {
   const row = await repo.findImport(id, k);
   if (!row) throw new NotFound('That price-list import');

@@ -3,6 +3,7 @@
 // workshop; readings, holds, cuts and the bore sheet are machine work (machinist and owner).
 import type { Router } from 'express';
 import multer from 'multer';
+import { refuseLargerThan } from '../http/upload-limits';
 import { z } from 'zod';
 import { pageQuery, route, uuidParam } from '../http/route';
 import type { Role } from '../../shared/session-types';
@@ -234,7 +235,8 @@ export function registerJobsRoutes(router: Router): void {
     method: 'post',
     path: '/api/jobs/:id/photos',
     access: COUNTER,
-    before: [photoUpload],
+    // A photo and its thumbnail at most, plus the multipart framing.
+    before: [refuseLargerThan(2 * MAX_PHOTO_BYTES + 64 * 1024, 'The photo'), photoUpload],
     params: idParams,
     status: 201,
     handler: ({ params, user, req }) =>
