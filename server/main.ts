@@ -1,4 +1,4 @@
-// Starts the HTTP server. `npm start` reaches this through server/setup/start.ts, which first makes
+// Starts the HTTP server. `npm start` reaches this through server/start.ts, which first makes
 // sure the database exists; a shop on a managed PostgreSQL runs it with DATABASE_URL set.
 import type { Server } from 'node:http';
 import { config } from './config';

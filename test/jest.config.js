@@ -1,5 +1,5 @@
 // One jest run, three projects: pure shared/ computations, Angular component specs, and API tests
-// against the real app and a real PostgreSQL (DATABASE_URL is set by server/setup/test.sh).
+// against the real app and a real PostgreSQL (DATABASE_URL is set by test/run.ts).
 const path = require('node:path');
 const { createCjsPreset } = require('jest-preset-angular/presets');
 

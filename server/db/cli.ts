@@ -5,7 +5,7 @@ import path from 'node:path';
 import { DateTime } from 'luxon';
 import { createDb } from './knex';
 import { migrateLatest, seedDemo } from './migrate';
-import { localDatabaseUrl } from '../setup/local-env';
+import { localDatabaseUrl } from './local-env';
 
 function out(msg: string) {
   process.stdout.write(`${msg}\n`);

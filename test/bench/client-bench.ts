@@ -5,7 +5,7 @@ import { execFileSync } from 'node:child_process';
 import { readdirSync, readFileSync, statSync } from 'node:fs';
 import path from 'node:path';
 import { gzipSync } from 'node:zlib';
-import { buildIsFresh } from '../../server/setup/build';
+import { buildIsFresh } from '../../server/build-client';
 import { figure, say } from './emit';
 
 const REPO = path.resolve(__dirname, '..', '..');

@@ -9,7 +9,7 @@ export async function coldStart(databaseUrl: string): Promise<void> {
   const port = await freePort();
   say('start.cold: npm start against the bench database');
   const started = performance.now();
-  const child = spawn('bash', ['server/setup/start.sh'], {
+  const child = spawn('bash', ['server/start.sh'], {
     cwd: path.resolve(__dirname, '..', '..'),
     env: {
       ...process.env,

@@ -1,9 +1,7 @@
 // Shared pieces of the fault drills: the throwaway cluster the test runner made, a migrated database
 // of a drill's own, users with known passwords, and a small cookie-carrying HTTP client that talks to
 // a real server process the way a browser does (session cookie plus the XSRF header).
-import { spawn, type ChildProcess } from 'node:child_process';
 import { randomBytes } from 'node:crypto';
-import net from 'node:net';
 import path from 'node:path';
 import bcrypt from 'bcryptjs';
 import pg from 'pg';
@@ -20,18 +18,14 @@ const DRILL_HASH = bcrypt.hashSync(DRILL_PASSWORD, 4);
 export function testCluster(): Cluster {
   const raw = process.env.STEPSTOCK_TEST_CLUSTER;
   if (!raw)
-    throw new Error(
-      'STEPSTOCK_TEST_CLUSTER is not set: run drills through server/setup/test.sh drills',
-    );
+    throw new Error('STEPSTOCK_TEST_CLUSTER is not set: run drills through test/test.sh drills');
   return JSON.parse(raw) as Cluster;
 }
 
 export async function adminQuery(sql: string): Promise<void> {
   const url = process.env.STEPSTOCK_PG_ADMIN_URL;
   if (!url)
-    throw new Error(
-      'STEPSTOCK_PG_ADMIN_URL is not set: run drills through server/setup/test.sh drills',
-    );
+    throw new Error('STEPSTOCK_PG_ADMIN_URL is not set: run drills through test/test.sh drills');
   const client = new pg.Client({ connectionString: url });
   await client.connect();
   try {
@@ -274,81 +268,4 @@ export async function stockFixture(client: pg.Client, units: number): Promise<St
   };
 }
 
-export function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const srv = net.createServer();
-    srv.once('error', reject);
-    srv.listen(0, '127.0.0.1', () => {
-      const a = srv.address();
-      srv.close(() => resolve(typeof a === 'object' && a ? a.port : 0));
-    });
-  });
-}
-
-export interface ServerProcess {
-  url: string;
-  process: ChildProcess;
-  /** Everything the process wrote so far (pino JSON lines), for failure messages. */
-  log(): string;
-  stop(): Promise<void>;
-  kill(): Promise<void>;
-}
-
-/**
- * The real server (`server/main.ts`) in its own process on a free loopback port, ready once
- * /api/health answers 200. Unlike a bare spawn, a process that never gets ready is killed, so a
- * failed start cannot keep the test run alive.
- */
-export async function startServer(
-  databaseUrl: string,
-  extraEnv: NodeJS.ProcessEnv = {},
-): Promise<ServerProcess> {
-  const port = await freePort();
-  const child = spawn(process.execPath, ['--import', 'tsx', 'server/main.ts'], {
-    cwd: REPO,
-    env: {
-      ...process.env,
-      NODE_ENV: 'production',
-      LOG_LEVEL: 'warn',
-      DATABASE_URL: databaseUrl,
-      PORT: String(port),
-      HOST: '127.0.0.1',
-      ...extraEnv,
-    },
-    stdio: ['ignore', 'pipe', 'pipe'],
-  });
-  let output = '';
-  child.stdout?.on('data', (d) => (output += d));
-  child.stderr?.on('data', (d) => (output += d));
-  const exited = new Promise<void>((resolve) => child.once('exit', () => resolve()));
-  const kill = async (signal: NodeJS.Signals) => {
-    if (child.exitCode !== null || child.signalCode !== null) return;
-    child.kill(signal);
-    const timer = setTimeout(() => child.kill('SIGKILL'), 5000);
-    await exited;
-    clearTimeout(timer);
-  };
-  const url = `http://127.0.0.1:${port}`;
-  const deadline = Date.now() + 60_000;
-  for (;;) {
-    if (child.exitCode !== null) throw new Error(`server exited early:\n${output}`);
-    try {
-      const res = await fetch(`${url}/api/health`, { signal: AbortSignal.timeout(2000) });
-      if (res.status === 200) break;
-    } catch {
-      /* not listening yet */
-    }
-    if (Date.now() > deadline) {
-      await kill('SIGKILL');
-      throw new Error(`server did not answer /api/health within 60 s:\n${output}`);
-    }
-    await sleep(150);
-  }
-  return {
-    url,
-    process: child,
-    log: () => output,
-    stop: () => kill('SIGTERM'),
-    kill: () => kill('SIGKILL'),
-  };
-}
+export { freePort, startServer, type ServerProcess } from '../support/server-process';

@@ -1,13 +1,12 @@
 // Browser-test harness: a database copied from the seeded demo template, the real server in its own
 // process, and Debian's Chromium driven by playwright-core. Nothing leaves 127.0.0.1.
-import { spawn, type ChildProcess } from 'node:child_process';
 import { mkdirSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
-import net from 'node:net';
 import os from 'node:os';
 import path from 'node:path';
 import { randomBytes } from 'node:crypto';
 import pg from 'pg';
 import { chromium, type BrowserContext, type Page } from 'playwright-core';
+import { startServer } from '../support/server-process';
 
 export const REPO = path.resolve(__dirname, '..', '..');
 export const ARTIFACTS = path.join(REPO, 'test', 'artifacts');
@@ -19,17 +18,6 @@ export const DEMO = {
   staff: 'staff@demo.test',
 } as const;
 export type DemoRole = keyof typeof DEMO;
-
-function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const srv = net.createServer();
-    srv.once('error', reject);
-    srv.listen(0, '127.0.0.1', () => {
-      const a = srv.address();
-      srv.close(() => resolve(typeof a === 'object' && a ? a.port : 0));
-    });
-  });
-}
 
 async function adminQuery(sql: string): Promise<void> {
   const url = process.env.STEPSTOCK_PG_ADMIN_URL;
@@ -54,59 +42,6 @@ export async function demoDatabase(): Promise<{ url: string; drop(): Promise<voi
   return {
     url: url.toString(),
     drop: () => adminQuery(`drop database if exists ${name} with (force)`),
-  };
-}
-
-export interface RunningServer {
-  url: string;
-  process: ChildProcess;
-  stop(): Promise<void>;
-}
-
-export async function startServerProcess(
-  databaseUrl: string,
-  extraEnv: NodeJS.ProcessEnv = {},
-): Promise<RunningServer> {
-  const port = await freePort();
-  const child = spawn(process.execPath, ['--import', 'tsx', 'server/main.ts'], {
-    cwd: REPO,
-    env: {
-      ...process.env,
-      NODE_ENV: 'production',
-      LOG_LEVEL: 'warn',
-      DATABASE_URL: databaseUrl,
-      PORT: String(port),
-      HOST: '127.0.0.1',
-      ...extraEnv,
-    },
-    stdio: ['ignore', 'pipe', 'pipe'],
-  });
-  let output = '';
-  child.stdout?.on('data', (d) => (output += d));
-  child.stderr?.on('data', (d) => (output += d));
-  const url = `http://127.0.0.1:${port}`;
-  const deadline = Date.now() + 60_000;
-  for (;;) {
-    if (child.exitCode !== null) throw new Error(`server exited early:\n${output}`);
-    try {
-      const res = await fetch(`${url}/api/health`);
-      if (res.status === 200) break;
-    } catch {
-      /* not listening yet */
-    }
-    if (Date.now() > deadline) throw new Error(`server did not answer /api/health:\n${output}`);
-    await new Promise((r) => setTimeout(r, 150));
-  }
-  return {
-    url,
-    process: child,
-    stop: () =>
-      new Promise<void>((resolve) => {
-        if (child.exitCode !== null) return resolve();
-        child.once('exit', () => resolve());
-        child.kill('SIGTERM');
-        setTimeout(() => child.kill('SIGKILL'), 5000).unref();
-      }),
   };
 }
 
@@ -325,7 +260,7 @@ async function scanOnce(page: Page): Promise<AxeViolation[]> {
 /** Starts a demo database, the server and a browser for one test file. */
 export async function e2eEnvironment(extraEnv: NodeJS.ProcessEnv = {}) {
   const database = await demoDatabase();
-  const server = await startServerProcess(database.url, extraEnv);
+  const server = await startServer(database.url, extraEnv);
   const browser = await openBrowser();
   return {
     baseUrl: server.url,

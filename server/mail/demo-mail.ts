@@ -1,7 +1,7 @@
 // The demo sends e-mail to a local SMTP server on a free loopback port unless SMTP_URL names a real
 // one; the owner reads what it received on the Mailbox page.
-import { startLocalSmtp } from '../mail/fake-smtp';
-import { realSmtpConfigured, useLocalSmtp } from '../mail/smtp-target';
+import { startLocalSmtp } from './fake-smtp';
+import { realSmtpConfigured, useLocalSmtp } from './smtp-target';
 
 export interface DemoMail {
   stop(): Promise<void>;

@@ -5,5 +5,5 @@
 #   npm run bench -- holds lists  some groups: lists holds import client start
 set -euo pipefail
 cd "$(dirname "$0")/../.."
-bash server/setup/ensure.sh
+bash server/ensure-deps.sh
 exec node --import tsx test/bench/run.ts "$@"

@@ -2,7 +2,7 @@
 import { execFileSync } from 'node:child_process';
 import { existsSync, readdirSync, statSync } from 'node:fs';
 import path from 'node:path';
-import { REPO_ROOT } from './local-env';
+import { REPO_ROOT } from './db/local-env';
 
 const INPUTS = [
   'src',

@@ -8,7 +8,7 @@ import {
   runAsUser,
   startCluster,
   type Cluster,
-} from '../db/cluster';
+} from './cluster';
 
 export const REPO_ROOT = path.resolve(__dirname, '..', '..');
 // Not 5432, so a system PostgreSQL on the default port never clashes with the demo's.

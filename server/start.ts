@@ -1,9 +1,9 @@
 // npm start: the demo shop on one command. Starts (creating if needed) the local PostgreSQL
 // cluster, migrates, seeds an empty database, builds the client when stale, serves app and API.
 // With DATABASE_URL set it uses that server and starts none.
-import { demoCluster, localDatabaseUrl } from './local-env';
-import { buildClient } from './build';
-import { stopCluster } from '../db/cluster';
+import { demoCluster, localDatabaseUrl } from './db/local-env';
+import { buildClient } from './build-client';
+import { stopCluster } from './db/cluster';
 
 function say(msg: string) {
   process.stdout.write(`[stepstock] ${msg}\n`);
@@ -16,8 +16,8 @@ async function main() {
   const startedAt = Date.now();
   if (!external) process.env.DATABASE_URL = await localDatabaseUrl();
   // Imported after DATABASE_URL is known: config is read once at import.
-  const { createDb } = await import('../db/knex');
-  const { migrateLatest, seedDemo } = await import('../db/migrate');
+  const { createDb } = await import('./db/knex');
+  const { migrateLatest, seedDemo } = await import('./db/migrate');
   const admin = createDb(process.env.DATABASE_URL);
   try {
     const done = await migrateLatest(admin);
@@ -27,11 +27,11 @@ async function main() {
     await admin.destroy();
   }
   buildClient();
-  const { startMailForDemo } = await import('./demo-mail');
+  const { startMailForDemo } = await import('./mail/demo-mail');
   const mail = await startMailForDemo();
-  const { startServer } = await import('../main');
+  const { startServer } = await import('./main');
   const running = await startServer();
-  const { DEMO_USERS, DEMO_PASSWORD } = await import('../../seeds/00_users');
+  const { DEMO_USERS, DEMO_PASSWORD } = await import('../seeds/00_users');
   say(`ready in ${((Date.now() - startedAt) / 1000).toFixed(1)} s`);
   process.stdout.write(
     [

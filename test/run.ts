@@ -1,6 +1,6 @@
 // npm test: a throwaway PostgreSQL cluster (never the demo's data), then typecheck, unit, client,
 // API, fault-drill and browser tests. Exits non-zero on any failure.
-//   node --import tsx server/setup/test-run.ts [stage] [jest args…]   stage: lint|typecheck|unit|client|api|drills|e2e
+//   node --import tsx test/run.ts [stage] [jest args…]   stage: lint|typecheck|unit|client|api|drills|e2e
 import { execFileSync, spawnSync } from 'node:child_process';
 import { existsSync, mkdtempSync, rmSync } from 'node:fs';
 import path from 'node:path';
@@ -15,9 +15,9 @@ import {
   startCluster,
   stopCluster,
   type Cluster,
-} from '../db/cluster';
-import { REPO_ROOT } from './local-env';
-import { buildClient } from './build';
+} from '../server/db/cluster';
+import { REPO_ROOT } from '../server/db/local-env';
+import { buildClient } from '../server/build-client';
 
 const STAGES = ['lint', 'typecheck', 'unit', 'client', 'api', 'drills', 'e2e'] as const;
 type Stage = (typeof STAGES)[number];
@@ -139,8 +139,8 @@ async function main() {
       env.DATABASE_URL = url;
       env.STEPSTOCK_TEST_CLUSTER = JSON.stringify(cluster);
       env.STEPSTOCK_PG_ADMIN_URL = adminUrl(cluster);
-      const { createDb } = await import('../db/knex');
-      const { migrateLatest } = await import('../db/migrate');
+      const { createDb } = await import('../server/db/knex');
+      const { migrateLatest } = await import('../server/db/migrate');
       const db = createDb(url);
       await migrateLatest(db);
       await db.destroy();
