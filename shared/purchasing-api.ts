@@ -484,6 +484,7 @@ export interface OpenLineJson {
   orderId: string;
   orderNumber: string;
   supplierName: string;
+  expectedOn: string | null;
   line: OrderLineJson;
 }
 

@@ -4,6 +4,7 @@ import { z } from 'zod';
 import { atMost } from './text-rules';
 import { lengthField, moneyText, type UnitStatus } from './catalog-api';
 import type { LengthJson } from './lengths';
+import type { OrderState } from './purchasing-api';
 
 export const UNIT_STATUSES = ['free', 'held', 'issued', 'returned', 'scrapped'] as const;
 export const LEDGER_KINDS = [
@@ -61,6 +62,25 @@ export const receiptInput = z
   })
   .strict();
 export type ReceiptInput = z.output<typeof receiptInput>;
+
+/**
+ * The one receiving page: a delivery taken in against an open order line of the same part (the
+ * line's count and the order move on, its price is the cost), or, with no line, one nobody
+ * ordered at the cost typed.
+ */
+export const deskReceiptInput = receiptInput
+  .extend({ unitCost: moneyText.optional(), orderLineId: uuid.optional() })
+  .strict()
+  .superRefine((v, ctx) => {
+    if (!v.orderLineId && v.unitCost === undefined) {
+      ctx.addIssue({
+        code: 'custom',
+        path: ['unitCost'],
+        message: 'give the unit cost paid, or the order line it came on',
+      });
+    }
+  });
+export type DeskReceiptInput = z.output<typeof deskReceiptInput>;
 
 export const adjustmentInput = z
   .object({
@@ -162,6 +182,21 @@ export interface ReceiptJson {
   ledger: LedgerJson[];
   units: UnitJson[];
   levels: LevelsJson;
+}
+
+export interface DeskReceiptJson extends ReceiptJson {
+  /** The order line received against, as it stands now; null for a delivery nobody ordered. */
+  order: {
+    id: string;
+    number: string;
+    state: OrderState;
+    stateLabel: string;
+    lineNo: number;
+    received: number;
+    quantity: number;
+  } | null;
+  /** Arriving pistons held straight away for jobs waiting on that line. */
+  holds: { jobNumber: string; cylinder: number; unitLabel: string }[];
 }
 
 export interface StockChangeJson {

@@ -277,28 +277,6 @@ export async function partsOnDrafts(partIds: string[], k: Knex = db): Promise<Se
 }
 
 /** Open lines (on orders sent out or partly in) whose part or supplier item has the GTIN. */
-export async function openLinesByGtin(
-  gtin14: string,
-  k: Knex = db,
-): Promise<{ order_id: string; line_id: string }[]> {
-  return k('purchase_order_lines as l')
-    .join('purchase_orders as o', 'o.id', 'l.order_id')
-    .join('parts as p', 'p.id', 'l.part_id')
-    .whereIn('o.state', ['sent_out', 'partly_in'])
-    .andWhereRaw('l.received_quantity < l.quantity')
-    .andWhere((w) =>
-      w
-        .where('p.gtin', gtin14)
-        .orWhereExists(
-          k('supplier_items as i')
-            .whereRaw('i.supplier_id = o.supplier_id AND i.part_id = l.part_id')
-            .andWhere('i.gtin', gtin14),
-        ),
-    )
-    .select('o.id as order_id', 'l.id as line_id')
-    .orderBy([{ column: 'o.expected_on', nulls: 'last' }, { column: 'o.number' }]);
-}
-
 /** What is on order per part (open lines of orders sent out), for the step ladder. */
 export async function onOrderByPart(partIds: string[], k: Knex = db): Promise<Map<string, number>> {
   if (partIds.length === 0) return new Map();

@@ -6,10 +6,8 @@ import { db } from '../db/knex';
 import { recordAudit } from '../audit/audit';
 import { BadRequest, Conflict, NotFound } from '../errors';
 import { displayGtin, type Page } from '../../shared/catalog-api';
-import { normalizeGtin } from '../../shared/gtin';
 import {
   ORDER_STATE_LABELS,
-  type OpenLineJson,
   type OrderInput,
   type OrderJson,
   type OrderLineJson,
@@ -275,28 +273,6 @@ export async function cancelOrder(actorId: string, id: string, k: Knex = db): Pr
 }
 
 /** A scanned GTIN → the open order lines it can be received against. */
-export async function openLinesForGtin(
-  code: string,
-  k: Knex = db,
-): Promise<{ items: OpenLineJson[]; total: number }> {
-  const gtin = normalizeGtin(code);
-  if (!gtin) throw fieldError('gtin', 'not a valid GTIN (check the digits under the barcode)');
-  const found = await repo.openLinesByGtin(gtin, k);
-  const items: OpenLineJson[] = [];
-  for (const f of found) {
-    const order = await getOrder(f.order_id, k);
-    const line = order.lines.find((l) => l.id === f.line_id);
-    if (line)
-      items.push({
-        orderId: order.id,
-        orderNumber: order.number,
-        supplierName: order.supplierName,
-        line,
-      });
-  }
-  return { items, total: items.length };
-}
-
 // ---- Waits ------------------------------------------------------------------------------------
 
 export async function listWaits(

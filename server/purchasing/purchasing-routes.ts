@@ -24,6 +24,7 @@ import type { MoneyFields } from '../../shared/money-visibility';
 import type { Role } from '../../shared/session-types';
 import * as drafts from './drafts-service';
 import * as orders from './orders-service';
+import * as openLines from './open-lines-service';
 import { sendOrder } from './order-send-service';
 import { receiveAgainstOrder } from './receiving-service';
 import * as reorder from './reorder-service';
@@ -160,10 +161,20 @@ export function registerPurchasingRoutes(router: Router): void {
     path: '/api/purchase-orders/open-lines',
     access: RECEIVERS,
     money: ORDER_MONEY,
-    query: z.object({
-      gtin: z.string({ error: 'scan or type a GTIN' }).trim().min(1, 'scan or type a GTIN').max(40),
-    }),
-    handler: ({ query }) => orders.openLinesForGtin(query.gtin),
+    // By a scanned box's GTIN, or by the part being received (the one receiving page).
+    query: z
+      .object({
+        gtin: z.string().trim().min(1, 'scan or type a GTIN').max(40).optional(),
+        partId: z.string().uuid('must be a valid id').optional(),
+      })
+      .refine((q) => q.gtin !== undefined || q.partId !== undefined, {
+        message: 'scan or type a GTIN, or name the part',
+        path: ['gtin'],
+      }),
+    handler: ({ query }) =>
+      query.gtin !== undefined
+        ? openLines.openLinesForGtin(query.gtin)
+        : openLines.openLinesForPart(query.partId as string),
   });
   route(router, {
     method: 'get',

@@ -20,7 +20,7 @@ import {
   type ReceiptLinesInput,
   type ReceivedHoldJson,
 } from '../../shared/purchasing-api';
-import type { UnitJson } from '../../shared/stock-api';
+import type { ReceiptJson, UnitJson } from '../../shared/stock-api';
 import { D } from '../../shared/purchase-money';
 import { arrivalMailForCustomer, arrivalMailForMachinist, type JobArrival } from './order-mail';
 import * as repo from './orders-repository';
@@ -83,6 +83,17 @@ export async function receiveAgainstOrder(
   input: ReceiptLinesInput,
   k: Knex = db,
 ): Promise<OrderReceiptJson> {
+  const { stockReceipts: _stock, ...answer } = await receiveWithStock(actorId, orderId, input, k);
+  return answer;
+}
+
+/** As receiveAgainstOrder, with each line's stock receipt too (for the one receiving page). */
+export async function receiveWithStock(
+  actorId: string,
+  orderId: string,
+  input: ReceiptLinesInput,
+  k: Knex = db,
+): Promise<OrderReceiptJson & { stockReceipts: ReceiptJson[] }> {
   const order = await repo.findOrder(orderId, k);
   if (!order) throw new NotFound('That purchase order');
   requireOpen(order);
@@ -150,6 +161,7 @@ export async function receiveAgainstOrder(
     });
 
     const received: UnitJson[] = [];
+    const stockReceipts: ReceiptJson[] = [];
     const holds: ReceivedHoldJson[] = [];
     const notHeld: OrderReceiptJson['notHeld'] = [];
     const arrivals = new Map<string, JobArrival & { tellCustomer: string | null }>();
@@ -180,6 +192,7 @@ export async function receiveAgainstOrder(
         stock_receipt_id: stock.receiptId,
       });
       received.push(...stock.units);
+      stockReceipts.push(stock);
       faultPoint('purchasing.receipt.afterStock');
 
       if (p.line.part_kind !== 'piston') continue;
@@ -288,6 +301,7 @@ export async function receiveAgainstOrder(
       })),
       holds,
       notHeld,
+      stockReceipts,
     };
   });
 }

@@ -5,13 +5,14 @@ import { z } from 'zod';
 import { pageQuery, route, uuidParam } from '../http/route';
 import type { MoneyFields } from '../../shared/money-visibility';
 import type { Role } from '../../shared/session-types';
+import { receiveAtDesk } from '../purchasing/receiving-desk-service';
 import {
   adjustmentInput,
   binInput,
   LEDGER_KINDS,
   measureInput,
   moveInput,
-  receiptInput,
+  deskReceiptInput,
   scrapInput,
   UNIT_SORTS,
   UNIT_STATUSES,
@@ -69,9 +70,10 @@ export function registerStockRoutes(router: Router): void {
     path: '/api/stock/receipts',
     access: RECEIVERS,
     money: STOCK_MONEY,
-    body: receiptInput,
+    body: deskReceiptInput,
     status: 201,
-    handler: ({ body, user }) => service.receive(user.id, body),
+    // The one receiving page: against an order line when one is named, else a plain receipt.
+    handler: ({ body, user }) => receiveAtDesk(user.id, body),
   });
   route(router, {
     method: 'post',

@@ -77,7 +77,7 @@ export const NAV_ITEMS: NavItem[] = [
     label: 'Receive',
     icon: 'move_to_inbox',
     roles: ['owner', 'buyer', 'staff'],
-    hint: 'Take a delivery in, measure each piston and print its labels.',
+    hint: 'Take a delivery in against its order, measure each piston, print its labels.',
   },
   {
     path: '/stock/units',
@@ -222,14 +222,6 @@ export const NAV_ITEMS: NavItem[] = [
     icon: 'receipt',
     roles: [...ROLES],
     hint: 'Orders drafted, sent out and coming in; jobs waiting on them.',
-  },
-  {
-    path: '/purchasing/receiving',
-    group: 'stock',
-    label: 'Receive an order',
-    icon: 'qr_code_scanner',
-    roles: ['owner', 'buyer', 'staff'],
-    hint: 'Scan a box, count it, measure each piston; waiting jobs get theirs.',
   },
   {
     path: '/purchasing/rates',

@@ -6,7 +6,6 @@ import type { FamilyJson, LadderJson, Page, PartJson } from '../../../shared/cat
 import type {
   DraftsJson,
   ExchangeRateJson,
-  OpenLineJson,
   OrderJson,
   OrderListItemJson,
   OrderReceiptJson,
@@ -184,15 +183,6 @@ export class PurchasingApi {
 
   receive(orderId: string, body: ReceiptBody): Observable<OrderReceiptJson> {
     return this.http.post<OrderReceiptJson>(`/api/purchase-orders/${id(orderId)}/receipts`, body);
-  }
-
-  openLines(gtin: string) {
-    return this.http.get<{ items: OpenLineJson[]; total: number }>(
-      '/api/purchase-orders/open-lines',
-      {
-        params: params({ gtin }),
-      },
-    );
   }
 
   // ---- Waits ----

@@ -67,11 +67,6 @@ export const purchasingRoutes: Routes = [
     data: RECEIVERS,
     loadComponent: () => import('./receive-order').then((m) => m.ReceiveOrder),
   },
-  {
-    path: 'receiving',
-    title: 'Receive an order',
-    canActivate: [roleGuard],
-    data: RECEIVERS,
-    loadComponent: () => import('./receiving-bench').then((m) => m.ReceivingBench),
-  },
+  // Receiving has one page, under stock: it offers the part's open order lines first.
+  { path: 'receiving', pathMatch: 'full', redirectTo: '/stock/receive' },
 ];

@@ -6,6 +6,7 @@ import { ComponentFixture, TestBed } from '@angular/core/testing';
 import { MatButtonHarness } from '@angular/material/button/testing';
 import { MatCheckboxHarness } from '@angular/material/checkbox/testing';
 import { MatInputHarness } from '@angular/material/input/testing';
+import { MatRadioButtonHarness } from '@angular/material/radio/testing';
 import { MatSelectHarness } from '@angular/material/select/testing';
 import { provideRouter } from '@angular/router';
 
@@ -89,6 +90,14 @@ describe('ReceivePage', () => {
     await fixture.whenStable();
   });
 
+  /** The open order lines the page asks for once the part is known; none unless a test gives some. */
+  async function answerLines(items: unknown[] = []): Promise<void> {
+    const request = http.expectOne((r) => r.url === '/api/purchase-orders/open-lines');
+    expect(request.request.params.get('partId')).toBe('p1');
+    request.flush({ items, total: items.length });
+    await fixture.whenStable();
+  }
+
   afterEach(() => http.verify());
 
   async function fill(selector: string, value: string): Promise<void> {
@@ -107,6 +116,7 @@ describe('ReceivePage', () => {
   }
 
   it('when pistons are typed in inches, then each is sent with its unit and "to measure" as null', async () => {
+    await answerLines();
     await fillDelivery();
     // 2.5083 in × 25.4 = 63.71082 mm, shown at 0.001 mm under the field.
     expect((fixture.nativeElement as HTMLElement).textContent).toContain('= 63.711 mm');
@@ -125,6 +135,8 @@ describe('ReceivePage', () => {
       ledger: [{ quantity: 1 }, { quantity: 1 }],
       units: [],
       levels: { onHand: 2, held: 0, free: 2, averageCost: '41.00' },
+      order: null,
+      holds: [],
     });
     await fixture.whenStable();
     expect((fixture.nativeElement as HTMLElement).querySelector('.done')?.textContent).toContain(
@@ -149,6 +161,7 @@ describe('ReceivePage', () => {
   });
 
   it('when the server refuses one skirt, then its message shows under that piston', async () => {
+    await answerLines();
     await fillDelivery();
     await (await loader.getHarness(MatButtonHarness.with({ text: /Receive into stock/ }))).click();
     http.expectOne('/api/stock/receipts').flush(
@@ -167,5 +180,68 @@ describe('ReceivePage', () => {
     const errors = (fixture.nativeElement as HTMLElement).querySelectorAll('mat-error');
     expect(Array.from(errors, (e) => e.textContent?.trim())).toEqual(['Far from the bore.']);
     expect(text).not.toContain('units.0.skirt');
+  });
+
+  it('when the part is on order, then its open line is offered first, the quantity still to come and the usual bin filled, and the receipt names the line', async () => {
+    await answerLines([
+      {
+        orderId: 'o1',
+        orderNumber: 'PO-2612-0004',
+        supplierName: 'Invented Supply',
+        expectedOn: '2026-12-09',
+        line: { id: 'l1', lineNo: 2, quantity: 2, received: 0, open: 2, unitPrice: '38.00' },
+      },
+    ]);
+    const radios = await loader.getAllHarnesses(MatRadioButtonHarness);
+    expect(await Promise.all(radios.map((r) => r.getLabelText()))).toEqual([
+      expect.stringContaining('PO-2612-0004 line 2 from Invented Supply: 2 of 2 still to come'),
+      'Not on any order',
+    ]);
+    expect(await radios[0].isChecked()).toBe(true);
+    const quantity = await loader.getHarness(
+      MatInputHarness.with({ selector: '[formControlName=quantity]' }),
+    );
+    expect(await quantity.getValue()).toBe('2');
+    // Against a line the order's price is the cost: no cost field to fill.
+    expect(
+      await loader.getAllHarnesses(
+        MatInputHarness.with({ selector: '[formControlName=unitCost]' }),
+      ),
+    ).toHaveLength(0);
+    expect((fixture.nativeElement as HTMLElement).textContent).toContain("the order's price");
+    await fill('[data-unit-index="0"]', '2.5083');
+    const later = await loader.getAllHarnesses(MatCheckboxHarness.with({ label: 'To measure' }));
+    await later[1].check();
+    await (await loader.getHarness(MatSelectHarness)).clickOptions({ text: /A-1/ });
+    await (await loader.getHarness(MatButtonHarness.with({ text: /Receive into stock/ }))).click();
+    const request = http.expectOne('/api/stock/receipts');
+    expect(request.request.body).toEqual({
+      partId: 'p1',
+      quantity: 2,
+      binId: 'b1',
+      orderLineId: 'l1',
+      note: undefined,
+      units: [{ skirt: '2.5083 in' }, { skirt: null }],
+    });
+    request.flush({
+      receiptId: 'r1',
+      ledger: [{ quantity: 1 }, { quantity: 1 }],
+      units: [],
+      levels: { onHand: 2, held: 0, free: 2, averageCost: '38.00' },
+      order: {
+        id: 'o1',
+        number: 'PO-2612-0004',
+        state: 'all_in',
+        stateLabel: 'All in',
+        lineNo: 2,
+        received: 2,
+        quantity: 2,
+      },
+      holds: [{ jobNumber: 'CY-2612-0009', cylinder: 1, unitLabel: 'PU-000031' }],
+    });
+    await fixture.whenStable();
+    const done = (fixture.nativeElement as HTMLElement).querySelector('.done')?.textContent ?? '';
+    expect(done).toMatch(/PO-2612-0004\s+line 2: 2 of 2 in\. The order is now\s+all in/);
+    expect(done).toContain('PU-000031 held for job CY-2612-0009, cylinder 1');
   });
 });

@@ -1,3 +1,4 @@
+import { DatePipe } from '@angular/common';
 import {
   ChangeDetectionStrategy,
   Component,
@@ -22,13 +23,19 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatRadioModule } from '@angular/material/radio';
 import { MatSelectModule } from '@angular/material/select';
 import { RouterLink } from '@angular/router';
 import { catchError, map, of } from 'rxjs';
 
 import type { PartDetailJson, PartJson } from '../../../shared/catalog-api';
 import { formatLength, mmToNm, parseLength } from '../../../shared/lengths';
-import { MAX_PISTONS_PER_RECEIPT, type BinJson, type ReceiptJson } from '../../../shared/stock-api';
+import type { OpenLineJson } from '../../../shared/purchasing-api';
+import {
+  MAX_PISTONS_PER_RECEIPT,
+  type BinJson,
+  type DeskReceiptJson,
+} from '../../../shared/stock-api';
 import { apiErrorMessage, apiFieldErrors } from '../core/api-error';
 import { placeApiErrors } from '../core/field-errors';
 import { LengthPipe } from '../core/length-pipe';
@@ -43,13 +50,19 @@ type UnitRow = FormGroup<{ skirt: FormControl<string>; toMeasure: FormControl<bo
 /** Half a millimetre off the step's bore is worth a second look before saving (our own threshold). */
 const LOOK_AGAIN_NM = 500_000;
 
+/** "Not on any order" in the choice of what a delivery is. */
+const NO_ORDER = '';
+
 /**
- * Takes a delivery in: which part, how many, which bin, the unit cost, and for pistons each one's
- * measured skirt in the person's unit (or "to measure"). Then prints the labels.
+ * The one receiving page. Takes a delivery in: which part, then the open order lines for it first
+ * (receiving against one moves the order on, at the order's price), how many, which bin (the
+ * part's usual one to start with), the unit cost when nobody ordered it, and for pistons each
+ * one's measured skirt in the person's unit (or "to measure"). Then prints the labels.
  */
 @Component({
   selector: 'app-receive-page',
   imports: [
+    DatePipe,
     LengthPipe,
     MatButtonModule,
     MatCheckboxModule,
@@ -57,6 +70,7 @@ const LOOK_AGAIN_NM = 500_000;
     MatIconModule,
     MatInputModule,
     MatProgressBarModule,
+    MatRadioModule,
     MatSelectModule,
     PartPicker,
     ReactiveFormsModule,
@@ -99,7 +113,14 @@ export class ReceivePage {
   protected readonly busy = signal(false);
   protected readonly problem = signal('');
   protected readonly serverErrors = signal<Record<string, string>>({});
-  protected readonly done = signal<ReceiptJson | null>(null);
+  protected readonly done = signal<DeskReceiptJson | null>(null);
+  /** Open order lines for the part, oldest expected first; the first is chosen to start with. */
+  protected readonly openLines = signal<OpenLineJson[]>([]);
+  protected readonly lineChoice = signal<string>(NO_ORDER);
+  protected readonly chosenLine = computed(
+    () => this.openLines().find((l) => l.line.id === this.lineChoice()) ?? null,
+  );
+  protected readonly noOrder = NO_ORDER;
   protected readonly receivedCount = computed(
     () => this.done()?.ledger.reduce((sum, row) => sum + row.quantity, 0) ?? 0,
   );
@@ -119,7 +140,37 @@ export class ReceivePage {
 
   protected clearPart(): void {
     this.part.set(null);
+    this.openLines.set([]);
+    this.choose(NO_ORDER);
     this.form.controls.units.clear();
+  }
+
+  /** Against an order line the order's price is the cost; with none, the cost paid is asked. */
+  protected choose(lineId: string): void {
+    this.lineChoice.set(lineId);
+    const cost = this.form.controls.unitCost;
+    const line = this.openLines().find((l) => l.line.id === lineId);
+    if (line) {
+      cost.disable();
+      this.form.controls.quantity.setValue(line.line.open);
+    } else {
+      cost.enable();
+    }
+  }
+
+  private loadLines(partId: string): void {
+    this.openLines.set([]);
+    this.choose(NO_ORDER);
+    this.api.openLinesForPart(partId).subscribe({
+      next: (found) => {
+        if (this.part()?.id !== partId) return;
+        this.openLines.set(found.items);
+        this.choose(found.items[0]?.line.id ?? NO_ORDER);
+      },
+      // Without the list the page still receives as a delivery nobody ordered; say why.
+      error: (error: unknown) =>
+        this.problem.set(`The open orders could not be read: ${apiErrorMessage(error)}`),
+    });
   }
 
   private loadPart(id: string): void {
@@ -134,7 +185,9 @@ export class ReceivePage {
         }
         this.part.set(part);
         this.done.set(null);
+        // The part's usual bin to start with; the person may choose another.
         if (part.binId) this.form.controls.binId.setValue(part.binId);
+        this.loadLines(part.id);
         if (
           !this.form.controls.unitCost.value &&
           part.averageCost &&
@@ -209,6 +262,7 @@ export class ReceivePage {
     }
     const v = this.form.getRawValue();
     const unit = this.unit();
+    const line = this.chosenLine();
     this.busy.set(true);
     this.problem.set('');
     this.serverErrors.set({});
@@ -217,7 +271,7 @@ export class ReceivePage {
         partId: part.id,
         quantity: Number(v.quantity),
         binId: v.binId,
-        unitCost: v.unitCost.trim(),
+        ...(line ? { orderLineId: line.line.id } : { unitCost: v.unitCost.trim() }),
         note: v.note.trim() || undefined,
         units:
           part.kind === 'piston'
@@ -229,7 +283,7 @@ export class ReceivePage {
           this.busy.set(false);
           this.done.set(receipt);
           this.notifier.success(
-            `${v.quantity} × ${part.sku} received; ${receipt.levels.onHand} on hand.`,
+            `${v.quantity} × ${part.sku} received${receipt.order ? ` against ${receipt.order.number}` : ''}; ${receipt.levels.onHand} on hand.`,
           );
         },
         error: (error: unknown) => {
@@ -248,5 +302,7 @@ export class ReceivePage {
     this.form.controls.note.setValue('');
     this.form.controls.units.clear();
     this.sizeUnits();
+    const part = this.part();
+    if (part) this.loadLines(part.id);
   }
 }

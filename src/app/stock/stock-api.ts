@@ -13,10 +13,11 @@ import type {
   BinJson,
   LedgerJson,
   LedgerKind,
-  ReceiptJson,
+  DeskReceiptJson,
   StockChangeJson,
   UnitJson,
 } from '../../../shared/stock-api';
+import type { OpenLineJson } from '../../../shared/purchasing-api';
 
 export interface UnitQuery {
   q?: string;
@@ -44,7 +45,10 @@ export interface ReceiptBody {
   partId: string;
   quantity: number;
   binId: string;
-  unitCost: string;
+  /** Paid per piece; left out when received against an order line (the order's price counts). */
+  unitCost?: string;
+  /** The open order line this delivery came on, if any. */
+  orderLineId?: string;
   note?: string;
   units?: { skirt: string | null }[];
 }
@@ -83,8 +87,16 @@ export class StockApi {
     return this.http.post<BinJson>('/api/bins', body);
   }
 
-  receive(body: ReceiptBody): Observable<ReceiptJson> {
-    return this.http.post<ReceiptJson>('/api/stock/receipts', body);
+  receive(body: ReceiptBody): Observable<DeskReceiptJson> {
+    return this.http.post<DeskReceiptJson>('/api/stock/receipts', body);
+  }
+
+  /** Open order lines for a part, oldest expected first: what a delivery of it may be. */
+  openLinesForPart(partId: string): Observable<{ items: OpenLineJson[]; total: number }> {
+    return this.http.get<{ items: OpenLineJson[]; total: number }>(
+      '/api/purchase-orders/open-lines',
+      { params: params({ partId }) },
+    );
   }
 
   adjust(body: { partId: string; quantity: number; reason: string }): Observable<StockChangeJson> {
