@@ -145,6 +145,7 @@ describe('ReceivePage', () => {
   });
 
   it('when the answer carries no average cost (staff may not see costs), then the receipt still shows what came in', async () => {
+    await answerLines();
     await fillDelivery();
     await (await loader.getHarness(MatButtonHarness.with({ text: /Receive into stock/ }))).click();
     http.expectOne('/api/stock/receipts').flush({
@@ -152,6 +153,8 @@ describe('ReceivePage', () => {
       ledger: [{ quantity: 1 }, { quantity: 1 }],
       units: [],
       levels: { onHand: 2, held: 0, free: 2 },
+      order: null,
+      holds: [],
     });
     await fixture.whenStable();
     const done = (fixture.nativeElement as HTMLElement).querySelector('.done')?.textContent ?? '';
