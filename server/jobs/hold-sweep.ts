@@ -2,7 +2,7 @@
 // takes an advisory lock, so when several processes run it at once only one does the work.
 import type { Background } from '../background';
 import { logger } from '../logger';
-import { sweepExpiredHolds } from './holds-service';
+import { sweepExpiredHolds } from './hold-expiry';
 
 const FIRST_RUN_MS = 60 * 1000;
 const EVERY_MS = 24 * 60 * 60 * 1000;

@@ -25,7 +25,10 @@ import {
 import * as jobs from './jobs-service';
 import * as cylinders from './cylinder-service';
 import * as sheets from './bore-sheet-service';
-import * as holds from './holds-service';
+import { placeHold } from './holds-service';
+import { releaseHold } from './hold-release';
+import { moveHold } from './hold-move';
+import { sweepExpiredHolds } from './hold-expiry';
 import * as proposals from './proposal-service';
 import * as photos from './photos-service';
 
@@ -203,7 +206,7 @@ export function registerJobsRoutes(router: Router): void {
     params: idParams,
     body: holdInput,
     status: 201,
-    handler: ({ params, body, user }) => holds.placeHold(user.id, params.id, body, user.unit),
+    handler: ({ params, body, user }) => placeHold(user.id, params.id, body, user.unit),
   });
   route(router, {
     method: 'delete',
@@ -211,7 +214,7 @@ export function registerJobsRoutes(router: Router): void {
     access: MACHINE,
     params: idParams,
     handler: async ({ params, user }) => {
-      await holds.releaseHold(user.id, params.id);
+      await releaseHold(user.id, params.id);
     },
   });
   route(router, {
@@ -220,14 +223,14 @@ export function registerJobsRoutes(router: Router): void {
     access: MACHINE,
     params: idParams,
     body: holdMoveInput,
-    handler: ({ params, body, user }) => holds.moveHold(user.id, params.id, body),
+    handler: ({ params, body, user }) => moveHold(user.id, params.id, body),
   });
   route(router, {
     method: 'post',
     path: '/api/holds/sweep',
     access: ['owner'],
     body: z.object({}).strict(),
-    handler: ({ user }) => holds.sweepExpiredHolds(user.id),
+    handler: ({ user }) => sweepExpiredHolds(user.id),
   });
 
   // ---- Photos -----------------------------------------------------------------------------------

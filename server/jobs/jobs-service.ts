@@ -25,7 +25,7 @@ import { findOrCreateForJob, requireLiveCustomer } from '../customers/customers-
 import { updateCustomer as updateCustomerFields } from '../customers/customers-repository';
 import { checkLink } from '../customers/cylinders-service';
 import * as holdsRepo from './holds-repository';
-import { releaseInTransaction } from './holds-service';
+import { releaseInTransaction } from './hold-release';
 import { whyNotReadyToCut } from './job-state';
 import { whyNotApproved } from '../money/approval-service';
 import {

@@ -13,7 +13,7 @@ import type { ProposalJson, ProposedUnitJson } from '../../shared/jobs-api';
 import * as repo from './holds-repository';
 import * as jobsRepo from './jobs-repository';
 import { familyClearances, holdJson } from './jobs-json';
-import { proposedJson } from './holds-service';
+import { proposedJson } from './hold-common';
 
 export async function proposal(
   jobId: string,
