@@ -167,7 +167,7 @@ const partFields = {
     .regex(/^[A-Za-z0-9][A-Za-z0-9._/+-]*$/, 'letters, digits and . _ / + - only'),
   familyId: uuid.nullable().optional(),
   stepId: uuid.nullable().optional(),
-  description: z.string().trim().min(1, 'enter a description').max(300),
+  description: singleLine(300).pipe(z.string().min(1, 'enter a description')),
   material: z.enum(PISTON_MATERIALS, { error: 'must be cast or forged' }).nullable().optional(),
   ringCount: z.number().int().min(1).max(6).nullable().optional(),
   pinDiameter: optionalLengthField({ max: 100_000_000 }).optional(),

@@ -2,7 +2,7 @@
 // sheet and closing a job. The zod schemas are used by the server routes and the Angular forms, so
 // both refuse the same input with the same words.
 import { z } from 'zod';
-import { atMost, isOneEmailAddress, MAX_EMAIL_LENGTH } from './text-rules';
+import { atMost, isOneEmailAddress, MAX_EMAIL_LENGTH, singleLine } from './text-rules';
 import { optionalLengthField, type Page } from './catalog-api';
 import { parseLength, type LengthJson, type LengthUnit } from './lengths';
 import type { Axis, Depth } from './bore-wear';
@@ -108,13 +108,11 @@ export const isoDate = z
   }, 'is not a date on the calendar');
 
 const customerFields = {
-  customerName: z
-    .string({ error: "enter the customer's name" })
-    .trim()
-    .min(1, "enter the customer's name")
-    .max(120, 'at most 120 characters'),
+  customerName: singleLine(120, "enter the customer's name").pipe(
+    z.string().min(1, "enter the customer's name"),
+  ),
   customerPhone: optionalText(40).refine(
-    (v) => v === null || v === undefined || /^[0-9+()\-./\s]{3,40}$/.test(v),
+    (v) => v === null || v === undefined || /^[0-9+()\-./ ]{3,40}$/.test(v),
     'digits, spaces and + ( ) - . / only',
   ),
   customerEmail: optionalText(MAX_EMAIL_LENGTH).refine(

@@ -1,7 +1,7 @@
 // What the stock API accepts and answers: bins, receipts, adjustments, moves, scrapping, measuring,
 // piston units and the ledger. Shared by the server routes and the Angular forms.
 import { z } from 'zod';
-import { atMost } from './text-rules';
+import { atMost, singleLine } from './text-rules';
 import { lengthField, moneyText, type UnitStatus } from './catalog-api';
 import type { LengthJson } from './lengths';
 import type { OrderState } from './purchasing-api';
@@ -38,7 +38,7 @@ export const binInput = z
       .min(1, 'enter a bin code')
       .max(32, atMost(32))
       .regex(/^[A-Za-z0-9][A-Za-z0-9._/-]*$/, 'letters, digits and . _ / - only, e.g. "A-03-2"'),
-    name: z.string().trim().max(120).optional(),
+    name: singleLine(120).optional(),
   })
   .strict();
 export type BinInput = z.output<typeof binInput>;

@@ -3,7 +3,7 @@
 import { z } from 'zod';
 import type { LengthJson } from './lengths';
 import { isCurrencyCode } from './money';
-import { atMost, emailAddress } from './text-rules';
+import { atMost, emailAddress, singleLine } from './text-rules';
 
 export const currencyCode = z
   .string({ error: 'must be a three-letter ISO 4217 code, e.g. "EUR"' })
@@ -28,7 +28,7 @@ const amount = z
 const email = emailAddress(200);
 
 export const supplierInput = z.strictObject({
-  name: z.string().trim().min(1, 'enter a name').max(120, 'at most 120 characters'),
+  name: singleLine(120).pipe(z.string().min(1, 'enter a name')),
   email: z.union([email, z.literal('').transform(() => null), z.null()]).optional(),
   currency: currencyCode,
   leadDays: z

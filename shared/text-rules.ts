@@ -16,9 +16,9 @@ export function hasLineBreak(text: string): boolean {
 }
 
 /** A one-line text (a name, a title): trimmed, at most `max` characters, no line breaks. */
-export function singleLine(max: number) {
+export function singleLine(max: number, notText?: string) {
   return z
-    .string()
+    .string(notText ? { error: notText } : undefined)
     .trim()
     .max(max, atMost(max))
     .refine((v) => !hasLineBreak(v), 'must be one line (no line breaks)');

@@ -414,6 +414,7 @@ export async function listLedger(
     unitId?: string;
     kind?: LedgerKind;
     jobId?: string;
+    q?: string;
     page: number;
     pageSize: number;
   },
@@ -424,6 +425,17 @@ export async function listLedger(
   if (opts.unitId) base.where('l.unit_id', opts.unitId);
   if (opts.kind) base.where('l.kind', opts.kind);
   if (opts.jobId) base.where('l.job_id', opts.jobId);
+  if (opts.q?.trim()) {
+    // The part number, the unit's label, or the reason or reference written with the movement.
+    const like = containsPattern(opts.q.trim());
+    base.where((w) =>
+      w
+        .whereILike('p.sku', like)
+        .orWhereILike('u.label', like)
+        .orWhereILike('l.reason', like)
+        .orWhereILike('l.ref', like),
+    );
+  }
   const [{ count }] = await base.clone().count<{ count: number }[]>('* as count');
   const rows = await base
     .clone()

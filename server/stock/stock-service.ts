@@ -18,7 +18,6 @@ import type {
   BinInput,
   BinJson,
   LedgerJson,
-  LedgerKind,
   MoveInput,
   ReceiptInput,
   ReceiptJson,
@@ -533,7 +532,7 @@ export async function unitByLabel(label: string, k: Conn = db): Promise<UnitJson
 }
 
 export async function listLedger(
-  query: { partId?: string; unitId?: string; kind?: LedgerKind; page: number; pageSize: number },
+  query: Parameters<typeof repo.listLedger>[0],
   k: Conn = db,
 ): Promise<Page<LedgerJson>> {
   const { rows, total } = await repo.listLedger(query, k);

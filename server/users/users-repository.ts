@@ -1,5 +1,6 @@
 import type { Knex } from 'knex';
 import { db } from '../db/knex';
+import { containsPattern } from '../catalog/catalog-repository';
 import type { Role, SessionUser, LengthUnit } from '../../shared/session-types';
 
 export interface UserRow {
@@ -56,8 +57,11 @@ export async function listUsers(
   q: Knex = db,
 ): Promise<{ rows: UserRow[]; total: number }> {
   const base = q<UserRow>('users').modify((b) => {
-    if (opts.q)
-      b.where((w) => w.whereILike('name', `%${opts.q}%`).orWhereILike('email', `%${opts.q}%`));
+    if (opts.q) {
+      // Typed text, not a pattern: % and _ match only themselves.
+      const like = containsPattern(opts.q);
+      b.where((w) => w.whereILike('name', like).orWhereILike('email', like));
+    }
   });
   const [{ count }] = await base.clone().count<{ count: number }[]>('* as count');
   const column = SORTABLE[opts.sort ?? 'name'];

@@ -4,6 +4,7 @@
 import { z } from 'zod';
 import type { LengthJson } from '../lengths';
 import type { JobState } from '../jobs-api';
+import { singleLine } from '../text-rules';
 
 const uuid = z.string().uuid('must be a valid id');
 
@@ -11,11 +12,9 @@ export const CUSTOMER_NAME_MAX = 120;
 /** What an erased customer's name reads as: no trace of the person, still a distinct row. */
 export const ERASED_NAME_PREFIX = 'Erased customer';
 
-export const customerName = z
-  .string({ error: "enter the customer's name" })
-  .trim()
-  .min(1, "enter the customer's name")
-  .max(CUSTOMER_NAME_MAX, `at most ${CUSTOMER_NAME_MAX} characters`);
+export const customerName = singleLine(CUSTOMER_NAME_MAX, "enter the customer's name").pipe(
+  z.string().min(1, "enter the customer's name"),
+);
 
 /** Left out: no change; "" or null: cleared. */
 const optionalText = (max: number) =>
@@ -25,7 +24,7 @@ const optionalText = (max: number) =>
     .transform((v) => (v === '' ? null : v));
 
 export const customerPhone = optionalText(40).refine(
-  (v) => v === null || v === undefined || /^[0-9+()\-./\s]{3,40}$/.test(v),
+  (v) => v === null || v === undefined || /^[0-9+()\-./ ]{3,40}$/.test(v),
   'digits, spaces and + ( ) - . / only',
 );
 

@@ -2,6 +2,7 @@
 // payment requests and payments, and the invoice. Amounts are decimal text with the currency's
 // decimals ("123.40"); the zod schemas are used by the server routes and the Angular forms alike.
 import { z } from 'zod';
+import { singleLine } from '../text-rules';
 import { parseMoney } from '../money';
 
 export const LABOUR_PER = ['cylinder', 'job'] as const;
@@ -82,11 +83,7 @@ export const quantityField = z
 
 const positiveAmount = amountField.refine((v) => Number(v) > 0, 'must be more than 0');
 const text = (max: number, what: string) =>
-  z
-    .string({ error: `enter ${what}` })
-    .trim()
-    .min(1, `enter ${what}`)
-    .max(max, `at most ${max} characters`);
+  singleLine(max, `enter ${what}`).pipe(z.string().min(1, `enter ${what}`));
 
 export const labourInput = z
   .object({
