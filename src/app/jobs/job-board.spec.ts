@@ -93,4 +93,52 @@ describe('JobBoard', () => {
       '3 open jobs, 1 waiting for parts.',
     );
   });
+
+  it('when the bench opens, then every stage sits in one sideways strip, with a button and count per stage that brings its column into view', async () => {
+    TestBed.configureTestingModule({
+      providers: [provideRouter([]), provideHttpClient(), provideHttpClientTesting()],
+    });
+    http = TestBed.inject(HttpTestingController);
+    const loading = TestBed.inject(Session).load();
+    http.expectOne('/api/session').flush({
+      user: { id: 'u2', email: 'ansel@example.test', name: 'Ansel', role: 'machinist', unit: 'mm' },
+    });
+    await loading;
+    const fixture = TestBed.createComponent(JobBoard);
+    await fixture.whenStable();
+    http
+      .expectOne((r) => r.url === '/api/jobs')
+      .flush({
+        items: [job('CY-2612-0010', 'at_the_hone'), job('CY-2612-0011', 'booked_in')],
+        total: 2,
+      });
+    await fixture.whenStable();
+    const element = fixture.nativeElement as HTMLElement;
+
+    const strip = element.querySelector<HTMLElement>('.columns')!;
+    expect(strip.getAttribute('role')).toBe('region');
+    expect(strip.getAttribute('tabindex')).toBe('0');
+    expect(strip.querySelectorAll(':scope > .column')).toHaveLength(6);
+
+    const chips = Array.from(
+      element.querySelectorAll<HTMLButtonElement>('nav[aria-label="Go to a stage"] button'),
+    );
+    expect(chips.map((c) => c.textContent?.replace(/\s+/g, ' ').trim())).toEqual([
+      'Booked in 1',
+      'Gauged 0',
+      'Parts set aside 0',
+      'On the bar 0',
+      'At the hone 1',
+      'Ready to go 0',
+    ]);
+
+    const hone = element.querySelector<HTMLElement>('#column-at_the_hone')!;
+    Object.defineProperty(hone, 'offsetLeft', { value: 744 });
+    const scrollTo = jest.fn();
+    strip.scrollTo = scrollTo as unknown as typeof strip.scrollTo;
+    chips[4].click();
+    expect(chips[4].getAttribute('aria-controls')).toBe('column-at_the_hone');
+    expect(scrollTo).toHaveBeenCalledWith({ left: 744, behavior: 'smooth' });
+    expect(document.activeElement?.textContent).toContain('CY-2612-0010');
+  });
 });

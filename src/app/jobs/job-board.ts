@@ -1,5 +1,13 @@
 import { DatePipe, NgTemplateOutlet } from '@angular/common';
-import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  computed,
+  ElementRef,
+  inject,
+  signal,
+  viewChild,
+} from '@angular/core';
 import { toObservable, toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
@@ -137,6 +145,18 @@ export class JobBoard {
     const shown = this.jobs().length;
     return total > shown ? `${head} Showing the first ${shown}: search to narrow it.` : head;
   });
+
+  private readonly strip = viewChild<ElementRef<HTMLElement>>('strip');
+
+  /** Brings a stage's column into view in the strip (on a tablet most sit off to the side). */
+  protected goToStage(state: string): void {
+    const strip = this.strip()?.nativeElement;
+    const column = strip?.querySelector<HTMLElement>(`#column-${state}`);
+    if (!strip || !column) return;
+    // The strip is positioned, so a column's offsetLeft is measured from the strip's own start.
+    strip.scrollTo({ left: column.offsetLeft, behavior: 'smooth' });
+    column.querySelector<HTMLElement>('a.job-card')?.focus({ preventScroll: true });
+  }
 
   protected stateLabel(job: JobListItemJson): string {
     return JOB_STATE_LABELS[job.state];
