@@ -173,8 +173,10 @@ export async function screenshot(page: Page, name: string): Promise<string> {
 }
 
 /**
- * Full-page screenshots at a desk's 1280 px and a tablet's 800 px width (`<name>-1280.png`,
- * `<name>-800.png`); the viewport is put back afterwards.
+ * Screenshots of the whole page at a desk's 1280 px and a tablet's 800 px width (`<name>-1280.png`,
+ * `<name>-800.png`); the viewport is put back afterwards. The shell scrolls its content pane, not
+ * the document, so a plain full-page picture would stop at the window's bottom edge: the window is
+ * made as tall as the pane's content for the picture instead.
  */
 export async function screenshotAtWidths(
   page: Page,
@@ -182,11 +184,26 @@ export async function screenshotAtWidths(
   widths: readonly number[] = [1280, 800],
 ): Promise<string[]> {
   const before = page.viewportSize();
+  const height = before?.height ?? 860;
   const files: string[] = [];
   for (const width of widths) {
-    await page.setViewportSize({ width, height: before?.height ?? 860 });
-    // Let the layout settle at the new width before the picture.
+    await page.setViewportSize({ width, height });
+    // Let the layout settle at the new width before measuring it.
     await page.waitForTimeout(150);
+    const whole = await page.evaluate(() => {
+      const g = globalThis as unknown as {
+        innerHeight: number;
+        document: {
+          querySelector(s: string): { scrollHeight: number; clientHeight: number } | null;
+        };
+      };
+      const pane = g.document.querySelector('mat-sidenav-content');
+      // What the pane holds beyond what it shows, added to the window's own height.
+      return pane ? g.innerHeight + Math.max(0, pane.scrollHeight - pane.clientHeight) : 0;
+    });
+    // Capped so a runaway page cannot ask Chromium for a picture it cannot make.
+    if (whole > height) await page.setViewportSize({ width, height: Math.min(whole, 12_000) });
+    await page.waitForTimeout(100);
     files.push(await screenshot(page, `${name}-${width}`));
   }
   if (before) await page.setViewportSize(before);
