@@ -304,6 +304,8 @@ export const orderInput = z
       .max(MAX_ORDER_LINES, `at most ${MAX_ORDER_LINES} lines`),
     expectedOn: isoDate.nullable().optional(),
     notes: z.string().max(2000, 'at most 2000 characters').optional(),
+    /** What the supplier charges to ship it, in the order's currency; default: their usual. */
+    shipping: unitPriceField.optional(),
   })
   .strict();
 export type OrderInput = z.output<typeof orderInput>;
@@ -313,6 +315,7 @@ export const orderPatch = z
     lines: orderInput.shape.lines.optional(),
     expectedOn: isoDate.nullable().optional(),
     notes: z.string().max(2000, 'at most 2000 characters').optional(),
+    shipping: unitPriceField.optional(),
   })
   .strict();
 export type OrderPatch = z.output<typeof orderPatch>;
@@ -399,6 +402,8 @@ export interface OrderJson {
   notes: string;
   /** Absent for roles that may not see costs. */
   total?: string;
+  /** Shipping for the order, spread into the received units' cost; absent like total. */
+  shipping?: string;
   lines: OrderLineJson[];
   createdAt: string;
   createdBy: string | null;

@@ -36,4 +36,6 @@ export interface ShopSettingsJson {
   depositPercent: string;
   /** A cylinder may be marked as cut only once the customer approved the estimate. */
   cutOnlyAfterApproval: boolean;
+  /** How an order's shipping joins the cost of what it brings in. */
+  shippingAllocation: 'value' | 'quantity' | 'none';
 }

@@ -8,6 +8,7 @@ import { parseLength } from './lengths';
 import { isCurrencyCode, parseMoney } from './money';
 import { BAR_RESOLUTIONS, type BarResolution } from './pass-plan';
 import type { ShopSettingsJson } from './settings-api';
+import { SHIPPING_ALLOCATIONS } from './shipping-share';
 import { atMost, singleLine } from './text-rules';
 
 const lengthSetting = (opts: { allowEmpty?: boolean } = {}) =>
@@ -79,6 +80,9 @@ export const shopSettingsSchema = z
     pricesIncludeTax: z.boolean(),
     depositPercent: percentSetting,
     cutOnlyAfterApproval: z.boolean(),
+    shippingAllocation: z.enum(SHIPPING_ALLOCATIONS, {
+      error: 'must be value, quantity or none',
+    }),
   })
   .strict();
 
@@ -109,4 +113,5 @@ export const DEFAULT_SETTINGS: ShopSettings = {
   pricesIncludeTax: false,
   depositPercent: '30',
   cutOnlyAfterApproval: true,
+  shippingAllocation: 'value',
 };

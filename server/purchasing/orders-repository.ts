@@ -19,6 +19,7 @@ export interface OrderRow {
   sent_at: Date | null;
   closed_at: Date | null;
   send_error: string | null;
+  shipping_cost: string;
 }
 
 export interface LineRow {
@@ -77,6 +78,7 @@ function ordersBase(k: Knex) {
       'o.sent_at',
       'o.closed_at',
       'o.send_error',
+      'o.shipping_cost',
     );
 }
 
@@ -189,6 +191,7 @@ export async function insertOrder(
     expected_on: string | null;
     notes: string;
     created_by: string;
+    shipping_cost: string;
   },
 ): Promise<string> {
   const [row] = await k('purchase_orders').insert(o).returning('id');
@@ -218,6 +221,7 @@ export async function updateOrder(
     closed_at: Date | Knex.Raw | null;
     send_outbox_id: string | null;
     send_error: string | null;
+    shipping_cost: string;
   }>,
 ): Promise<void> {
   await k('purchase_orders')
@@ -244,13 +248,14 @@ export interface SupplierRef {
   email: string | null;
   currency: string;
   lead_days: number;
+  shipping_cost: string;
   active: boolean;
 }
 
 export async function findSupplier(id: string, k: Knex = db): Promise<SupplierRef | undefined> {
   return k('suppliers')
     .where({ id })
-    .first('id', 'name', 'email', 'currency', 'lead_days', 'active');
+    .first('id', 'name', 'email', 'currency', 'lead_days', 'shipping_cost', 'active');
 }
 
 export interface PartRef {

@@ -83,6 +83,7 @@ function orderJson(o: repo.OrderRow, lines: repo.LineRow[], waits: repo.WaitRow[
     expectedOn: o.expected_on,
     notes: o.notes,
     total: moneyOut(total),
+    shipping: moneyOut(o.shipping_cost),
     lines: lines.map((l) => lineJson(l, waits)),
     createdAt: o.created_at.toISOString(),
     createdBy: o.created_by_name,
@@ -163,6 +164,7 @@ export async function insertOrderWithLines(
     expectedOn?: string | null;
     notes?: string;
     currency?: string;
+    shipping?: string;
   },
   action: string,
 ): Promise<string> {
@@ -172,6 +174,10 @@ export async function insertOrderWithLines(
     expected_on: input.expectedOn ?? null,
     notes: input.notes ?? '',
     created_by: actorId,
+    // In the supplier's currency, as its usual shipping is; an order in another one starts at 0.
+    shipping_cost:
+      input.shipping ??
+      ((input.currency ?? supplier.currency) === supplier.currency ? supplier.shipping_cost : '0'),
   });
   await repo.replaceLines(
     trx,
@@ -235,6 +241,7 @@ export async function patchOrder(
     await repo.updateOrder(trx, id, {
       ...(patch.expectedOn !== undefined ? { expected_on: patch.expectedOn } : {}),
       ...(patch.notes !== undefined ? { notes: patch.notes } : {}),
+      ...(patch.shipping !== undefined ? { shipping_cost: patch.shipping } : {}),
     });
     await recordAudit(trx, {
       userId: actorId,

@@ -35,7 +35,7 @@ const RECEIVERS: Role[] = ['owner', 'buyer', 'staff'];
 const WAIT_KEEPERS: Role[] = ['owner', 'buyer', 'machinist'];
 /** What the shop agreed to pay a supplier, and the unit costs of pistons received against it. */
 const ORDER_MONEY: MoneyFields = {
-  cost: ['unitPrice', 'lineTotal', 'total', 'unitCost', 'averageCost'],
+  cost: ['unitPrice', 'lineTotal', 'total', 'shipping', 'unitCost', 'averageCost'],
 };
 const idParams = z.object({ id: uuidParam });
 

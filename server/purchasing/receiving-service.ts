@@ -22,6 +22,7 @@ import {
 } from '../../shared/purchasing-api';
 import type { ReceiptJson, UnitJson } from '../../shared/stock-api';
 import { D } from '../../shared/purchase-money';
+import { shippingPerUnit } from '../../shared/shipping-share';
 import { arrivalMailForCustomer, arrivalMailForMachinist, type JobArrival } from './order-mail';
 import * as repo from './orders-repository';
 import * as receipts from './receiving-repository';
@@ -145,6 +146,16 @@ export async function receiveWithStock(
   for (const p of planned) {
     p.binId ??= (await repo.usualBin(p.line.part_id, k)) ?? (await arrivalsBin(actorId, k));
   }
+  // Each unit costs its price plus its share of the order's shipping, in the home currency.
+  const ordered = lines.map((l) => ({ quantity: l.quantity, unitPrice: l.unit_price }));
+  const unitCostOf = (line: repo.LineRow) =>
+    new D(line.unit_price)
+      .plus(
+        shippingPerUnit(ordered, order.shipping_cost, line.unit_price, settings.shippingAllocation),
+      )
+      .times(rate)
+      .toDecimalPlaces(4)
+      .toFixed(4);
   const machinists = await repo.machinistAddresses(k);
 
   const receiptId = randomUUID();
@@ -174,7 +185,7 @@ export async function receiveWithStock(
             partId: p.line.part_id,
             quantity: p.quantity,
             binId: p.binId as string,
-            unitCost: new D(p.line.unit_price).times(rate).toDecimalPlaces(4).toFixed(4),
+            unitCost: unitCostOf(p.line),
             note: `${locked.number} line ${p.line.line_no}${input.note ? `: ${input.note}` : ''}`,
             units: p.line.part_kind === 'piston' ? p.units : undefined,
           },

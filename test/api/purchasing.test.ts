@@ -37,6 +37,8 @@ beforeAll(async () => {
     holdingCostRate: '0.25',
     serviceLevel: 0.95,
     shopName: 'Quarry Bend Cylinder Works',
+    // Unit costs here are about currency conversion; shipping in the cost has its own tests.
+    shippingAllocation: 'none',
   });
   owner = await signedIn('owner');
   buyer = await signedIn('buyer');

@@ -32,6 +32,7 @@ const SETTINGS: ShopSettingsJson = {
   pricesIncludeTax: false,
   depositPercent: '30',
   cutOnlyAfterApproval: true,
+  shippingAllocation: 'value',
 };
 
 describe('SettingsPage', () => {

@@ -86,6 +86,10 @@ export class SettingsPage {
     pricesIncludeTax: [false, schemaRule('pricesIncludeTax')],
     depositPercent: ['', schemaRule('depositPercent')],
     cutOnlyAfterApproval: [true, schemaRule('cutOnlyAfterApproval')],
+    shippingAllocation: [
+      'value' as ShopSettingsJson['shippingAllocation'],
+      schemaRule('shippingAllocation'),
+    ],
   });
 
   private readonly values = toSignal(this.form.valueChanges, {

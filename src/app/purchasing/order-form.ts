@@ -62,6 +62,7 @@ export class OrderForm {
     supplierId: new FormControl('', { nonNullable: true, validators: [Validators.required] }),
     expectedOn: new FormControl<string | null>(null),
     notes: new FormControl('', { nonNullable: true, validators: [Validators.maxLength(2000)] }),
+    shipping: new FormControl('', { nonNullable: true, validators: [Validators.pattern(MONEY)] }),
     lines: new FormArray<LineGroup>([this.line()]),
   });
 
@@ -119,6 +120,7 @@ export class OrderForm {
         supplierId: v.supplierId,
         expectedOn: v.expectedOn || null,
         notes: v.notes,
+        ...(v.shipping.trim() === '' ? {} : { shipping: v.shipping.trim() }),
         lines: v.lines.map((l) => ({
           partId: (l.part as PartJson).id,
           quantity: Number(l.quantity),

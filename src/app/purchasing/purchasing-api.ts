@@ -158,6 +158,7 @@ export class PurchasingApi {
     lines: OrderLineBody[];
     expectedOn?: string | null;
     notes?: string;
+    shipping?: string;
   }) {
     return this.http.post<OrderJson>('/api/purchase-orders', body);
   }

@@ -1,0 +1,100 @@
+// An order's shipping joins the cost of what it brings in: received stock is valued at its price
+// plus its share, by value, by count or not at all as the shop sets it. Worked by hand.
+import { db } from '../../server/db/knex';
+import { saveSettings } from '../../server/settings/settings-service';
+import { closeTestApp, signedIn, uniq, type Client } from '../support/api';
+import { makeBin, makeFamily, makePart, type Family } from '../support/jobs-fixtures';
+
+let owner: Client;
+let buyer: Client;
+let staff: Client;
+let family: Family;
+
+beforeAll(async () => {
+  await saveSettings(null, { homeCurrency: 'EUR', shippingAllocation: 'value' });
+  owner = await signedIn('owner');
+  buyer = await signedIn('buyer');
+  staff = await signedIn('staff');
+  family = await makeFamily(owner);
+  await makeBin(owner);
+});
+afterAll(closeTestApp);
+
+async function sentOrder(shipping?: string) {
+  const name = uniq('Supplier');
+  const supplier = await buyer.post('/api/suppliers', {
+    name,
+    email: `${name.toLowerCase()}@example.test`,
+    currency: 'EUR',
+    leadDays: 5,
+    shippingCost: '10.00',
+  });
+  expect(supplier.status).toBe(201);
+  const a = await makePart(owner, family, '+0.010 in', 'rings');
+  const b = await makePart(owner, family, '+0.020 in', 'rings');
+  const order = await buyer.post('/api/purchase-orders', {
+    supplierId: supplier.body.id,
+    lines: [
+      { partId: a, quantity: 2, unitPrice: '40.00' },
+      { partId: b, quantity: 1, unitPrice: '20.00' },
+    ],
+    ...(shipping === undefined ? {} : { shipping }),
+  });
+  expect(order.status).toBe(201);
+  expect((await buyer.post(`/api/purchase-orders/${order.body.id}/send`)).status).toBe(200);
+  return { order: order.body, a, b };
+}
+
+async function averageOf(partId: string): Promise<string> {
+  return (await db('parts').where({ id: partId }).first()).average_cost;
+}
+
+describe('shipping in the cost of received stock', () => {
+  it('when an order of 2 × 40.00 and 1 × 20.00 with 10.00 shipping comes in, then by value the units cost 44.00 and 22.00', async () => {
+    const { order, a, b } = await sentOrder();
+    // The supplier's usual shipping, unless the buyer gives the order's own.
+    expect(order.shipping).toBe('10.00');
+    const res = await staff.post(`/api/purchase-orders/${order.id}/receipts`, {
+      lines: [
+        { lineId: order.lines[0].id, quantity: 1 },
+        { lineId: order.lines[1].id, quantity: 1 },
+      ],
+    });
+    expect(res.status).toBe(201);
+    // By hand: order value 2 × 40 + 20 = 100; 40 + 10 × 40/100 = 44.00; 20 + 10 × 20/100 = 22.00.
+    expect(await averageOf(a)).toBe('44.0000');
+    expect(await averageOf(b)).toBe('22.0000');
+    // The second unit of the first line, in a later delivery, costs the same.
+    await staff.post(`/api/purchase-orders/${order.id}/receipts`, {
+      lines: [{ lineId: order.lines[0].id, quantity: 1 }],
+    });
+    expect(await averageOf(a)).toBe('44.0000');
+  });
+
+  it('when the shop spreads shipping by count, or not at all, then each unit carries 10 ÷ 3 or nothing', async () => {
+    await saveSettings(null, { shippingAllocation: 'quantity' });
+    const byCount = await sentOrder();
+    await staff.post(`/api/purchase-orders/${byCount.order.id}/receipts`, {
+      lines: [{ lineId: byCount.order.lines[1].id, quantity: 1 }],
+    });
+    // 20 + 10 / 3 = 23.3333.
+    expect(await averageOf(byCount.b)).toBe('23.3333');
+
+    await saveSettings(null, { shippingAllocation: 'none' });
+    const none = await sentOrder('15.00');
+    expect(none.order.shipping).toBe('15.00');
+    await staff.post(`/api/purchase-orders/${none.order.id}/receipts`, {
+      lines: [{ lineId: none.order.lines[0].id, quantity: 1 }],
+    });
+    expect(await averageOf(none.a)).toBe('40.0000');
+    await saveSettings(null, { shippingAllocation: 'value' });
+  });
+
+  it('when a machinist reads the order, then its shipping is not in the answer', async () => {
+    const { order } = await sentOrder();
+    const machinist = await signedIn('machinist');
+    const res = await machinist.get(`/api/purchase-orders/${order.id}`);
+    expect(res.status).toBe(200);
+    expect(res.body.shipping).toBeUndefined();
+  });
+});
