@@ -21,6 +21,8 @@ import { barGridNm, passStartNm } from '../../shared/pass-plan';
 import { formatLength, toLengthJson, type LengthUnit, type Nm } from '../../shared/lengths';
 import { stepNominalBore } from '../../shared/step-series';
 import type { BoreSheetJson, CylinderJson } from '../../shared/jobs-api';
+import type { CutUndoJson } from '../../shared/cut-undo';
+import { cutUndoFacts } from './cut-undo-service';
 import * as repo from './jobs-repository';
 import * as holdsRepo from './holds-repository';
 import { getCylinder } from './cylinder-service';
@@ -128,8 +130,9 @@ export async function boreSheet(
   n: number,
   unit: LengthUnit = 'mm',
   k: Knex = db,
-): Promise<BoreSheetJson> {
+): Promise<BoreSheetJson & CutUndoJson> {
   const f = await sheetFacts(jobId, n, k);
+  const cut = await cutUndoFacts(jobId, n, k);
   const { job, family, cylinder, sheet, cleanup } = f;
   // A cylinder bored before: its last bore goes on the sheet, for the machinist to check against.
   const earlier = f.cylinder.cylinder_id
@@ -192,6 +195,7 @@ export async function boreSheet(
       max: lengthOrNull(family.ring_gap_max_nm),
     },
     cutAt: cylinder.cut_at ? cylinder.cut_at.toISOString() : null,
+    ...cut,
     measuredAfterHone: lengthOrNull(cylinder.measured_after_hone_nm),
     ringGapMeasured: lengthOrNull(cylinder.ring_gap_nm),
     ringGapSuggested: toLengthJson(

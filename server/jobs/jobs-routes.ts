@@ -31,6 +31,8 @@ import { moveHold } from './hold-move';
 import { sweepExpiredHolds } from './hold-expiry';
 import * as proposals from './proposal-service';
 import * as photos from './photos-service';
+import { undoCutInput } from '../../shared/cut-undo';
+import { undoCut } from './cut-undo-service';
 
 const COUNTER: Role[] = ['owner', 'machinist', 'staff'];
 const MACHINE: Role[] = ['owner', 'machinist'];
@@ -196,6 +198,15 @@ export function registerJobsRoutes(router: Router): void {
     body: cutInput,
     handler: ({ params, user, body }) =>
       sheets.markCut(user.id, params.id, params.n, user.unit, body),
+  });
+  route(router, {
+    method: 'post',
+    path: '/api/jobs/:id/cylinders/:n/cut/undo',
+    access: MACHINE,
+    params: cylinderParams,
+    body: undoCutInput,
+    handler: ({ params, user, body }) =>
+      undoCut({ id: user.id, role: user.role }, params.id, params.n, user.unit, body),
   });
 
   // ---- Holds ------------------------------------------------------------------------------------

@@ -66,6 +66,7 @@ const EXPECTED: Record<string, Access> = {
   'GET /api/jobs/:id/cylinders/:n/proposal': ['owner', 'machinist'],
   'GET /api/jobs/:id/cylinders/:n/bore-sheet': ['owner', 'machinist'],
   'POST /api/jobs/:id/cylinders/:n/cut': ['owner', 'machinist'],
+  'POST /api/jobs/:id/cylinders/:n/cut/undo': ['owner', 'machinist'],
   'POST /api/jobs/:id/holds': ['owner', 'machinist'],
   'DELETE /api/holds/:id': ['owner', 'machinist'],
   'POST /api/holds/:id/move': ['owner', 'machinist'],

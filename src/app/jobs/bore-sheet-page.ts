@@ -1,13 +1,15 @@
-import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
 import { toObservable, toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
+import { MatDialog } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { RouterLink } from '@angular/router';
-import { catchError, map, of, switchMap, tap } from 'rxjs';
+import { catchError, filter, map, of, switchMap, tap } from 'rxjs';
+
+import type { CutUndoJson } from '../../../shared/cut-undo';
 
 import {
   isOpenState,
@@ -20,9 +22,11 @@ import { apiErrorMessage } from '../core/api-error';
 import { LengthPipe } from '../core/length-pipe';
 import { Notifier } from '../core/notifier';
 import { Session } from '../core/session';
+import { CutDialog, type CutDialogData, type CutDialogResult } from './cut-dialog';
 import { JobsApi, type CylinderChanges } from './jobs-api';
+import { ShopDatePipe } from '../core/shop-date-pipe';
 
-type Loaded = { ok: true; sheet: BoreSheetJson } | { ok: false; message: string };
+type Loaded = { ok: true; sheet: BoreSheetJson & CutUndoJson } | { ok: false; message: string };
 
 /**
  * The sheet that goes to the boring machine: every size worked out from the held piston, the
@@ -31,7 +35,7 @@ type Loaded = { ok: true; sheet: BoreSheetJson } | { ok: false; message: string 
 @Component({
   selector: 'app-bore-sheet-page',
   imports: [
-    DatePipe,
+    ShopDatePipe,
     LengthPipe,
     MatButtonModule,
     MatFormFieldModule,
@@ -48,6 +52,7 @@ export class BoreSheetPage {
   private readonly api = inject(JobsApi);
   private readonly notifier = inject(Notifier);
   private readonly session = inject(Session);
+  private readonly dialog = inject(MatDialog);
 
   readonly id = input.required<string>();
   readonly n = input.required<string>();
@@ -125,14 +130,72 @@ export class BoreSheetPage {
     );
   }
 
+  /**
+   * Who may take the cut back from this page: the machinist who marked it, in the first minutes
+   * (until undoUntil), and the owner at any time with a reason. The server decides again.
+   */
+  protected readonly undo = computed((): { reasonNeeded: boolean } | null => {
+    const sheet = this.sheet();
+    const user = this.session.user();
+    if (!sheet?.cutAt || !user || sheet.measuredAfterHone || sheet.ringGapMeasured) return null;
+    const ownWindow =
+      sheet.cutBy?.id === user.id && !!sheet.undoUntil && Date.now() <= Date.parse(sheet.undoUntil);
+    if (ownWindow) return { reasonNeeded: false };
+    return user.role === 'owner' ? { reasonNeeded: true } : null;
+  });
+
+  private ask(data: CutDialogData) {
+    return this.dialog
+      .open<CutDialog, CutDialogData, CutDialogResult>(CutDialog, { data, autoFocus: 'dialog' })
+      .afterClosed()
+      .pipe(filter((answer): answer is { reason: string } => !!answer));
+  }
+
+  protected undoCut(): void {
+    const sheet = this.sheet();
+    const undo = this.undo();
+    if (!sheet || !undo || this.busy()) return;
+    this.ask({
+      mode: 'undo',
+      cylinder: sheet.cylinder,
+      pistonLabel: sheet.piston.label,
+      reasonNeeded: undo.reasonNeeded,
+    }).subscribe(({ reason }) => {
+      this.busy.set(true);
+      this.api.undoCut(sheet.job.id, sheet.cylinder, reason || undefined).subscribe({
+        next: () => {
+          this.busy.set(false);
+          this.notifier.success(`The cut of cylinder ${sheet.cylinder} is taken back.`);
+          this.reloads.update((n) => n + 1);
+        },
+        error: (error: unknown) => {
+          this.busy.set(false);
+          this.cutProblem.set(apiErrorMessage(error, { reason: 'The reason' }));
+        },
+      });
+    });
+  }
+
+  protected readonly cutProblem = signal('');
+
   protected markCut(): void {
     const sheet = this.sheet();
     if (!sheet || this.busy()) return;
     const reason = this.overrideText().trim();
     if (!sheet.cleanup.cleansUp && reason.length < 3) {
-      this.notifier.error('Say why the cylinder is cut although the bore does not clean up.');
+      this.cutProblem.set('Say why the cylinder is cut although the bore does not clean up.');
       return;
     }
+    this.cutProblem.set('');
+    this.ask({
+      mode: 'cut',
+      cylinder: sheet.cylinder,
+      pistonLabel: sheet.piston.label,
+      reasonNeeded: false,
+    }).subscribe(() => this.sendCut(sheet, reason));
+  }
+
+  private sendCut(sheet: BoreSheetJson, reason: string): void {
     this.busy.set(true);
     this.api
       .markCut(sheet.job.id, sheet.cylinder, sheet.cleanup.cleansUp ? undefined : reason)
@@ -145,7 +208,7 @@ export class BoreSheetPage {
         },
         error: (error: unknown) => {
           this.busy.set(false);
-          this.notifier.error(apiErrorMessage(error));
+          this.cutProblem.set(apiErrorMessage(error, { overrideReason: 'The reason' }));
         },
       });
   }

@@ -2,6 +2,7 @@ import { HttpClient, HttpParams } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
 import { map, Observable } from 'rxjs';
 
+import type { CutUndoJson } from '../../../shared/cut-undo';
 import type { FamilyJson } from '../../../shared/catalog-api';
 import type {
   BoreSheetJson,
@@ -131,8 +132,16 @@ export class JobsApi {
     return this.http.get<ProposalJson>(`${this.cylinder(id, n)}/proposal`);
   }
 
-  boreSheet(id: string, n: number): Observable<BoreSheetJson> {
-    return this.http.get<BoreSheetJson>(`${this.cylinder(id, n)}/bore-sheet`);
+  boreSheet(id: string, n: number): Observable<BoreSheetJson & CutUndoJson> {
+    return this.http.get<BoreSheetJson & CutUndoJson>(`${this.cylinder(id, n)}/bore-sheet`);
+  }
+
+  /** Takes back "marked as cut" (the cutter shortly after, or the owner with a reason). */
+  undoCut(id: string, n: number, reason?: string): Observable<CylinderJson> {
+    return this.http.post<CylinderJson>(
+      `${this.cylinder(id, n)}/cut/undo`,
+      reason ? { reason } : {},
+    );
   }
 
   /** The reason is needed, and kept with the cylinder, only when the bore does not clean up. */
