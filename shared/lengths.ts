@@ -248,3 +248,22 @@ function assertNm(nm: Nm): void {
 function fail(message: string): ParsedLength {
   return { ok: false, message };
 }
+
+/**
+ * A size in the unit its list or series is defined in, with the reader's unit beside it when that
+ * differs: "+0.50 mm (0.0197 in)" for a metric step read by an inch shop. Each unit is read from
+ * its own exact string, so neither drifts.
+ */
+export function formatInSeriesUnit(
+  value: LengthJson,
+  seriesUnit: LengthUnit,
+  readerUnit: LengthUnit,
+  opts: { signed?: boolean } = {},
+): string {
+  const own = lengthJsonToNm(value, seriesUnit);
+  const sign = opts.signed && own > 0 ? '+' : own < 0 ? '−' : '';
+  const first = `${sign}${formatLengthCompact(Math.abs(own), seriesUnit)}`;
+  if (readerUnit === seriesUnit) return first;
+  const theirs = lengthJsonToNm(value, readerUnit);
+  return `${first} (${theirs < 0 ? '−' : ''}${formatLength(Math.abs(theirs), readerUnit)})`;
+}

@@ -24,7 +24,7 @@ export interface SessionUser {
 /** Body of a 200 from GET /api/session and POST /api/session. */
 export interface SessionResponse {
   user: SessionUser;
-  shop?: { name: string };
+  shop?: { name: string; timeZone?: string; locale?: string; currency?: string };
 }
 
 /** Shortest password a person may set; long passphrases beat clever symbols. */

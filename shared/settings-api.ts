@@ -8,6 +8,8 @@ export interface ShopSettingsJson {
   shopName: string;
   shopHours: string;
   timeZone: string;
+  /** How dates are written everywhere (day, month and year order, the clock), e.g. "en-GB". */
+  locale: string;
   holdExpiryDays: number;
   clearancePolicy: ClearancePolicy;
   /** A length with its unit, e.g. "0.020 in". */

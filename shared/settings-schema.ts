@@ -4,6 +4,7 @@ import { IANAZone } from 'luxon';
 import { z } from 'zod';
 
 import { STEP_POLICIES, type StepPolicy } from './bore-choice';
+import { DEFAULT_LOCALE, isShopLocale } from './dates';
 import { parseLength } from './lengths';
 import { isCurrencyCode, parseMoney } from './money';
 import { BAR_RESOLUTIONS, type BarResolution } from './pass-plan';
@@ -49,6 +50,11 @@ export const shopSettingsSchema = z
         (v) => IANAZone.isValidZone(v),
         'must be a time zone name such as "Europe/Paris" or "UTC"',
       ),
+    locale: z
+      .string()
+      .trim()
+      .max(35, atMost(35))
+      .refine(isShopLocale, 'must be a locale such as "en-GB" or "en-US"'),
     holdExpiryDays: z
       .number({ error: 'must be a whole number of days' })
       .int('must be a whole number of days')
@@ -95,6 +101,7 @@ export const DEFAULT_SETTINGS: ShopSettings = {
   shopName: 'Stepstock',
   shopHours: 'Mon–Fri 8:00–17:00',
   timeZone: 'UTC',
+  locale: DEFAULT_LOCALE,
   holdExpiryDays: 14,
   clearancePolicy: 'mid',
   maxCutPerPass: '0.020 in',

@@ -20,7 +20,15 @@ function logIn(req: Request, user: SessionUser): Promise<void> {
 
 async function sessionBody(user: SessionUser) {
   const settings = await getSettings();
-  return { user, shop: { name: settings.shopName, timeZone: settings.timeZone } };
+  return {
+    user,
+    shop: {
+      name: settings.shopName,
+      timeZone: settings.timeZone,
+      locale: settings.locale,
+      currency: settings.homeCurrency,
+    },
+  };
 }
 
 export function registerSessionRoutes(router: Router): void {

@@ -10,6 +10,7 @@ import { provideRouter, TitleStrategy, withComponentInputBinding } from '@angula
 
 import { routes } from './app.routes';
 import { PageTitle } from './core/page-title';
+import { provideShopDateAdapter } from './core/shop-date-adapter';
 import { unauthorizedInterceptor } from './core/unauthorized-interceptor';
 
 export const appConfig: ApplicationConfig = {
@@ -17,6 +18,8 @@ export const appConfig: ApplicationConfig = {
     provideBrowserGlobalErrorListeners(),
     provideRouter(routes, withComponentInputBinding()),
     { provide: TitleStrategy, useClass: PageTitle },
+    // One date pattern for every date field, from the shop's locale setting.
+    provideShopDateAdapter(),
     provideHttpClient(
       withInterceptors([unauthorizedInterceptor]),
       // The server sets the XSRF-TOKEN cookie and checks this header on every mutating request.

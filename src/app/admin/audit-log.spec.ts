@@ -13,6 +13,7 @@ import { MatSortHarness } from '@angular/material/sort/testing';
 import { MatTableHarness } from '@angular/material/table/testing';
 
 import type { AuditEventJson, AuditPageJson } from '../../../shared/audit-api';
+import { provideShopDateAdapter } from '../core/shop-date-adapter';
 import { AuditLog } from './audit-log';
 import { fieldChanges } from './audit-words';
 
@@ -55,7 +56,7 @@ describe('AuditLog', () => {
 
   beforeEach(async () => {
     TestBed.configureTestingModule({
-      providers: [provideHttpClient(), provideHttpClientTesting()],
+      providers: [provideHttpClient(), provideHttpClientTesting(), provideShopDateAdapter()],
     });
     http = TestBed.inject(HttpTestingController);
     fixture = TestBed.createComponent(AuditLog);
@@ -117,16 +118,19 @@ describe('AuditLog', () => {
     expect(request().request.params.toString()).toBe('dir=desc&page=1&pageSize=50');
   });
 
-  it('when a day range is typed, then it is sent as calendar days', async () => {
+  it("when a day range is typed in the shop's pattern, then it is sent as calendar days", async () => {
     await answer();
     const [from, to] = fixture.nativeElement.querySelectorAll(
-      'input[type=date]',
+      'input.mat-datepicker-input',
     ) as HTMLInputElement[];
-    from.value = '2027-03-01';
+    // No session loaded: the default locale en-GB writes the day first.
+    from.value = '01/03/2027';
+    from.dispatchEvent(new Event('input'));
     from.dispatchEvent(new Event('change'));
     await fixture.whenStable();
     request().flush(page([]));
-    to.value = '2027-03-31';
+    to.value = '31/03/2027';
+    to.dispatchEvent(new Event('input'));
     to.dispatchEvent(new Event('change'));
     await fixture.whenStable();
     const r = request();

@@ -1,4 +1,3 @@
-import { DatePipe } from '@angular/common';
 import {
   ChangeDetectionStrategy,
   Component,
@@ -10,6 +9,7 @@ import {
 } from '@angular/core';
 import { toObservable, toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
+import { MatDatepickerModule } from '@angular/material/datepicker';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
@@ -18,12 +18,15 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { MatSortModule, Sort } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
+import type { DateTime } from 'luxon';
 import { catchError, map, of, switchMap, tap } from 'rxjs';
 
 import type { AuditEventJson, AuditPageJson } from '../../../shared/audit-api';
 import { apiErrorMessage } from '../core/api-error';
+import { dayOf } from '../core/shop-date-adapter';
 import { AuditApi, type AuditListQuery } from './audit-api';
 import { actionWords, entityWords, fieldChanges, type FieldChange } from './audit-words';
+import { ShopDatePipe } from '../core/shop-date-pipe';
 
 type Loaded = { ok: true; page: AuditPageJson } | { ok: false; message: string };
 
@@ -33,8 +36,9 @@ const DAY = /^\d{4}-\d{2}-\d{2}$/;
 @Component({
   selector: 'app-audit-log',
   imports: [
-    DatePipe,
+    ShopDatePipe,
     MatButtonModule,
+    MatDatepickerModule,
     MatFormFieldModule,
     MatIconModule,
     MatInputModule,
@@ -144,6 +148,10 @@ export class AuditLog {
   protected onUser(user: string): void {
     this.userFilter.set(user);
     this.pageIndex.set(0);
+  }
+
+  protected day(value: DateTime | null): string {
+    return dayOf(value) ?? '';
   }
 
   protected onDay(which: 'from' | 'to', value: string): void {

@@ -14,6 +14,7 @@ const SETTINGS: ShopSettingsJson = {
   shopName: 'Quillfen Cylinder Works',
   shopHours: 'Mon–Fri 8–16',
   timeZone: 'UTC',
+  locale: 'en-GB',
   holdExpiryDays: 14,
   clearancePolicy: 'mid',
   maxCutPerPass: '0.020 in',
@@ -79,6 +80,8 @@ describe('SettingsPage', () => {
     req.flush({ ...SETTINGS, holdExpiryDays: 21 });
     await fixture.whenStable();
     expect(notifier.success).toHaveBeenCalledWith('Shop settings saved.');
+    // The session is asked again, so dates everywhere follow a changed locale at once.
+    http.expectOne('/api/session').flush({ user: null });
   });
 
   async function field(name: string): Promise<MatInputHarness> {
@@ -117,6 +120,7 @@ describe('SettingsPage', () => {
     expect(req.request.body.maxCutPerPass).toBe('0.5 in');
     req.flush({ ...SETTINGS, maxCutPerPass: '0.5 in' });
     await fixture.whenStable();
+    http.expectOne('/api/session').flush({ user: null });
   });
 
   it('when the server refuses a field, then its reason shows at that field in words, once, and no snack bar opens', async () => {

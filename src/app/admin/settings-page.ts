@@ -16,11 +16,13 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 
 import type { ShopSettingsJson } from '../../../shared/settings-api';
+import { formatShopDate, SHOP_LOCALES } from '../../../shared/dates';
 import { settingWarning } from '../../../shared/settings-ranges';
 import { shopSettingsSchema } from '../../../shared/settings-schema';
 import { apiErrorMessage, detailSentence } from '../core/api-error';
 import { controlError, placeApiErrors } from '../core/field-errors';
 import { Notifier } from '../core/notifier';
+import { Session } from '../core/session';
 import { SettingsApi } from './settings-api';
 
 type Key = keyof ShopSettingsJson;
@@ -58,6 +60,13 @@ export class SettingsPage {
   private readonly api = inject(SettingsApi);
   private readonly notifier = inject(Notifier);
   private readonly fb = inject(NonNullableFormBuilder);
+  private readonly session = inject(Session);
+
+  /** Each locale with the way it writes a sample day and time, so the choice is seen. */
+  protected readonly locales = SHOP_LOCALES.map((l) => ({
+    ...l,
+    sample: formatShopDate('2026-12-31T14:05:00Z', 'datetime', { locale: l.tag, timeZone: 'UTC' }),
+  }));
 
   protected readonly loading = signal(true);
   protected readonly saving = signal(false);
@@ -68,6 +77,7 @@ export class SettingsPage {
     shopName: ['', schemaRule('shopName')],
     shopHours: ['', schemaRule('shopHours')],
     timeZone: ['', schemaRule('timeZone')],
+    locale: ['en-GB', schemaRule('locale')],
     holdExpiryDays: [14, schemaRule('holdExpiryDays')],
     clearancePolicy: ['mid' as ShopSettingsJson['clearancePolicy'], schemaRule('clearancePolicy')],
     maxCutPerPass: ['', schemaRule('maxCutPerPass')],
@@ -136,6 +146,8 @@ export class SettingsPage {
         this.form.markAsPristine();
         this.saving.set(false);
         void this.notifier.success('Shop settings saved.');
+        // Dates everywhere follow the locale and time zone at once.
+        void this.session.load();
       },
       error: (e) => {
         this.saving.set(false);

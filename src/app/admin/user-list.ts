@@ -1,4 +1,3 @@
-import { DatePipe } from '@angular/common';
 import {
   ChangeDetectionStrategy,
   Component,
@@ -34,6 +33,7 @@ import {
   type UserRow,
   type UserSortField,
 } from './users-api';
+import { ShopDatePipe } from '../core/shop-date-pipe';
 
 type Loaded = { ok: true; page: UserPage } | { ok: false; message: string };
 
@@ -44,7 +44,7 @@ const SORTABLE: UserSortField[] = ['name', 'email', 'role', 'createdAt'];
   selector: 'app-user-list',
   imports: [
     MatTooltipModule,
-    DatePipe,
+    ShopDatePipe,
     MatButtonModule,
     MatIconModule,
     MatMenuModule,

@@ -1,4 +1,3 @@
-import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
 import { toObservable, toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
@@ -15,6 +14,7 @@ import type { AlertJson, AlertsPageJson, AlertState } from '../../../shared/aler
 import { apiErrorMessage } from '../core/api-error';
 import { Notifier } from '../core/notifier';
 import { AlertsApi, type MailMode } from './alerts-api';
+import { ShopDatePipe } from '../core/shop-date-pipe';
 
 type Loaded = { ok: true; page: AlertsPageJson } | { ok: false; message: string };
 
@@ -23,7 +23,7 @@ type Loaded = { ok: true; page: AlertsPageJson } | { ok: false; message: string 
   selector: 'app-alert-list',
   imports: [
     MatTooltipModule,
-    DatePipe,
+    ShopDatePipe,
     MatButtonModule,
     MatButtonToggleModule,
     MatIconModule,

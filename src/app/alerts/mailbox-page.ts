@@ -1,4 +1,3 @@
-import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
 import { toObservable, toSignal } from '@angular/core/rxjs-interop';
 import { HttpErrorResponse } from '@angular/common/http';
@@ -14,6 +13,7 @@ import { catchError, debounceTime, distinctUntilChanged, map, of, switchMap, tap
 import type { MailboxPageJson } from '../../../shared/mail-api';
 import { apiErrorMessage } from '../core/api-error';
 import { AlertsApi } from './alerts-api';
+import { ShopDatePipe } from '../core/shop-date-pipe';
 
 type Loaded =
   { ok: true; page: MailboxPageJson } | { ok: false; message: string; realSmtp: boolean };
@@ -22,7 +22,7 @@ type Loaded =
 @Component({
   selector: 'app-mailbox-page',
   imports: [
-    DatePipe,
+    ShopDatePipe,
     MatButtonModule,
     MatExpansionModule,
     MatFormFieldModule,

@@ -20,6 +20,11 @@ export class Session {
   /** The signed-in user, or null when nobody is (or the session has not been asked yet). */
   readonly user = computed(() => this.current()?.user ?? null);
   readonly shopName = computed(() => this.current()?.shop?.name || 'Stepstock');
+  /** How the shop writes dates, and the zone its times are shown in (shop settings). */
+  readonly locale = computed(() => this.current()?.shop?.locale || 'en-GB');
+  readonly timeZone = computed(() => this.current()?.shop?.timeZone || 'UTC');
+  /** The shop's home currency: stock is valued in it. */
+  readonly currency = computed(() => this.current()?.shop?.currency || 'EUR');
   readonly unit = computed(() => this.user()?.unit ?? 'mm');
 
   /**

@@ -1,4 +1,3 @@
-import { DatePipe } from '@angular/common';
 import {
   ChangeDetectionStrategy,
   Component,
@@ -23,6 +22,7 @@ import { ImportCommit } from './import-commit';
 import { ImportPreview } from './import-preview';
 import { ImportsApi } from './imports-api';
 import { STATUS_WORDS } from './import-words';
+import { ShopDatePipe } from '../core/shop-date-pipe';
 
 type Loaded =
   { state: 'loading' } | { state: 'ok'; entry: ImportJson } | { state: 'error'; message: string };
@@ -30,7 +30,14 @@ type Loaded =
 /** One list from the log: what it held and changed; a list read but not applied can be applied here. */
 @Component({
   selector: 'app-import-detail',
-  imports: [DatePipe, ImportCommit, ImportPreview, MatIconModule, MatProgressBarModule, RouterLink],
+  imports: [
+    ShopDatePipe,
+    ImportCommit,
+    ImportPreview,
+    MatIconModule,
+    MatProgressBarModule,
+    RouterLink,
+  ],
   template: `
     <section class="page">
       <nav class="crumbs no-print" aria-label="Breadcrumb">
@@ -53,10 +60,10 @@ type Loaded =
           </header>
           <p class="intro">
             <a [routerLink]="['/suppliers', e.supplierId]">{{ e.supplierName }}</a> · uploaded
-            {{ e.uploadedAt | date: 'd MMM y, HH:mm' }} by {{ e.uploadedBy?.name ?? '—' }} ·
+            {{ e.uploadedAt | shopDate: 'datetime' }} by {{ e.uploadedBy?.name ?? '—' }} ·
             {{ statusText(e.status) }}
             @if (e.committedAt) {
-              on {{ e.committedAt | date: 'd MMM y, HH:mm' }} by {{ e.committedBy?.name ?? '—' }}
+              on {{ e.committedAt | shopDate: 'datetime' }} by {{ e.committedBy?.name ?? '—' }}
             }
           </p>
           @if (e.failure) {

@@ -1,4 +1,3 @@
-import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
 import { toObservable, toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
@@ -14,6 +13,7 @@ import type { ImportLogEntryJson, ImportStatus } from '../../../shared/suppliers
 import { apiErrorMessage } from '../core/api-error';
 import { ImportsApi } from './imports-api';
 import { STATUS_WORDS } from './import-words';
+import { ShopDatePipe } from '../core/shop-date-pipe';
 
 type Loaded = { ok: true; page: Page<ImportLogEntryJson> } | { ok: false; message: string };
 
@@ -21,7 +21,7 @@ type Loaded = { ok: true; page: Page<ImportLogEntryJson> } | { ok: false; messag
 @Component({
   selector: 'app-import-log',
   imports: [
-    DatePipe,
+    ShopDatePipe,
     MatButtonModule,
     MatIconModule,
     MatPaginatorModule,

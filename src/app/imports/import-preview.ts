@@ -3,7 +3,7 @@ import { MatIconModule } from '@angular/material/icon';
 
 import { formatMoney } from '../../../shared/money';
 import type { ImportCountsJson, ImportJson } from '../../../shared/suppliers-api';
-import { LengthPipe } from '../core/length-pipe';
+import { SeriesLengthPipe } from '../core/series-length-pipe';
 import { describeDetected } from './import-words';
 
 interface CountTile {
@@ -28,7 +28,7 @@ const TILES: CountTile[] = [
 /** What a price list holds and what it would change: format, counts, price changes, errors, first rows. */
 @Component({
   selector: 'app-import-preview',
-  imports: [LengthPipe, MatIconModule],
+  imports: [MatIconModule, SeriesLengthPipe],
   templateUrl: './import-preview.html',
   styleUrl: './import-preview.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,

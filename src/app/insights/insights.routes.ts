@@ -1,5 +1,4 @@
 import { Routes } from '@angular/router';
-import { provideLuxonDateAdapter } from '@angular/material-luxon-adapter';
 
 import { roleGuard } from '../core/role-guard';
 import { provideInsightCharts } from './chart-setup';
@@ -7,25 +6,14 @@ import { provideInsightCharts } from './chart-setup';
 const OWNER = { roles: ['owner'] };
 const STOCK_SIDE = { roles: ['owner', 'buyer'] };
 
-/** Dates are typed and shown as YYYY-MM-DD: one form for every shop, whatever the locale. */
-const DAY_FORMATS = {
-  parse: { dateInput: ['yyyy-MM-dd', 'yyyy-M-d', 'D'] },
-  display: {
-    dateInput: 'yyyy-MM-dd',
-    monthYearLabel: 'LLL yyyy',
-    dateA11yLabel: 'DDD',
-    monthYearA11yLabel: 'LLLL yyyy',
-  },
-};
-
 /**
  * The owner's insights (what sells, what sits, ABC classes, where the shop ran short); the buyer
- * sees the stock side. Charts and the luxon date adapter load with these pages only.
+ * sees the stock side. Charts load with these pages only; dates follow the shop's one pattern (app.config.ts).
  */
 export const insightsRoutes: Routes = [
   {
     path: '',
-    providers: [provideInsightCharts(), provideLuxonDateAdapter(DAY_FORMATS)],
+    providers: [provideInsightCharts()],
     children: [
       { path: '', pathMatch: 'full', redirectTo: 'stock' },
       {

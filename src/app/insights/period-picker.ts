@@ -1,4 +1,13 @@
-import { ChangeDetectionStrategy, Component, effect, input, output, signal } from '@angular/core';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  computed,
+  effect,
+  inject,
+  input,
+  output,
+  signal,
+} from '@angular/core';
 import { FormControl, FormGroup, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDatepickerModule } from '@angular/material/datepicker';
@@ -6,7 +15,9 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { DateTime } from 'luxon';
 
+import { patternHint } from '../../../shared/dates';
 import { MAX_PERIOD_DAYS, daysBetween } from '../../../shared/insights-api';
+import { Session } from '../core/session';
 import type { DayRange } from './insights-api';
 
 interface Preset {
@@ -57,7 +68,10 @@ export class PeriodPicker {
   readonly period = input.required<DayRange>();
   readonly periodChange = output<DayRange>();
 
+  private readonly session = inject(Session);
   protected readonly presets = PERIOD_PRESETS;
+  /** How a day is typed here: the shop's one pattern, e.g. DD/MM/YYYY. */
+  protected readonly hint = computed(() => patternHint(this.session.locale()));
   protected readonly range = new FormGroup({
     start: new FormControl<DateTime | null>(null),
     end: new FormControl<DateTime | null>(null),

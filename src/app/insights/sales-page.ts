@@ -16,6 +16,7 @@ import {
   type Measure,
 } from './insights-charts';
 import { formatAmount, formatCount, formatShare } from './insights-format';
+import { ShopDatePipe } from '../core/shop-date-pipe';
 import { PeriodPicker } from './period-picker';
 
 /** The period in the address (?from&to), or the last twelve months. */
@@ -27,7 +28,14 @@ export function periodFrom(from: string | undefined, to: string | undefined): Da
 /** What sells: units, revenue and margin by family and step, month by month, and the best sellers. */
 @Component({
   selector: 'app-sales-page',
-  imports: [InsightChart, InsightPanel, MatButtonToggleModule, MatTableModule, PeriodPicker],
+  imports: [
+    InsightChart,
+    InsightPanel,
+    MatButtonToggleModule,
+    MatTableModule,
+    PeriodPicker,
+    ShopDatePipe,
+  ],
   templateUrl: './sales-page.html',
   styleUrl: './sales-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,

@@ -1,5 +1,4 @@
 import { ChangeDetectionStrategy, Component, computed, inject, input } from '@angular/core';
-import { DatePipe } from '@angular/common';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
 import { MatTableModule } from '@angular/material/table';
 import { Router } from '@angular/router';
@@ -10,6 +9,7 @@ import { InsightPanel } from './insight-panel';
 import { InsightsApi } from './insights-api';
 import { NO_FAMILY, stockValueChart } from './insights-charts';
 import { formatAmount, formatCount } from './insights-format';
+import { ShopDatePipe } from '../core/shop-date-pipe';
 
 export const MONTH_CHOICES = [6, 12, 18, 24] as const;
 
@@ -22,7 +22,7 @@ export function monthsFrom(text: string | undefined, fallback = 12): number {
 /** What sits: stock at moving average cost, turnover per family, and parts that have not moved. */
 @Component({
   selector: 'app-stock-page',
-  imports: [DatePipe, InsightChart, InsightPanel, MatButtonToggleModule, MatTableModule],
+  imports: [ShopDatePipe, InsightChart, InsightPanel, MatButtonToggleModule, MatTableModule],
   templateUrl: './stock-page.html',
   styleUrl: './stock-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,

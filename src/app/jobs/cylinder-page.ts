@@ -43,6 +43,7 @@ import { apiErrorMessage, apiFieldErrors, apiUnplacedMessage } from '../core/api
 import { LengthPipe } from '../core/length-pipe';
 import { Notifier } from '../core/notifier';
 import { Session } from '../core/session';
+import { ShopDatePipe } from '../core/shop-date-pipe';
 import { HoldDialog, type HoldDialogData } from './hold-dialog';
 import { JobsApi, type ReadingBody } from './jobs-api';
 
@@ -90,6 +91,7 @@ interface Preview {
     MatInputModule,
     MatProgressBarModule,
     RouterLink,
+    ShopDatePipe,
   ],
   templateUrl: './cylinder-page.html',
   styleUrl: './cylinder-page.scss',

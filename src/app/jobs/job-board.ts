@@ -1,4 +1,4 @@
-import { DatePipe, NgTemplateOutlet } from '@angular/common';
+import { NgTemplateOutlet } from '@angular/common';
 import {
   ChangeDetectionStrategy,
   Component,
@@ -30,6 +30,7 @@ import { waitingForWords } from '../../../shared/part-needs';
 import { apiErrorMessage } from '../core/api-error';
 import { Session } from '../core/session';
 import { JobsApi, type JobListQuery } from './jobs-api';
+import { ShopDatePipe } from '../core/shop-date-pipe';
 
 type Loaded = { ok: true; page: Page<JobListItemJson> } | { ok: false; message: string };
 
@@ -43,7 +44,7 @@ const BOARD_SIZE = 300;
 @Component({
   selector: 'app-job-board',
   imports: [
-    DatePipe,
+    ShopDatePipe,
     MatButtonModule,
     MatButtonToggleModule,
     MatFormFieldModule,

@@ -4,15 +4,18 @@ import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angula
 import { MatButtonModule } from '@angular/material/button';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
 import { MatCheckboxModule } from '@angular/material/checkbox';
+import { MatDatepickerModule } from '@angular/material/datepicker';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
 import { Router, RouterLink } from '@angular/router';
+import type { DateTime } from 'luxon';
 import { catchError, map, of } from 'rxjs';
 
 import type { FamilyJson } from '../../../shared/catalog-api';
 import type { CustomerListItemJson } from '../../../shared/api/customers';
+import { dueDateWarning, patternHint } from '../../../shared/dates';
 import { jobInput } from '../../../shared/jobs-api';
 import { apiErrorBody, apiErrorMessage, apiFieldErrors } from '../core/api-error';
 import { LengthPipe } from '../core/length-pipe';
@@ -21,6 +24,8 @@ import { CustomersApi } from '../customers/customers-api';
 import { CustomerSearch } from '../customers/customer-search';
 import { IntakeCustomerForm } from './intake-customer-form';
 import { IntakeCylinders } from './intake-cylinders';
+import { Session } from '../core/session';
+import { dayOf } from '../core/shop-date-adapter';
 import { JobsApi, type NewJob } from './jobs-api';
 
 const FIELDS = ['customerId', 'familyId', 'cylinders', 'askedFor', 'dueDate', 'notes'] as const;
@@ -53,6 +58,7 @@ type Families = { ok: true; items: FamilyJson[] } | { ok: false; message: string
     MatButtonModule,
     MatButtonToggleModule,
     MatCheckboxModule,
+    MatDatepickerModule,
     MatFormFieldModule,
     MatIconModule,
     MatInputModule,
@@ -70,13 +76,14 @@ export class JobIntake {
   private readonly router = inject(Router);
   private readonly notifier = inject(Notifier);
   private readonly fb = inject(NonNullableFormBuilder);
+  private readonly session = inject(Session);
 
   protected readonly quickAsks = QUICK_ASKS;
   protected readonly form = this.fb.group({
     familyId: ['', Validators.required],
     cylinders: [1, [Validators.required, Validators.min(1)]],
     askedFor: ['', Validators.maxLength(300)],
-    dueDate: [''],
+    dueDate: this.fb.control<DateTime | null>(null),
     notes: ['', Validators.maxLength(2000)],
     notifyCustomer: [true],
   });
@@ -94,6 +101,17 @@ export class JobIntake {
   protected readonly familiesError = computed(() => {
     const loaded = this.loadedFamilies();
     return loaded && !loaded.ok ? loaded.message : '';
+  });
+
+  /** How a date is typed here: the shop's one pattern. */
+  protected readonly datePattern = computed(() => patternHint(this.session.locale()));
+  private readonly dueDate = toSignal(this.form.controls.dueDate.valueChanges, {
+    initialValue: null,
+  });
+  /** A caution, not a refusal: a due date long past or far ahead is usually a typing slip. */
+  protected readonly dueWarning = computed(() => {
+    const day = dayOf(this.dueDate());
+    return day ? dueDateWarning(day, this.session.timeZone()) : null;
   });
 
   protected readonly familyId = toSignal(this.form.controls.familyId.valueChanges, {
@@ -182,7 +200,7 @@ export class JobIntake {
       familyId: v.familyId,
       cylinders: v.cylinders,
       askedFor: v.askedFor,
-      dueDate: v.dueDate || null,
+      dueDate: dayOf(v.dueDate),
       notes: v.notes,
       notifyCustomer: v.notifyCustomer,
     };

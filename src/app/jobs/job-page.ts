@@ -1,4 +1,3 @@
-import { DatePipe } from '@angular/common';
 import {
   ChangeDetectionStrategy,
   Component,
@@ -37,6 +36,7 @@ import { Session } from '../core/session';
 import { JobCloseDialog, type JobCloseData } from './job-close-dialog';
 import { JobsApi } from './jobs-api';
 import { makeThumbnail } from './make-thumbnail';
+import { ShopDatePipe } from '../core/shop-date-pipe';
 
 type Loaded = { ok: true; job: JobJson } | { ok: false; message: string };
 
@@ -44,7 +44,7 @@ type Loaded = { ok: true; job: JobJson } | { ok: false; message: string };
 @Component({
   selector: 'app-job-page',
   imports: [
-    DatePipe,
+    ShopDatePipe,
     LengthPipe,
     MatButtonModule,
     MatFormFieldModule,

@@ -1,19 +1,24 @@
-import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
 import { FormArray, FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatAutocompleteModule } from '@angular/material/autocomplete';
 import { MatButtonModule } from '@angular/material/button';
+import { MatDatepickerModule } from '@angular/material/datepicker';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
 import { MatTooltipModule } from '@angular/material/tooltip';
 import { Router, RouterLink } from '@angular/router';
+import type { DateTime } from 'luxon';
 import { catchError, map, of } from 'rxjs';
 
 import type { PartJson } from '../../../shared/catalog-api';
+import { patternHint } from '../../../shared/dates';
 import { apiErrorMessage } from '../core/api-error';
 import { Notifier } from '../core/notifier';
+import { Session } from '../core/session';
+import { dayOf } from '../core/shop-date-adapter';
 import { PurchasingApi } from './purchasing-api';
 
 type LineGroup = FormGroup<{
@@ -31,6 +36,7 @@ const MONEY = /^\d{1,10}(\.\d{1,4})?$/;
     MatTooltipModule,
     MatAutocompleteModule,
     MatButtonModule,
+    MatDatepickerModule,
     MatFormFieldModule,
     MatIconModule,
     MatInputModule,
@@ -46,6 +52,8 @@ export class OrderForm {
   private readonly api = inject(PurchasingApi);
   private readonly notifier = inject(Notifier);
   private readonly router = inject(Router);
+  private readonly session = inject(Session);
+  protected readonly datePattern = computed(() => patternHint(this.session.locale()));
 
   protected readonly suppliers = toSignal(
     this.api.suppliers().pipe(
@@ -60,7 +68,7 @@ export class OrderForm {
 
   protected readonly form = new FormGroup({
     supplierId: new FormControl('', { nonNullable: true, validators: [Validators.required] }),
-    expectedOn: new FormControl<string | null>(null),
+    expectedOn: new FormControl<DateTime | null>(null),
     notes: new FormControl('', { nonNullable: true, validators: [Validators.maxLength(2000)] }),
     shipping: new FormControl('', { nonNullable: true, validators: [Validators.pattern(MONEY)] }),
     lines: new FormArray<LineGroup>([this.line()]),
@@ -118,7 +126,7 @@ export class OrderForm {
     this.api
       .createOrder({
         supplierId: v.supplierId,
-        expectedOn: v.expectedOn || null,
+        expectedOn: dayOf(v.expectedOn),
         notes: v.notes,
         ...(v.shipping.trim() === '' ? {} : { shipping: v.shipping.trim() }),
         lines: v.lines.map((l) => ({

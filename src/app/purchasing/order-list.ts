@@ -1,4 +1,3 @@
-import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
 import { toObservable, toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
@@ -23,6 +22,7 @@ import {
 import { apiErrorMessage } from '../core/api-error';
 import { Session } from '../core/session';
 import { PurchasingApi } from './purchasing-api';
+import { ShopDatePipe } from '../core/shop-date-pipe';
 
 type Loaded = { ok: true; page: Page<OrderListItemJson> } | { ok: false; message: string };
 const SORTABLE = ['number', 'createdAt', 'expectedOn', 'supplier', 'state'] as const;
@@ -31,7 +31,7 @@ const SORTABLE = ['number', 'createdAt', 'expectedOn', 'supplier', 'state'] as c
 @Component({
   selector: 'app-order-list',
   imports: [
-    DatePipe,
+    ShopDatePipe,
     MatButtonModule,
     MatFormFieldModule,
     MatIconModule,

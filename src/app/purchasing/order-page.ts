@@ -1,4 +1,3 @@
-import { DatePipe } from '@angular/common';
 import {
   ChangeDetectionStrategy,
   Component,
@@ -21,6 +20,7 @@ import { apiErrorMessage, apiFieldErrors, apiUnplacedMessage } from '../core/api
 import { Notifier } from '../core/notifier';
 import { Session } from '../core/session';
 import { PurchasingApi } from './purchasing-api';
+import { ShopDatePipe } from '../core/shop-date-pipe';
 
 interface LineEdit {
   quantity: number;
@@ -34,7 +34,7 @@ interface LineEdit {
 @Component({
   selector: 'app-order-page',
   imports: [
-    DatePipe,
+    ShopDatePipe,
     FormsModule,
     MatButtonModule,
     MatFormFieldModule,

@@ -1,4 +1,3 @@
-import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
 import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
@@ -14,13 +13,14 @@ import { apiErrorMessage, apiFieldErrors } from '../core/api-error';
 import { Notifier } from '../core/notifier';
 import { Session } from '../core/session';
 import { PurchasingApi } from './purchasing-api';
+import { ShopDatePipe } from '../core/shop-date-pipe';
 
 /** The rates the owner keeps to land foreign prices in the home currency; buyers read them. */
 @Component({
   selector: 'app-rates-page',
   imports: [
     MatTooltipModule,
-    DatePipe,
+    ShopDatePipe,
     MatButtonModule,
     MatFormFieldModule,
     MatIconModule,

@@ -1,8 +1,8 @@
-import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, effect, inject, input, signal } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
 import { FormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
+import { MatDatepickerModule } from '@angular/material/datepicker';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
@@ -10,12 +10,15 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { MatTableModule } from '@angular/material/table';
 import { Router, RouterLink } from '@angular/router';
+import type { DateTime } from 'luxon';
 import { catchError, map, of } from 'rxjs';
 
 import type { LadderStepJson } from '../../../shared/catalog-api';
 import type { SourcingJson } from '../../../shared/purchasing-api';
 import { apiErrorMessage } from '../core/api-error';
+import { dayOf } from '../core/shop-date-adapter';
 import { PurchasingApi } from './purchasing-api';
+import { ShopDatePipe } from '../core/shop-date-pipe';
 
 /**
  * Who still has a part, or the pistons of a family's step: every supplier's offer landed here in
@@ -25,9 +28,10 @@ import { PurchasingApi } from './purchasing-api';
 @Component({
   selector: 'app-sourcing-page',
   imports: [
-    DatePipe,
+    ShopDatePipe,
     FormsModule,
     MatButtonModule,
+    MatDatepickerModule,
     MatFormFieldModule,
     MatIconModule,
     MatInputModule,
@@ -64,6 +68,9 @@ export class SourcingPage {
   protected chosenStep = '';
   protected wanted = 1;
   protected byDate = '';
+  protected day(value: DateTime | null): string {
+    return dayOf(value) ?? '';
+  }
 
   protected readonly result = signal<SourcingJson | null>(null);
   protected readonly loading = signal(false);

@@ -9,7 +9,6 @@ import {
   signal,
 } from '@angular/core';
 import { toObservable, toSignal } from '@angular/core/rxjs-interop';
-import { DatePipe } from '@angular/common';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -35,6 +34,7 @@ import { AdjustDialog } from './adjust-dialog';
 import { MoveDialog, type MoveTarget } from './move-dialog';
 import { StockApi } from './stock-api';
 import { KIND_WORDS } from './stock-words';
+import { ShopDatePipe } from '../core/shop-date-pipe';
 
 type Loaded = { ok: true; page: Page<LedgerJson> } | { ok: false; message: string };
 
@@ -42,7 +42,7 @@ type Loaded = { ok: true; page: Page<LedgerJson> } | { ok: false; message: strin
 @Component({
   selector: 'app-ledger-list',
   imports: [
-    DatePipe,
+    ShopDatePipe,
     MatButtonModule,
     MatFormFieldModule,
     MatIconModule,

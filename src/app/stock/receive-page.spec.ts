@@ -77,7 +77,9 @@ describe('ReceivePage', () => {
     });
     http = TestBed.inject(HttpTestingController);
     const loading = TestBed.inject(Session).load();
-    http.expectOne('/api/session').flush({ user: STAFF });
+    http
+      .expectOne('/api/session')
+      .flush({ user: STAFF, shop: { name: 'Invented Bore Works', currency: 'GBP' } });
     await loading;
     fixture = TestBed.createComponent(ReceivePage);
     loader = TestbedHarnessEnvironment.loader(fixture);
@@ -139,9 +141,10 @@ describe('ReceivePage', () => {
       holds: [],
     });
     await fixture.whenStable();
-    expect((fixture.nativeElement as HTMLElement).querySelector('.done')?.textContent).toContain(
-      '2 × TR-2-PC-010',
-    );
+    const done = (fixture.nativeElement as HTMLElement).querySelector('.done')?.textContent;
+    expect(done).toContain('2 × TR-2-PC-010');
+    // The average cost says its currency: the shop's home currency.
+    expect(done).toContain('(average cost 41.00 GBP)');
   });
 
   it('when the answer carries no average cost (staff may not see costs), then the receipt still shows what came in', async () => {

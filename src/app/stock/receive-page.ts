@@ -36,6 +36,7 @@ import {
   type BinJson,
   type DeskReceiptJson,
 } from '../../../shared/stock-api';
+import { formatMoney } from '../../../shared/money';
 import { apiErrorMessage, apiFieldErrors } from '../core/api-error';
 import { placeApiErrors } from '../core/field-errors';
 import { LengthPipe } from '../core/length-pipe';
@@ -90,6 +91,10 @@ export class ReceivePage {
   readonly partId = input<string>();
 
   protected readonly unit = this.session.unit;
+  /** Stock is valued in the shop's home currency. */
+  protected money(amount: string): string {
+    return formatMoney(amount, this.session.currency());
+  }
   protected readonly part = signal<PartDetailJson | null>(null);
   protected readonly partLoading = signal(false);
   protected readonly isPiston = computed(() => this.part()?.kind === 'piston');

@@ -8,7 +8,6 @@ import {
   signal,
 } from '@angular/core';
 import { toObservable, toSignal } from '@angular/core/rxjs-interop';
-import { DatePipe } from '@angular/common';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -46,6 +45,7 @@ import { MoveDialog, type MoveTarget } from './move-dialog';
 import { ScrapDialog } from './scrap-dialog';
 import { StockApi, type UnitQuery } from './stock-api';
 import { STATUS_LABELS } from './stock-words';
+import { ShopDatePipe } from '../core/shop-date-pipe';
 
 type Loaded = { ok: true; page: Page<UnitJson> } | { ok: false; message: string };
 type StatusFilter = UnitStatus | 'on-shelf' | '';
@@ -55,7 +55,7 @@ type StatusFilter = UnitStatus | 'on-shelf' | '';
   selector: 'app-unit-list',
   imports: [
     MatTooltipModule,
-    DatePipe,
+    ShopDatePipe,
     LengthPipe,
     MatButtonModule,
     MatFormFieldModule,

@@ -1,4 +1,3 @@
-import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MAT_DIALOG_DATA, MatDialogModule } from '@angular/material/dialog';
@@ -10,6 +9,7 @@ import { formatMoney } from '../../../shared/money';
 import type { PriceHistoryJson, SupplierItemJson } from '../../../shared/suppliers-api';
 import { apiErrorMessage } from '../core/api-error';
 import { SuppliersApi } from './suppliers-api';
+import { ShopDatePipe } from '../core/shop-date-pipe';
 
 export interface PriceHistoryData {
   supplierId: string;
@@ -19,7 +19,7 @@ export interface PriceHistoryData {
 /** Every price an item has had, newest first, with the list that brought each one. */
 @Component({
   selector: 'app-price-history-dialog',
-  imports: [DatePipe, MatButtonModule, MatDialogModule, MatIconModule, MatProgressBarModule],
+  imports: [ShopDatePipe, MatButtonModule, MatDialogModule, MatIconModule, MatProgressBarModule],
   template: `
     <h2 mat-dialog-title>Price history of {{ data.item.sku }}</h2>
     <mat-dialog-content>
@@ -50,7 +50,7 @@ export interface PriceHistoryData {
           <tbody>
             @for (row of rows(); track row.effectiveFrom; let i = $index) {
               <tr>
-                <td>{{ row.effectiveFrom | date: 'd MMM y, HH:mm' }}</td>
+                <td>{{ row.effectiveFrom | shopDate: 'datetime' }}</td>
                 <td class="num">{{ money(row.price, row.currency) }}</td>
                 <td class="num">{{ change(i) }}</td>
                 <td>{{ row.fileName ?? '—' }}</td>

@@ -1,4 +1,3 @@
-import { DatePipe } from '@angular/common';
 import {
   ChangeDetectionStrategy,
   Component,
@@ -40,6 +39,7 @@ import { LengthPipe } from '../core/length-pipe';
 import { Session } from '../core/session';
 import { PriceHistoryDialog, type PriceHistoryData } from './price-history-dialog';
 import { SuppliersApi, type ItemQuery } from './suppliers-api';
+import { ShopDatePipe } from '../core/shop-date-pipe';
 
 type LoadedItems = { ok: true; page: Page<SupplierItemJson> } | { ok: false; message: string };
 type LoadedSupplier =
@@ -52,7 +52,7 @@ const SORTABLE = ['sku', 'description', 'size', 'price', 'available', 'updated']
 @Component({
   selector: 'app-supplier-detail',
   imports: [
-    DatePipe,
+    ShopDatePipe,
     LengthPipe,
     MatButtonModule,
     MatFormFieldModule,

@@ -1,4 +1,3 @@
-import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, inject } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -15,6 +14,7 @@ import type { SupplierJson } from '../../../shared/suppliers-api';
 import { Session } from '../core/session';
 import { PagedList } from '../ui/paged-list';
 import { SuppliersApi } from './suppliers-api';
+import { ShopDatePipe } from '../core/shop-date-pipe';
 
 const SORTABLE = ['name', 'currency', 'leadDays', 'items', 'lastImport'] as const;
 
@@ -23,7 +23,7 @@ const SORTABLE = ['name', 'currency', 'leadDays', 'items', 'lastImport'] as cons
   selector: 'app-supplier-list',
   imports: [
     MatTooltipModule,
-    DatePipe,
+    ShopDatePipe,
     MatButtonModule,
     MatFormFieldModule,
     MatIconModule,
