@@ -88,7 +88,11 @@ describe('taking in a job with a due date far ahead', () => {
     const page = env.page;
     await as('staff');
     await page.goto(`${env.baseUrl}/jobs/new`);
+    await page.getByRole('button', { name: 'New customer' }).click();
     await page.getByLabel('Customer name').fill('Lorcan Thistlewood');
+    await page.getByLabel('Phone').fill('555 0142');
+    await page.getByRole('button', { name: 'Add the customer' }).click();
+    await page.getByRole('link', { name: 'Lorcan Thistlewood' }).waitFor();
     await page.getByLabel('Engine family').click();
     await page.getByRole('option').first().click();
     await page.getByLabel('Wanted by').fill('01/01/2099');

@@ -167,8 +167,9 @@ describe('ImportUpload', () => {
     );
     const errors = element.querySelector('[data-testid=import-errors]')?.textContent ?? '';
     expect(errors).toContain('The price "-1,00" is negative.');
+    // In the list's own unit, as the list wrote it ("54,25 mm").
     expect(element.querySelector('[data-testid=import-sample]')?.textContent).toContain(
-      '54.250 mm',
+      '54.25 mm',
     );
   });
 
