@@ -76,7 +76,7 @@ describe('Home', () => {
     const first = due.querySelector('a.item')!;
     expect(first.getAttribute('href')).toBe('/jobs/job-1');
     expect(first.textContent).toContain('J-260001');
-    expect(first.textContent).toContain('Overdue since Tue 1 Dec 2026');
+    expect(first.textContent).toContain('Overdue since Tue 01/12/2026');
     expect(due.querySelectorAll('a.item')).toHaveLength(5);
     expect(due.querySelector('.more')?.textContent?.replace(/\s+/g, ' ').trim()).toBe('and 2 more');
     const parts = element.querySelector('[aria-labelledby="home-waitingForParts"]')!;
@@ -127,7 +127,7 @@ describe('Home', () => {
     );
     const order = element.querySelector('[aria-labelledby="home-ordersArriving"] a.item')!;
     expect(order.getAttribute('href')).toBe('/purchasing/orders/o1');
-    expect(order.querySelector('.late')?.textContent).toContain('Expected Tue 1 Dec 2026, late');
+    expect(order.querySelector('.late')?.textContent).toContain('Expected Tue 01/12/2026, late');
     expect(order.textContent).toContain('6 to come');
   });
 

@@ -1,4 +1,3 @@
-import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, inject } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
@@ -7,6 +6,7 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { RouterLink } from '@angular/router';
 import { catchError, map, of, startWith } from 'rxjs';
 
+import { ShopDatePipe } from '../core/shop-date-pipe';
 import {
   HOME_SECTIONS_BY_ROLE,
   type HomeAlertJson,
@@ -84,7 +84,7 @@ interface Section {
 /** The first page after sign-in: the day's work for the person's role, each list linking on. */
 @Component({
   selector: 'app-home',
-  imports: [DatePipe, MatButtonModule, MatIconModule, MatProgressBarModule, RouterLink],
+  imports: [ShopDatePipe, MatButtonModule, MatIconModule, MatProgressBarModule, RouterLink],
   templateUrl: './home.html',
   styleUrl: './home.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,

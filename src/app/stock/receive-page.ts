@@ -1,4 +1,3 @@
-import { DatePipe } from '@angular/common';
 import {
   ChangeDetectionStrategy,
   Component,
@@ -28,6 +27,7 @@ import { MatSelectModule } from '@angular/material/select';
 import { RouterLink } from '@angular/router';
 import { catchError, map, of } from 'rxjs';
 
+import { ShopDatePipe } from '../core/shop-date-pipe';
 import type { PartDetailJson, PartJson } from '../../../shared/catalog-api';
 import { formatLength, mmToNm, parseLength } from '../../../shared/lengths';
 import type { OpenLineJson } from '../../../shared/purchasing-api';
@@ -63,7 +63,7 @@ const NO_ORDER = '';
 @Component({
   selector: 'app-receive-page',
   imports: [
-    DatePipe,
+    ShopDatePipe,
     LengthPipe,
     MatButtonModule,
     MatCheckboxModule,
