@@ -199,9 +199,14 @@ export async function listItems(
   }
   if (opts.dropped !== undefined) base.where('i.dropped', opts.dropped);
   if (opts.q) {
+    // Every test on supplier_items itself (the part's SKU through a sub-select), so each one can
+    // use its trigram index and the planner combines them instead of reading every item.
     const like = containsPattern(opts.q.trim());
     base.where((w) =>
-      w.whereILike('i.sku', like).orWhereILike('i.description', like).orWhereILike('p.sku', like),
+      w
+        .whereILike('i.sku', like)
+        .orWhereILike('i.description', like)
+        .orWhereIn('i.part_id', k('parts').select('id').whereILike('sku', like)),
     );
   }
   const [{ count }] = await base.clone().count<{ count: number }[]>('* as count');

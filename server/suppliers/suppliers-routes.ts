@@ -11,6 +11,7 @@ import {
   supplierInput,
   supplierPatch,
 } from '../../shared/suppliers-api';
+import { withHeavyListSlot } from '../http/heavy-gate';
 import * as service from './suppliers-service';
 
 export const SUPPLIER_EDITORS: Role[] = ['owner', 'buyer'];
@@ -77,7 +78,7 @@ export function registerSuppliersRoutes(router: Router): void {
     access: SUPPLIER_READERS,
     params: idParams,
     query: itemsQuery,
-    handler: ({ params, query }) => service.listItems(params.id, query),
+    handler: ({ params, query }) => withHeavyListSlot(() => service.listItems(params.id, query)),
   });
   route(router, {
     method: 'get',
@@ -92,7 +93,7 @@ export function registerSuppliersRoutes(router: Router): void {
     path: '/api/supplier-items/unmapped',
     access: SUPPLIER_READERS,
     query: unmappedQuery,
-    handler: ({ query }) => service.listUnmapped(query),
+    handler: ({ query }) => withHeavyListSlot(() => service.listUnmapped(query)),
   });
   route(router, {
     method: 'patch',
