@@ -66,9 +66,45 @@ export interface AuditEventJson {
   after: unknown;
 }
 
+/** Fields of a recorded before/after that name another record, and the kind of record. */
+export const AUDIT_ID_FIELDS: Record<string, string> = {
+  jobId: 'job',
+  partId: 'part',
+  unitId: 'piston_unit',
+  customerId: 'customer',
+  supplierId: 'supplier',
+  orderId: 'purchase_order',
+  familyId: 'engine_family',
+  binId: 'bin',
+  toBinId: 'bin',
+  fromBinId: 'bin',
+  userId: 'user',
+  holdId: 'hold',
+  lineId: 'order_line',
+  stepSeriesId: 'step_series',
+};
+
+/** A record the trail names, as people know it, with the page that shows it (if any). */
+export interface AuditRefJson {
+  kind: string;
+  id: string;
+  /** Job number, SKU, piston label, code or name. */
+  label: string;
+  /** The app page that shows it, and its query (a piston's movements), or null for none. */
+  link: string | null;
+  query?: Record<string, string>;
+}
+
+/** The key of a record in AuditPageJson.refs. */
+export function auditRefKey(kind: string, id: string): string {
+  return `${kind}:${id}`;
+}
+
 export interface AuditPageJson {
   items: AuditEventJson[];
   total: number;
+  /** Every record this page names (the record changed and the ids in its fields), by auditRefKey. */
+  refs: Record<string, AuditRefJson>;
   /** What the filters can offer: every entity and every person that appears in the trail. */
   facets: { entities: string[]; users: AuditActorJson[] };
 }

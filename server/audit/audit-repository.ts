@@ -82,3 +82,43 @@ export async function auditActors(
     .select('u.id', 'u.name', 'u.email')
     .orderBy('u.name');
 }
+
+/** A record the trail names by id, read as people know it: its number, SKU, label or name. */
+export interface RefRow {
+  id: string;
+  label: string;
+  /** For a hold: the job it is for, and its cylinder. */
+  job_id?: string;
+  cylinder?: number;
+  /** For an order line: the order it is on. */
+  order_id?: string;
+}
+
+const REF_SQL: Record<string, string> = {
+  job: `SELECT id::text, number AS label FROM jobs WHERE id::text = ANY(?)`,
+  part: `SELECT id::text, sku AS label FROM parts WHERE id::text = ANY(?)`,
+  piston_unit: `SELECT id::text, label FROM piston_units WHERE id::text = ANY(?)`,
+  customer: `SELECT id::text, name AS label FROM customers WHERE id::text = ANY(?)`,
+  supplier: `SELECT id::text, name AS label FROM suppliers WHERE id::text = ANY(?)`,
+  purchase_order: `SELECT id::text, number AS label FROM purchase_orders WHERE id::text = ANY(?)`,
+  engine_family: `SELECT id::text, code AS label FROM engine_families WHERE id::text = ANY(?)`,
+  bin: `SELECT id::text, code AS label FROM bins WHERE id::text = ANY(?)`,
+  user: `SELECT id::text, name AS label FROM users WHERE id::text = ANY(?)`,
+  step_series: `SELECT id::text, name AS label FROM step_series WHERE id::text = ANY(?)`,
+  order_line: `SELECT l.id::text, o.number || ' line ' || l.line_no AS label, o.id::text AS order_id
+                 FROM purchase_order_lines l JOIN purchase_orders o ON o.id = l.order_id
+                WHERE l.id::text = ANY(?)`,
+  hold: `SELECT h.id::text, j.number AS label, j.id::text AS job_id, h.cylinder
+           FROM holds h JOIN jobs j ON j.id = h.job_id WHERE h.id::text = ANY(?)`,
+};
+
+/** The kinds of record the trail can name. */
+export const REF_KINDS = Object.keys(REF_SQL);
+
+/** Labels for the given ids of one kind (ids compared as text: the trail keeps them as text). */
+export async function refLabels(kind: string, ids: string[], k: Knex = db): Promise<RefRow[]> {
+  const sql = REF_SQL[kind];
+  if (!sql || ids.length === 0) return [];
+  const result = await k.raw<{ rows: RefRow[] }>(sql, [ids]);
+  return result.rows;
+}

@@ -4,6 +4,7 @@ import { DateTime, IANAZone } from 'luxon';
 import { getSettings } from '../settings/settings-service';
 import type { AuditPageJson, AuditQuery } from '../../shared/audit-api';
 import { auditActors, auditEntities, listAudit, type AuditRow } from './audit-repository';
+import { auditReferences } from './audit-references';
 
 function json(row: AuditRow) {
   return {
@@ -40,5 +41,10 @@ export async function browseAudit(query: AuditQuery): Promise<AuditPageJson> {
     auditEntities(),
     auditActors(),
   ]);
-  return { items: page.rows.map(json), total: page.total, facets: { entities, users } };
+  return {
+    items: page.rows.map(json),
+    total: page.total,
+    refs: await auditReferences(page.rows),
+    facets: { entities, users },
+  };
 }

@@ -17,6 +17,8 @@ failOnPageErrors();
 jest.setTimeout(180_000);
 
 let env: Awaited<ReturnType<typeof e2eEnvironment>>;
+/** The order the receiving test takes in, for the audit-trail test after it. */
+let received: { id: string; number: string } | null = null;
 
 beforeAll(async () => {
   env = await e2eEnvironment();
@@ -178,5 +180,26 @@ describe('one receiving page', () => {
     await screenshotAtWidths(page, 'counts-receive-done');
     const stored = await get<{ state: string }>(page, `/api/purchase-orders/${order.id}`);
     expect(stored.state).toBe('all_in');
+    received = order;
+  });
+});
+
+describe('the audit trail names records', () => {
+  it('when the owner opens the trail of that order, then it reads by order number and SKU with links, not raw ids', async () => {
+    expect(received).not.toBeNull();
+    const page = env.page;
+    await page.context().clearCookies();
+    await signIn(page, env.baseUrl, DEMO.owner);
+    await page.goto(
+      `${env.baseUrl}/admin/audit?entity=purchase_order&entityId=${received?.id ?? ''}`,
+    );
+    const link = page.locator('td a.ref', { hasText: received?.number ?? '' }).first();
+    await link.waitFor();
+    expect(await link.getAttribute('href')).toBe(`/purchasing/orders/${received?.id ?? ''}`);
+    // The drafted order names its supplier by name, not by id.
+    const table = await page.locator('table').innerText();
+    expect(table).not.toContain(received?.id ?? 'no id');
+    await screenshotAtWidths(page, 'counts-audit-trail');
+    expect(await seriousA11yViolations(page)).toEqual([]);
   });
 });

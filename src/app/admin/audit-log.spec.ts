@@ -11,6 +11,7 @@ import { MatButtonHarness } from '@angular/material/button/testing';
 import { MatSelectHarness } from '@angular/material/select/testing';
 import { MatSortHarness } from '@angular/material/sort/testing';
 import { MatTableHarness } from '@angular/material/table/testing';
+import { provideRouter } from '@angular/router';
 
 import type { AuditEventJson, AuditPageJson } from '../../../shared/audit-api';
 import { provideShopDateAdapter } from '../core/shop-date-adapter';
@@ -41,10 +42,11 @@ const RECEIPT: AuditEventJson = {
   after: { onHand: 4, quantity: 4 },
 };
 
-function page(items: AuditEventJson[]): AuditPageJson {
+function page(items: AuditEventJson[], refs: AuditPageJson['refs'] = {}): AuditPageJson {
   return {
     items,
     total: items.length,
+    refs,
     facets: { entities: ['part', 'user'], users: [OWNER, BUYER] },
   };
 }
@@ -56,7 +58,12 @@ describe('AuditLog', () => {
 
   beforeEach(async () => {
     TestBed.configureTestingModule({
-      providers: [provideHttpClient(), provideHttpClientTesting(), provideShopDateAdapter()],
+      providers: [
+        provideRouter([]),
+        provideHttpClient(),
+        provideHttpClientTesting(),
+        provideShopDateAdapter(),
+      ],
     });
     http = TestBed.inject(HttpTestingController);
     fixture = TestBed.createComponent(AuditLog);
@@ -160,6 +167,143 @@ describe('AuditLog', () => {
     await fixture.whenStable();
     await answer([]);
     expect(fixture.nativeElement.textContent).toContain('Nothing has been changed yet.');
+  });
+});
+
+describe('AuditLog names the records a change is about', () => {
+  const JOB = 'a0000000-0000-4000-8000-0000000000j1';
+  const UNIT = 'a0000000-0000-4000-8000-0000000000u1';
+  const PART = 'a0000000-0000-4000-8000-0000000000p1';
+  const HOLD = 'a0000000-0000-4000-8000-0000000000h1';
+  const HELD: AuditEventJson = {
+    id: 30,
+    at: '2027-03-14T10:00:00.000Z',
+    user: OWNER,
+    action: 'hold.create',
+    entity: 'hold',
+    entityId: HOLD,
+    before: null,
+    after: { jobId: JOB, cylinder: 2, unitId: UNIT, partId: PART },
+  };
+
+  it('when the server names the ids, then the record and its fields read as job number, label and SKU, each linked to its page', async () => {
+    TestBed.configureTestingModule({
+      providers: [
+        provideRouter([]),
+        provideHttpClient(),
+        provideHttpClientTesting(),
+        provideShopDateAdapter(),
+      ],
+    });
+    const http = TestBed.inject(HttpTestingController);
+    const fixture = TestBed.createComponent(AuditLog);
+    await fixture.whenStable();
+    http
+      .expectOne((r) => r.url === '/api/audit')
+      .flush(
+        page([HELD], {
+          [`hold:${HOLD}`]: {
+            kind: 'hold',
+            id: HOLD,
+            label: 'job CY-2703-0012, cylinder 2',
+            link: `/jobs/${JOB}`,
+          },
+          [`job:${JOB}`]: { kind: 'job', id: JOB, label: 'CY-2703-0012', link: `/jobs/${JOB}` },
+          [`piston_unit:${UNIT}`]: {
+            kind: 'piston_unit',
+            id: UNIT,
+            label: 'PU-000031',
+            link: '/stock/ledger',
+            query: { unitId: UNIT },
+          },
+          [`part:${PART}`]: {
+            kind: 'part',
+            id: PART,
+            label: 'BT-72-PC-025',
+            link: `/catalog/parts/${PART}`,
+          },
+        }),
+      );
+    await fixture.whenStable();
+    const element = fixture.nativeElement as HTMLElement;
+    const row = element.querySelector('tr.mat-mdc-row') as HTMLElement;
+    // No raw id anywhere in the row: people know these by number, label and SKU.
+    expect(row.textContent).not.toMatch(/a0000000/);
+    const links = Array.from(row.querySelectorAll('a.ref')).map((a) => [
+      a.textContent?.trim(),
+      a.getAttribute('href'),
+    ]);
+    expect(links).toEqual([
+      ['job CY-2703-0012, cylinder 2', `/jobs/${JOB}`],
+      ['CY-2703-0012', `/jobs/${JOB}`],
+      ['PU-000031', `/stock/ledger?unitId=${UNIT}`],
+      ['BT-72-PC-025', `/catalog/parts/${PART}`],
+    ]);
+    const fields = Array.from(row.querySelectorAll('.changes li')).map((li) =>
+      (li.textContent ?? '').replace(/\s+/g, ' ').trim(),
+    );
+    expect(fields).toEqual([
+      'job: CY-2703-0012',
+      'cylinder: 2',
+      'unit: PU-000031',
+      'part: BT-72-PC-025',
+    ]);
+    http.verify();
+  });
+
+  it('when a change holds a list of lines, then each line reads in words with its part by SKU', async () => {
+    TestBed.configureTestingModule({
+      providers: [
+        provideRouter([]),
+        provideHttpClient(),
+        provideHttpClientTesting(),
+        provideShopDateAdapter(),
+      ],
+    });
+    const http = TestBed.inject(HttpTestingController);
+    const fixture = TestBed.createComponent(AuditLog);
+    await fixture.whenStable();
+    const SUPPLIER = 'a0000000-0000-4000-8000-0000000000s1';
+    http
+      .expectOne((r) => r.url === '/api/audit')
+      .flush(
+        page(
+          [
+            {
+              id: 31,
+              at: '2027-03-14T11:00:00.000Z',
+              user: BUYER,
+              action: 'purchase_order.create',
+              entity: 'purchase_order',
+              entityId: 'a0000000-0000-4000-8000-0000000000o1',
+              before: null,
+              after: {
+                supplierId: SUPPLIER,
+                lines: [{ partId: PART, quantity: 3, unitPrice: '14.20' }],
+              },
+            },
+          ],
+          {
+            [`supplier:${SUPPLIER}`]: {
+              kind: 'supplier',
+              id: SUPPLIER,
+              label: 'Morrow Ring Works',
+              link: `/suppliers/${SUPPLIER}`,
+            },
+            [`part:${PART}`]: { kind: 'part', id: PART, label: 'BT-72-RC-050', link: null },
+          },
+        ),
+      );
+    await fixture.whenStable();
+    const row = (fixture.nativeElement as HTMLElement).querySelector('tr.mat-mdc-row');
+    const fields = Array.from(row?.querySelectorAll('.changes li') ?? []).map((li) =>
+      (li.textContent ?? '').replace(/\s+/g, ' ').trim(),
+    );
+    expect(fields).toEqual([
+      'supplier: Morrow Ring Works',
+      'lines: part BT-72-RC-050, quantity 3, unit price 14.20',
+    ]);
+    http.verify();
   });
 });
 

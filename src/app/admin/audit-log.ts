@@ -1,3 +1,4 @@
+import { NgTemplateOutlet } from '@angular/common';
 import {
   ChangeDetectionStrategy,
   Component,
@@ -18,10 +19,17 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { MatSortModule, Sort } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
+import { RouterLink } from '@angular/router';
 import type { DateTime } from 'luxon';
 import { catchError, map, of, switchMap, tap } from 'rxjs';
 
-import type { AuditEventJson, AuditPageJson } from '../../../shared/audit-api';
+import {
+  AUDIT_ID_FIELDS,
+  auditRefKey,
+  type AuditEventJson,
+  type AuditPageJson,
+  type AuditRefJson,
+} from '../../../shared/audit-api';
 import { apiErrorMessage } from '../core/api-error';
 import { dayOf } from '../core/shop-date-adapter';
 import { AuditApi, type AuditListQuery } from './audit-api';
@@ -30,12 +38,28 @@ import { ShopDatePipe } from '../core/shop-date-pipe';
 
 type Loaded = { ok: true; page: AuditPageJson } | { ok: false; message: string };
 
+/** "jobId" reads "job", "toBinId" "to bin", "unitPrice" "unit price". */
+function idFieldName(field: string): string {
+  return field
+    .replace(/Id$/, '')
+    .replace(/([A-Z])/g, ' $1')
+    .toLowerCase();
+}
+
+/** A changed field as shown: an id field reads as the record it names ("job CY-…"). */
+interface ShownChange extends FieldChange {
+  name: string;
+  beforeRef: AuditRefJson | null;
+  afterRef: AuditRefJson | null;
+}
+
 const DAY = /^\d{4}-\d{2}-\d{2}$/;
 
 /** The owner's view of every recorded change: who, when, what it was before and after. */
 @Component({
   selector: 'app-audit-log',
   imports: [
+    NgTemplateOutlet,
     ShopDatePipe,
     MatButtonModule,
     MatDatepickerModule,
@@ -47,6 +71,7 @@ const DAY = /^\d{4}-\d{2}-\d{2}$/;
     MatSelectModule,
     MatSortModule,
     MatTableModule,
+    RouterLink,
   ],
   templateUrl: './audit-log.html',
   styleUrl: './audit-log.scss',
@@ -135,8 +160,55 @@ export class AuditLog {
     return actionWords(row.action);
   }
 
-  protected changes(row: AuditEventJson): FieldChange[] {
-    return fieldChanges(row.before, row.after);
+  /** The one record the trail is narrowed to, by its label once the server has named it. */
+  protected filteredLabel(): string {
+    return this.ref(this.entityFilter(), this.recordFilter())?.label ?? this.recordFilter();
+  }
+
+  /** The record changed, by its number, SKU, label or name, when the server could name it. */
+  protected recordRef(row: AuditEventJson): AuditRefJson | null {
+    return row.entityId ? this.ref(row.entity, row.entityId) : null;
+  }
+
+  protected changes(row: AuditEventJson): ShownChange[] {
+    return fieldChanges(row.before, row.after).map((c) => {
+      const kind = AUDIT_ID_FIELDS[c.field];
+      const list = (side: unknown) => this.listWords((side as Record<string, unknown>)?.[c.field]);
+      return {
+        ...c,
+        before: list(row.before) ?? c.before,
+        after: list(row.after) ?? c.after,
+        // "jobId" reads "job", "toBinId" "to bin".
+        name: kind ? idFieldName(c.field) : c.field,
+        beforeRef: kind && c.before ? this.ref(kind, c.before) : null,
+        afterRef: kind && c.after ? this.ref(kind, c.after) : null,
+      };
+    });
+  }
+
+  /**
+   * A list of records (an order's lines) in words, each id read as what it names:
+   * "part BT-72-RC-050, quantity 3; …". Null when the value is not such a list.
+   */
+  private listWords(value: unknown): string | null {
+    if (!Array.isArray(value) || value.length === 0) return null;
+    if (!value.every((v) => v && typeof v === 'object' && !Array.isArray(v))) return null;
+    return value
+      .map((item: Record<string, unknown>) =>
+        Object.entries(item)
+          .map(([field, v]) => {
+            const kind = AUDIT_ID_FIELDS[field];
+            const named = kind && typeof v === 'string' ? this.ref(kind, v)?.label : undefined;
+            return `${idFieldName(field)} ${named ?? (typeof v === 'string' ? v : JSON.stringify(v))}`;
+          })
+          .join(', '),
+      )
+      .join('; ');
+  }
+
+  private ref(kind: string, id: string): AuditRefJson | null {
+    const loaded = this.loaded();
+    return (loaded?.ok ? loaded.page.refs?.[auditRefKey(kind, id)] : undefined) ?? null;
   }
 
   protected onEntity(entity: string): void {
