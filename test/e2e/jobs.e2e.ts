@@ -255,6 +255,9 @@ describe('a cylinder job from intake to hand-back', () => {
     // A two-stroke: the sheet says to dress every port edge after boring, and why.
     await page.getByText(/chamfer and deburr the edge of every port/).waitFor();
     await page.getByText('Every port edge chamfered and deburred').waitFor();
+    // Honing guidance: the family's crosshatch (45° unless set) and its stroke for the hone's travel.
+    await page.getByRole('heading', { name: 'Honing', exact: true }).waitFor();
+    await page.getByText(/Crosshatch: aim for about 45° included angle/).waitFor();
     await screenshot(page, 'jobs-bore-sheet');
     await screenshotAtWidths(page, 'jobs-mm-bore-sheet');
     expect(await seriousA11yViolations(page)).toEqual([]);
@@ -288,6 +291,9 @@ describe('a cylinder job from intake to hand-back', () => {
     await page.getByLabel('Ring end gap').fill('0.25');
     await page.getByRole('button', { name: 'Record', exact: true }).click();
     await page.getByRole('status').filter({ hasText: 'the job moved on to Ready to go' }).waitFor();
+    // 54.745 − 54.705 = 0.040 mm: inside the family's range; 0.25 mm is over the 0.219 mm that
+    // 0.004 × 54.745 mm calls for (rounded up to 0.001 mm).
+    await page.getByText(/Clearance 0\.040 mm: in range/).waitFor();
     await screenshotAtWidths(page, 'jobs-mm-after-honing');
     const jobId = jobUrl.split('/').pop();
     const rows = await query<{ state: string }>('SELECT state FROM jobs WHERE id = $1', [jobId]);
