@@ -171,7 +171,11 @@ describe('reorder alerts', () => {
     );
   });
 
-  it('when stock recovers above the point and falls again, then that second crossing raises a second alert', async () => {
+  it('when the alert was seen, stock recovers above the point and falls again, then that second crossing raises a second alert', async () => {
+    // Unseen, a fall after a recovery reopens the same alert (alert-dedupe.test.ts); once someone
+    // has acknowledged it, the next crossing is news.
+    const [open] = await alertsOf(piston);
+    expect((await owner.post(`/api/alerts/${open.id}/acknowledge`)).status).toBe(200);
     await receivePistons(owner, piston, binId, ['2.5269 in', '2.5267 in']);
     // Free 1 + 2 = 3 > 2: the crossing is over.
     let alerts = await alertsOf(piston);
@@ -221,7 +225,9 @@ describe('reorder alerts', () => {
   });
 
   it('when a buyer acknowledges an alert, then it leaves the open list; a second acknowledgement is 409', async () => {
-    const [first] = await alertsOf(piston);
+    // The part's one alert nobody has seen yet (an earlier one was acknowledged above).
+    const first = (await alertsOf(piston)).find((a) => a.acknowledged_at === null);
+    if (!first) throw new Error('no unacknowledged alert for the piston');
     const res = await buyer.post(`/api/alerts/${first.id}/acknowledge`);
     expect(res.status).toBe(200);
     expect(res.body).toEqual(
@@ -234,7 +240,7 @@ describe('reorder alerts', () => {
     const open = await buyer.get(`/api/alerts?state=open&partId=${piston}`);
     expect(open.body.items.map((a: { id: string }) => a.id)).not.toContain(first.id);
     const seen = await owner.get(`/api/alerts?state=acknowledged&partId=${piston}`);
-    expect(seen.body.items.map((a: { id: string }) => a.id)).toEqual([first.id]);
+    expect(seen.body.items.map((a: { id: string }) => a.id)).toContain(first.id);
     expect((await buyer.post(`/api/alerts/${first.id}/acknowledge`)).status).toBe(409);
     expect(
       (await buyer.post('/api/alerts/00000000-0000-4000-8000-000000000000/acknowledge')).status,
