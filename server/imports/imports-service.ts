@@ -69,11 +69,14 @@ function duplicateAnswer(importId: string, committedAt: Date | null): DuplicateJ
 }
 
 /** Keeps the issues with the lowest line numbers, at most `max` of them. */
-function keepFirst(list: RowIssueJson[], incoming: RowIssueJson[], max: number): void {
-  list.push(...incoming);
-  if (list.length > max * 4) {
-    list.sort((a, b) => a.line - b.line);
-    list.length = max;
+export function keepFirst(list: RowIssueJson[], incoming: RowIssueJson[], max: number): void {
+  // One at a time: a batch where every row has a warning is too long to spread into push().
+  for (const issue of incoming) {
+    list.push(issue);
+    if (list.length > max * 4) {
+      list.sort((a, b) => a.line - b.line);
+      list.length = max;
+    }
   }
 }
 

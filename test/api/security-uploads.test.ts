@@ -6,6 +6,7 @@
 import http from 'node:http';
 import type { AddressInfo } from 'node:net';
 import { withImportSlot, importLoad } from '../../server/imports/import-slots';
+import { keepFirst, MAX_ISSUES } from '../../server/imports/imports-service';
 import { closeTestApp, signedIn, testApp, type Client } from '../support/api';
 import { makeFamily, makeJob } from '../support/jobs-fixtures';
 
@@ -146,5 +147,19 @@ describe('V11.1.4 price-list imports run two at a time, one per supplier', () =>
     expect(await withImportSlot('supplier-y', async () => 'other', 100)).toBe('other');
     first.release();
     expect(await running).toBe('first');
+  });
+});
+
+describe('V11.1.4 a large list where every row has a warning', () => {
+  it('when one batch brings 200,000 warnings, then the first ones are kept and nothing overflows the stack', () => {
+    const kept: { line: number; message: string }[] = [];
+    const batch = Array.from({ length: 200_000 }, (_, i) => ({
+      line: 200_001 - i,
+      message: 'no lead time given',
+    }));
+    expect(() => keepFirst(kept, batch, MAX_ISSUES)).not.toThrow();
+    expect(kept.length).toBeLessThanOrEqual(MAX_ISSUES * 4);
+    const lowest = [...kept].sort((a, b) => a.line - b.line)[0];
+    expect(lowest.line).toBe(2);
   });
 });

@@ -161,6 +161,7 @@ export class HttpSession {
     path: string,
     fields: Record<string, string | Blob>,
     fileName?: string,
+    opts: { timeoutMs?: number } = {},
   ): Promise<TimedResponse> {
     const form = new FormData();
     for (const [k, v] of Object.entries(fields)) {
@@ -175,7 +176,7 @@ export class HttpSession {
         'x-xsrf-token': this.xsrf,
       },
       body: form,
-      signal: AbortSignal.timeout(120_000),
+      signal: AbortSignal.timeout(opts.timeoutMs ?? 120_000),
     });
     this.remember(res);
     const text = await res.text();
