@@ -59,7 +59,7 @@ export function createApp(opts: { databaseUrl?: string; serveClient?: boolean } 
         },
       },
       crossOriginEmbedderPolicy: false,
-      hsts: config.TRUST_PROXY === '1',
+      hsts: config.TRUST_PROXY === '1' || config.tls,
     }),
   );
   app.use(compression());

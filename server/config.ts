@@ -15,6 +15,9 @@ const schema = z.object({
     .max(24 * 60)
     .default(120),
   TRUST_PROXY: z.enum(['0', '1']).default('0'),
+  /** PEM files: with both set, Stepstock serves HTTPS itself (tablets need it for offline use). */
+  TLS_CERT: z.string().min(1).optional(),
+  TLS_KEY: z.string().min(1).optional(),
   SMTP_URL: z.string().optional(),
   MAIL_FROM: z.string().default('Stepstock <no-reply@stepstock.test>'),
   APP_URL: z.string().optional(),
@@ -39,6 +42,8 @@ export type Config = Readonly<z.infer<typeof schema>> & {
   readonly databaseUrl: string;
   readonly sessionSecret: string;
   readonly appUrl: string;
+  /** Serving HTTPS itself (TLS_CERT and TLS_KEY given). */
+  readonly tls: boolean;
 };
 
 export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
@@ -48,13 +53,20 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     throw new Error(`Stepstock cannot start: bad configuration\n${lines}`);
   }
   const c = parsed.data;
+  if (Boolean(c.TLS_CERT) !== Boolean(c.TLS_KEY)) {
+    throw new Error(
+      'Stepstock cannot start: bad configuration\n  TLS_CERT and TLS_KEY: give both (the certificate and its private key) or neither',
+    );
+  }
+  const tls = Boolean(c.TLS_CERT && c.TLS_KEY);
   const databaseUrl = c.DATABASE_URL ?? 'postgres://stepstock@127.0.0.1:5488/stepstock';
   return Object.freeze({
     ...c,
     databaseUrl,
     // A fixed fallback secret is only acceptable for the local demo; production sets SESSION_SECRET.
     sessionSecret: c.SESSION_SECRET ?? 'stepstock-local-demo-session-secret',
-    appUrl: c.APP_URL ?? `http://${c.HOST}:${c.PORT}`,
+    appUrl: c.APP_URL ?? `${tls ? 'https' : 'http'}://${c.HOST}:${c.PORT}`,
+    tls,
   });
 }
 

@@ -1,6 +1,8 @@
 // Starts the HTTP server. `npm start` reaches this through server/start.ts, which first makes
 // sure the database exists; a shop on a managed PostgreSQL runs it with DATABASE_URL set.
+import { readFileSync } from 'node:fs';
 import type { Server } from 'node:http';
+import https from 'node:https';
 import { config } from './config';
 import { logger } from './logger';
 import { createApp } from './app';
@@ -18,20 +20,36 @@ function listen(
   port: number,
   host: string,
 ): Promise<Server> {
+  const failed = (err: Error) =>
+    (err as NodeJS.ErrnoException).code === 'EADDRINUSE'
+      ? new Error(`Port ${port} on ${host} is already in use. Stop the other program or set PORT.`)
+      : err;
+  if (config.TLS_CERT && config.TLS_KEY) {
+    // Node's own TLS: a shop's server on its local network, reached by tablets over HTTPS.
+    const secure = https.createServer(
+      { cert: readTls(config.TLS_CERT, 'TLS_CERT'), key: readTls(config.TLS_KEY, 'TLS_KEY') },
+      app,
+    );
+    return new Promise<Server>((resolve, reject) => {
+      secure.once('error', (err) => reject(failed(err)));
+      secure.listen(port, host, () => resolve(secure));
+    });
+  }
   return new Promise<Server>((resolve, reject) => {
     // Express 5 hands a listen error (a port already taken) to this callback instead of throwing.
     const s = app.listen(port, host, (err?: Error) => {
       if (!err) return resolve(s);
-      const taken = (err as NodeJS.ErrnoException).code === 'EADDRINUSE';
-      reject(
-        taken
-          ? new Error(
-              `Port ${port} on ${host} is already in use. Stop the other program or set PORT.`,
-            )
-          : err,
-      );
+      reject(failed(err));
     });
   });
+}
+
+function readTls(file: string, name: string): Buffer {
+  try {
+    return readFileSync(file);
+  } catch (e) {
+    throw new Error(`${name}: cannot read ${file} (${(e as Error).message})`);
+  }
 }
 
 export async function startServer(port = config.PORT, host = config.HOST): Promise<RunningServer> {
@@ -47,7 +65,7 @@ export async function startServer(port = config.PORT, host = config.HOST): Promi
   }
   const addr = server.address();
   const actualPort = typeof addr === 'object' && addr ? addr.port : port;
-  const url = `http://${host}:${actualPort}`;
+  const url = `${config.tls ? 'https' : 'http'}://${host}:${actualPort}`;
   logger.info({ url }, 'Stepstock is listening');
   return {
     server,

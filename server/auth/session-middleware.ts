@@ -36,7 +36,8 @@ export function sessionMiddleware(databaseUrl = config.databaseUrl) {
       cookie: {
         httpOnly: true,
         sameSite: 'lax',
-        secure: config.TRUST_PROXY === '1' ? 'auto' : false,
+        // Over Stepstock's own HTTPS always; behind a proxy whenever the proxy says it was HTTPS.
+        secure: config.tls ? true : config.TRUST_PROXY === '1' ? 'auto' : false,
         maxAge: config.SESSION_IDLE_MINUTES * 60 * 1000,
       },
     }),

@@ -59,7 +59,7 @@ export function setXsrfCookie(res: Response): void {
     httpOnly: false,
     sameSite: 'lax',
     // Behind a TLS proxy the token travels only over HTTPS, like the session cookie.
-    secure: config.TRUST_PROXY === '1' ? res.req.secure : false,
+    secure: config.tls || (config.TRUST_PROXY === '1' && res.req.secure),
     path: '/',
   });
 }

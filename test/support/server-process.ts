@@ -1,6 +1,8 @@
 // The real server (`server/main.ts`) in a process of its own, for the drills and the browser tests:
 // one way to start it, ready once /api/health answers, and killed when it never gets ready.
 import { spawn, type ChildProcess } from 'node:child_process';
+import { readFileSync } from 'node:fs';
+import https from 'node:https';
 import net from 'node:net';
 import path from 'node:path';
 
@@ -8,6 +10,27 @@ const REPO = path.resolve(__dirname, '..', '..');
 
 function sleep(ms: number): Promise<void> {
   return new Promise((resolve) => setTimeout(resolve, ms));
+}
+
+/** Status of a GET over HTTPS, trusting only the given certificate (a test's own). */
+export function httpsGet(
+  url: string,
+  ca: Buffer,
+): Promise<{
+  status: number;
+  headers: Record<string, string | string[] | undefined>;
+  body: string;
+}> {
+  return new Promise((resolve, reject) => {
+    const req = https.get(url, { ca, timeout: 2000 }, (res) => {
+      let body = '';
+      res.setEncoding('utf8');
+      res.on('data', (d: string) => (body += d));
+      res.on('end', () => resolve({ status: res.statusCode ?? 0, headers: res.headers, body }));
+    });
+    req.on('timeout', () => req.destroy(new Error('timed out')));
+    req.on('error', reject);
+  });
 }
 
 export function freePort(): Promise<number> {
@@ -64,13 +87,18 @@ export async function startServer(
     await exited;
     clearTimeout(timer);
   };
-  const url = `http://127.0.0.1:${port}`;
+  // With TLS_CERT and TLS_KEY the server speaks HTTPS; its own certificate is the one trusted.
+  const ca = extraEnv.TLS_CERT ? readFileSync(extraEnv.TLS_CERT) : null;
+  const url = `${ca ? 'https' : 'http'}://127.0.0.1:${port}`;
+  const healthStatus = async () =>
+    ca
+      ? (await httpsGet(`${url}/api/health`, ca)).status
+      : (await fetch(`${url}/api/health`, { signal: AbortSignal.timeout(2000) })).status;
   const deadline = Date.now() + 60_000;
   for (;;) {
     if (child.exitCode !== null) throw new Error(`server exited early:\n${output}`);
     try {
-      const res = await fetch(`${url}/api/health`, { signal: AbortSignal.timeout(2000) });
-      if (res.status === 200) break;
+      if ((await healthStatus()) === 200) break;
     } catch {
       /* not listening yet */
     }
