@@ -113,19 +113,55 @@ export function settingWarning(field: keyof ShopSettingsJson, value: unknown): s
   const range = USUAL_SETTING_RANGES[field];
   if (!range) return null;
   if (range.kind === 'length') {
-    if (typeof value !== 'string' || value.trim() === '') return null;
-    const parsed = parseLength(value);
-    if (!parsed.ok) return null;
-    if (parsed.nm >= range.lowNm && parsed.nm <= range.highNm) return null;
-    const unit: LengthUnit = parsed.unit;
-    const other: LengthUnit = unit === 'mm' ? 'in' : 'mm';
-    const span = (u: LengthUnit) =>
-      `${formatLength(range.lowNm, u, false)}–${formatLength(range.highNm, u)}`;
-    return `Far outside the usual ${span(unit)} (${span(other)}) for ${range.what}. Check the value; the machine maker's figures come first.`;
+    return typeof value === 'string' ? lengthWarning(range, value) : null;
   }
   const n = typeof value === 'number' ? value : Number(String(value ?? '').trim());
   if (!Number.isFinite(n) || String(value ?? '').trim() === '') return null;
   if (n >= range.low && n <= range.high) return null;
   const suffix = range.suffix ?? '';
   return `Outside the usual ${range.low}–${range.high}${suffix} for ${range.what}. Check the value.`;
+}
+
+function lengthWarning(range: LengthRange, text: string, defaultUnit?: LengthUnit): string | null {
+  if (text.trim() === '') return null;
+  const parsed = parseLength(text, defaultUnit ? { defaultUnit, allowZero: true } : {});
+  if (!parsed.ok) return null;
+  if (parsed.nm >= range.lowNm && parsed.nm <= range.highNm) return null;
+  const unit: LengthUnit = parsed.unit;
+  const other: LengthUnit = unit === 'mm' ? 'in' : 'mm';
+  const span = (u: LengthUnit) =>
+    `${formatLength(range.lowNm, u, false)}–${formatLength(range.highNm, u)}`;
+  return `Far outside the usual ${span(unit)} (${span(other)}) for ${range.what}. Check the value; the machine maker's figures come first.`;
+}
+
+const length = (low: number, high: number, what: string): LengthRange => ({
+  kind: 'length',
+  lowNm: mm(low),
+  highNm: mm(high),
+  what,
+  source: 'common practice (no source)',
+});
+
+/**
+ * An engine family's figures as shops usually meet them, on the diameter (all common practice,
+ * no source): a family far outside is most often a slip of unit or decimal point. The engine
+ * maker's own figures always win; these only ask to check.
+ */
+export const USUAL_FAMILY_RANGES: Record<string, LengthRange> = {
+  clearanceMin: length(0.01, 0.15, 'a piston-to-wall clearance'),
+  clearanceMax: length(0.01, 0.15, 'a piston-to-wall clearance'),
+  // Forged pistons grow more when hot and are fitted looser.
+  forgedClearanceMin: length(0.02, 0.25, "a forged piston's clearance"),
+  forgedClearanceMax: length(0.02, 0.25, "a forged piston's clearance"),
+  honeAllowance: length(0.01, 0.15, 'the stock left for the hone'),
+  cleanup: length(0.02, 0.25, 'a clean-up allowance'),
+  maxOversize: length(0.25, 3, 'the largest oversize'),
+  maxTaper: length(0.005, 0.2, 'a taper limit'),
+  maxOutOfRound: length(0.005, 0.15, 'an out-of-round limit'),
+};
+
+/** Like settingWarning, for an engine family's figure typed in the person's unit. */
+export function familyWarning(key: string, text: string, unit: LengthUnit): string | null {
+  const range = USUAL_FAMILY_RANGES[key];
+  return range ? lengthWarning(range, text, unit) : null;
 }

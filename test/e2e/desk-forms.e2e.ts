@@ -83,6 +83,18 @@ describe('shop settings', () => {
   });
 });
 
+describe('an engine family', () => {
+  it('when a clearance of 0.5 mm is typed, then the usual range is shown beside it, as a caution', async () => {
+    const page = env.page;
+    await as('owner');
+    await page.goto(`${env.baseUrl}/catalog/families/new`);
+    await page.getByLabel('Clearance, least', { exact: true }).fill('0.5');
+    // Usual range: common practice (no source), kept in shared/settings-ranges.ts.
+    await page.getByText(/Far outside the usual 0\.010–0\.150 mm \(0\.0004–0\.0059 in\)/).waitFor();
+    await screenshotAtWidths(page, 'desk-forms-family-clearance');
+  });
+});
+
 describe('taking in a job with a due date far ahead', () => {
   it('when 01/01/2099 is typed, then a caution asks to check the year, the job is still booked, and its page and bench card show the year', async () => {
     const page = env.page;
@@ -162,6 +174,12 @@ describe('marking a cylinder as cut', () => {
     expect(labelBox && fieldBox && labelBox.x + labelBox.width <= fieldBox.x + fieldBox.width).toBe(
       true,
     );
+    // A clearance that is no length is refused under its field, not in a passing snack bar.
+    await page.getByLabel('Clearance for this cylinder').fill('abc');
+    await page.getByRole('button', { name: 'Set clearance' }).click();
+    await field.locator('.field-error').waitFor();
+    expect(await page.locator('.mat-mdc-snack-bar-container').count()).toBe(0);
+    await page.getByLabel('Clearance for this cylinder').fill('');
     if ((await mark.textContent())?.includes('Cut anyway')) {
       await page.getByLabel('Why cut anyway (kept with the job)').fill('Customer asked for it');
     }

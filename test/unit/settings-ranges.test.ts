@@ -1,4 +1,4 @@
-import { settingWarning } from '../../shared/settings-ranges';
+import { familyWarning, settingWarning } from '../../shared/settings-ranges';
 
 // The usual ranges are common practice (no source), as shared/settings-ranges.ts marks them; these
 // checks hold the trade's plain cases: a few hundredths of a millimetre to a millimetre per pass.
@@ -24,5 +24,24 @@ describe('settingWarning', () => {
       'Outside the usual 0–27 % for a tax rate. Check the value.',
     );
     expect(settingWarning('taxRate', '20')).toBeNull();
+  });
+});
+
+describe('familyWarning', () => {
+  // Usual piston-to-wall clearance and hone stock: common practice (no source), a few hundredths of
+  // a millimetre; 0.5 mm of clearance is a slip of the decimal point.
+  it('when a clearance of 0.5 mm is typed, then the usual range is shown', () => {
+    expect(familyWarning('clearanceMin', '0.5', 'mm')).toBe(
+      "Far outside the usual 0.010–0.150 mm (0.0004–0.0059 in) for a piston-to-wall clearance. Check the value; the machine maker's figures come first.",
+    );
+  });
+
+  it('when a usual 0.0015 in clearance or 0.002 in of hone stock is typed, then there is no caution', () => {
+    expect(familyWarning('clearanceMin', '0.0015', 'in')).toBeNull();
+    expect(familyWarning('honeAllowance', '0.002', 'in')).toBeNull();
+  });
+
+  it('when a figure has no usual range (the stroke), then nothing is said', () => {
+    expect(familyWarning('stroke', '500', 'mm')).toBeNull();
   });
 });

@@ -27,6 +27,7 @@ import { Router, RouterLink } from '@angular/router';
 import { catchError, map, of, startWith, Subject, switchMap } from 'rxjs';
 
 import type { FamilyJson, StepSeriesJson } from '../../../shared/catalog-api';
+import { familyWarning } from '../../../shared/settings-ranges';
 import { apiErrorBody, apiErrorMessage, apiFieldErrors } from '../core/api-error';
 import { Notifier } from '../core/notifier';
 import { Session } from '../core/session';
@@ -219,6 +220,11 @@ export class FamilyForm {
           this.loaded.set({ state: 'error', message: apiErrorMessage(error) }),
       });
     });
+  }
+
+  /** A caution (not a refusal) for a figure far outside what shops usually meet. */
+  protected warning(key: LengthKey): string | null {
+    return familyWarning(key, this.form.controls.lengths.controls[key].value, this.unit());
   }
 
   protected hint(key: LengthKey): string {

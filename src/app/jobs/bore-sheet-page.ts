@@ -18,7 +18,7 @@ import {
   type JobState,
 } from '../../../shared/jobs-api';
 import { formatIn, formatMm, parseLength, type LengthUnit, type Nm } from '../../../shared/lengths';
-import { apiErrorMessage } from '../core/api-error';
+import { apiErrorMessage, apiFieldErrors } from '../core/api-error';
 import { LengthPipe } from '../core/length-pipe';
 import { Notifier } from '../core/notifier';
 import { Session } from '../core/session';
@@ -118,15 +118,18 @@ export class BoreSheetPage {
     if (text !== null) {
       const parsed = parseLength(text, { defaultUnit: this.unit(), allowZero: true });
       if (!parsed.ok) {
-        this.notifier.error(`Clearance: ${parsed.message}`);
+        this.clearanceError.set(parsed.message);
         return;
       }
       clearance = exact(parsed.nm, parsed.unit);
     }
+    this.clearanceError.set('');
     this.save(
       { clearance },
       clearance === null ? "Clearance from the shop's policy." : 'Clearance set.',
       () => this.clearanceText.set(''),
+      (error) =>
+        this.clearanceError.set(apiFieldErrors(error)['clearance'] ?? apiErrorMessage(error)),
     );
   }
 
@@ -222,20 +225,39 @@ export class BoreSheetPage {
       if (!text.trim()) continue;
       const parsed = parseLength(text, { defaultUnit: this.unit() });
       if (!parsed.ok) {
-        this.notifier.error(parsed.message);
+        this.afterHoneErrors.set({ [key]: parsed.message });
         return;
       }
       changes[key] = exact(parsed.nm, parsed.unit);
     }
+    this.afterHoneErrors.set({});
     if (Object.keys(changes).length === 0) return;
     this.stateWhenRecorded.set(this.sheet()?.job.state ?? null);
-    this.save(changes, 'Sizes after honing recorded.', () => {
-      this.honedText.set('');
-      this.gapText.set('');
-    });
+    this.save(
+      changes,
+      'Sizes after honing recorded.',
+      () => {
+        this.honedText.set('');
+        this.gapText.set('');
+      },
+      (error) => {
+        const fields = apiFieldErrors(error);
+        const placed = fields['measuredAfterHone'] || fields['ringGap'];
+        this.afterHoneErrors.set(placed ? fields : { measuredAfterHone: apiErrorMessage(error) });
+      },
+    );
   }
 
-  private save(changes: CylinderChanges, success: string, after?: () => void): void {
+  /** Each reason under the field it is about, said once, instead of a passing snack bar. */
+  protected readonly clearanceError = signal('');
+  protected readonly afterHoneErrors = signal<Record<string, string>>({});
+
+  private save(
+    changes: CylinderChanges,
+    success: string,
+    after: () => void,
+    failed: (error: unknown) => void,
+  ): void {
     const sheet = this.sheet();
     if (!sheet || this.busy()) return;
     this.busy.set(true);
@@ -243,12 +265,12 @@ export class BoreSheetPage {
       next: () => {
         this.busy.set(false);
         this.notifier.success(success);
-        after?.();
+        after();
         this.reloads.update((n) => n + 1);
       },
       error: (error: unknown) => {
         this.busy.set(false);
-        this.notifier.error(apiErrorMessage(error));
+        failed(error);
       },
     });
   }
