@@ -16,6 +16,7 @@ import {
 } from '../../shared/api/customers';
 import type { Page } from '../../shared/jobs-api';
 import * as repo from './customers-repository';
+import { jobTotals } from './customer-money';
 
 type Conn = Knex;
 
@@ -29,7 +30,10 @@ export function listItemJson(c: repo.CustomerRow): CustomerListItemJson {
   };
 }
 
-export function jobItemJson(j: repo.CustomerJobRow): CustomerJobJson {
+export function jobItemJson(
+  j: repo.CustomerJobRow,
+  money: CustomerJobJson['money'] = null,
+): CustomerJobJson {
   return {
     id: j.id,
     number: j.number,
@@ -40,6 +44,7 @@ export function jobItemJson(j: repo.CustomerJobRow): CustomerJobJson {
     dueDate: j.due_date,
     createdAt: j.created_at.toISOString(),
     closedAt: j.closed_at ? j.closed_at.toISOString() : null,
+    money,
   };
 }
 
@@ -55,13 +60,17 @@ export async function getCustomer(id: string, k: Conn = db): Promise<CustomerJso
   const c = await repo.findCustomer(id, k);
   if (!c) throw new NotFound('That customer');
   const jobs = await repo.jobsOfCustomer(id, k);
+  const totals = await jobTotals(
+    jobs.map((j) => j.id),
+    k,
+  );
   return {
     ...listItemJson(c),
     notes: c.notes,
     erasedAt: c.erased_at ? c.erased_at.toISOString() : null,
     createdAt: c.created_at.toISOString(),
     updatedAt: c.updated_at.toISOString(),
-    jobs: jobs.map(jobItemJson),
+    jobs: jobs.map((j) => jobItemJson(j, totals.get(j.id) ?? null)),
   };
 }
 

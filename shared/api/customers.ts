@@ -5,6 +5,7 @@ import { z } from 'zod';
 import type { LengthJson } from '../lengths';
 import type { JobState } from '../jobs-api';
 import { singleLine } from '../text-rules';
+import type { EstimateState } from './money';
 
 const uuid = z.string().uuid('must be a valid id');
 
@@ -94,6 +95,14 @@ export interface CustomerJobJson {
   dueDate: string | null;
   createdAt: string;
   closedAt: string | null;
+  /** The job's estimate total as it stands; null while it has no lines. */
+  money: CustomerJobMoneyJson | null;
+}
+
+export interface CustomerJobMoneyJson {
+  total: string;
+  currency: string;
+  estimateState: EstimateState;
 }
 
 export interface CustomerJson extends CustomerListItemJson {
@@ -177,4 +186,44 @@ export interface CustomerExportJson {
   }[];
   /** E-mail the shop queued to the customer's address. */
   mail: { template: string; status: string; createdAt: string }[];
+}
+
+// ---- The owner's insight: cylinders near their last step --------------------------------------
+
+export const NEAR_LAST_STEP_MAX = 3;
+
+export const nearLastStepQuery = z
+  .object({
+    within: z.coerce
+      .number({ error: 'must be a whole number of steps' })
+      .int('must be a whole number of steps')
+      .min(0, 'must be 0 or more')
+      .max(NEAR_LAST_STEP_MAX, `at most ${NEAR_LAST_STEP_MAX}`)
+      .default(1),
+  })
+  .strict();
+export type NearLastStepQuery = z.output<typeof nearLastStepQuery>;
+
+export interface NearLastStepItemJson {
+  cylinderId: string;
+  mark: string;
+  customerId: string;
+  customerName: string;
+  /** To tell the customer: null when erased or never given. */
+  phone: string | null;
+  email: string | null;
+  familyCode: string;
+  bores: number;
+  lastBore: { date: string; stepLabel: string | null; finishedBore: LengthJson; jobNumber: string };
+  stepsLeft: number;
+}
+
+export interface NearLastStepAnswer {
+  within: number;
+  /** Fewest steps left first, then the most recent last bore. */
+  items: NearLastStepItemJson[];
+  /** Cylinders with no step left: the next rebore is a sleeve or a new cylinder. */
+  sleevesToExpect: number;
+  /** Cylinders with exactly one step left: their customers are worth telling now. */
+  lastStepNext: number;
 }

@@ -43,6 +43,10 @@ export const routes: Routes = [
         loadChildren: () => import('./jobs/jobs.routes').then((m) => m.jobsRoutes),
       },
       {
+        path: 'customers',
+        loadChildren: () => import('./customers/customers.routes').then((m) => m.customersRoutes),
+      },
+      {
         path: 'insights',
         canActivate: [roleGuard],
         data: { roles: ['owner', 'buyer'] },

@@ -128,6 +128,14 @@ export const NAV_ITEMS: NavItem[] = [
     hint: 'Book a cylinder in: customer, engine, cylinders, what they want and by when.',
   },
   {
+    path: '/customers',
+    group: 'today',
+    label: 'Customers',
+    icon: 'contacts',
+    roles: [...ROLES],
+    hint: 'Who brought what: contact details, their jobs, and every bore of each cylinder.',
+  },
+  {
     path: '/insights/sales',
     group: 'figures',
     label: 'What sells',
@@ -158,6 +166,14 @@ export const NAV_ITEMS: NavItem[] = [
     icon: 'hourglass_top',
     roles: ['owner', 'buyer'],
     hint: 'Steps asked for with nothing free, jobs that waited, suppliers that were late.',
+  },
+  {
+    path: '/insights/cylinders',
+    group: 'figures',
+    label: 'Near their last step',
+    icon: 'vertical_align_top',
+    roles: ['owner'],
+    hint: 'Cylinders with one step or none left: customers to tell, sleeves to expect.',
   },
   {
     path: '/suppliers',

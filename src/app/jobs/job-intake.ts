@@ -1,4 +1,13 @@
-import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  computed,
+  effect,
+  inject,
+  input,
+  signal,
+  untracked,
+} from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
@@ -78,6 +87,9 @@ export class JobIntake {
   private readonly fb = inject(NonNullableFormBuilder);
   private readonly session = inject(Session);
 
+  /** ?forCustomer=<id>: the job is for this customer (from the customer's page). */
+  readonly forCustomer = input<string>();
+
   protected readonly quickAsks = QUICK_ASKS;
   protected readonly form = this.fb.group({
     familyId: ['', Validators.required],
@@ -138,6 +150,20 @@ export class JobIntake {
   protected readonly busy = signal(false);
   protected readonly problem = signal('');
   protected readonly serverErrors = signal<Partial<Record<Field, string>>>({});
+
+  constructor() {
+    effect(() => {
+      const id = this.forCustomer();
+      if (!id) return;
+      untracked(() =>
+        this.customers.get(id).subscribe({
+          next: (c) => this.pickCustomer(c),
+          error: (error: unknown) =>
+            this.problem.set(`That customer could not be loaded. ${apiErrorMessage(error)}`),
+        }),
+      );
+    });
+  }
 
   protected chooseFamily(id: string): void {
     const family = this.families().find((f) => f.id === id);

@@ -1,0 +1,51 @@
+import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
+import { MatButtonModule } from '@angular/material/button';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+import { MatPaginatorModule } from '@angular/material/paginator';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatTableModule } from '@angular/material/table';
+import { Router, RouterLink } from '@angular/router';
+
+import type { CustomerListItemJson } from '../../../shared/api/customers';
+import { PagedList } from '../ui/paged-list';
+import { CustomersApi } from './customers-api';
+
+/** The search decides the order (names that start with the text, then recent customers). */
+const SORTABLE = ['relevance'] as const;
+
+/** Every customer on record, found by name, phone or e-mail; a row opens the customer's page. */
+@Component({
+  selector: 'app-customer-list',
+  imports: [
+    MatButtonModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatInputModule,
+    MatPaginatorModule,
+    MatProgressBarModule,
+    MatTableModule,
+    RouterLink,
+  ],
+  templateUrl: './customer-list.html',
+  styleUrl: './customer-list.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class CustomerList {
+  private readonly api = inject(CustomersApi);
+  private readonly router = inject(Router);
+
+  protected readonly columns = ['name', 'phone', 'email'];
+  protected readonly pageSizes = [25, 50, 100];
+
+  protected readonly list = new PagedList<CustomerListItemJson, (typeof SORTABLE)[number]>(
+    SORTABLE,
+    'relevance',
+    (request) => this.api.search(request.q ?? '', request.page, request.pageSize),
+  );
+
+  protected open(customer: CustomerListItemJson): void {
+    void this.router.navigate(['/customers', customer.id]);
+  }
+}
