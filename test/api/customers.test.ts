@@ -378,6 +378,8 @@ describe('cylinders and their bores', () => {
       (await machinist.post(`/api/jobs/${first.id}/holds`, { cylinder: 1, unitId: unit.id }))
         .status,
     ).toBe(201);
+    // The shop cuts only after the customer agreed to the estimate (the default setting).
+    await staff.post(`/api/jobs/${first.id}/estimate/approval`, { how: 'phone' });
     expect((await machinist.post(`/api/jobs/${first.id}/cylinders/1/cut`, {})).status).toBe(200);
     expect(
       (
@@ -458,6 +460,8 @@ describe('cylinders and their bores', () => {
     const part = await makePart(owner, family, '+0.030 in', 'piston');
     const [unit] = await receivePistons(owner, part, binId, ['2.5452 in']);
     await machinist.post(`/api/jobs/${first.id}/holds`, { cylinder: 1, unitId: unit.id });
+    // The shop cuts only after the customer agreed to the estimate (the default setting).
+    await staff.post(`/api/jobs/${first.id}/estimate/approval`, { how: 'phone' });
     expect((await machinist.post(`/api/jobs/${first.id}/cylinders/1/cut`, {})).status).toBe(200);
     await machinist.patch(`/api/jobs/${first.id}/cylinders/1`, { measuredAfterHone: '2.5472 in' });
     const second = await jobFor(c.id, { cylinderIds: [cyl.body.id] });

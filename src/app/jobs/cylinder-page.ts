@@ -45,6 +45,7 @@ import { Notifier } from '../core/notifier';
 import { Session } from '../core/session';
 import { ShopDatePipe } from '../core/shop-date-pipe';
 import { HoldDialog, type HoldDialogData } from './hold-dialog';
+import { CylinderPast } from './cylinder-past';
 import { JobsApi, type ReadingBody } from './jobs-api';
 
 type Loaded = { ok: true; job: JobJson } | { ok: false; message: string };
@@ -84,6 +85,7 @@ interface Preview {
 @Component({
   selector: 'app-cylinder-page',
   imports: [
+    CylinderPast,
     LengthPipe,
     MatButtonModule,
     MatFormFieldModule,
