@@ -244,6 +244,20 @@ export function cylindersOfCustomer(customerId: string, k: Knex = db): Promise<C
     .orderBy([{ column: 'y.created_at' }, { column: 'y.mark' }]) as Promise<CylinderRow[]>;
 }
 
+/** Every marked cylinder with at least one bore, with its customer's contact details. */
+export function boredCylinders(
+  k: Knex = db,
+): Promise<(CylinderRow & { customer_phone: string | null; customer_email: string | null })[]> {
+  return cylinderBase(k)
+    .select('c.phone as customer_phone', 'c.email as customer_email')
+    .whereExists(
+      k('job_cylinders as jc').whereRaw('jc.cylinder_id = y.id').whereNotNull('jc.cut_at'),
+    )
+    .orderBy([{ column: 'y.mark' }]) as Promise<
+    (CylinderRow & { customer_phone: string | null; customer_email: string | null })[]
+  >;
+}
+
 export async function findCylinder(id: string, k: Knex = db): Promise<CylinderRow | undefined> {
   return (await cylinderBase(k).where('y.id', id).first()) as CylinderRow | undefined;
 }

@@ -8,12 +8,14 @@ import { BadRequest, Conflict, NotFound } from '../errors';
 import { getSettings } from '../settings/settings-service';
 import { findFamily, stepsOfSeries, type FamilyRow } from '../jobs/jobs-repository';
 import { stepsLeftAfter, type Ladder, type LastBore } from '../../shared/bore-history';
-import { toLengthJson, type Nm } from '../../shared/lengths';
+import { lengthJsonToNm, toLengthJson, type Nm } from '../../shared/lengths';
 import type {
   BoreJson,
   CustomerCylinderJson,
   CylinderDetailJson,
   CylinderInput,
+  NearLastStepAnswer,
+  NearLastStepItemJson,
 } from '../../shared/api/customers';
 import * as repo from './customers-repository';
 
@@ -226,4 +228,52 @@ export async function checkLink(
     throw new Conflict(`${field}: ${message}.`, 'already_linked');
   }
   return cylinder.mark;
+}
+
+/**
+ * The owner's insight: bored cylinders with at most `within` steps left, fewest first (then the
+ * most recent last bore). No step left means the next rebore is a sleeve or a new cylinder; one
+ * left means the customer is worth telling before the next job.
+ */
+export async function nearLastStep(within: number, k: Conn = db): Promise<NearLastStepAnswer> {
+  const rows = await repo.boredCylinders(k);
+  const contact = new Map(rows.map((r) => [r.id, r]));
+  const items: NearLastStepItemJson[] = [];
+  for (const c of await cylindersJson(rows, k)) {
+    if (c.stepsLeft > within || c.bores.length === 0) continue;
+    // The same last bore the rule counts from: the largest finished bore so far.
+    const last = c.bores.reduce((best, b) =>
+      lengthJsonToNm(b.finishedBore, 'mm') >= lengthJsonToNm(best.finishedBore, 'mm') ? b : best,
+    );
+    const row = contact.get(c.id);
+    items.push({
+      cylinderId: c.id,
+      mark: c.mark,
+      customerId: c.customerId,
+      customerName: row?.customer_name ?? '',
+      phone: row?.customer_phone ?? null,
+      email: row?.customer_email ?? null,
+      familyCode: c.familyCode,
+      bores: c.bores.length,
+      lastBore: {
+        date: last.date,
+        stepLabel: last.stepLabel,
+        finishedBore: last.finishedBore,
+        jobNumber: last.jobNumber,
+      },
+      stepsLeft: c.stepsLeft,
+    });
+  }
+  items.sort(
+    (a, b) =>
+      a.stepsLeft - b.stepsLeft ||
+      b.lastBore.date.localeCompare(a.lastBore.date) ||
+      a.mark.localeCompare(b.mark),
+  );
+  return {
+    within,
+    items,
+    sleevesToExpect: items.filter((i) => i.stepsLeft === 0).length,
+    lastStepNext: items.filter((i) => i.stepsLeft === 1).length,
+  };
 }

@@ -5,7 +5,10 @@ import type { Router } from 'express';
 import type { ZodType } from 'zod';
 import type { Role } from '../../shared/session-types';
 import { monthlyQuery, monthsQuery, salesQuery, topSellersQuery } from '../../shared/insights-api';
+import { nearLastStepQuery } from '../../shared/api/customers';
 import { route } from '../http/route';
+import { nearLastStep } from '../customers/cylinders-service';
+import { nearLastStepTable } from './cylinders-table';
 import * as service from './insights-service';
 import * as tables from './insights-tables';
 import { sendCsv, type CsvTable } from './insights-csv';
@@ -89,5 +92,13 @@ export function registerInsightsRoutes(router: Router): void {
     monthsQuery,
     (q) => service.supplierReliability(q.months),
     tables.supplierReliabilityTable,
+  );
+  figure(
+    router,
+    '/api/insights/cylinders-near-last-step',
+    OWNER,
+    nearLastStepQuery,
+    (q) => nearLastStep(q.within),
+    nearLastStepTable,
   );
 }

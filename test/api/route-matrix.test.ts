@@ -88,6 +88,8 @@ const EXPECTED: Record<string, Access> = {
   'GET /api/cylinders/:id': ALL,
   // Insights: the owner sees everything; the buyer the stock side. Each table also as CSV.
   'GET /api/insights/sales': OWNER,
+  'GET /api/insights/cylinders-near-last-step': OWNER,
+  'GET /api/insights/cylinders-near-last-step.csv': OWNER,
   'GET /api/insights/sales.csv': OWNER,
   'GET /api/insights/sales/monthly': OWNER,
   'GET /api/insights/sales/monthly.csv': OWNER,

@@ -14,6 +14,7 @@ import type {
   TopSellerRank,
   TopSellersAnswer,
 } from '../../../shared/insights-api';
+import type { NearLastStepAnswer } from '../../../shared/api/customers';
 
 /** A period of calendar days, both ends included (YYYY-MM-DD). */
 export interface DayRange {
@@ -58,6 +59,10 @@ export class InsightsApi {
 
   supplierReliability(months: number): Observable<SupplierReliabilityAnswer> {
     return this.get('supplier-reliability', { months });
+  }
+
+  nearLastStep(within: number): Observable<NearLastStepAnswer> {
+    return this.get('cylinders-near-last-step', { within });
   }
 
   /** Where the same table downloads as CSV (a plain link: the browser saves the file). */

@@ -38,6 +38,13 @@ export const insightsRoutes: Routes = [
         loadComponent: () => import('./abc-page').then((m) => m.AbcPage),
       },
       {
+        path: 'cylinders',
+        title: 'Near their last step',
+        canActivate: [roleGuard],
+        data: OWNER,
+        loadComponent: () => import('./cylinders-page').then((m) => m.CylindersPage),
+      },
+      {
         path: 'exposure',
         title: 'Ran short',
         canActivate: [roleGuard],
