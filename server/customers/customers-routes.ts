@@ -4,6 +4,7 @@
 import type { Router } from 'express';
 import { z } from 'zod';
 import { pageQuery, route, uuidParam } from '../http/route';
+import type { MoneyFields } from '../../shared/money-visibility';
 import type { Role } from '../../shared/session-types';
 import {
   customerInput,
@@ -20,6 +21,8 @@ import { exportCsvTable, exportCustomer } from './customer-export';
 
 const COUNTER: Role[] = ['owner', 'machinist', 'staff'];
 const OWNER: Role[] = ['owner'];
+/** A job's estimate total is what the shop charges: staff and the owner see it (shared/money-visibility). */
+const CUSTOMER_MONEY: MoneyFields = { sold: ['total'] };
 
 const idParams = z.object({ id: uuidParam });
 const searchQuery = pageQuery.pick({ q: true, page: true, pageSize: true });
@@ -42,6 +45,7 @@ export function registerCustomersRoutes(router: Router): void {
   route(router, {
     method: 'post',
     path: '/api/customers',
+    money: CUSTOMER_MONEY,
     access: COUNTER,
     body: customerInput,
     status: 201,
@@ -50,6 +54,7 @@ export function registerCustomersRoutes(router: Router): void {
   route(router, {
     method: 'get',
     path: '/api/customers/:id',
+    money: CUSTOMER_MONEY,
     access: 'signed-in',
     params: idParams,
     handler: ({ params }) => customers.getCustomer(params.id),
@@ -57,6 +62,7 @@ export function registerCustomersRoutes(router: Router): void {
   route(router, {
     method: 'patch',
     path: '/api/customers/:id',
+    money: CUSTOMER_MONEY,
     access: COUNTER,
     params: idParams,
     body: customerPatch,
@@ -65,6 +71,7 @@ export function registerCustomersRoutes(router: Router): void {
   route(router, {
     method: 'post',
     path: '/api/customers/:id/merge',
+    money: CUSTOMER_MONEY,
     access: OWNER,
     params: idParams,
     body: mergeInput,
@@ -73,6 +80,7 @@ export function registerCustomersRoutes(router: Router): void {
   route(router, {
     method: 'get',
     path: '/api/customers/:id/export',
+    money: CUSTOMER_MONEY,
     access: 'signed-in',
     params: idParams,
     query: exportQuery,
@@ -92,6 +100,7 @@ export function registerCustomersRoutes(router: Router): void {
   route(router, {
     method: 'post',
     path: '/api/customers/:id/erase',
+    money: CUSTOMER_MONEY,
     access: OWNER,
     params: idParams,
     body: eraseInput,

@@ -100,7 +100,8 @@ export interface CustomerJobJson {
 }
 
 export interface CustomerJobMoneyJson {
-  total: string;
+  /** Left out for roles that may not see what the shop charges (shared/money-visibility). */
+  total?: string;
   currency: string;
   estimateState: EstimateState;
 }

@@ -188,6 +188,39 @@ describe('customer records', () => {
   });
 });
 
+describe("a customer's jobs and what they come to", () => {
+  it('when a job has estimate lines, then the owner and staff see its total on the customer, the machinist and buyer only its state', async () => {
+    const c = await newCustomer();
+    const job = await jobFor(c.id);
+    const line = await staff.post(`/api/jobs/${job.id}/estimate/lines`, {
+      description: 'Bore and hone one cylinder',
+      quantity: '1',
+      unitPrice: '45.00',
+    });
+    expect(line.status).toBe(201);
+    // The customer page shows the estimate's own total, as the estimate answers it.
+    const estimate = await owner.get(`/api/jobs/${job.id}/estimate`);
+    for (const client of [owner, staff]) {
+      const res = await client.get(`/api/customers/${c.id}`);
+      expect(res.body.jobs[0].money).toEqual({
+        total: estimate.body.total,
+        currency: estimate.body.currency,
+        estimateState: 'draft',
+      });
+    }
+    for (const client of [machinist, buyer]) {
+      const res = await client.get(`/api/customers/${c.id}`);
+      expect(res.body.jobs[0].money).toEqual({
+        currency: estimate.body.currency,
+        estimateState: 'draft',
+      });
+    }
+    const none = await jobFor(c.id);
+    const read = await owner.get(`/api/customers/${c.id}`);
+    expect(read.body.jobs.find((j: { id: string }) => j.id === none.id).money).toBeNull();
+  });
+});
+
 describe('merging two records of one person', () => {
   it('when merged, then every job and cylinder moves, the other phone is kept in the notes, an audit row is written, and fromId answers 404', async () => {
     const keep = await newCustomer({ phone: '555 0131' });

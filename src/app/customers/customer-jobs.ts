@@ -52,7 +52,9 @@ import { formatMoney } from '../../../shared/money';
               <th mat-header-cell *matHeaderCellDef scope="col" class="num">Estimate</th>
               <td mat-cell *matCellDef="let j" class="num">
                 @if (j.money; as m) {
-                  {{ money(m.total, m.currency) }}
+                  @if (m.total !== undefined) {
+                    {{ money(m.total, m.currency) }}
+                  }
                   <span class="muted small">{{ estimateLabel(m) }}</span>
                 } @else {
                   <span class="muted">not priced</span>
