@@ -142,7 +142,9 @@ describe('customers and their cylinders', () => {
     await call(page, 'PUT', `/api/jobs/${jobId}/cylinders/1/readings`, { readings });
     await page.goto(`${known.newJobUrl}/cylinders/1`);
     const past = page.getByRole('region', { name: "This cylinder's earlier bores" });
-    await past.waitFor();
+    // The cylinder's history loads beside the job: wait for the earlier job's link in it.
+    await past.getByRole('link', { name: known.firstJob }).waitFor();
+    await past.getByText(/(\d+ steps? left|No step left)/).waitFor();
     const text = (await past.textContent()) ?? '';
     expect(text).toContain(known.mark);
     expect(text).toContain(known.firstStep);
