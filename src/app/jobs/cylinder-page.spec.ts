@@ -96,6 +96,9 @@ describe('CylinderPage', () => {
     await fixture.whenStable();
     http.expectOne(`/api/jobs/${JOB_ID}`).flush(JOB);
     await fixture.whenStable();
+    // Not linked to a marked cylinder: the customer's cylinders are offered to link (none here).
+    http.expectOne('/api/customers/c1/cylinders').flush({ items: [] });
+    await fixture.whenStable();
     return fixture;
   }
 

@@ -343,6 +343,25 @@ export class CylinderPage {
     });
   }
 
+  /** A job taken in before its cylinder was marked: link it now, so the history rule applies. */
+  protected linkCylinder(cylinderId: string): void {
+    const job = this.job();
+    if (!job || this.busy()) return;
+    this.busy.set(true);
+    this.api.updateCylinder(job.id, this.cylinderNo(), { cylinderId }).subscribe({
+      next: (c) => {
+        this.busy.set(false);
+        this.notifier.success(`Cylinder ${this.cylinderNo()} is ${c.cylinder?.mark ?? 'linked'}.`);
+        this.reloads.update((n) => n + 1);
+        this.recReloads.update((n) => n + 1);
+      },
+      error: (error: unknown) => {
+        this.busy.set(false);
+        this.notifier.error(apiErrorMessage(error));
+      },
+    });
+  }
+
   protected openHold(): void {
     const job = this.job();
     if (!job) return;

@@ -1,5 +1,16 @@
-import { ChangeDetectionStrategy, Component, computed, inject, input } from '@angular/core';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  computed,
+  inject,
+  input,
+  output,
+  signal,
+} from '@angular/core';
+import { MatButtonModule } from '@angular/material/button';
+import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
+import { MatSelectModule } from '@angular/material/select';
 import { RouterLink } from '@angular/router';
 import { of } from 'rxjs';
 
@@ -16,7 +27,14 @@ import { loadEach } from '../insights/insight-loader';
  */
 @Component({
   selector: 'app-cylinder-past',
-  imports: [LengthPipe, MatIconModule, RouterLink],
+  imports: [
+    LengthPipe,
+    MatButtonModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatSelectModule,
+    RouterLink,
+  ],
   template: `
     @if (cylinder(); as cyl) {
       <div class="past" role="region" aria-label="This cylinder's earlier bores">
@@ -43,10 +61,26 @@ import { loadEach } from '../insights/insight-loader';
         </div>
       </div>
     } @else {
-      <p class="hint">
-        This job cylinder is not linked to one of the customer's marked cylinders, so no earlier
-        bore is checked. Link it at intake to keep its history.
-      </p>
+      <div class="unlinked">
+        <p class="hint">
+          This job cylinder is not linked to one of the customer's marked cylinders, so no earlier
+          bore is checked and this bore is not kept in a cylinder's history.
+        </p>
+        @if (editable() && known().length > 0) {
+          <mat-form-field appearance="outline" subscriptSizing="dynamic">
+            <mat-label>The customer's cylinder</mat-label>
+            <mat-select [value]="pick()" (selectionChange)="pick.set($event.value)">
+              @for (k of known(); track k.id) {
+                <mat-option [value]="k.id">{{ k.mark }} ({{ k.bores.length }} bores)</mat-option>
+              }
+            </mat-select>
+          </mat-form-field>
+          <button mat-stroked-button type="button" [disabled]="!pick()" (click)="linkPicked()">
+            <mat-icon>link</mat-icon>
+            Link
+          </button>
+        }
+      </div>
     }
   `,
   styles: `
@@ -69,8 +103,16 @@ import { loadEach } from '../insights/insight-loader';
     .none {
       color: var(--mat-sys-error);
     }
-    .hint {
+    .unlinked {
+      display: flex;
+      flex-wrap: wrap;
+      align-items: center;
+      gap: 8px 16px;
       margin: 0 0 16px;
+    }
+    .hint {
+      flex: 1 1 100%;
+      margin: 0;
       color: var(--mat-sys-on-surface-variant);
     }
   `,
@@ -83,8 +125,28 @@ export class CylinderPast {
   readonly cylinder = input.required<{ id: string; mark: string } | null>();
   readonly customerId = input.required<string>();
   readonly jobId = input.required<string>();
+  readonly familyId = input.required<string>();
+  /** The job can still change: an unlinked cylinder may be linked here. */
+  readonly editable = input(false);
   /** The step choice, once the bore is read. */
   readonly rec = input<RecommendationJson | null>(null);
+  /** The customer's cylinder picked for this job cylinder. */
+  readonly link = output<string>();
+
+  protected readonly pick = signal<string | null>(null);
+  /** The customer's cylinders of this family, offered only while unlinked. */
+  private readonly offered = loadEach(
+    computed(() => (!this.cylinder() && this.editable() ? this.customerId() : null)),
+    (id) => (id ? this.api.cylinders(id) : of([])),
+  );
+  protected readonly known = computed(() =>
+    (this.offered.value() ?? []).filter((c) => c.familyId === this.familyId()),
+  );
+
+  protected linkPicked(): void {
+    const id = this.pick();
+    if (id) this.link.emit(id);
+  }
 
   private readonly cylinderId = computed(() => this.cylinder()?.id ?? null);
   protected readonly detail = loadEach(this.cylinderId, (id) =>

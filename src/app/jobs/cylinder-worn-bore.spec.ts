@@ -267,6 +267,8 @@ describe.each([INCH, MM])('CylinderPage on a worn bore: $title', (c) => {
     http.expectOne(`/api/jobs/${JOB_ID}`).flush(job(c, null));
     await fixture.whenStable();
     http.expectOne(`${url}/recommendation`).flush(recommendation(c, null));
+    // Not linked to a marked cylinder: the customer's cylinders are offered to link (none here).
+    http.expectOne('/api/customers/c-ismay/cylinders').flush({ items: [] });
     await fixture.whenStable();
     return fixture;
   }

@@ -66,6 +66,8 @@ export interface ReadingBody {
 }
 
 export interface CylinderChanges {
+  /** The customer's marked cylinder this job cylinder is (null: unlink). */
+  cylinderId?: string | null;
   stepId?: string | null;
   clearance?: string | null;
   measuredAfterHone?: string | null;
