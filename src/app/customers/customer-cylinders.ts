@@ -6,11 +6,12 @@ import { RouterLink } from '@angular/router';
 
 import type { CustomerCylinderJson } from '../../../shared/api/customers';
 import { LengthPipe } from '../core/length-pipe';
+import { ShopDatePipe } from '../core/shop-date-pipe';
 
 /** The customer's cylinders under the shop's marks: bores so far and the steps they have left. */
 @Component({
   selector: 'app-customer-cylinders',
-  imports: [LengthPipe, MatButtonModule, MatIconModule, MatTableModule, RouterLink],
+  imports: [ShopDatePipe, LengthPipe, MatButtonModule, MatIconModule, MatTableModule, RouterLink],
   template: `
     <section aria-labelledby="cylinders-title">
       <h2 id="cylinders-title">Cylinders ({{ cylinders().length }})</h2>
@@ -53,7 +54,7 @@ import { LengthPipe } from '../core/length-pipe';
               <th mat-header-cell *matHeaderCellDef scope="col">Last bore</th>
               <td mat-cell *matCellDef="let c">
                 @if (c.bores.at(-1); as b) {
-                  {{ b.stepLabel ?? '—' }} · {{ b.finishedBore | length }} · {{ b.date }}
+                  {{ b.stepLabel ?? '—' }} · {{ b.finishedBore | length }} · {{ b.date | shopDate }}
                 } @else {
                   <span class="muted">never bored here</span>
                 }

@@ -9,6 +9,7 @@ import { MatInputModule } from '@angular/material/input';
 import { customerPatch, type CustomerJson } from '../../../shared/api/customers';
 import { apiErrorMessage, apiFieldErrors } from '../core/api-error';
 import { CustomersApi } from './customers-api';
+import { ShopDatePipe } from '../core/shop-date-pipe';
 
 const FIELDS = ['name', 'phone', 'email', 'acceptsEmail', 'notes'] as const;
 type Field = (typeof FIELDS)[number];
@@ -17,6 +18,7 @@ type Field = (typeof FIELDS)[number];
 @Component({
   selector: 'app-customer-details',
   imports: [
+    ShopDatePipe,
     MatButtonModule,
     MatCheckboxModule,
     MatFormFieldModule,

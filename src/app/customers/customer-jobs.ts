@@ -6,11 +6,12 @@ import type { CustomerJobJson, CustomerJobMoneyJson } from '../../../shared/api/
 import { ESTIMATE_STATE_LABELS } from '../../../shared/api/money';
 import { JOB_STATE_LABELS } from '../../../shared/jobs-api';
 import { formatMoney } from '../../../shared/money';
+import { ShopDatePipe } from '../core/shop-date-pipe';
 
 /** A customer's jobs, newest first: where each stands, its dates and what it comes to. */
 @Component({
   selector: 'app-customer-jobs',
-  imports: [MatTableModule, RouterLink],
+  imports: [ShopDatePipe, MatTableModule, RouterLink],
   template: `
     <section aria-labelledby="jobs-title">
       <h2 id="jobs-title">Jobs ({{ jobs().length }})</h2>
@@ -44,8 +45,8 @@ import { formatMoney } from '../../../shared/money';
             <ng-container matColumnDef="dates">
               <th mat-header-cell *matHeaderCellDef scope="col">In · wanted · closed</th>
               <td mat-cell *matCellDef="let j" class="nowrap">
-                {{ j.createdAt.slice(0, 10) }} · {{ j.dueDate ?? '—' }} ·
-                {{ j.closedAt ? j.closedAt.slice(0, 10) : '—' }}
+                {{ j.createdAt | shopDate }} · {{ j.dueDate ? (j.dueDate | shopDate) : '—' }} ·
+                {{ j.closedAt ? (j.closedAt | shopDate) : '—' }}
               </td>
             </ng-container>
             <ng-container matColumnDef="total">

@@ -16,6 +16,7 @@ import { CustomerEraseDialog } from './customer-erase-dialog';
 import { CustomerJobs } from './customer-jobs';
 import { CustomerMergeDialog, type MergeChoice } from './customer-merge-dialog';
 import { CustomersApi } from './customers-api';
+import { ShopDatePipe } from '../core/shop-date-pipe';
 
 /**
  * One customer: contact details (edited in place), their jobs and their cylinders; the owner may
@@ -24,6 +25,7 @@ import { CustomersApi } from './customers-api';
 @Component({
   selector: 'app-customer-page',
   imports: [
+    ShopDatePipe,
     CustomerCylinders,
     CustomerDetails,
     CustomerJobs,

@@ -4,11 +4,12 @@ import { RouterLink } from '@angular/router';
 
 import type { BoreJson } from '../../../shared/api/customers';
 import { LengthPipe } from '../core/length-pipe';
+import { ShopDatePipe } from '../core/shop-date-pipe';
 
 /** Every bore of one cylinder, oldest first: when, on which job, the step, the bore, the piston. */
 @Component({
   selector: 'app-cylinder-bores',
-  imports: [LengthPipe, MatTableModule, RouterLink],
+  imports: [ShopDatePipe, LengthPipe, MatTableModule, RouterLink],
   template: `
     <div class="table-scroll" tabindex="0" role="region" aria-label="Table: bores">
       <table mat-table [dataSource]="bores()">
@@ -17,7 +18,7 @@ import { LengthPipe } from '../core/length-pipe';
         </caption>
         <ng-container matColumnDef="date">
           <th mat-header-cell *matHeaderCellDef scope="col">Date</th>
-          <td mat-cell *matCellDef="let b" class="nowrap">{{ b.date }}</td>
+          <td mat-cell *matCellDef="let b" class="nowrap">{{ b.date | shopDate }}</td>
         </ng-container>
         <ng-container matColumnDef="job">
           <th mat-header-cell *matHeaderCellDef scope="col">Job</th>

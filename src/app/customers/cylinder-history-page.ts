@@ -15,6 +15,7 @@ import { BoreChartView } from './bore-chart-view';
 import { CustomersApi } from './customers-api';
 import { CylinderBores } from './cylinder-bores';
 import { CylinderTag } from './cylinder-tag';
+import { ShopDatePipe } from '../core/shop-date-pipe';
 
 /**
  * The life of one cylinder: every bore it has had, drawn against its family's step ladder, the
@@ -23,6 +24,7 @@ import { CylinderTag } from './cylinder-tag';
 @Component({
   selector: 'app-cylinder-history-page',
   imports: [
+    ShopDatePipe,
     BoreChartView,
     CylinderBores,
     CylinderTag,

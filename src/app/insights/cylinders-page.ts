@@ -11,6 +11,7 @@ import { InsightPanel } from './insight-panel';
 import { InsightsApi } from './insights-api';
 import { formatCount } from './insights-format';
 import { nearLastStepChart } from './near-last-step-chart';
+import { ShopDatePipe } from '../core/shop-date-pipe';
 
 /** 0, 1, 2 or 3 steps left; anything else reads as the default of one. */
 export function withinFrom(value: string | undefined): number {
@@ -25,6 +26,7 @@ export function withinFrom(value: string | undefined): number {
 @Component({
   selector: 'app-cylinders-page',
   imports: [
+    ShopDatePipe,
     InsightChart,
     InsightPanel,
     LengthPipe,

@@ -19,6 +19,7 @@ import type { EarlierBoreJson, RecommendationJson } from '../../../shared/jobs-a
 import { LengthPipe } from '../core/length-pipe';
 import { CustomersApi } from '../customers/customers-api';
 import { loadEach } from '../insights/insight-loader';
+import { ShopDatePipe } from '../core/shop-date-pipe';
 
 /**
  * At the bench, before any reading: which of the customer's cylinders this is, its bores before
@@ -28,6 +29,7 @@ import { loadEach } from '../insights/insight-loader';
 @Component({
   selector: 'app-cylinder-past',
   imports: [
+    ShopDatePipe,
     LengthPipe,
     MatButtonModule,
     MatFormFieldModule,
@@ -46,7 +48,7 @@ import { loadEach } from '../insights/insight-loader';
             @if (earlier(); as b) {
               bored {{ earlierCount() === 1 ? 'once' : earlierCount() + ' times' }} before, last to
               <strong>{{ b.stepLabel ?? 'no step' }}</strong> at
-              <strong>{{ b.finishedBore | length }}</strong> on {{ b.date }} (job
+              <strong>{{ b.finishedBore | length }}</strong> on {{ b.date | shopDate }} (job
               <a [routerLink]="['/jobs', b.jobId]">{{ b.jobNumber }}</a>). Steps that would not
               clear that bore by the clean-up are refused.
             } @else if (detail.value()) {
