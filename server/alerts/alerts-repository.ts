@@ -186,3 +186,29 @@ export async function userMailMode(
 ): Promise<{ mail_mode: 'instant' | 'digest' | 'none'; role: string } | undefined> {
   return k('users').where({ id: userId }).first('mail_mode', 'role');
 }
+
+export interface ReadySizeRow {
+  n: number;
+  step_label: string | null;
+  measured_after_hone_nm: number | null;
+  ring_gap_nm: number | null;
+  /** The measured skirt of the piston held (or already issued) for this cylinder. */
+  skirt_nm: number | null;
+}
+
+/** What the customer's copy of a finished job lists per cylinder. */
+export async function jobReadySizes(jobId: string, k: Knex = db): Promise<ReadySizeRow[]> {
+  const result = await k.raw<{ rows: ReadySizeRow[] }>(
+    `SELECT c.n, ss.label AS step_label, c.measured_after_hone_nm, c.ring_gap_nm,
+            (SELECT pu.skirt_nm FROM holds h JOIN piston_units pu ON pu.id = h.unit_id
+              WHERE h.job_id = c.job_id AND h.cylinder = c.n
+                AND (h.released_at IS NULL OR h.release_reason = 'issued')
+              ORDER BY h.created_at DESC LIMIT 1) AS skirt_nm
+       FROM job_cylinders c
+       LEFT JOIN series_steps ss ON ss.id = c.chosen_step_id
+      WHERE c.job_id = ?
+      ORDER BY c.n`,
+    [jobId],
+  );
+  return result.rows;
+}
