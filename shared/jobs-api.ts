@@ -195,6 +195,14 @@ export const readingsInput = z
       )
       .min(1, 'enter at least one reading')
       .max(6, 'at most 6 readings: three depths on two axes'),
+    /**
+     * The cylinder's `measuredAt` when these readings were typed (null: it had none). When the
+     * stored readings have changed since, the answer is 409 with both, and nothing is overwritten.
+     */
+    basedOn: z.iso
+      .datetime({ offset: true, error: 'must be the measuredAt time the readings were based on' })
+      .nullable()
+      .optional(),
   })
   .strict();
 export type ReadingsInput = z.output<typeof readingsInput>;

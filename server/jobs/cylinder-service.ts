@@ -24,7 +24,13 @@ import * as repo from './jobs-repository';
 import * as holdsRepo from './holds-repository';
 import { requireCylinder, requireOpenJob } from './jobs-service';
 import { advanceAfterHoning, advanceState } from './job-state';
-import { cylinderJson, familyClearances, familyLimits, lengthOrNull } from './jobs-json';
+import {
+  cylinderJson,
+  familyClearances,
+  familyLimits,
+  lengthOrNull,
+  readingJson,
+} from './jobs-json';
 import { clearanceRangeFor } from '../../shared/finish-checks';
 import { checkLink, ladderOf, lastBoreBefore } from '../customers/cylinders-service';
 import { lastBoreConstraint, stepsLeftAfter, stepsLeftWarning } from '../../shared/bore-history';
@@ -58,6 +64,44 @@ export async function getCylinder(
 
 // ---- Readings ---------------------------------------------------------------------------------
 
+/**
+ * Readings typed against an earlier state (offline at the bench, or two people on one cylinder)
+ * must not overwrite newer ones: when the stored readings are not the ones the entry was based on,
+ * 409 with both, so the machinist sees which values differ and chooses.
+ */
+async function refuseStaleReadings(
+  trx: Conn,
+  jobNumber: string,
+  cylinder: repo.CylinderRow,
+  input: ReadingsInput,
+): Promise<void> {
+  if (input.basedOn === undefined) return;
+  const stored = cylinder.measured_at ? cylinder.measured_at.toISOString() : null;
+  const based = input.basedOn === null ? null : new Date(input.basedOn).toISOString();
+  if (stored === based) return;
+  const storedReadings = (await repo.readingsOf(cylinder.job_id, trx))
+    .filter((r) => r.n === cylinder.n)
+    .map(readingJson);
+  throw new Conflict(
+    stored === null
+      ? `Cylinder ${cylinder.n} of job ${jobNumber} has no readings now, but these were typed against earlier ones; check them and send again.`
+      : `The readings of cylinder ${cylinder.n} of job ${jobNumber} were changed at ${stored} since these were typed; compare both and send the right ones again.`,
+    'stale_readings',
+    {
+      stored: { measuredAt: stored, readings: storedReadings },
+      yours: {
+        basedOn: input.basedOn,
+        readings: input.readings.map((r) => ({
+          depth: r.depth,
+          axis: r.axis,
+          diameter: toLengthJson(r.diameter.nm),
+          unit: r.diameter.unit,
+        })),
+      },
+    },
+  );
+}
+
 export async function putReadings(
   actorId: string,
   jobId: string,
@@ -83,6 +127,7 @@ export async function putReadings(
         'already_cut',
       );
     }
+    await refuseStaleReadings(trx, job.number, cylinder, input);
     const family = await repo.findFamily(job.family_id, trx);
     if (!family) throw new NotFound("That job's engine family");
     let assessment;
