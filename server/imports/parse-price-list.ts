@@ -142,7 +142,9 @@ export async function* readPriceListChunks(
     columns,
     defaultCurrency: options.defaultCurrency,
   };
-  const seen = new Map<string, { line: number; ok: boolean }>();
+  // SKU → its first line, negative when that row had errors: a plain number per SKU rather than
+  // an object keeps a list of hundreds of thousands of SKUs small in memory.
+  const seen = new Map<string, number>();
   const flaggedTwice = new Set<string>();
   let headerSeen = false;
 
@@ -171,7 +173,8 @@ export async function* readPriceListChunks(
       out.push({ kind: 'warning', issue: warning });
     }
     const sku = result.sku;
-    const earlier = sku ? seen.get(sku) : undefined;
+    const first = sku ? seen.get(sku) : undefined;
+    const earlier = first === undefined ? undefined : { line: Math.abs(first), ok: first > 0 };
     if (sku && earlier) {
       counts.errors++;
       out.push({
@@ -200,7 +203,7 @@ export async function* readPriceListChunks(
       flaggedTwice.add(sku);
       return;
     }
-    if (sku) seen.set(sku, { line, ok: result.row !== null });
+    if (sku) seen.set(sku, result.row !== null ? line : -line);
     if (result.row) {
       counts.ok++;
       out.push({ kind: 'row', row: result.row });
