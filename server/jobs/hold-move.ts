@@ -19,6 +19,7 @@ import {
   requireCylinderRow,
   requireHoldJob,
 } from './hold-common';
+import * as moves from '../stock/stock-movements';
 
 type Conn = Knex;
 
@@ -118,7 +119,7 @@ export async function moveHold(
         }
       }
       const where = `job ${to.number}, cylinder ${cylinder.n}`;
-      await repo.insertLedger(trx, [
+      await moves.insertLedger(trx, [
         {
           user_id: actorId,
           part_id: hold.part_id,

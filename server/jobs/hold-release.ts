@@ -7,6 +7,7 @@ import { Conflict, NotFound } from '../errors';
 import * as repo from './holds-repository';
 import * as jobsRepo from './jobs-repository';
 import { holdName, lockActiveHold } from './hold-common';
+import * as moves from '../stock/stock-movements';
 
 type Conn = Knex;
 
@@ -22,8 +23,8 @@ export async function releaseInTransaction(
   if (hold.unit_id && !(await repo.freeUnit(trx, hold.unit_id))) {
     throw new Error(`piston unit ${hold.unit_id} of hold ${hold.id} is not held`);
   }
-  await repo.changeLevels(trx, hold.part_id, { onHand: 0, held: -hold.quantity });
-  await repo.insertLedger(trx, [
+  await moves.changeLevels(trx, hold.part_id, { onHand: 0, held: -hold.quantity });
+  await moves.insertLedger(trx, [
     {
       user_id: opts.userId,
       part_id: hold.part_id,

@@ -371,47 +371,12 @@ export async function reserveCount(
   return row;
 }
 
-export async function changeLevels(
-  trx: Knex,
-  partId: string,
-  change: { onHand: number; held: number },
-): Promise<{ on_hand: number; held: number }> {
-  const [row] = await trx('part_levels')
-    .update({
-      on_hand: trx.raw('on_hand + ?', [change.onHand]),
-      held: trx.raw('held + ?', [change.held]),
-      updated_at: trx.fn.now(),
-    })
-    .where({ part_id: partId })
-    .returning<{ on_hand: number; held: number }[]>(['on_hand', 'held']);
-  return row;
-}
-
 export async function freeCount(partId: string, k: Knex = db): Promise<number> {
   const row = await k('part_levels')
     .select(k.raw('(on_hand - held)::int AS free'))
     .where({ part_id: partId })
     .first();
   return Number(row?.free ?? 0);
-}
-
-export async function insertLedger(
-  trx: Knex,
-  rows: {
-    user_id: string | null;
-    part_id: string;
-    unit_id: string | null;
-    kind: 'reservation' | 'release' | 'issue';
-    quantity: number;
-    held_delta: number;
-    unit_cost?: string | null;
-    sale_price?: string | null;
-    job_id: string;
-    reason: string;
-    ref?: string | null;
-  }[],
-): Promise<void> {
-  if (rows.length > 0) await trx('stock_ledger').insert(rows);
 }
 
 /** Free measured pistons of a step, the skirt nearest the given size first. */

@@ -29,6 +29,7 @@ import {
 import { advanceState } from './job-state';
 import { recordShortage } from '../insights/insights-service';
 import { isCheckViolation, isUniqueViolation } from '../db/pg-errors';
+import * as moves from '../stock/stock-movements';
 
 type Conn = Knex;
 
@@ -214,7 +215,7 @@ async function holdUnit(
     );
   }
   try {
-    await repo.changeLevels(trx, piston.part_id, { onHand: 0, held: 1 });
+    await moves.changeLevels(trx, piston.part_id, { onHand: 0, held: 1 });
   } catch (e) {
     if (isCheckViolation(e)) {
       throw new NotAvailable(`${piston.label} cannot be held: its part has nothing free on hand.`);
@@ -231,7 +232,7 @@ async function holdUnit(
     expires_at: c.expiresAt,
     created_by: c.actorId,
   });
-  await repo.insertLedger(trx, [
+  await moves.insertLedger(trx, [
     {
       user_id: c.actorId,
       part_id: piston.part_id,
@@ -313,7 +314,7 @@ async function holdCounted(
     expires_at: c.expiresAt,
     created_by: c.actorId,
   });
-  await repo.insertLedger(trx, [
+  await moves.insertLedger(trx, [
     {
       user_id: c.actorId,
       part_id: part.id,

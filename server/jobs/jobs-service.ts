@@ -36,6 +36,7 @@ import {
   jobListItemJson,
   photoJson,
 } from './jobs-json';
+import * as moves from '../stock/stock-movements';
 
 type Conn = Knex;
 
@@ -304,7 +305,7 @@ export async function collectJob(
       }
       // The levels row is locked by this update, so the average cost read next is the one the
       // part has at the moment of issue (a receipt changes it only under the same lock).
-      const after = await holdsRepo.changeLevels(trx, part.id, {
+      const after = await moves.changeLevels(trx, part.id, {
         onHand: -hold.quantity,
         held: -hold.quantity,
       });
@@ -313,7 +314,7 @@ export async function collectJob(
         { quantity: after.on_hand + hold.quantity, averageCost },
         hold.quantity,
       );
-      await holdsRepo.insertLedger(trx, [
+      await moves.insertLedger(trx, [
         {
           user_id: actorId,
           part_id: part.id,

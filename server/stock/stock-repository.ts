@@ -79,22 +79,6 @@ export interface LedgerRow {
   ref: string | null;
 }
 
-export interface NewLedgerRow {
-  user_id: string | null;
-  part_id: string;
-  unit_id?: string | null;
-  kind: LedgerKind;
-  quantity: number;
-  held_delta?: number;
-  unit_cost?: string | null;
-  sale_price?: string | null;
-  job_id?: string | null;
-  reason?: string | null;
-  from_bin_id?: string | null;
-  to_bin_id?: string | null;
-  ref?: string | null;
-}
-
 // ---- Bins -------------------------------------------------------------------------------------
 
 /** A bin with what is in it: pistons on the shelf and counted parts with stock. */
@@ -166,43 +150,6 @@ export async function stockPart(id: string, k: Knex = db): Promise<StockPartRow 
     )
     .where('p.id', id)
     .first();
-}
-
-/** Locks the part's levels row: every stock change to one part queues here. */
-export async function lockLevels(
-  k: Knex,
-  partId: string,
-): Promise<LevelsRow & { average_cost: string; stock_value: string }> {
-  const row = await k('part_levels as pl')
-    .join('parts as p', 'p.id', 'pl.part_id')
-    .select('pl.on_hand', 'pl.held', 'pl.bin_id', 'pl.stock_value', 'p.average_cost')
-    .where('pl.part_id', partId)
-    .forUpdate('pl')
-    .first();
-  if (!row) throw new Error(`part_levels row missing for part ${partId}`);
-  return row;
-}
-
-export async function changeLevels(
-  k: Knex,
-  partId: string,
-  change: { onHand?: number; held?: number; binId?: string | null; stockValue?: string },
-): Promise<LevelsRow> {
-  const update: Record<string, unknown> = { updated_at: k.fn.now() };
-  // Stock coming in says what it is worth; stock going out leaves that to the database's trigger.
-  if (change.stockValue !== undefined) update.stock_value = change.stockValue;
-  if (change.onHand) update.on_hand = k.raw('on_hand + ?', [change.onHand]);
-  if (change.held) update.held = k.raw('held + ?', [change.held]);
-  if (change.binId !== undefined) update.bin_id = change.binId;
-  const [row] = await k('part_levels')
-    .update(update)
-    .where({ part_id: partId })
-    .returning<LevelsRow[]>(['on_hand', 'held', 'bin_id']);
-  return row;
-}
-
-export async function setAverageCost(k: Knex, partId: string, averageCost: string): Promise<void> {
-  await k('parts').update({ average_cost: averageCost }).where({ id: partId });
 }
 
 // ---- Piston units -----------------------------------------------------------------------------
@@ -375,12 +322,6 @@ export async function unitsByIds(ids: string[], k: Knex = db): Promise<UnitRow[]
 }
 
 // ---- Ledger -----------------------------------------------------------------------------------
-
-export async function insertLedger(k: Knex, rows: NewLedgerRow[]): Promise<number[]> {
-  if (rows.length === 0) return [];
-  const inserted = await k('stock_ledger').insert(rows).returning<{ id: number }[]>('id');
-  return inserted.map((r) => Number(r.id));
-}
 
 function ledgerBase(k: Knex) {
   return k('stock_ledger as l')

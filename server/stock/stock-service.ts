@@ -27,6 +27,7 @@ import type {
 import * as repo from './stock-repository';
 import { binJson, ledgerJson, levelsJson, unitJson } from './stock-json';
 import { isCheckViolation, isUniqueViolation } from '../db/pg-errors';
+import * as moves from './stock-movements';
 
 type Conn = Knex;
 
@@ -158,7 +159,7 @@ export async function receive(
 
   const receiptId = randomUUID();
   return k.transaction(async (trx) => {
-    const before = await repo.lockLevels(trx, part.id);
+    const before = await moves.lockLevels(trx, part.id);
     const cost = receiptValue(
       { quantity: before.on_hand, value: before.stock_value },
       input.quantity,
@@ -178,7 +179,7 @@ export async function receive(
         })),
       );
       unitIds = created.map((c) => c.id);
-      ledgerIds = await repo.insertLedger(
+      ledgerIds = await moves.insertLedger(
         trx,
         created.map((c) => ({
           user_id: actorId,
@@ -193,7 +194,7 @@ export async function receive(
         })),
       );
     } else {
-      ledgerIds = await repo.insertLedger(trx, [
+      ledgerIds = await moves.insertLedger(trx, [
         {
           user_id: actorId,
           part_id: part.id,
@@ -207,13 +208,13 @@ export async function receive(
       ]);
     }
     faultPoint('stock.receipt.afterLedger');
-    const after = await repo.changeLevels(trx, part.id, {
+    const after = await moves.changeLevels(trx, part.id, {
       onHand: input.quantity,
       stockValue: cost.value,
       // A counted part lives in one bin: the delivery's bin becomes its place.
       binId: part.kind === 'piston' ? undefined : input.binId,
     });
-    await repo.setAverageCost(trx, part.id, cost.averageCost);
+    await moves.setAverageCost(trx, part.id, cost.averageCost);
     await recordAudit(trx, {
       userId: actorId,
       action: 'stock.receipt',
@@ -257,7 +258,7 @@ export async function adjust(
   }
   try {
     return await k.transaction(async (trx) => {
-      const before = await repo.lockLevels(trx, part.id);
+      const before = await moves.lockLevels(trx, part.id);
       const onHand = before.on_hand + input.quantity;
       if (onHand < 0) {
         throw new NotAvailable(
@@ -271,7 +272,7 @@ export async function adjust(
           { onHand: before.on_hand, held: before.held },
         );
       }
-      const ids = await repo.insertLedger(trx, [
+      const ids = await moves.insertLedger(trx, [
         {
           user_id: actorId,
           part_id: part.id,
@@ -282,7 +283,7 @@ export async function adjust(
         },
       ]);
       // More found than counted comes in at the average cost; fewer leaves its share of the value.
-      const after = await repo.changeLevels(trx, part.id, {
+      const after = await moves.changeLevels(trx, part.id, {
         onHand: input.quantity,
         ...(input.quantity > 0
           ? {
@@ -332,8 +333,8 @@ export async function move(
       }
       if (unit.bin_id === toBin.id)
         throw fieldError('toBinId', `${unit.label} is already in bin ${toBin.code}`);
-      const levels = await repo.lockLevels(trx, unit.part_id);
-      const ids = await repo.insertLedger(trx, [
+      const levels = await moves.lockLevels(trx, unit.part_id);
+      const ids = await moves.insertLedger(trx, [
         {
           user_id: actorId,
           part_id: unit.part_id,
@@ -366,10 +367,10 @@ export async function move(
     throw fieldError('partId', `${part.sku} is a piston: move each one by its label (unitId)`);
   }
   return k.transaction(async (trx) => {
-    const levels = await repo.lockLevels(trx, part.id);
+    const levels = await moves.lockLevels(trx, part.id);
     if (levels.bin_id === toBin.id)
       throw fieldError('toBinId', `${part.sku} is already in bin ${toBin.code}`);
-    const ids = await repo.insertLedger(trx, [
+    const ids = await moves.insertLedger(trx, [
       {
         user_id: actorId,
         part_id: part.id,
@@ -380,7 +381,7 @@ export async function move(
         reason: `${levels.on_hand} moved`,
       },
     ]);
-    const after = await repo.changeLevels(trx, part.id, { binId: toBin.id });
+    const after = await moves.changeLevels(trx, part.id, { binId: toBin.id });
     await recordAudit(trx, {
       userId: actorId,
       action: 'stock.move',
@@ -416,10 +417,10 @@ export async function scrap(
           `${unit.label} is ${STATUS_WORDS[unit.status]}; only a piston on the shelf can be scrapped.`,
         );
       }
-      const levels = await repo.lockLevels(trx, unit.part_id);
+      const levels = await moves.lockLevels(trx, unit.part_id);
       // Stock leaves at the average cost, which stays as it was (weighted-average cost method).
       const cost = issueAtCost({ quantity: levels.on_hand, averageCost: levels.average_cost }, 1);
-      const ids = await repo.insertLedger(trx, [
+      const ids = await moves.insertLedger(trx, [
         {
           user_id: actorId,
           part_id: unit.part_id,
@@ -432,7 +433,7 @@ export async function scrap(
         },
       ]);
       await repo.updateUnit(trx, unit.id, { status: 'scrapped' });
-      const after = await repo.changeLevels(trx, unit.part_id, { onHand: -1 });
+      const after = await moves.changeLevels(trx, unit.part_id, { onHand: -1 });
       await recordAudit(trx, {
         userId: actorId,
         action: 'stock.scrap',
@@ -478,13 +479,13 @@ export async function measure(
     }
     const part = await repo.stockPart(unit.part_id, trx);
     if (part) checkSkirt('skirt', skirtNm, part);
-    const levels = await repo.lockLevels(trx, unit.part_id);
+    const levels = await moves.lockLevels(trx, unit.part_id);
     const was =
       unit.skirt_nm === null
         ? null
         : `${formatLength(unit.skirt_nm, 'mm')} / ${formatLength(unit.skirt_nm, 'in')}`;
     const now = `${formatLength(skirtNm, 'mm')} / ${formatLength(skirtNm, 'in')}`;
-    const ids = await repo.insertLedger(trx, [
+    const ids = await moves.insertLedger(trx, [
       {
         user_id: actorId,
         part_id: unit.part_id,
