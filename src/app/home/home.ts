@@ -41,7 +41,7 @@ const SECTION_TEXT: Record<
   waitingForParts: {
     title: 'Waiting for parts',
     icon: 'hourglass_top',
-    empty: 'No job is waiting for a piston.',
+    empty: 'No job is waiting for a piston or a ring set.',
     all: 'Open the job bench',
     link: '/jobs',
   },
