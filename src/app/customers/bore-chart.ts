@@ -17,11 +17,16 @@ function plotted(length: { mm: string; in: string }, unit: LengthUnit): number {
   return Number(unit === 'in' ? length.in : length.mm);
 }
 
-export function boreChart(c: CylinderDetailJson, unit: LengthUnit): BoreChart | null {
+/** `day` writes a YYYY-MM-DD date the shop's way (the page passes the shop's format). */
+export function boreChart(
+  c: CylinderDetailJson,
+  unit: LengthUnit,
+  day: (date: string) => string = (date) => date,
+): BoreChart | null {
   if (c.bores.length === 0) return null;
   // A first place on the axis for the standard bore, so the ladder's lines have two ends even
   // when the cylinder has one bore.
-  const labels = ['Standard', ...c.bores.map((b) => `${b.date} (${b.jobNumber})`)];
+  const labels = ['Standard', ...c.bores.map((b) => `${day(b.date)} (${b.jobNumber})`)];
   const bores = [null, ...c.bores.map((b) => plotted(b.finishedBore, unit))];
   const ladder = c.steps
     .filter((s) => !s.pastWall)
@@ -82,7 +87,7 @@ export function boreChart(c: CylinderDetailJson, unit: LengthUnit): BoreChart | 
   const last = c.bores[c.bores.length - 1];
   const summary =
     `Finished bore of ${c.mark} at each of its ${c.bores.length} bore${c.bores.length === 1 ? '' : 's'}, ` +
-    `the last at ${formatLength(lengthJsonToNm(last.finishedBore, unit), unit)} on ${last.date}, ` +
+    `the last at ${formatLength(lengthJsonToNm(last.finishedBore, unit), unit)} on ${day(last.date)}, ` +
     `drawn against the standard bore and the ${ladder.length} steps of ${c.family.code}; ` +
     `${c.stepsLeft} step${c.stepsLeft === 1 ? '' : 's'} left.`;
   return { data, options, summary };

@@ -5,6 +5,7 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { RouterLink } from '@angular/router';
 
 import { stepsLeftWarning } from '../../../shared/bore-history';
+import { formatShopDate } from '../../../shared/dates';
 import { JOB_STATE_LABELS } from '../../../shared/jobs-api';
 import { LengthPipe } from '../core/length-pipe';
 import { Session } from '../core/session';
@@ -50,7 +51,8 @@ export class CylinderHistoryPage {
   protected readonly cylinder = loadEach(this.cylinderId, (id) => this.api.cylinder(id));
   protected readonly chart = computed(() => {
     const c = this.cylinder.value();
-    return c ? boreChart(c, this.session.unit()) : null;
+    const ctx = { locale: this.session.locale(), timeZone: this.session.timeZone() };
+    return c ? boreChart(c, this.session.unit(), (d) => formatShopDate(d, 'date', ctx)) : null;
   });
   protected readonly lastStepWarning = computed(() => {
     const c = this.cylinder.value();

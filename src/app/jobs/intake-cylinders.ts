@@ -16,7 +16,9 @@ import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
 
 import { cylinderInput, type CustomerCylinderJson } from '../../../shared/api/customers';
+import { formatShopDate } from '../../../shared/dates';
 import { apiErrorMessage, apiFieldErrors } from '../core/api-error';
+import { Session } from '../core/session';
 import { CustomersApi } from '../customers/customers-api';
 import { loadEach } from '../insights/insight-loader';
 
@@ -40,6 +42,7 @@ import { loadEach } from '../insights/insight-loader';
 })
 export class IntakeCylinders {
   private readonly api = inject(CustomersApi);
+  private readonly session = inject(Session);
 
   readonly customerId = input.required<string>();
   readonly familyId = input.required<string>();
@@ -89,12 +92,20 @@ export class IntakeCylinders {
     const boreText =
       bores === 0
         ? 'never bored here'
-        : `bored ${bores}× (last ${last?.stepLabel ?? 'unknown step'}, ${last?.date ?? ''})`;
+        : `bored ${bores}× (last ${last?.stepLabel ?? 'unknown step'}, ${this.day(last?.date)})`;
     const left =
       c.stepsLeft === 0
         ? 'no steps left'
         : `${c.stepsLeft} step${c.stepsLeft === 1 ? '' : 's'} left`;
     return `${boreText} · ${left}`;
+  }
+
+  /** A YYYY-MM-DD date the shop's one way. */
+  private day(date: string | undefined): string {
+    return formatShopDate(date, 'date', {
+      locale: this.session.locale(),
+      timeZone: this.session.timeZone(),
+    });
   }
 
   protected byId(id: string | null): CustomerCylinderJson | null {
