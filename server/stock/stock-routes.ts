@@ -18,6 +18,7 @@ import {
   UNIT_STATUSES,
 } from '../../shared/stock-api';
 import * as service from './stock-service';
+import * as care from './unit-care-service';
 
 const RECEIVERS: Role[] = ['owner', 'buyer', 'staff'];
 const MEASURERS: Role[] = ['owner', 'buyer', 'staff', 'machinist'];
@@ -129,7 +130,7 @@ export function registerStockRoutes(router: Router): void {
     money: STOCK_MONEY,
     params: idParams,
     body: scrapInput,
-    handler: ({ params, body, user }) => service.scrap(user.id, params.id, body.reason),
+    handler: ({ params, body, user }) => care.scrap(user.id, params.id, body.reason),
   });
   route(router, {
     method: 'post',
@@ -138,7 +139,7 @@ export function registerStockRoutes(router: Router): void {
     money: STOCK_MONEY,
     params: idParams,
     body: measureInput,
-    handler: ({ params, body, user }) => service.measure(user.id, params.id, body.skirt),
+    handler: ({ params, body, user }) => care.measure(user.id, params.id, body.skirt),
   });
 
   route(router, {

@@ -6,13 +6,11 @@ import { randomUUID } from 'node:crypto';
 import type { Knex } from 'knex';
 import { db } from '../db/knex';
 import { recordAudit } from '../audit/audit';
-import { BadRequest, Conflict, NotAvailable, NotFound } from '../errors';
+import { Conflict, NotAvailable, NotFound } from '../errors';
 import { faultPoint } from '../testing-faults';
 import Decimal from 'decimal.js';
-import { issueAtCost, receiptValue } from '../../shared/average-cost';
-import { formatLength, type Nm } from '../../shared/lengths';
-import { stepNominalBore } from '../../shared/step-series';
-import type { Page, UnitStatus } from '../../shared/catalog-api';
+import { receiptValue } from '../../shared/average-cost';
+import type { Page } from '../../shared/catalog-api';
 import type {
   AdjustmentInput,
   BinInput,
@@ -28,62 +26,16 @@ import * as repo from './stock-repository';
 import { binJson, ledgerJson, levelsJson, unitJson } from './stock-json';
 import { isCheckViolation, isUniqueViolation } from '../db/pg-errors';
 import * as moves from './stock-movements';
+import {
+  checkSkirt,
+  fieldError,
+  ledgerOut,
+  requireBin,
+  requirePart,
+  STATUS_WORDS,
+} from './stock-checks';
 
 type Conn = Knex;
-
-function fieldError(field: string, message: string): BadRequest {
-  return new BadRequest(`${field}: ${message}`, [{ field, message }]);
-}
-
-const STATUS_WORDS: Record<UnitStatus, string> = {
-  free: 'free on the shelf',
-  held: 'held for a job',
-  issued: 'already issued',
-  returned: 'sent back to the supplier',
-  scrapped: 'scrapped',
-};
-
-/**
- * A measured skirt far from the step's nominal bore is almost always a unit mix-up (a size in
- * inches typed as mm, or the reverse: a factor of 25.4). Our own guard, kept wide (a quarter of
- * the bore) so it never second-guesses a real measurement.
- */
-function checkSkirt(field: string, skirtNm: Nm, part: repo.StockPartRow): void {
-  if (part.standard_bore_nm === null || part.offset_nm === null) return;
-  const nominal = stepNominalBore(part.standard_bore_nm, part.offset_nm);
-  if (Math.abs(skirtNm - nominal) * 4 > nominal) {
-    throw fieldError(
-      field,
-      `${formatLength(skirtNm, 'mm')} (${formatLength(skirtNm, 'in')}) is far from this step's nominal bore of ${formatLength(nominal, 'mm')} (${formatLength(nominal, 'in')}); check the number and its unit`,
-    );
-  }
-}
-
-async function requirePart(k: Conn, partId: string, field = 'partId'): Promise<repo.StockPartRow> {
-  const part = await repo.stockPart(partId, k);
-  if (!part) throw fieldError(field, 'no part has this id');
-  if (part.kind === 'kit') {
-    throw fieldError(
-      field,
-      `${part.sku} is a kit: its stock is the stock of its parts; count those`,
-    );
-  }
-  return part;
-}
-
-async function requireBin(
-  k: Conn,
-  binId: string,
-  field: string,
-): Promise<{ id: string; code: string }> {
-  const bin = await repo.findBin(binId, k);
-  if (!bin) throw fieldError(field, 'no bin has this id');
-  return bin;
-}
-
-async function ledgerOut(k: Conn, ids: number[]): Promise<LedgerJson[]> {
-  return (await repo.ledgerByIds(ids, k)).map(ledgerJson);
-}
 
 // ---- Bins -------------------------------------------------------------------------------------
 
@@ -391,125 +343,6 @@ export async function move(
       after: { binId: toBin.id },
     });
     return { ledger: await ledgerOut(trx, ids), levels: levelsJson(after, levels.average_cost) };
-  });
-}
-
-// ---- Scrap and measure ------------------------------------------------------------------------
-
-/** Writes off a free piston (damaged, dropped, lost at a count). A held one is released first. */
-export async function scrap(
-  actorId: string | null,
-  unitId: string,
-  reason: string,
-  k: Conn = db,
-): Promise<StockChangeJson> {
-  try {
-    return await k.transaction(async (trx) => {
-      const unit = await repo.lockUnit(trx, unitId);
-      if (!unit) throw new NotFound('That piston unit');
-      if (unit.status === 'held') {
-        throw new NotAvailable(
-          `${unit.label} is held for a job; release the hold before scrapping it.`,
-        );
-      }
-      if (unit.status !== 'free') {
-        throw new Conflict(
-          `${unit.label} is ${STATUS_WORDS[unit.status]}; only a piston on the shelf can be scrapped.`,
-        );
-      }
-      const levels = await moves.lockLevels(trx, unit.part_id);
-      // Stock leaves at the average cost, which stays as it was (weighted-average cost method).
-      const cost = issueAtCost({ quantity: levels.on_hand, averageCost: levels.average_cost }, 1);
-      const ids = await moves.insertLedger(trx, [
-        {
-          user_id: actorId,
-          part_id: unit.part_id,
-          unit_id: unit.id,
-          kind: 'scrap',
-          quantity: -1,
-          unit_cost: cost.issuedValue,
-          reason,
-          from_bin_id: unit.bin_id,
-        },
-      ]);
-      await repo.updateUnit(trx, unit.id, { status: 'scrapped' });
-      const after = await moves.changeLevels(trx, unit.part_id, { onHand: -1 });
-      await recordAudit(trx, {
-        userId: actorId,
-        action: 'stock.scrap',
-        entity: 'piston_unit',
-        entityId: unit.id,
-        before: { status: unit.status },
-        after: { status: 'scrapped', reason },
-      });
-      const row = await repo.findUnit({ id: unit.id }, trx);
-      return {
-        ledger: await ledgerOut(trx, ids),
-        levels: levelsJson(after, levels.average_cost),
-        unit: row ? unitJson(row) : undefined,
-      };
-    });
-  } catch (e) {
-    if (isCheckViolation(e)) {
-      throw new NotAvailable('That piston cannot be scrapped: it is counted as held for a job.');
-    }
-    throw e;
-  }
-}
-
-/** Records a piston's measured skirt diameter (first measurement, or a correction while it is free). */
-export async function measure(
-  actorId: string | null,
-  unitId: string,
-  skirtNm: Nm,
-  k: Conn = db,
-): Promise<StockChangeJson> {
-  return k.transaction(async (trx) => {
-    const unit = await repo.lockUnit(trx, unitId);
-    if (!unit) throw new NotFound('That piston unit');
-    if (unit.status !== 'free' && unit.status !== 'held') {
-      throw new Conflict(
-        `${unit.label} is ${STATUS_WORDS[unit.status]}; only a piston on the shelf can be measured.`,
-      );
-    }
-    if (unit.status === 'held' && unit.skirt_nm !== null) {
-      throw new Conflict(
-        `${unit.label} is held for a job whose bore was worked out from its measured size; release the hold before measuring it again.`,
-      );
-    }
-    const part = await repo.stockPart(unit.part_id, trx);
-    if (part) checkSkirt('skirt', skirtNm, part);
-    const levels = await moves.lockLevels(trx, unit.part_id);
-    const was =
-      unit.skirt_nm === null
-        ? null
-        : `${formatLength(unit.skirt_nm, 'mm')} / ${formatLength(unit.skirt_nm, 'in')}`;
-    const now = `${formatLength(skirtNm, 'mm')} / ${formatLength(skirtNm, 'in')}`;
-    const ids = await moves.insertLedger(trx, [
-      {
-        user_id: actorId,
-        part_id: unit.part_id,
-        unit_id: unit.id,
-        kind: 'measure',
-        quantity: 0,
-        reason: was ? `re-measured ${now} (was ${was})` : `measured ${now}`,
-      },
-    ]);
-    await repo.updateUnit(trx, unit.id, { skirt_nm: skirtNm, measured: true });
-    await recordAudit(trx, {
-      userId: actorId,
-      action: 'stock.measure',
-      entity: 'piston_unit',
-      entityId: unit.id,
-      before: { skirtNm: unit.skirt_nm },
-      after: { skirtNm },
-    });
-    const row = await repo.findUnit({ id: unit.id }, trx);
-    return {
-      ledger: await ledgerOut(trx, ids),
-      levels: levelsJson(levels, levels.average_cost),
-      unit: row ? unitJson(row) : undefined,
-    };
   });
 }
 
