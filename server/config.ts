@@ -30,6 +30,8 @@ const schema = z.object({
   SIGN_IN_FAILURES_PER_ADDRESS: z.coerce.number().int().min(1).max(10000).default(30),
   /** Seconds a price-list import waits for its turn (two at once, one per supplier) before a 503. */
   IMPORT_WAIT_SECONDS: z.coerce.number().min(0).max(600).default(20),
+  /** How far the JavaScript heap may grow past the last full collection (%; 0: V8's own choice). */
+  HEAP_GROWING_PERCENT: z.coerce.number().int().min(0).max(300).default(50),
   /** Hours an uncommitted price-list preview (and its staged rows) is kept before it is swept. */
   PRICE_LIST_PREVIEW_HOURS: z.coerce
     .number()

@@ -8,6 +8,7 @@ import { logger } from './logger';
 import { createApp } from './app';
 import { db } from './db/knex';
 import { startBackgroundWork } from './background';
+import { limitHeapGrowth } from './heap-growth';
 
 export interface RunningServer {
   server: Server;
@@ -53,6 +54,7 @@ function readTls(file: string, name: string): Buffer {
 }
 
 export async function startServer(port = config.PORT, host = config.HOST): Promise<RunningServer> {
+  limitHeapGrowth(config.HEAP_GROWING_PERCENT);
   const created = createApp();
   const background = await startBackgroundWork();
   let server: Server;
