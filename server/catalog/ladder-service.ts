@@ -11,6 +11,7 @@ import { stepNominalBore } from '../../shared/step-series';
 import * as needs from '../stock/part-needs-repository';
 import * as repo from './catalog-repository';
 import { familyJson, lengthOrNull } from './catalog-json';
+import { containsPattern } from '../db/like-pattern';
 
 export async function ladder(familyId: string, k: Knex = db): Promise<LadderJson> {
   const row = await repo.findFamily(familyId, k);
@@ -79,7 +80,7 @@ export async function listExposure(
 ): Promise<Page<ExposureItemJson>> {
   const { rows, total } = await needs.emptySteps(
     {
-      like: query.q ? repo.containsPattern(query.q) : undefined,
+      like: query.q ? containsPattern(query.q) : undefined,
       familyId: query.familyId,
       page: query.page,
       pageSize: query.pageSize,

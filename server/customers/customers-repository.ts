@@ -2,7 +2,7 @@
 // customer row is locked FOR UPDATE by whoever merges or erases it, so the two cannot interleave.
 import type { Knex } from 'knex';
 import { db } from '../db/knex';
-import { containsPattern } from '../catalog/catalog-repository';
+import { containsPattern } from '../db/like-pattern';
 import type { JobState } from '../../shared/jobs-api';
 
 export interface CustomerRow {

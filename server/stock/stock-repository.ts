@@ -2,7 +2,7 @@
 // caller's transaction; the row locks (FOR UPDATE) order concurrent changes to one part.
 import type { Knex } from 'knex';
 import { db } from '../db/knex';
-import { containsPattern } from '../catalog/catalog-repository';
+import { containsPattern } from '../db/like-pattern';
 import type { PartKind, UnitStatus } from '../../shared/catalog-api';
 import type { LedgerKind } from '../../shared/stock-api';
 

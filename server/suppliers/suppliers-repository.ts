@@ -2,7 +2,7 @@
 // mapping queue with its suggestions.
 import type { Knex } from 'knex';
 import { db } from '../db/knex';
-import { containsPattern } from '../catalog/catalog-repository';
+import { containsPattern } from '../db/like-pattern';
 
 export interface SupplierRow {
   id: string;

@@ -1,6 +1,6 @@
 import type { Knex } from 'knex';
 import { db } from '../db/knex';
-import { containsPattern } from '../catalog/catalog-repository';
+import { containsPattern } from '../db/like-pattern';
 import type { Role, SessionUser, LengthUnit } from '../../shared/session-types';
 
 export interface UserRow {

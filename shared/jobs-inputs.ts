@@ -1,0 +1,197 @@
+// What the jobs API accepts: intake, bore readings, a cylinder's step and clearance, the cut, holds
+// and notes. The zod schemas are used by the server routes and the Angular forms, so both refuse
+// the same input with the same words.
+import { z } from 'zod';
+import { atMost, isOneEmailAddress, MAX_EMAIL_LENGTH, singleLine } from './text-rules';
+import { optionalLengthField } from './catalog-api';
+import { parseLength, type LengthUnit } from './lengths';
+import { OPEN_STATES, READING_AXES, READING_DEPTHS } from './jobs-states';
+
+const uuid = z.string().uuid('must be a valid id');
+/** Optional text: left out stays undefined (no change), "" or null become null (cleared). */
+const optionalText = (max: number) =>
+  z
+    .union([z.null(), z.string().trim().max(max, atMost(max))])
+    .optional()
+    .transform((v) => (v === '' ? null : v));
+
+/** A calendar date written as YYYY-MM-DD, and a real one (no 31 April). */
+export const isoDate = z
+  .string({ error: 'must be a date written as YYYY-MM-DD' })
+  .max(10, atMost(10, 'must be a date written as YYYY-MM-DD'))
+  .regex(/^\d{4}-\d{2}-\d{2}$/, 'must be a date written as YYYY-MM-DD')
+  .refine((text) => {
+    const [y, m, d] = text.split('-').map(Number);
+    const date = new Date(Date.UTC(y, m - 1, d));
+    return (
+      y >= 2000 &&
+      y <= 2200 &&
+      date.getUTCFullYear() === y &&
+      date.getUTCMonth() === m - 1 &&
+      date.getUTCDate() === d
+    );
+  }, 'is not a date on the calendar');
+
+const customerFields = {
+  customerName: singleLine(120, "enter the customer's name").pipe(
+    z.string().min(1, "enter the customer's name"),
+  ),
+  customerPhone: optionalText(40).refine(
+    (v) => v === null || v === undefined || /^[0-9+()\-./ ]{3,40}$/.test(v),
+    'digits, spaces and + ( ) - . / only',
+  ),
+  customerEmail: optionalText(MAX_EMAIL_LENGTH).refine(
+    (v) => v === null || v === undefined || isOneEmailAddress(v),
+    'is not one e-mail address (like name@example.test)',
+  ),
+  askedFor: z.string().trim().max(300, 'at most 300 characters').optional(),
+  dueDate: isoDate.nullable().optional(),
+  notes: z.string().trim().max(2000, 'at most 2000 characters').optional(),
+  notifyCustomer: z.boolean().optional(),
+};
+
+export const jobInput = z
+  .object({
+    ...customerFields,
+    /** The customer's record; the typed name, phone and e-mail still work and find or make one. */
+    customerId: uuid.optional(),
+    customerName: customerFields.customerName.optional(),
+    familyId: uuid,
+    cylinders: z
+      .number({ error: 'must be a whole number' })
+      .int('must be a whole number')
+      .min(1, 'at least 1')
+      .max(24, 'at most 24'),
+    /** The customer's known cylinder for each job cylinder, in order (null: not marked). */
+    cylinderIds: z.array(uuid.nullable()).max(24, 'at most 24').optional(),
+  })
+  .strict()
+  .refine((j) => (j.customerId === undefined) !== (j.customerName === undefined), {
+    message: "give either customerId (a customer's record) or customerName",
+    path: ['customerName'],
+  })
+  .refine((j) => j.customerId === undefined || (!j.customerPhone && !j.customerEmail), {
+    message: "with customerId, change the customer's phone and e-mail on their record",
+    path: ['customerPhone'],
+  })
+  .refine((j) => j.cylinderIds === undefined || j.cylinderIds.length <= j.cylinders, {
+    message: 'more cylinders marked than the job brings',
+    path: ['cylinderIds'],
+  });
+export type JobInput = z.output<typeof jobInput>;
+
+export const jobPatch = z
+  .object({
+    ...customerFields,
+    state: z.enum(OPEN_STATES, {
+      error: `must be one of ${OPEN_STATES.join(', ')} (collect and cancel have their own commands)`,
+    }),
+  })
+  .partial()
+  .strict()
+  .refine((p) => Object.values(p).some((v) => v !== undefined), 'nothing to change');
+export type JobPatch = z.output<typeof jobPatch>;
+
+export const JOB_SORTS = ['due', 'number', 'customer', 'created', 'state'] as const;
+
+/** A bore diameter as typed ("2.5260 in"), read into nm and the unit it was typed in. */
+export const diameterField = z
+  .string({ error: 'must be text with its unit, for example "64.91 mm" or "2.5555 in"' })
+  .transform((text, ctx): { nm: number; unit: LengthUnit } => {
+    const parsed = parseLength(text, { max: 500_000_000 });
+    if (!parsed.ok) {
+      ctx.addIssue({ code: 'custom', message: parsed.message });
+      return z.NEVER;
+    }
+    return { nm: parsed.nm, unit: parsed.unit };
+  });
+
+export const readingsInput = z
+  .object({
+    readings: z
+      .array(
+        z
+          .object({
+            depth: z.enum(READING_DEPTHS, { error: 'must be top, middle or bottom' }),
+            axis: z.enum(READING_AXES, { error: 'must be pin or thrust' }),
+            diameter: diameterField,
+          })
+          .strict(),
+      )
+      .min(1, 'enter at least one reading')
+      .max(6, 'at most 6 readings: three depths on two axes'),
+    /**
+     * The cylinder's `measuredAt` when these readings were typed (null: it had none). When the
+     * stored readings have changed since, the answer is 409 with both, and nothing is overwritten.
+     */
+    basedOn: z.iso
+      .datetime({ offset: true, error: 'must be the measuredAt time the readings were based on' })
+      .nullable()
+      .optional(),
+  })
+  .strict();
+export type ReadingsInput = z.output<typeof readingsInput>;
+
+const smallLength = optionalLengthField({ allowZero: true, max: 10_000_000 });
+
+export const cylinderPatch = z
+  .object({
+    /** The customer's cylinder this job cylinder is (null: unlink). */
+    cylinderId: uuid.nullable(),
+    stepId: uuid.nullable(),
+    clearance: smallLength,
+    measuredAfterHone: optionalLengthField({ max: 500_000_000 }),
+    ringGap: smallLength,
+  })
+  .partial()
+  .strict()
+  .refine((p) => Object.values(p).some((v) => v !== undefined), 'nothing to change');
+export type CylinderPatch = z.output<typeof cylinderPatch>;
+
+/** Marking a cylinder cut; the reason is needed only when the held piston's bore does not clean up. */
+export const cutInput = z
+  .object({
+    overrideReason: z
+      .string()
+      .trim()
+      .min(3, 'say why the cylinder is cut although the bore does not clean up')
+      .max(500)
+      .optional(),
+  })
+  .strict();
+export type CutInput = z.output<typeof cutInput>;
+
+const cylinderNumber = z
+  .number({ error: 'must be the cylinder number' })
+  .int('must be a whole number')
+  .min(1, 'at least 1')
+  .max(24, 'at most 24');
+
+export const holdInput = z
+  .object({
+    cylinder: cylinderNumber,
+    unitId: uuid.optional(),
+    partId: uuid.optional(),
+    quantity: z.number().int('must be a whole number').min(1).max(24).optional(),
+    /** Days until the hold lapses; null for no expiry; left out: the shop's default. */
+    expiresInDays: z.number().int().min(1).max(365).nullable().optional(),
+  })
+  .strict()
+  .refine((h) => (h.unitId ? 1 : 0) + (h.partId ? 1 : 0) === 1, {
+    message: 'give either unitId (one measured piston) or partId with a quantity (ring sets)',
+    path: ['unitId'],
+  })
+  .refine((h) => !(h.unitId && h.quantity !== undefined && h.quantity !== 1), {
+    message: 'a piston unit is held one at a time',
+    path: ['quantity'],
+  });
+export type HoldInput = z.output<typeof holdInput>;
+
+export const holdMoveInput = z.object({ jobId: uuid, cylinder: cylinderNumber }).strict();
+export type HoldMoveInput = z.output<typeof holdMoveInput>;
+
+export const noteInput = z
+  .object({
+    text: z.string().trim().min(1, 'write the note').max(2000, 'at most 2000 characters'),
+  })
+  .strict();
