@@ -8,6 +8,7 @@ import { neutralizeCell } from '../../shared/csv-safety';
 import type { LengthJson } from '../../shared/lengths';
 import { D, moneyOut } from '../../shared/purchase-money';
 import type { LineRow, OrderRow } from './orders-repository';
+import { formatShopDate, type DateContext } from '../../shared/dates';
 
 export function orderCsv(order: OrderRow, lines: LineRow[]): string {
   return stringify([
@@ -39,6 +40,7 @@ export function orderMail(
   order: OrderRow,
   lines: LineRow[],
   expectedOn: string | null,
+  dates: DateContext,
 ): MailContent & { attachments: MailAttachment[] } {
   const total = lines.reduce((sum, l) => sum.plus(new D(l.unit_price).times(l.quantity)), new D(0));
   const content = composeMail({
@@ -58,7 +60,8 @@ export function orderMail(
     facts: [
       ['Order', order.number],
       ['Total', `${moneyOut(total)} ${order.currency}`],
-      ['Wanted by', expectedOn ?? 'as soon as possible'],
+      // Written the shop's way; the attached CSV keeps the ISO day for the supplier's systems.
+      ['Wanted by', expectedOn ? formatShopDate(expectedOn, 'date', dates) : 'as soon as possible'],
     ],
   });
   return {

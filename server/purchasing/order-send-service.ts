@@ -39,7 +39,10 @@ export async function sendOrder(actorId: string, id: string, k: Knex = db): Prom
     if (lines.length === 0) throw new Conflict(`${order.number} has no lines to send.`, 'no_lines');
     const expectedOn =
       order.expected_on ?? today.plus({ days: order.supplier_lead_days }).toISODate() ?? null;
-    const mail = orderMail(settings.shopName, order, lines, expectedOn);
+    const mail = orderMail(settings.shopName, order, lines, expectedOn, {
+      locale: settings.locale,
+      timeZone: settings.timeZone,
+    });
     const outboxId = await enqueueMail(trx, { to: order.supplier_email, ...mail });
     await repo.updateOrder(trx, id, {
       state: 'sent_out',

@@ -28,6 +28,7 @@ import { D, moneyOut } from '../../shared/purchase-money';
 import { mean, sampleStandardDeviation } from 'simple-statistics';
 import * as repo from './reorder-repository';
 import { bestOffer, offersFor, shopToday } from './sourcing-service';
+import { formatShopDate } from '../../shared/dates';
 
 /** Used when no supplier offers the part and none is given: an assumption, shown as one. */
 export const FALLBACK_LEAD_DAYS = 14;
@@ -160,6 +161,8 @@ export async function suggestion(
   }
   const settings = await getSettings(k);
   const today = await shopToday(k);
+  const shopDay = (day: string | null) =>
+    formatShopDate(day, 'date', { locale: settings.locale, timeZone: settings.timeZone });
   // Whole days only: the window ends where today begins in the shop's time zone.
   const to = today;
   const from = to.minus({ days: q.windowDays });
@@ -309,7 +312,7 @@ export async function suggestion(
     },
     issued: fig(
       total,
-      `${total} issued in the ${q.windowDays} days from ${from.toISODate()} to ${to.minus({ days: 1 }).toISODate()}.`,
+      `${total} issued in the ${q.windowDays} days from ${shopDay(from.toISODate())} to ${shopDay(to.minus({ days: 1 }).toISODate())}.`,
     ),
     lostDemand: fig(
       lostTotal,

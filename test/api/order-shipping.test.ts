@@ -98,3 +98,24 @@ describe('shipping in the cost of received stock', () => {
     expect(res.body.shipping).toBeUndefined();
   });
 });
+
+describe('the purchase order e-mail', () => {
+  it("when an order is wanted by a day, then the e-mail writes it the shop's way and the CSV keeps the ISO day", async () => {
+    const { orderMail } = await import('../../server/purchasing/order-mail');
+    const { findOrder, orderLines } = await import('../../server/purchasing/orders-repository');
+    const { order } = await sentOrder();
+    const row = await findOrder(order.id);
+    const lines = await orderLines([order.id]);
+    if (!row) throw new Error('order not found');
+    const gb = orderMail('Test shop', row, lines, '2027-03-14', {
+      locale: 'en-GB',
+      timeZone: 'UTC',
+    });
+    expect(gb.text).toMatch(/Wanted by:? 14\/03\/2027/);
+    const us = orderMail('Test shop', row, lines, '2027-03-14', {
+      locale: 'en-US',
+      timeZone: 'UTC',
+    });
+    expect(us.text).toMatch(/Wanted by:? 03\/14\/2027/);
+  });
+});

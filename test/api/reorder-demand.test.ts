@@ -129,6 +129,8 @@ describe('GET /api/parts/:id/reorder-suggestion with lost sales and a late suppl
     // 2 lost = 8; mean 8/14 = 0.571429 a day; sample variance (16 − 14 × 0.571429²) / 13
     // = 0.879121, σ = 0.937614.
     expect(fixed.body.issued.value).toBe(6);
+    // The window is written the shop's way (en-GB by default: day/month/year), not as ISO days.
+    expect(fixed.body.issued.how).toMatch(/from \d{2}\/\d{2}\/\d{4} to \d{2}\/\d{2}\/\d{4}\.$/);
     expect(fixed.body.lostDemand.value).toBe(2);
     expect(fixed.body.meanDaily.value).toBeCloseTo(0.571429, 5);
     expect(fixed.body.sigmaDaily.value).toBeCloseTo(0.937614, 5);
