@@ -17,6 +17,7 @@ import {
 import type { Page } from '../../shared/jobs-api';
 import * as repo from './customers-repository';
 import { jobTotals } from './customer-money';
+import { forgetAddress } from '../mail/outbox';
 
 type Conn = Knex;
 
@@ -264,13 +265,15 @@ export async function eraseCustomer(
       accepts_email: false,
       erased_at: trx.fn.now(),
     });
+    // Mail still queued for them is not sent, and the copies kept lose the address and the text.
+    const mails = c.email ? await forgetAddress(trx, c.email) : 0;
     const jobs = await repo.jobsOfCustomer(id, trx);
     await recordAudit(trx, {
       userId: actorId,
       action: 'customer.erase',
       entity: 'customer',
       entityId: id,
-      after: { keptJobs: jobs.length },
+      after: { keptJobs: jobs.length, mailsForgotten: mails },
     });
   });
   return getCustomer(id, k);

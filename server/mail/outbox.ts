@@ -71,3 +71,29 @@ export async function enqueueTemplated(
     .returning('id');
   return (rows[0] as { id: string } | undefined)?.id ?? null;
 }
+
+/** Where mail to an erased person is kept pointing: a reserved domain that delivers nowhere. */
+export const ERASED_ADDRESS = 'erased@erased.invalid';
+
+/**
+ * Forgets an address (a customer's data erased on request): messages still waiting to go to it are
+ * never sent, and every copy kept of mail to it loses the address and its text. Returns how many
+ * messages were touched.
+ */
+export async function forgetAddress(trx: Knex, address: string): Promise<number> {
+  const rows = await trx('outbox')
+    .whereRaw('lower(to_address) = lower(?)', [address])
+    .update({
+      to_address: ERASED_ADDRESS,
+      // Empty, not null: a message without a template must keep a (now blank) text.
+      body_text: trx.raw(`CASE WHEN body_text IS NULL THEN NULL ELSE '' END`),
+      body_html: null,
+      attachments: '[]',
+      data: '{}',
+      status: trx.raw(`CASE WHEN status = 'pending' THEN 'failed' ELSE status END`),
+      last_error: trx.raw(
+        `CASE WHEN status = 'pending' THEN 'not sent: the customer''s data was erased' ELSE last_error END`,
+      ),
+    });
+  return rows;
+}

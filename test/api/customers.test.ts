@@ -314,6 +314,17 @@ describe('export and erasure', () => {
       notes: 'Lives by the mill.',
     });
     const job = await jobFor(c.id);
+    // A message still waiting to go to them, and one already sent.
+    await db('outbox').insert([
+      { to_address: c.email, subject: 'Your cylinder is ready', body_text: `Dear ${c.name}` },
+      {
+        to_address: c.email,
+        subject: 'Estimate',
+        body_text: `Dear ${c.name}`,
+        status: 'sent',
+        sent_at: db.fn.now(),
+      },
+    ]);
     expect((await staff.post(`/api/customers/${c.id}/erase`, {})).status).toBe(403);
     const erased = await owner.post(`/api/customers/${c.id}/erase`, {});
     expect(erased.status).toBe(200);
@@ -347,6 +358,18 @@ describe('export and erasure', () => {
     expect(again.body.error.code).toBe('already_erased');
     const edit = await staff.patch(`/api/customers/${c.id}`, { name: 'Back Again' });
     expect(edit.status).toBe(409);
+    // The waiting message is never sent; neither copy keeps the address or the text.
+    expect(await db('outbox').where({ to_address: c.email })).toHaveLength(0);
+    const forgotten = await db('outbox')
+      .where({ to_address: 'erased@erased.invalid' })
+      .whereIn('subject', ['Your cylinder is ready', 'Estimate'])
+      .orderBy('subject');
+    expect(forgotten.map((m) => [m.subject, m.status, m.body_text])).toEqual(
+      expect.arrayContaining([
+        ['Estimate', 'sent', ''],
+        ['Your cylinder is ready', 'failed', ''],
+      ]),
+    );
     const audit = await db('audit_events').where({ action: 'customer.erase', entity_id: c.id });
     expect(audit).toHaveLength(1);
     expect(JSON.stringify(audit[0])).not.toContain('555 0151');
