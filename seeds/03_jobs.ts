@@ -5,7 +5,7 @@
 import type { Knex } from 'knex';
 import { DateTime } from 'luxon';
 import { formatIn, formatMm, inToNm, mmToNm, type LengthUnit, type Nm } from '../shared/lengths';
-import { READING_AXES, READING_DEPTHS, type ReadingsInput } from '../shared/jobs-api';
+import { READING_AXES, READING_DEPTHS, type ReadingsInput } from '../shared/api/jobs';
 import { getSettings } from '../server/settings/settings-service';
 import { cancelJob, collectJob, createJob, patchJob } from '../server/jobs/jobs-service';
 import { patchCylinder, putReadings, recommendation } from '../server/jobs/cylinder-service';

@@ -10,7 +10,7 @@ import type { Knex } from 'knex';
 import iconv from 'iconv-lite';
 import Decimal from 'decimal.js';
 import type { SessionUser } from '../shared/session-types';
-import type { SupplierData } from '../shared/suppliers-api';
+import type { SupplierData } from '../shared/api/suppliers';
 import { createSupplier, listUnmapped, mapItem } from '../server/suppliers/suppliers-service';
 import { commitImport, previewPriceList } from '../server/imports/imports-service';
 import { seededRandom } from './demo/catalog';

@@ -1,7 +1,7 @@
 // What the bore sheet says about the machine work, in one place: the cautions printed on every
 // sheet, the ones that depend on the engine, and the ticks to make after honing. The server sends
 // the list for one cylinder; the sheet prints it as it is, so wording is never repeated in a page.
-import type { StrokeType } from './catalog-api';
+import type { StrokeType } from './api/catalog';
 
 /**
  * Why a two-stroke bore needs its ports dressed: the rings pass over the port windows on every

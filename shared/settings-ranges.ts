@@ -2,7 +2,7 @@
 // deepest cut of 0.5 in per pass is a slip of the decimal point, not a policy. Each range says
 // where it comes from; the machine maker's figures always come before these.
 import { formatLength, NM_PER_MM, parseLength, type LengthUnit, type Nm } from './lengths';
-import type { ShopSettingsJson } from './settings-api';
+import type { ShopSettingsJson } from './api/settings';
 
 type Source = 'common practice (no source)' | 'from memory';
 

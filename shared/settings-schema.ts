@@ -8,7 +8,7 @@ import { DEFAULT_LOCALE, isShopLocale } from './dates';
 import { parseLength } from './lengths';
 import { isCurrencyCode, parseMoney } from './money';
 import { BAR_RESOLUTIONS, type BarResolution } from './pass-plan';
-import type { ShopSettingsJson } from './settings-api';
+import type { ShopSettingsJson } from './api/settings';
 import { SHIPPING_ALLOCATIONS } from './shipping-share';
 import { atMost, singleLine } from './text-rules';
 

@@ -7,7 +7,7 @@ import type { Knex } from 'knex';
 import { gtinCheckDigit } from '../../shared/gtin';
 import { formatIn, formatMm, inToNm, mmToNm, type Nm } from '../../shared/lengths';
 import { METRIC_SERIES, IMPERIAL_SERIES, IMPERIAL_SERIES_060 } from '../../shared/step-series';
-import type { PartInput, StrokeType, Cooling } from '../../shared/catalog-api';
+import type { PartInput, StrokeType, Cooling } from '../../shared/api/catalog';
 import { createFamily, createPart, createStepSeries } from '../../server/catalog/catalog-service';
 import { createBin, receive } from '../../server/stock/stock-service';
 

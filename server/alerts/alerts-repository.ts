@@ -1,7 +1,7 @@
 // The only file building queries for alerts and their mail.
 import type { Knex } from 'knex';
 import { db } from '../db/knex';
-import type { AlertsQuery } from '../../shared/alerts-api';
+import type { AlertsQuery } from '../../shared/api/alerts';
 
 export interface AlertRow {
   id: string;

@@ -2,7 +2,7 @@
 import type { Router } from 'express';
 import { z } from 'zod';
 import { route, uuidParam } from '../http/route';
-import { alertsQuery } from '../../shared/alerts-api';
+import { alertsQuery } from '../../shared/api/alerts';
 import type { Role } from '../../shared/session-types';
 import { acknowledgeAlert, listAlerts, mailModeOf } from './alerts-service';
 

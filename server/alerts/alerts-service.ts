@@ -5,7 +5,7 @@ import type { Knex } from 'knex';
 import { db } from '../db/knex';
 import { recordAudit } from '../audit/audit';
 import { Conflict, NotFound } from '../errors';
-import type { AlertJson, AlertsPageJson, AlertsQuery } from '../../shared/alerts-api';
+import type { AlertJson, AlertsPageJson, AlertsQuery } from '../../shared/api/alerts';
 import * as repo from './alerts-repository';
 import './alert-mail';
 

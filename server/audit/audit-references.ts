@@ -1,7 +1,7 @@
 // The audit trail keeps ids; people know jobs by number, parts by SKU, pistons by label, everyone
 // else by name. For one page of the trail this finds every id it names (the record itself and
 // the ...Id fields of its before and after) and reads each as a label with a link to its page.
-import { AUDIT_ID_FIELDS, auditRefKey, type AuditRefJson } from '../../shared/audit-api';
+import { AUDIT_ID_FIELDS, auditRefKey, type AuditRefJson } from '../../shared/api/audit';
 import { REF_KINDS, refLabels, type AuditRow } from './audit-repository';
 
 function linkTo(

@@ -1,7 +1,7 @@
 // The audit trail, for the owner only: who changed what, when, and what it was before and after.
 import type { Router } from 'express';
 import { route } from '../http/route';
-import { auditQuery } from '../../shared/audit-api';
+import { auditQuery } from '../../shared/api/audit';
 import { browseAudit } from './audit-service';
 
 export function registerAuditRoutes(router: Router): void {

@@ -2,7 +2,7 @@
 // where the shop is), newest first, one page at a time.
 import { DateTime, IANAZone } from 'luxon';
 import { getSettings } from '../settings/settings-service';
-import type { AuditPageJson, AuditQuery } from '../../shared/audit-api';
+import type { AuditPageJson, AuditQuery } from '../../shared/api/audit';
 import { auditActors, auditEntities, listAudit, type AuditRow } from './audit-repository';
 import { auditReferences } from './audit-references';
 

@@ -1,5 +1,5 @@
 // Database rows → API answers for the catalog. Lengths go out as { mm, in }, money as exact text.
-import { displayGtin, type FamilyJson, type PartJson } from '../../shared/catalog-api';
+import { displayGtin, type FamilyJson, type PartJson } from '../../shared/api/catalog';
 import { kitFree } from '../../shared/kits';
 import { toLengthJson, type LengthJson } from '../../shared/lengths';
 import type { ComponentRow, FamilyRow, PartRow } from './catalog-repository';

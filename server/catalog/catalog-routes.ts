@@ -12,7 +12,7 @@ import {
   partInput,
   partPatch,
   stepSeriesInput,
-} from '../../shared/catalog-api';
+} from '../../shared/api/catalog';
 import type { MoneyFields } from '../../shared/money-visibility';
 import type { Role } from '../../shared/session-types';
 import * as service from './catalog-service';

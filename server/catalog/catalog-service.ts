@@ -10,7 +10,7 @@ import {
   type Page,
   type StepSeriesInput,
   type StepSeriesJson,
-} from '../../shared/catalog-api';
+} from '../../shared/api/catalog';
 import { toLengthJson } from '../../shared/lengths';
 import { customSeries, StepSeriesError } from '../../shared/step-series';
 import * as repo from './catalog-repository';

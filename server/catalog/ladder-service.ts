@@ -4,7 +4,7 @@
 import type { Knex } from 'knex';
 import { db } from '../db/knex';
 import { NotFound } from '../errors';
-import type { ExposureItemJson, LadderJson, LadderStepJson, Page } from '../../shared/catalog-api';
+import type { ExposureItemJson, LadderJson, LadderStepJson, Page } from '../../shared/api/catalog';
 import { kitFree } from '../../shared/kits';
 import { toLengthJson } from '../../shared/lengths';
 import { stepNominalBore } from '../../shared/step-series';

@@ -2,7 +2,7 @@
 // checks a part's fields need; catalog-repository.ts re-exports these with the rest of the catalog.
 import type { Knex } from 'knex';
 import { db } from '../db/knex';
-import type { PartKind } from '../../shared/catalog-api';
+import type { PartKind } from '../../shared/api/catalog';
 import { containsPattern } from '../db/like-pattern';
 
 export interface ComponentRow {

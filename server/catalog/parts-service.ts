@@ -13,7 +13,7 @@ import {
   type PartJson,
   type PartKind,
   type PartPatch,
-} from '../../shared/catalog-api';
+} from '../../shared/api/catalog';
 import { toLengthJson } from '../../shared/lengths';
 import { stepNominalBore } from '../../shared/step-series';
 import * as repo from './catalog-repository';

@@ -3,7 +3,7 @@
 import type { Knex } from 'knex';
 import { db } from '../db/knex';
 import { containsPattern } from '../db/like-pattern';
-import type { JobState } from '../../shared/jobs-api';
+import type { JobState } from '../../shared/api/jobs';
 
 export interface CustomerRow {
   id: string;

@@ -14,7 +14,7 @@ import {
   type CustomerListItemJson,
   type CustomerPatch,
 } from '../../shared/api/customers';
-import type { Page } from '../../shared/jobs-api';
+import type { Page } from '../../shared/api/jobs';
 import * as repo from './customers-repository';
 import { jobTotals } from './customer-money';
 import { forgetAddress } from '../mail/outbox';

@@ -4,7 +4,7 @@
 import { toLengthJson } from '../../shared/lengths';
 import type { CsvTable } from '../insights/insights-csv';
 import { ladder } from '../catalog/ladder-service';
-import type { LadderStepJson } from '../../shared/catalog-api';
+import type { LadderStepJson } from '../../shared/api/catalog';
 import { maySeeMoney } from '../../shared/money-visibility';
 import type { Role } from '../../shared/session-types';
 import * as repo from './exports-repository';

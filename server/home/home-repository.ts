@@ -1,7 +1,7 @@
 // The only file building queries for the home page's own lists (the others reuse their features).
 import type { Knex } from 'knex';
 import { db } from '../db/knex';
-import { OPEN_STATES, type JobState } from '../../shared/jobs-api';
+import { OPEN_STATES, type JobState } from '../../shared/api/jobs';
 
 export interface HomeJobRow {
   id: string;

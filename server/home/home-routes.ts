@@ -1,5 +1,5 @@
 // The home page's summary of the day's work, for whoever is signed in; what it holds depends on
-// the role (shared/home-api.ts says which sections each role gets).
+// the role (shared/api/home.ts says which sections each role gets).
 import type { Router } from 'express';
 import { route } from '../http/route';
 import { homeFor } from './home-service';

@@ -11,8 +11,8 @@ import {
   HOME_SECTIONS_BY_ROLE,
   type HomeJobJson,
   type HomeJson,
-} from '../../shared/home-api';
-import { OPEN_STATES, type JobListItemJson } from '../../shared/jobs-api';
+} from '../../shared/api/home';
+import { OPEN_STATES, type JobListItemJson } from '../../shared/api/jobs';
 import type { Role } from '../../shared/session-types';
 import * as repo from './home-repository';
 

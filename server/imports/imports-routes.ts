@@ -9,7 +9,7 @@ import { z } from 'zod';
 import { pageQuery, route, uuidParam, zodDetails } from '../http/route';
 import { BadRequest, UnsupportedMediaType } from '../errors';
 import type { Role } from '../../shared/session-types';
-import { IMPORT_STATUSES, commitInput, mappingInput } from '../../shared/suppliers-api';
+import { IMPORT_STATUSES, commitInput, mappingInput } from '../../shared/api/suppliers';
 import type { ColumnMapping } from './propose-mapping';
 import { refuseLargerThan } from '../http/upload-limits';
 import * as service from './imports-service';

@@ -11,7 +11,7 @@ import { logger } from '../logger';
 import { AppError, BadRequest, Conflict, NotFound } from '../errors';
 import { faultPoint } from '../testing-faults';
 import { toLengthJson } from '../../shared/lengths';
-import type { Page } from '../../shared/catalog-api';
+import type { Page } from '../../shared/api/catalog';
 import type { SessionUser } from '../../shared/session-types';
 import type {
   CommitJson,
@@ -24,7 +24,7 @@ import type {
   PriceChangesJson,
   RowIssueJson,
   SampleRowJson,
-} from '../../shared/suppliers-api';
+} from '../../shared/api/suppliers';
 import * as suppliers from '../suppliers/suppliers-repository';
 import { detectFileFormat } from './detect-format';
 import { readPriceListBatches, type ParseCounts } from './parse-price-list';

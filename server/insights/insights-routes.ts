@@ -4,7 +4,7 @@
 import type { Router } from 'express';
 import type { ZodType } from 'zod';
 import type { Role } from '../../shared/session-types';
-import { monthlyQuery, monthsQuery, salesQuery, topSellersQuery } from '../../shared/insights-api';
+import { monthlyQuery, monthsQuery, salesQuery, topSellersQuery } from '../../shared/api/insights';
 import { nearLastStepQuery } from '../../shared/api/customers';
 import { route } from '../http/route';
 import { nearLastStep } from '../customers/cylinders-service';

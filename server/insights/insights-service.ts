@@ -7,7 +7,7 @@ import { db } from '../db/knex';
 import { logger } from '../logger';
 import { getSettings } from '../settings/settings-service';
 import { BadRequest } from '../errors';
-import { defaultPeriod } from '../../shared/insights-api';
+import { defaultPeriod } from '../../shared/api/insights';
 import type {
   AbcAnswer,
   AbcClass,
@@ -21,7 +21,7 @@ import type {
   SupplierReliabilityAnswer,
   TopSellersAnswer,
   TopSellerRank,
-} from '../../shared/insights-api';
+} from '../../shared/api/insights';
 import * as repo from './insights-repository';
 import * as shortages from './shortages-repository';
 import type { NeededPart } from '../../shared/part-needs';

@@ -9,7 +9,7 @@ import type {
   StockValueAnswer,
   SupplierReliabilityAnswer,
   TopSellersAnswer,
-} from '../../shared/insights-api';
+} from '../../shared/api/insights';
 import type { CsvTable } from './insights-csv';
 
 const NO_FAMILY = 'No engine family';

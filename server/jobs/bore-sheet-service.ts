@@ -20,7 +20,7 @@ import { clearanceRangeFor, honedFit, suggestedRingGapNm } from '../../shared/fi
 import { barGridNm, passStartNm } from '../../shared/pass-plan';
 import { formatLength, toLengthJson, type LengthUnit, type Nm } from '../../shared/lengths';
 import { stepNominalBore } from '../../shared/step-series';
-import type { BoreSheetJson, CylinderJson } from '../../shared/jobs-api';
+import type { BoreSheetJson, CylinderJson } from '../../shared/api/jobs';
 import type { CutUndoJson } from '../../shared/cut-undo';
 import { cutUndoFacts } from './cut-undo-service';
 import * as repo from './jobs-repository';

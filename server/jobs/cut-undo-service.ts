@@ -4,7 +4,7 @@ import type { Knex } from 'knex';
 import { db } from '../db/knex';
 import { recordAudit } from '../audit/audit';
 import { BadRequest, Conflict, Forbidden, NotFound } from '../errors';
-import { JOB_STATE_LABELS, type CylinderJson } from '../../shared/jobs-api';
+import { JOB_STATE_LABELS, type CylinderJson } from '../../shared/api/jobs';
 import type { LengthUnit } from '../../shared/lengths';
 import {
   undoUntil,

@@ -17,7 +17,7 @@ import type {
   ReadingsInput,
   ReadingsResultJson,
   RecommendationJson,
-} from '../../shared/jobs-api';
+} from '../../shared/api/jobs';
 import { stepNominalBore } from '../../shared/step-series';
 import type { BoreJson } from '../../shared/api/customers';
 import * as repo from './jobs-repository';

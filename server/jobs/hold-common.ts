@@ -9,7 +9,7 @@ import {
   isOpenState,
   type HoldJson,
   type ProposedUnitJson,
-} from '../../shared/jobs-api';
+} from '../../shared/api/jobs';
 import * as repo from './holds-repository';
 import * as jobsRepo from './jobs-repository';
 import { holdJson } from './jobs-json';

@@ -3,7 +3,7 @@ import type { Knex } from 'knex';
 import { db } from '../db/knex';
 import { logger } from '../logger';
 import { recordAudit } from '../audit/audit';
-import type { SweepResultJson } from '../../shared/jobs-api';
+import type { SweepResultJson } from '../../shared/api/jobs';
 import * as repo from './holds-repository';
 import * as jobsRepo from './jobs-repository';
 import { holdName } from './hold-common';

@@ -6,7 +6,7 @@ import { recordAudit } from '../audit/audit';
 import { BadRequest, Conflict, NotFound } from '../errors';
 import { getSettings } from '../settings/settings-service';
 import { whyNotHoldable } from '../../shared/hold-rules';
-import type { HoldJson, HoldMoveInput } from '../../shared/jobs-api';
+import type { HoldJson, HoldMoveInput } from '../../shared/api/jobs';
 import { isUniqueViolation } from '../db/pg-errors';
 import * as repo from './holds-repository';
 import * as jobsRepo from './jobs-repository';

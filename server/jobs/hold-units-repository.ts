@@ -2,7 +2,7 @@
 // proposal reads. Row locks and conditional UPDATEs decide who gets a unit; see holds-service.ts.
 import type { Knex } from 'knex';
 import { db } from '../db/knex';
-import type { PartKind } from '../../shared/catalog-api';
+import type { PartKind } from '../../shared/api/catalog';
 
 export interface HoldPartRow {
   id: string;

@@ -14,7 +14,7 @@ import { faultPoint } from '../testing-faults';
 import { getSettings } from '../settings/settings-service';
 import { formatLength, type LengthUnit } from '../../shared/lengths';
 import { stepNominalBore } from '../../shared/step-series';
-import type { HoldInput, HoldJson, ProposedUnitJson } from '../../shared/jobs-api';
+import type { HoldInput, HoldJson, ProposedUnitJson } from '../../shared/api/jobs';
 import { whyNotHoldable, type HoldTarget } from '../../shared/hold-rules';
 import * as repo from './holds-repository';
 import * as jobsRepo from './jobs-repository';

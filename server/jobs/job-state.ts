@@ -1,7 +1,7 @@
 // Where a job stands in the workshop: whether it may be marked as cutting, and the moves Stepstock
 // makes by itself after readings, holds and cuts (forward only).
 import type { Knex } from 'knex';
-import { isOpenState, JOB_STATE_LABELS, JOB_STATES, type JobState } from '../../shared/jobs-api';
+import { isOpenState, JOB_STATE_LABELS, JOB_STATES, type JobState } from '../../shared/api/jobs';
 import * as repo from './jobs-repository';
 import * as holdsRepo from './holds-repository';
 

@@ -21,7 +21,7 @@ import type {
   JobListItemJson,
   PhotoJson,
   ReadingJson,
-} from '../../shared/jobs-api';
+} from '../../shared/api/jobs';
 import type {
   CylinderRow,
   EventRow,

@@ -6,7 +6,7 @@
 import type { Knex } from 'knex';
 import { db } from '../db/knex';
 import { containsPattern } from '../db/like-pattern';
-import { OPEN_STATES, type JobState } from '../../shared/jobs-api';
+import { OPEN_STATES, type JobState } from '../../shared/api/jobs';
 import type { NeededPart } from '../../shared/part-needs';
 import { waitingForSql, waitingSql } from '../stock/part-needs-repository';
 export * from './job-records-repository';

@@ -21,7 +21,7 @@ import {
   OPEN_STATES,
   readingsInput,
   type JobState,
-} from '../../shared/jobs-api';
+} from '../../shared/api/jobs';
 import * as jobs from './jobs-service';
 import * as cylinders from './cylinder-service';
 import * as sheets from './bore-sheet-service';

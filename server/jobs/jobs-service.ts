@@ -19,7 +19,7 @@ import {
   type JobPatch,
   type JobState,
   type Page,
-} from '../../shared/jobs-api';
+} from '../../shared/api/jobs';
 import * as repo from './jobs-repository';
 import { findOrCreateForJob, requireLiveCustomer } from '../customers/customers-service';
 import { updateCustomer as updateCustomerFields } from '../customers/customers-repository';

@@ -12,7 +12,7 @@ import {
   MAX_THUMBNAIL_BYTES,
   PHOTO_TYPES,
   type PhotoJson,
-} from '../../shared/jobs-api';
+} from '../../shared/api/jobs';
 import * as repo from './jobs-repository';
 import { photoJson } from './jobs-json';
 

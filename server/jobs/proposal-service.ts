@@ -9,7 +9,7 @@ import { chooseClearance, pistonCleanup } from '../../shared/bore-sheet';
 import { clearanceRangeFor } from '../../shared/finish-checks';
 import { toLengthJson } from '../../shared/lengths';
 import { stepNominalBore } from '../../shared/step-series';
-import type { ProposalJson, ProposedUnitJson } from '../../shared/jobs-api';
+import type { ProposalJson, ProposedUnitJson } from '../../shared/api/jobs';
 import * as repo from './holds-repository';
 import * as jobsRepo from './jobs-repository';
 import { familyClearances, holdJson } from './jobs-json';

@@ -1,7 +1,7 @@
 // The Mailbox route, for the owner: what the local SMTP server received.
 import type { Router } from 'express';
 import { pageQuery, route } from '../http/route';
-import type { MailboxPageJson } from '../../shared/mail-api';
+import type { MailboxPageJson } from '../../shared/api/mail';
 import { mailboxPage } from './mailbox-service';
 
 export function registerMailRoutes(router: Router): void {

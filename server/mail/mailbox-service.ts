@@ -1,7 +1,7 @@
 // The Mailbox page's answer: what the local SMTP server received, newest first. With a real SMTP
 // server configured the mail went out to the world and there is no mailbox to show.
 import { NotFound } from '../errors';
-import type { MailboxItemJson, MailboxPageJson } from '../../shared/mail-api';
+import type { MailboxItemJson, MailboxPageJson } from '../../shared/api/mail';
 import { listMailbox } from './mailbox-repository';
 import { realSmtpConfigured } from './smtp-target';
 

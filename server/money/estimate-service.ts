@@ -14,7 +14,7 @@ import type {
 } from '../../shared/api/money';
 import { compareMoney, fixedMoney } from '../../shared/estimate-math';
 import { proposeLines } from '../../shared/estimate-proposal';
-import { isOpenState } from '../../shared/jobs-api';
+import { isOpenState } from '../../shared/api/jobs';
 import { getSettings, type ShopSettings } from '../settings/settings-service';
 import * as labourRepo from './labour-repository';
 import * as repo from './estimate-repository';

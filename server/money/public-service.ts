@@ -5,7 +5,7 @@ import type { Knex } from 'knex';
 import { db } from '../db/knex';
 import { NotFound } from '../errors';
 import { CUSTOMER_JOB_WORDS, type PublicJobJson } from '../../shared/api/money';
-import { JOB_STATE_LABELS, type JobState } from '../../shared/jobs-api';
+import { JOB_STATE_LABELS, type JobState } from '../../shared/api/jobs';
 import { getSettings } from '../settings/settings-service';
 import * as repo from './estimate-repository';
 import { estimateJson } from './estimate-json';

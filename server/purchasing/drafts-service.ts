@@ -9,7 +9,7 @@ import type {
   OfferJson,
   OrderInput,
   OrderJson,
-} from '../../shared/purchasing-api';
+} from '../../shared/api/purchasing';
 import { splitAcrossOffers, type DraftSplit } from '../../shared/draft-split';
 import { waitingItemsFor } from '../suppliers/suppliers-service';
 import { getOrder, insertOrderWithLines } from './orders-service';

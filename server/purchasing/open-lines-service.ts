@@ -4,7 +4,7 @@ import type { Knex } from 'knex';
 import { db } from '../db/knex';
 import { BadRequest } from '../errors';
 import { normalizeGtin } from '../../shared/gtin';
-import type { OpenLineJson } from '../../shared/purchasing-api';
+import type { OpenLineJson } from '../../shared/api/purchasing';
 import { getOrder } from './orders-service';
 import * as repo from './open-lines-repository';
 

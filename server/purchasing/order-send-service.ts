@@ -10,7 +10,7 @@ import { AppError, Conflict } from '../errors';
 import { enqueueMail } from '../mail/outbox';
 import { getSettings } from '../settings/settings-service';
 import { isOneEmailAddress } from '../../shared/text-rules';
-import type { OrderJson } from '../../shared/purchasing-api';
+import type { OrderJson } from '../../shared/api/purchasing';
 import { orderMail } from './order-mail';
 import * as repo from './orders-repository';
 import { getOrder, lockDrafting } from './orders-service';

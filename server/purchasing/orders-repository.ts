@@ -1,7 +1,7 @@
 // Queries for purchase orders, their lines and receipts, and jobs waiting on order lines.
 import type { Knex } from 'knex';
 import { db } from '../db/knex';
-import type { OrderState, OrdersQuery } from '../../shared/purchasing-api';
+import type { OrderState, OrdersQuery } from '../../shared/api/purchasing';
 export * from './waits-repository';
 
 export interface OrderRow {

@@ -5,7 +5,7 @@ import type { Knex } from 'knex';
 import { db } from '../db/knex';
 import { recordAudit } from '../audit/audit';
 import { BadRequest, Conflict, NotFound } from '../errors';
-import { displayGtin, type Page } from '../../shared/catalog-api';
+import { displayGtin, type Page } from '../../shared/api/catalog';
 import {
   ORDER_STATE_LABELS,
   type OrderInput,
@@ -17,7 +17,7 @@ import {
   type WaitCandidateJson,
   type WaitInput,
   type WaitJson,
-} from '../../shared/purchasing-api';
+} from '../../shared/api/purchasing';
 import { D, moneyOut } from '../../shared/purchase-money';
 import * as repo from './orders-repository';
 import { isUniqueViolation } from '../db/pg-errors';

@@ -19,7 +19,7 @@ import {
   sourcingQuery,
   waitInput,
   waitsQuery,
-} from '../../shared/purchasing-api';
+} from '../../shared/api/purchasing';
 import type { MoneyFields } from '../../shared/money-visibility';
 import type { Role } from '../../shared/session-types';
 import * as drafts from './drafts-service';

@@ -5,8 +5,8 @@
 import type { Knex } from 'knex';
 import { db } from '../db/knex';
 import { BadRequest } from '../errors';
-import { ORDER_STATE_LABELS } from '../../shared/purchasing-api';
-import type { DeskReceiptInput, DeskReceiptJson } from '../../shared/stock-api';
+import { ORDER_STATE_LABELS } from '../../shared/api/purchasing';
+import type { DeskReceiptInput, DeskReceiptJson } from '../../shared/api/stock';
 import { receive } from '../stock/stock-service';
 import { lineOwner } from './open-lines-repository';
 import { receiveWithStock } from './receiving-service';

@@ -19,8 +19,8 @@ import {
   type OrderReceiptJson,
   type ReceiptLinesInput,
   type ReceivedHoldJson,
-} from '../../shared/purchasing-api';
-import type { ReceiptJson, UnitJson } from '../../shared/stock-api';
+} from '../../shared/api/purchasing';
+import type { ReceiptJson, UnitJson } from '../../shared/api/stock';
 import { D } from '../../shared/purchase-money';
 import { shippingPerUnit } from '../../shared/shipping-share';
 import { arrivalMailForCustomer, arrivalMailForMachinist, type JobArrival } from './order-mail';

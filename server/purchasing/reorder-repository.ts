@@ -1,7 +1,7 @@
 // Queries for reorder rules, defaults, the reorder list and the issue history behind a suggestion.
 import type { Knex } from 'knex';
 import { db } from '../db/knex';
-import type { ReorderListQuery, RuleSource } from '../../shared/purchasing-api';
+import type { ReorderListQuery, RuleSource } from '../../shared/api/purchasing';
 
 export interface ReorderPartRow {
   id: string;

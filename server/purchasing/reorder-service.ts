@@ -12,7 +12,7 @@ import {
   reorderPoint,
   ReorderError,
 } from '../../shared/reorder';
-import type { Page } from '../../shared/catalog-api';
+import type { Page } from '../../shared/api/catalog';
 import type {
   Figure,
   ReorderDefaultInput,
@@ -23,7 +23,7 @@ import type {
   ReorderRuleJson,
   ReorderSuggestionJson,
   ReorderSuggestionQuery,
-} from '../../shared/purchasing-api';
+} from '../../shared/api/purchasing';
 import { D, moneyOut } from '../../shared/purchase-money';
 import { mean, sampleStandardDeviation } from 'simple-statistics';
 import * as repo from './reorder-repository';

@@ -12,7 +12,7 @@ import type {
   OfferJson,
   SourcingJson,
   SourcingQuery,
-} from '../../shared/purchasing-api';
+} from '../../shared/api/purchasing';
 import { converter, D, moneyOut, type Dec } from '../../shared/purchase-money';
 import { waitingItemsFor } from '../suppliers/suppliers-service';
 import * as repo from './sourcing-repository';

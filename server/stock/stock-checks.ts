@@ -4,8 +4,8 @@ import type { Knex } from 'knex';
 import { BadRequest } from '../errors';
 import { formatLength, type Nm } from '../../shared/lengths';
 import { stepNominalBore } from '../../shared/step-series';
-import type { UnitStatus } from '../../shared/catalog-api';
-import type { LedgerJson } from '../../shared/stock-api';
+import type { UnitStatus } from '../../shared/api/catalog';
+import type { LedgerJson } from '../../shared/api/stock';
 import * as repo from './stock-repository';
 import { ledgerJson } from './stock-json';
 

@@ -1,5 +1,5 @@
 // Database rows → API answers for stock.
-import type { BinJson, LedgerJson, LevelsJson, UnitJson } from '../../shared/stock-api';
+import type { BinJson, LedgerJson, LevelsJson, UnitJson } from '../../shared/api/stock';
 import { toLengthJson } from '../../shared/lengths';
 import { stepNominalBore } from '../../shared/step-series';
 import { lengthOrNull, moneyJson } from '../catalog/catalog-json';

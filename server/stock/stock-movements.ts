@@ -3,7 +3,7 @@
 // adjustments and moves (stock) as from holds, releases and hand-backs (jobs). Callers hold the
 // part's levels lock (lockLevels) or another lock that orders changes to the part.
 import type { Knex } from 'knex';
-import type { LedgerKind } from '../../shared/stock-api';
+import type { LedgerKind } from '../../shared/api/stock';
 import type { LevelsRow } from './stock-repository';
 
 export interface NewLedgerRow {

@@ -3,8 +3,8 @@
 import type { Knex } from 'knex';
 import { db } from '../db/knex';
 import { containsPattern } from '../db/like-pattern';
-import type { PartKind, UnitStatus } from '../../shared/catalog-api';
-import type { LedgerKind } from '../../shared/stock-api';
+import type { PartKind, UnitStatus } from '../../shared/api/catalog';
+import type { LedgerKind } from '../../shared/api/stock';
 
 export interface BinRow {
   id: string;

@@ -16,7 +16,7 @@ import {
   scrapInput,
   UNIT_SORTS,
   UNIT_STATUSES,
-} from '../../shared/stock-api';
+} from '../../shared/api/stock';
 import * as service from './stock-service';
 import * as care from './unit-care-service';
 

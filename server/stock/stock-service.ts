@@ -10,7 +10,7 @@ import { Conflict, NotAvailable, NotFound } from '../errors';
 import { faultPoint } from '../testing-faults';
 import Decimal from 'decimal.js';
 import { receiptValue } from '../../shared/average-cost';
-import type { Page } from '../../shared/catalog-api';
+import type { Page } from '../../shared/api/catalog';
 import type {
   AdjustmentInput,
   BinInput,
@@ -21,7 +21,7 @@ import type {
   ReceiptJson,
   StockChangeJson,
   UnitJson,
-} from '../../shared/stock-api';
+} from '../../shared/api/stock';
 import * as repo from './stock-repository';
 import { binJson, ledgerJson, levelsJson, unitJson } from './stock-json';
 import { isCheckViolation, isUniqueViolation } from '../db/pg-errors';

@@ -6,7 +6,7 @@ import { recordAudit } from '../audit/audit';
 import { Conflict, NotAvailable, NotFound } from '../errors';
 import { issueAtCost } from '../../shared/average-cost';
 import { formatLength, type Nm } from '../../shared/lengths';
-import type { StockChangeJson } from '../../shared/stock-api';
+import type { StockChangeJson } from '../../shared/api/stock';
 import * as repo from './stock-repository';
 import { levelsJson, unitJson } from './stock-json';
 import { isCheckViolation } from '../db/pg-errors';

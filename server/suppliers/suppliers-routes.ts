@@ -10,7 +10,7 @@ import {
   itemMappingInput,
   supplierInput,
   supplierPatch,
-} from '../../shared/suppliers-api';
+} from '../../shared/api/suppliers';
 import { withHeavyListSlot } from '../http/heavy-gate';
 import * as service from './suppliers-service';
 

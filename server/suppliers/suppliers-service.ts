@@ -5,7 +5,7 @@ import { db } from '../db/knex';
 import { recordAudit } from '../audit/audit';
 import { BadRequest, Conflict, NotFound } from '../errors';
 import { toLengthJson } from '../../shared/lengths';
-import type { Page } from '../../shared/catalog-api';
+import type { Page } from '../../shared/api/catalog';
 import type {
   PriceHistoryJson,
   SuggestionJson,
@@ -15,7 +15,7 @@ import type {
   SupplierPatch,
   UnmappedItemJson,
   WaitingItemJson,
-} from '../../shared/suppliers-api';
+} from '../../shared/api/suppliers';
 import * as repo from './suppliers-repository';
 import { isUniqueViolation } from '../db/pg-errors';
 

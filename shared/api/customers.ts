@@ -3,7 +3,7 @@
 // zod schemas serve the server routes and the Angular forms alike.
 import { z } from 'zod';
 import type { LengthJson } from '../lengths';
-import type { JobState } from '../jobs-api';
+import type { JobState } from './jobs';
 import { singleLine } from '../text-rules';
 import type { EstimateState } from './money';
 

@@ -3,7 +3,7 @@
 // approval, unseen stock alerts and orders on the way are counted as their own pages count them.
 import { DateTime } from 'luxon';
 import request from 'supertest';
-import { HOME_LIST_LENGTH, HOME_SECTIONS_BY_ROLE, type HomeJson } from '../../shared/home-api';
+import { HOME_LIST_LENGTH, HOME_SECTIONS_BY_ROLE, type HomeJson } from '../../shared/api/home';
 import type { Role } from '../../shared/session-types';
 import { closeTestApp, signedIn, testApp, uniq, type Client } from '../support/api';
 import {

@@ -68,7 +68,7 @@ function textKeys(value: unknown, into = new Set<string>()): Set<string> {
 }
 
 // What each role must not find, anywhere in an answer: the shop's costs, what it sold for, and
-// margins. Names as the API spells them (shared/stock-api.ts, catalog-api.ts, purchasing-api.ts,
+// margins. Names as the API spells them (shared/api/stock.ts, catalog.ts, purchasing.ts,
 // insights-api.ts).
 const COST = ['unitCost', 'averageCost', 'costOfIssues', 'totalCostOfIssues', 'openingValue'];
 const SOLD = ['revenue'];

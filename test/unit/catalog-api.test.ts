@@ -9,8 +9,8 @@ import {
   moneyText,
   optionalLengthField,
   partInput,
-} from '../../shared/catalog-api';
-import { adjustmentInput, moveInput, receiptInput } from '../../shared/stock-api';
+} from '../../shared/api/catalog';
+import { adjustmentInput, moveInput, receiptInput } from '../../shared/api/stock';
 
 describe('lengthField', () => {
   const field = lengthField();

@@ -6,7 +6,7 @@ import {
   monthsQuery,
   salesQuery,
   topSellersQuery,
-} from '../../shared/insights-api';
+} from '../../shared/api/insights';
 
 describe('calendar days for insight periods', () => {
   // Gregorian leap-year rule (as used by ISO 8601): every 4th year, except centuries not divisible

@@ -5,7 +5,7 @@ import {
   jobInput,
   jobPatch,
   readingsInput,
-} from '../../shared/jobs-api';
+} from '../../shared/api/jobs';
 
 const FAMILY = '8f14e45f-ceea-4e6a-a8c9-1c5d2a3b4c5d';
 const UNIT = '1b4e28ba-2fa1-41d2-883f-0016d3cca427';

@@ -2,7 +2,7 @@ import { HttpClient, HttpParams } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
 import { Observable } from 'rxjs';
 
-import type { AuditPageJson } from '../../../shared/audit-api';
+import type { AuditPageJson } from '../../../shared/api/audit';
 
 export interface AuditListQuery {
   entity?: string;

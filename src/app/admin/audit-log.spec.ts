@@ -13,7 +13,7 @@ import { MatSortHarness } from '@angular/material/sort/testing';
 import { MatTableHarness } from '@angular/material/table/testing';
 import { provideRouter } from '@angular/router';
 
-import type { AuditEventJson, AuditPageJson } from '../../../shared/audit-api';
+import type { AuditEventJson, AuditPageJson } from '../../../shared/api/audit';
 import { provideShopDateAdapter } from '../core/shop-date-adapter';
 import { AuditLog } from './audit-log';
 import { fieldChanges } from './audit-words';

@@ -29,7 +29,7 @@ import {
   type AuditEventJson,
   type AuditPageJson,
   type AuditRefJson,
-} from '../../../shared/audit-api';
+} from '../../../shared/api/audit';
 import { apiErrorMessage } from '../core/api-error';
 import { dayOf } from '../core/shop-date-adapter';
 import { AuditApi, type AuditListQuery } from './audit-api';

@@ -2,7 +2,7 @@ import { HttpClient } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
 import type { Observable } from 'rxjs';
 
-import type { ShopSettingsJson } from '../../../shared/settings-api';
+import type { ShopSettingsJson } from '../../../shared/api/settings';
 
 /** The shop's settings: read by everyone, changed by the owner. */
 @Injectable({ providedIn: 'root' })

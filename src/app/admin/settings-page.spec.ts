@@ -6,7 +6,7 @@ import { ComponentFixture, TestBed } from '@angular/core/testing';
 import { MatButtonHarness } from '@angular/material/button/testing';
 import { MatInputHarness } from '@angular/material/input/testing';
 
-import type { ShopSettingsJson } from '../../../shared/settings-api';
+import type { ShopSettingsJson } from '../../../shared/api/settings';
 import { Notifier } from '../core/notifier';
 import { SettingsPage } from './settings-page';
 

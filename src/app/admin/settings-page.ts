@@ -15,7 +15,7 @@ import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 
-import type { ShopSettingsJson } from '../../../shared/settings-api';
+import type { ShopSettingsJson } from '../../../shared/api/settings';
 import { formatShopDate, SHOP_LOCALES } from '../../../shared/dates';
 import { settingWarning } from '../../../shared/settings-ranges';
 import { shopSettingsSchema } from '../../../shared/settings-schema';

@@ -5,7 +5,7 @@ import { ComponentFixture, TestBed } from '@angular/core/testing';
 import { MatButtonToggleHarness } from '@angular/material/button-toggle/testing';
 import { provideRouter } from '@angular/router';
 
-import type { AlertJson } from '../../../shared/alerts-api';
+import type { AlertJson } from '../../../shared/api/alerts';
 import { AlertList } from './alert-list';
 
 const ALERT: AlertJson = {

@@ -10,7 +10,7 @@ import { MatTooltipModule } from '@angular/material/tooltip';
 import { RouterLink } from '@angular/router';
 import { catchError, map, of, switchMap, tap } from 'rxjs';
 
-import type { AlertJson, AlertsPageJson, AlertState } from '../../../shared/alerts-api';
+import type { AlertJson, AlertsPageJson, AlertState } from '../../../shared/api/alerts';
 import { apiErrorMessage } from '../core/api-error';
 import { Notifier } from '../core/notifier';
 import { AlertsApi, type MailMode } from './alerts-api';

@@ -2,8 +2,8 @@ import { HttpClient, HttpParams } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
 import { Observable } from 'rxjs';
 
-import type { AlertJson, AlertsPageJson, AlertState } from '../../../shared/alerts-api';
-import type { MailboxPageJson } from '../../../shared/mail-api';
+import type { AlertJson, AlertsPageJson, AlertState } from '../../../shared/api/alerts';
+import type { MailboxPageJson } from '../../../shared/api/mail';
 
 export type MailMode = 'instant' | 'digest' | 'none';
 

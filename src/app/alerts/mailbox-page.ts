@@ -10,7 +10,7 @@ import { MatPaginatorModule, PageEvent } from '@angular/material/paginator';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { catchError, debounceTime, distinctUntilChanged, map, of, switchMap, tap } from 'rxjs';
 
-import type { MailboxPageJson } from '../../../shared/mail-api';
+import type { MailboxPageJson } from '../../../shared/api/mail';
 import { apiErrorMessage } from '../core/api-error';
 import { AlertsApi } from './alerts-api';
 import { ShopDatePipe } from '../core/shop-date-pipe';

@@ -10,7 +10,7 @@ import type {
   PartJson,
   PartKind,
   StepSeriesJson,
-} from '../../../shared/catalog-api';
+} from '../../../shared/api/catalog';
 
 export interface FamilyQuery {
   q?: string;

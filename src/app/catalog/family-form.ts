@@ -26,7 +26,7 @@ import { MatSelectModule } from '@angular/material/select';
 import { Router, RouterLink } from '@angular/router';
 import { catchError, map, of, startWith, Subject, switchMap } from 'rxjs';
 
-import type { FamilyJson, StepSeriesJson } from '../../../shared/catalog-api';
+import type { FamilyJson, StepSeriesJson } from '../../../shared/api/catalog';
 import { familyWarning } from '../../../shared/settings-ranges';
 import { apiErrorBody, apiErrorMessage, apiFieldErrors } from '../core/api-error';
 import { Notifier } from '../core/notifier';

@@ -10,7 +10,7 @@ import { MatTableModule } from '@angular/material/table';
 import { MatTooltipModule } from '@angular/material/tooltip';
 import { Router, RouterLink } from '@angular/router';
 
-import type { FamilyJson } from '../../../shared/catalog-api';
+import type { FamilyJson } from '../../../shared/api/catalog';
 import { LengthPipe } from '../core/length-pipe';
 import { Session } from '../core/session';
 import { PagedList } from '../ui/paged-list';

@@ -28,7 +28,7 @@ import {
   type PartJson,
   type PartKind,
   type StepSeriesJson,
-} from '../../../shared/catalog-api';
+} from '../../../shared/api/catalog';
 import { gtinProblem } from '../../../shared/gtin';
 import { apiErrorMessage, apiFieldErrors } from '../core/api-error';
 import { placeApiErrors } from '../core/field-errors';

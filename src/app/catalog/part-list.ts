@@ -28,7 +28,7 @@ import {
   type PartJson,
   type PartKind,
   type StepSeriesJson,
-} from '../../../shared/catalog-api';
+} from '../../../shared/api/catalog';
 import { apiErrorMessage } from '../core/api-error';
 import { Session } from '../core/session';
 import { CatalogApi, type PartQuery } from './catalog-api';

@@ -1,4 +1,4 @@
-import type { PartKind } from '../../../shared/catalog-api';
+import type { PartKind } from '../../../shared/api/catalog';
 
 /** How each kind of part reads on screen. */
 export const KIND_LABELS: Record<PartKind, string> = {

@@ -5,7 +5,7 @@ import { ComponentFixture, TestBed } from '@angular/core/testing';
 import { MatButtonToggleHarness } from '@angular/material/button-toggle/testing';
 import { provideRouter } from '@angular/router';
 
-import type { FamilyJson, LadderJson } from '../../../shared/catalog-api';
+import type { FamilyJson, LadderJson } from '../../../shared/api/catalog';
 import { toLengthJson } from '../../../shared/lengths';
 import type { SessionUser } from '../../../shared/session-types';
 import { Session } from '../core/session';

@@ -16,7 +16,7 @@ import { MatTooltipModule } from '@angular/material/tooltip';
 import { RouterLink } from '@angular/router';
 import { catchError, combineLatest, map, of, startWith, switchMap } from 'rxjs';
 
-import type { LadderJson, LadderStepJson, LadderUnitJson } from '../../../shared/catalog-api';
+import type { LadderJson, LadderStepJson, LadderUnitJson } from '../../../shared/api/catalog';
 import type { LengthUnit } from '../../../shared/lengths';
 import { emptyStepWords, type NeededPart } from '../../../shared/part-needs';
 import { apiErrorMessage } from '../core/api-error';

@@ -7,7 +7,7 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
 
-import type { StepSeriesJson } from '../../../shared/catalog-api';
+import type { StepSeriesJson } from '../../../shared/api/catalog';
 import { formatIn, formatMm } from '../../../shared/lengths';
 import {
   customSeries,

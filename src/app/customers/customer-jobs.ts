@@ -4,7 +4,7 @@ import { RouterLink } from '@angular/router';
 
 import type { CustomerJobJson, CustomerJobMoneyJson } from '../../../shared/api/customers';
 import { ESTIMATE_STATE_LABELS } from '../../../shared/api/money';
-import { JOB_STATE_LABELS } from '../../../shared/jobs-api';
+import { JOB_STATE_LABELS } from '../../../shared/api/jobs';
 import { formatMoney } from '../../../shared/money';
 import { ShopDatePipe } from '../core/shop-date-pipe';
 

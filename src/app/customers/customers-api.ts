@@ -8,7 +8,7 @@ import type {
   CustomerListItemJson,
   CylinderDetailJson,
 } from '../../../shared/api/customers';
-import type { Page } from '../../../shared/jobs-api';
+import type { Page } from '../../../shared/api/jobs';
 
 export interface CustomerBody {
   name?: string;

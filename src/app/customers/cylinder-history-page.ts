@@ -6,7 +6,7 @@ import { RouterLink } from '@angular/router';
 
 import { stepsLeftWarning } from '../../../shared/bore-history';
 import { formatShopDate } from '../../../shared/dates';
-import { JOB_STATE_LABELS } from '../../../shared/jobs-api';
+import { JOB_STATE_LABELS } from '../../../shared/api/jobs';
 import { LengthPipe } from '../core/length-pipe';
 import { Session } from '../core/session';
 import { loadEach } from '../insights/insight-loader';

@@ -2,7 +2,7 @@ import { HttpClient } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
 import { Observable } from 'rxjs';
 
-import type { HomeJson } from '../../../shared/home-api';
+import type { HomeJson } from '../../../shared/api/home';
 
 /** The home page's one door to the server: the day's work for the signed-in role. */
 @Injectable({ providedIn: 'root' })

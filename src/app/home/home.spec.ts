@@ -3,7 +3,7 @@ import { HttpTestingController, provideHttpClientTesting } from '@angular/common
 import { TestBed } from '@angular/core/testing';
 import { provideRouter } from '@angular/router';
 
-import type { HomeJobJson, HomeJson } from '../../../shared/home-api';
+import type { HomeJobJson, HomeJson } from '../../../shared/api/home';
 import type { Role } from '../../../shared/session-types';
 import { Session } from '../core/session';
 import { Home } from './home';

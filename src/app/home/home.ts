@@ -15,9 +15,9 @@ import {
   type HomeListJson,
   type HomeOrderJson,
   type HomeSection,
-} from '../../../shared/home-api';
-import { JOB_STATE_LABELS } from '../../../shared/jobs-api';
-import { ORDER_STATE_LABELS } from '../../../shared/purchasing-api';
+} from '../../../shared/api/home';
+import { JOB_STATE_LABELS } from '../../../shared/api/jobs';
+import { ORDER_STATE_LABELS } from '../../../shared/api/purchasing';
 import { apiErrorMessage } from '../core/api-error';
 import { ROLE_LABELS, ROLE_SUMMARIES } from '../core/role-labels';
 import { Session } from '../core/session';

@@ -19,7 +19,7 @@ import type {
   DuplicateJson,
   ImportJson,
   ImportProgressJson,
-} from '../../../shared/suppliers-api';
+} from '../../../shared/api/suppliers';
 import { apiErrorMessage } from '../core/api-error';
 import { ImportsApi } from './imports-api';
 

@@ -16,7 +16,7 @@ import type {
   DuplicateJson,
   ImportJson,
   ImportStatus,
-} from '../../../shared/suppliers-api';
+} from '../../../shared/api/suppliers';
 import { apiErrorMessage } from '../core/api-error';
 import { ImportCommit } from './import-commit';
 import { ImportPreview } from './import-preview';

@@ -8,8 +8,8 @@ import { MatTableModule } from '@angular/material/table';
 import { Router, RouterLink } from '@angular/router';
 import { catchError, map, of, switchMap, tap } from 'rxjs';
 
-import type { Page } from '../../../shared/catalog-api';
-import type { ImportLogEntryJson, ImportStatus } from '../../../shared/suppliers-api';
+import type { Page } from '../../../shared/api/catalog';
+import type { ImportLogEntryJson, ImportStatus } from '../../../shared/api/suppliers';
 import { apiErrorMessage } from '../core/api-error';
 import { ImportsApi } from './imports-api';
 import { STATUS_WORDS } from './import-words';

@@ -2,7 +2,7 @@ import { ChangeDetectionStrategy, Component, computed, input } from '@angular/co
 import { MatIconModule } from '@angular/material/icon';
 
 import { formatMoney } from '../../../shared/money';
-import type { ImportCountsJson, ImportJson } from '../../../shared/suppliers-api';
+import type { ImportCountsJson, ImportJson } from '../../../shared/api/suppliers';
 import { SeriesLengthPipe } from '../core/series-length-pipe';
 import { describeDetected } from './import-words';
 

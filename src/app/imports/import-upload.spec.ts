@@ -3,7 +3,7 @@ import { HttpTestingController, provideHttpClientTesting } from '@angular/common
 import { ComponentFixture, TestBed } from '@angular/core/testing';
 import { provideRouter } from '@angular/router';
 
-import type { ImportJson, SupplierJson } from '../../../shared/suppliers-api';
+import type { ImportJson, SupplierJson } from '../../../shared/api/suppliers';
 import { Notifier } from '../core/notifier';
 import { Session } from '../core/session';
 import { ImportUpload } from './import-upload';
@@ -168,9 +168,7 @@ describe('ImportUpload', () => {
     const errors = element.querySelector('[data-testid=import-errors]')?.textContent ?? '';
     expect(errors).toContain('The price "-1,00" is negative.');
     // In the list's own unit, as the list wrote it ("54,25 mm").
-    expect(element.querySelector('[data-testid=import-sample]')?.textContent).toContain(
-      '54.25 mm',
-    );
+    expect(element.querySelector('[data-testid=import-sample]')?.textContent).toContain('54.25 mm');
   });
 
   it('when the preview is applied, then the commit is sent and the result says what changed', async () => {

@@ -37,7 +37,7 @@ import {
   type MappingFieldName,
   type MappingJson,
   type SupplierJson,
-} from '../../../shared/suppliers-api';
+} from '../../../shared/api/suppliers';
 import { apiErrorBody, apiErrorMessage, type ApiErrorDetail } from '../core/api-error';
 import { ImportCommit } from './import-commit';
 import { ImportPreview } from './import-preview';

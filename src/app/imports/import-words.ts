@@ -1,4 +1,4 @@
-import type { DetectedJson, ImportStatus, MappingFieldName } from '../../../shared/suppliers-api';
+import type { DetectedJson, ImportStatus, MappingFieldName } from '../../../shared/api/suppliers';
 
 /** The detected format in words a person recognises from their spreadsheet program. */
 export function describeDetected(d: DetectedJson): {

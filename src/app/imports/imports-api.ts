@@ -2,7 +2,7 @@ import { HttpClient, HttpEvent, HttpParams } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
 import { Observable } from 'rxjs';
 
-import type { Page } from '../../../shared/catalog-api';
+import type { Page } from '../../../shared/api/catalog';
 import type {
   CommitJson,
   DuplicateJson,
@@ -11,7 +11,7 @@ import type {
   ImportProgressJson,
   MappingJson,
   SupplierJson,
-} from '../../../shared/suppliers-api';
+} from '../../../shared/api/suppliers';
 
 function params(query: object): HttpParams {
   let result = new HttpParams();

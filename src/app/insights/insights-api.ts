@@ -13,7 +13,7 @@ import type {
   SupplierReliabilityAnswer,
   TopSellerRank,
   TopSellersAnswer,
-} from '../../../shared/insights-api';
+} from '../../../shared/api/insights';
 import type { NearLastStepAnswer } from '../../../shared/api/customers';
 
 /** A period of calendar days, both ends included (YYYY-MM-DD). */

@@ -1,4 +1,4 @@
-import type { AbcAnswer, MonthlyAnswer, SalesAnswer } from '../../../shared/insights-api';
+import type { AbcAnswer, MonthlyAnswer, SalesAnswer } from '../../../shared/api/insights';
 import { SERIES_COLOURS } from './chart-palette';
 import { ABC_COLOURS, monthlyChart, paretoChart, salesByFamilyChart } from './insights-charts';
 

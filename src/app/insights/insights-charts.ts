@@ -11,7 +11,7 @@ import type {
   SupplierReliabilityAnswer,
   TopSellerRank,
   TopSellersAnswer,
-} from '../../../shared/insights-api';
+} from '../../../shared/api/insights';
 import { GRID, INK, LINE_COLOUR, NEUTRAL_COLOUR, seriesColour } from './chart-palette';
 import { formatAmount, formatAmountShort, formatCount, stepPositionName } from './insights-format';
 

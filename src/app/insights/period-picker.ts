@@ -16,7 +16,7 @@ import { MatInputModule } from '@angular/material/input';
 import { DateTime } from 'luxon';
 
 import { patternHint } from '../../../shared/dates';
-import { MAX_PERIOD_DAYS, daysBetween } from '../../../shared/insights-api';
+import { MAX_PERIOD_DAYS, daysBetween } from '../../../shared/api/insights';
 import { Session } from '../core/session';
 import type { DayRange } from './insights-api';
 

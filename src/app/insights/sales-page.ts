@@ -3,7 +3,7 @@ import { MatButtonToggleModule } from '@angular/material/button-toggle';
 import { MatTableModule } from '@angular/material/table';
 import { Router } from '@angular/router';
 
-import { defaultPeriod, isCalendarDay, type TopSellerRank } from '../../../shared/insights-api';
+import { defaultPeriod, isCalendarDay, type TopSellerRank } from '../../../shared/api/insights';
 import { InsightChart } from './insight-chart';
 import { loadEach } from './insight-loader';
 import { InsightPanel } from './insight-panel';

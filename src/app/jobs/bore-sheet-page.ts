@@ -16,7 +16,7 @@ import {
   JOB_STATE_LABELS,
   type BoreSheetJson,
   type JobState,
-} from '../../../shared/jobs-api';
+} from '../../../shared/api/jobs';
 import { formatIn, formatMm, parseLength, type LengthUnit, type Nm } from '../../../shared/lengths';
 import { apiErrorMessage, apiFieldErrors } from '../core/api-error';
 import { LengthPipe } from '../core/length-pipe';

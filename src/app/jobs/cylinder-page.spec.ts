@@ -3,7 +3,7 @@ import { HttpTestingController, provideHttpClientTesting } from '@angular/common
 import { TestBed } from '@angular/core/testing';
 import { provideRouter } from '@angular/router';
 
-import type { JobJson } from '../../../shared/jobs-api';
+import type { JobJson } from '../../../shared/api/jobs';
 import type { SessionResponse } from '../../../shared/session-types';
 import { Notifier } from '../core/notifier';
 import { Session } from '../core/session';

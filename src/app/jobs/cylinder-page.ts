@@ -28,7 +28,7 @@ import {
   type HoldJson,
   type JobJson,
   type RecommendationJson,
-} from '../../../shared/jobs-api';
+} from '../../../shared/api/jobs';
 import {
   formatIn,
   formatLength,

@@ -15,7 +15,7 @@ import { RouterLink } from '@angular/router';
 import { of } from 'rxjs';
 
 import type { BoreJson } from '../../../shared/api/customers';
-import type { EarlierBoreJson, RecommendationJson } from '../../../shared/jobs-api';
+import type { EarlierBoreJson, RecommendationJson } from '../../../shared/api/jobs';
 import { LengthPipe } from '../core/length-pipe';
 import { CustomersApi } from '../customers/customers-api';
 import { loadEach } from '../insights/insight-loader';

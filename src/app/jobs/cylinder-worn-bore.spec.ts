@@ -8,7 +8,7 @@ import type {
   JobJson,
   ProposalJson,
   RecommendationJson,
-} from '../../../shared/jobs-api';
+} from '../../../shared/api/jobs';
 import type { LengthJson, LengthUnit } from '../../../shared/lengths';
 import type { SessionResponse } from '../../../shared/session-types';
 import { Session } from '../core/session';

@@ -3,9 +3,9 @@ import { HttpTestingController, provideHttpClientTesting } from '@angular/common
 import { TestBed } from '@angular/core/testing';
 import { MatDialog } from '@angular/material/dialog';
 
-import type { ProposalJson } from '../../../shared/jobs-api';
+import type { ProposalJson } from '../../../shared/api/jobs';
 import type { SessionResponse } from '../../../shared/session-types';
-import type { StockChangeJson, UnitJson } from '../../../shared/stock-api';
+import type { StockChangeJson, UnitJson } from '../../../shared/api/stock';
 import { Session } from '../core/session';
 import { HoldDialog, type HoldDialogData } from './hold-dialog';
 

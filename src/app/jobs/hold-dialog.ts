@@ -9,7 +9,7 @@ import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { catchError, map, of } from 'rxjs';
 
-import type { HoldJson, ProposalJson, ProposedUnitJson } from '../../../shared/jobs-api';
+import type { HoldJson, ProposalJson, ProposedUnitJson } from '../../../shared/api/jobs';
 import { pistonCleanup } from '../../../shared/bore-sheet';
 import { formatIn, formatMm, mmToNm, parseLength, toLengthJson } from '../../../shared/lengths';
 import { apiErrorBody, apiErrorMessage, apiFieldErrors } from '../core/api-error';

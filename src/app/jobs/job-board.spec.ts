@@ -3,7 +3,7 @@ import { HttpTestingController, provideHttpClientTesting } from '@angular/common
 import { TestBed } from '@angular/core/testing';
 import { provideRouter } from '@angular/router';
 
-import type { JobListItemJson, JobState } from '../../../shared/jobs-api';
+import type { JobListItemJson, JobState } from '../../../shared/api/jobs';
 import type { SessionResponse } from '../../../shared/session-types';
 import { Session } from '../core/session';
 import { JobBoard } from './job-board';

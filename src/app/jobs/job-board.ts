@@ -25,7 +25,7 @@ import {
   OPEN_STATES,
   type JobListItemJson,
   type Page,
-} from '../../../shared/jobs-api';
+} from '../../../shared/api/jobs';
 import { waitingForWords } from '../../../shared/part-needs';
 import { apiErrorMessage } from '../core/api-error';
 import { Session } from '../core/session';

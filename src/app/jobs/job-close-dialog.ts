@@ -3,7 +3,7 @@ import { MatButtonModule } from '@angular/material/button';
 import { MAT_DIALOG_DATA, MatDialogModule } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
 
-import type { JobJson } from '../../../shared/jobs-api';
+import type { JobJson } from '../../../shared/api/jobs';
 import { LengthPipe } from '../core/length-pipe';
 
 export interface JobCloseData {

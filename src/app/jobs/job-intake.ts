@@ -22,10 +22,10 @@ import { Router, RouterLink } from '@angular/router';
 import type { DateTime } from 'luxon';
 import { catchError, map, of } from 'rxjs';
 
-import type { FamilyJson } from '../../../shared/catalog-api';
+import type { FamilyJson } from '../../../shared/api/catalog';
 import type { CustomerListItemJson } from '../../../shared/api/customers';
 import { dueDateWarning, patternHint } from '../../../shared/dates';
-import { jobInput } from '../../../shared/jobs-api';
+import { jobInput } from '../../../shared/api/jobs';
 import { apiErrorBody, apiErrorMessage, apiFieldErrors } from '../core/api-error';
 import { LengthPipe } from '../core/length-pipe';
 import { Notifier } from '../core/notifier';

@@ -27,7 +27,7 @@ import {
   PHOTO_TYPES,
   type JobJson,
   type OpenState,
-} from '../../../shared/jobs-api';
+} from '../../../shared/api/jobs';
 import { waitingForWords } from '../../../shared/part-needs';
 import { apiErrorMessage } from '../core/api-error';
 import { LengthPipe } from '../core/length-pipe';

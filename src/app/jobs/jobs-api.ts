@@ -3,7 +3,7 @@ import { inject, Injectable } from '@angular/core';
 import { map, Observable } from 'rxjs';
 
 import type { CutUndoJson } from '../../../shared/cut-undo';
-import type { FamilyJson } from '../../../shared/catalog-api';
+import type { FamilyJson } from '../../../shared/api/catalog';
 import type {
   BoreSheetJson,
   CylinderJson,
@@ -17,8 +17,8 @@ import type {
   ProposalJson,
   ReadingsResultJson,
   RecommendationJson,
-} from '../../../shared/jobs-api';
-import type { UnitJson } from '../../../shared/stock-api';
+} from '../../../shared/api/jobs';
+import type { UnitJson } from '../../../shared/api/stock';
 
 export interface JobListQuery {
   /** 'open', 'closed', 'all' or one state. */

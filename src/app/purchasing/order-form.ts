@@ -13,7 +13,7 @@ import { Router, RouterLink } from '@angular/router';
 import type { DateTime } from 'luxon';
 import { catchError, map, of } from 'rxjs';
 
-import type { PartJson } from '../../../shared/catalog-api';
+import type { PartJson } from '../../../shared/api/catalog';
 import { patternHint } from '../../../shared/dates';
 import { apiErrorMessage } from '../core/api-error';
 import { Notifier } from '../core/notifier';

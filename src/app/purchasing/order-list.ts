@@ -12,13 +12,13 @@ import { MatTableModule } from '@angular/material/table';
 import { Router, RouterLink } from '@angular/router';
 import { catchError, debounceTime, distinctUntilChanged, map, of, switchMap, tap } from 'rxjs';
 
-import type { Page } from '../../../shared/catalog-api';
+import type { Page } from '../../../shared/api/catalog';
 import {
   ORDER_STATE_LABELS,
   ORDER_STATES,
   type OrderListItemJson,
   type OrderState,
-} from '../../../shared/purchasing-api';
+} from '../../../shared/api/purchasing';
 import { apiErrorMessage } from '../core/api-error';
 import { Session } from '../core/session';
 import { PurchasingApi } from './purchasing-api';

@@ -15,7 +15,7 @@ import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { RouterLink } from '@angular/router';
 
-import type { OrderJson, OrderLineJson, WaitCandidateJson } from '../../../shared/purchasing-api';
+import type { OrderJson, OrderLineJson, WaitCandidateJson } from '../../../shared/api/purchasing';
 import { apiErrorMessage, apiFieldErrors, apiUnplacedMessage } from '../core/api-error';
 import { Notifier } from '../core/notifier';
 import { Session } from '../core/session';

@@ -2,7 +2,7 @@ import { HttpClient, HttpParams } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
 import { Observable } from 'rxjs';
 
-import type { FamilyJson, LadderJson, Page, PartJson } from '../../../shared/catalog-api';
+import type { FamilyJson, LadderJson, Page, PartJson } from '../../../shared/api/catalog';
 import type {
   DraftsJson,
   ExchangeRateJson,
@@ -18,8 +18,8 @@ import type {
   SourcingJson,
   WaitCandidateJson,
   WaitJson,
-} from '../../../shared/purchasing-api';
-import type { SupplierJson } from '../../../shared/suppliers-api';
+} from '../../../shared/api/purchasing';
+import type { SupplierJson } from '../../../shared/api/suppliers';
 
 function params(query: object): HttpParams {
   let result = new HttpParams();

@@ -8,7 +8,7 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatTableModule } from '@angular/material/table';
 import { MatTooltipModule } from '@angular/material/tooltip';
 
-import type { ExchangeRateJson } from '../../../shared/purchasing-api';
+import type { ExchangeRateJson } from '../../../shared/api/purchasing';
 import { apiErrorMessage, apiFieldErrors } from '../core/api-error';
 import { Notifier } from '../core/notifier';
 import { Session } from '../core/session';

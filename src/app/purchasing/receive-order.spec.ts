@@ -4,7 +4,7 @@ import { ComponentFixture, TestBed } from '@angular/core/testing';
 import { provideRouter } from '@angular/router';
 
 import { toLengthJson } from '../../../shared/lengths';
-import type { OrderJson, OrderLineJson } from '../../../shared/purchasing-api';
+import type { OrderJson, OrderLineJson } from '../../../shared/api/purchasing';
 import type { SessionUser } from '../../../shared/session-types';
 import { Session } from '../core/session';
 import { ReceiveOrder } from './receive-order';

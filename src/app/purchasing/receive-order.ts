@@ -17,7 +17,7 @@ import { RouterLink } from '@angular/router';
 
 import { normalizeGtin } from '../../../shared/gtin';
 import { parseLength } from '../../../shared/lengths';
-import type { OrderJson, OrderLineJson, OrderReceiptJson } from '../../../shared/purchasing-api';
+import type { OrderJson, OrderLineJson, OrderReceiptJson } from '../../../shared/api/purchasing';
 import { apiErrorMessage, apiFieldErrors, apiUnplacedMessage } from '../core/api-error';
 import { LengthPipe } from '../core/length-pipe';
 import { Notifier } from '../core/notifier';

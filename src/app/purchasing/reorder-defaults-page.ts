@@ -9,8 +9,8 @@ import { MatSelectModule } from '@angular/material/select';
 import { MatTableModule } from '@angular/material/table';
 import { MatTooltipModule } from '@angular/material/tooltip';
 
-import type { FamilyJson, LadderStepJson } from '../../../shared/catalog-api';
-import type { ReorderDefaultJson } from '../../../shared/purchasing-api';
+import type { FamilyJson, LadderStepJson } from '../../../shared/api/catalog';
+import type { ReorderDefaultJson } from '../../../shared/api/purchasing';
 import { apiErrorMessage, apiFieldErrors } from '../core/api-error';
 import { Notifier } from '../core/notifier';
 import { PurchasingApi } from './purchasing-api';

@@ -7,12 +7,12 @@ import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { RouterLink } from '@angular/router';
 
-import type { PartJson } from '../../../shared/catalog-api';
+import type { PartJson } from '../../../shared/api/catalog';
 import type {
   Figure,
   ReorderRuleJson,
   ReorderSuggestionJson,
-} from '../../../shared/purchasing-api';
+} from '../../../shared/api/purchasing';
 import { apiErrorMessage, apiFieldErrors } from '../core/api-error';
 import { Notifier } from '../core/notifier';
 import { PurchasingApi } from './purchasing-api';

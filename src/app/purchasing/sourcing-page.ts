@@ -13,8 +13,8 @@ import { Router, RouterLink } from '@angular/router';
 import type { DateTime } from 'luxon';
 import { catchError, map, of } from 'rxjs';
 
-import type { LadderStepJson } from '../../../shared/catalog-api';
-import type { SourcingJson } from '../../../shared/purchasing-api';
+import type { LadderStepJson } from '../../../shared/api/catalog';
+import type { SourcingJson } from '../../../shared/api/purchasing';
 import { apiErrorMessage } from '../core/api-error';
 import { dayOf } from '../core/shop-date-adapter';
 import { PurchasingApi } from './purchasing-api';

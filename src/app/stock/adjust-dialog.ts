@@ -6,8 +6,8 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 
-import type { PartJson } from '../../../shared/catalog-api';
-import type { StockChangeJson } from '../../../shared/stock-api';
+import type { PartJson } from '../../../shared/api/catalog';
+import type { StockChangeJson } from '../../../shared/api/stock';
 import { apiErrorMessage } from '../core/api-error';
 import { PartPicker } from './part-picker';
 import { StockApi } from './stock-api';

@@ -6,7 +6,7 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { RouterLink } from '@angular/router';
 import { catchError, map, of, startWith } from 'rxjs';
 
-import type { BinJson } from '../../../shared/stock-api';
+import type { BinJson } from '../../../shared/api/stock';
 import { apiErrorMessage } from '../core/api-error';
 import { Barcode } from '../ui/barcode';
 import { printPageRule } from '../ui/print-page';

@@ -10,7 +10,7 @@ import { MatTableModule } from '@angular/material/table';
 import { RouterLink } from '@angular/router';
 import { catchError, debounceTime, distinctUntilChanged, map, of, switchMap, tap } from 'rxjs';
 
-import type { ExposureItemJson, Page } from '../../../shared/catalog-api';
+import type { ExposureItemJson, Page } from '../../../shared/api/catalog';
 import { emptyStepWords } from '../../../shared/part-needs';
 import { apiErrorMessage } from '../core/api-error';
 import { LengthPipe } from '../core/length-pipe';

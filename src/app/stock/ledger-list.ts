@@ -20,13 +20,13 @@ import { MatTableModule } from '@angular/material/table';
 import { RouterLink } from '@angular/router';
 import { catchError, map, of, switchMap, tap } from 'rxjs';
 
-import type { Page, PartDetailJson, PartJson } from '../../../shared/catalog-api';
+import type { Page, PartDetailJson, PartJson } from '../../../shared/api/catalog';
 import {
   LEDGER_KINDS,
   type LedgerJson,
   type LedgerKind,
   type StockChangeJson,
-} from '../../../shared/stock-api';
+} from '../../../shared/api/stock';
 import { apiErrorMessage } from '../core/api-error';
 import { Notifier } from '../core/notifier';
 import { Session } from '../core/session';

@@ -8,7 +8,7 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatSelectModule } from '@angular/material/select';
 import { catchError, map, of } from 'rxjs';
 
-import type { BinJson, StockChangeJson } from '../../../shared/stock-api';
+import type { BinJson, StockChangeJson } from '../../../shared/api/stock';
 import { apiErrorMessage } from '../core/api-error';
 import { StockApi } from './stock-api';
 

@@ -6,7 +6,7 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { catchError, debounce, map, Observable, of, switchMap, timer } from 'rxjs';
 
-import type { PartJson } from '../../../shared/catalog-api';
+import type { PartJson } from '../../../shared/api/catalog';
 import { apiErrorMessage } from '../core/api-error';
 import { StockApi } from './stock-api';
 

@@ -10,7 +10,7 @@ import { MatRadioButtonHarness } from '@angular/material/radio/testing';
 import { MatSelectHarness } from '@angular/material/select/testing';
 import { provideRouter } from '@angular/router';
 
-import type { PartDetailJson } from '../../../shared/catalog-api';
+import type { PartDetailJson } from '../../../shared/api/catalog';
 import { toLengthJson } from '../../../shared/lengths';
 import type { SessionUser } from '../../../shared/session-types';
 import { Notifier } from '../core/notifier';

@@ -28,14 +28,14 @@ import { RouterLink } from '@angular/router';
 import { catchError, map, of } from 'rxjs';
 
 import { ShopDatePipe } from '../core/shop-date-pipe';
-import type { PartDetailJson, PartJson } from '../../../shared/catalog-api';
+import type { PartDetailJson, PartJson } from '../../../shared/api/catalog';
 import { formatLength, mmToNm, parseLength } from '../../../shared/lengths';
-import type { OpenLineJson } from '../../../shared/purchasing-api';
+import type { OpenLineJson } from '../../../shared/api/purchasing';
 import {
   MAX_PISTONS_PER_RECEIPT,
   type BinJson,
   type DeskReceiptJson,
-} from '../../../shared/stock-api';
+} from '../../../shared/api/stock';
 import { formatMoney } from '../../../shared/money';
 import { apiErrorMessage, apiFieldErrors } from '../core/api-error';
 import { placeApiErrors } from '../core/field-errors';

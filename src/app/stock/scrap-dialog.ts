@@ -6,7 +6,7 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 
-import type { StockChangeJson, UnitJson } from '../../../shared/stock-api';
+import type { StockChangeJson, UnitJson } from '../../../shared/api/stock';
 import { apiErrorMessage } from '../core/api-error';
 import { StockApi } from './stock-api';
 

@@ -8,7 +8,7 @@ import type {
   PartDetailJson,
   PartJson,
   UnitStatus,
-} from '../../../shared/catalog-api';
+} from '../../../shared/api/catalog';
 import type {
   BinJson,
   LedgerJson,
@@ -16,8 +16,8 @@ import type {
   DeskReceiptJson,
   StockChangeJson,
   UnitJson,
-} from '../../../shared/stock-api';
-import type { OpenLineJson } from '../../../shared/purchasing-api';
+} from '../../../shared/api/stock';
+import type { OpenLineJson } from '../../../shared/api/purchasing';
 
 export interface UnitQuery {
   q?: string;

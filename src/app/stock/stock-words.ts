@@ -1,5 +1,5 @@
-import type { UnitStatus } from '../../../shared/catalog-api';
-import type { LedgerKind } from '../../../shared/stock-api';
+import type { UnitStatus } from '../../../shared/api/catalog';
+import type { LedgerKind } from '../../../shared/api/stock';
 
 /** How a piston's status reads on screen, with an icon so it never rests on colour. */
 export const STATUS_LABELS: Record<UnitStatus, { text: string; icon: string }> = {

@@ -33,8 +33,8 @@ import {
   timer,
 } from 'rxjs';
 
-import type { Page, UnitStatus } from '../../../shared/catalog-api';
-import type { StockChangeJson, UnitJson } from '../../../shared/stock-api';
+import type { Page, UnitStatus } from '../../../shared/api/catalog';
+import type { StockChangeJson, UnitJson } from '../../../shared/api/stock';
 import { apiErrorMessage } from '../core/api-error';
 import { LengthPipe } from '../core/length-pipe';
 import { Notifier } from '../core/notifier';

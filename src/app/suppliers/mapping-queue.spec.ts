@@ -3,7 +3,7 @@ import { HttpTestingController, provideHttpClientTesting } from '@angular/common
 import { ComponentFixture, TestBed } from '@angular/core/testing';
 import { provideRouter } from '@angular/router';
 
-import type { UnmappedItemJson } from '../../../shared/suppliers-api';
+import type { UnmappedItemJson } from '../../../shared/api/suppliers';
 import { Notifier } from '../core/notifier';
 import { Session } from '../core/session';
 import { MappingQueue } from './mapping-queue';

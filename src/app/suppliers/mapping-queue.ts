@@ -27,9 +27,9 @@ import {
   tap,
 } from 'rxjs';
 
-import type { Page, PartJson } from '../../../shared/catalog-api';
+import type { Page, PartJson } from '../../../shared/api/catalog';
 import { formatMoney } from '../../../shared/money';
-import type { SuggestionJson, UnmappedItemJson } from '../../../shared/suppliers-api';
+import type { SuggestionJson, UnmappedItemJson } from '../../../shared/api/suppliers';
 import { apiErrorMessage } from '../core/api-error';
 import { LengthPipe } from '../core/length-pipe';
 import { Notifier } from '../core/notifier';

@@ -6,7 +6,7 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import Decimal from 'decimal.js';
 
 import { formatMoney } from '../../../shared/money';
-import type { PriceHistoryJson, SupplierItemJson } from '../../../shared/suppliers-api';
+import type { PriceHistoryJson, SupplierItemJson } from '../../../shared/api/suppliers';
 import { apiErrorMessage } from '../core/api-error';
 import { SuppliersApi } from './suppliers-api';
 import { ShopDatePipe } from '../core/shop-date-pipe';

@@ -31,9 +31,9 @@ import {
   tap,
 } from 'rxjs';
 
-import type { Page } from '../../../shared/catalog-api';
+import type { Page } from '../../../shared/api/catalog';
 import { formatMoney } from '../../../shared/money';
-import type { SupplierItemJson, SupplierJson } from '../../../shared/suppliers-api';
+import type { SupplierItemJson, SupplierJson } from '../../../shared/api/suppliers';
 import { apiErrorMessage } from '../core/api-error';
 import { LengthPipe } from '../core/length-pipe';
 import { Session } from '../core/session';

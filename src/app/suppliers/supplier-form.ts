@@ -24,7 +24,7 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { Router, RouterLink } from '@angular/router';
 
 import { isCurrencyCode } from '../../../shared/money';
-import type { SupplierJson } from '../../../shared/suppliers-api';
+import type { SupplierJson } from '../../../shared/api/suppliers';
 import { apiErrorBody, apiErrorMessage, apiFieldErrors } from '../core/api-error';
 import { Notifier } from '../core/notifier';
 import { SuppliersApi, type SupplierBody } from './suppliers-api';

@@ -10,7 +10,7 @@ import { MatTableModule } from '@angular/material/table';
 import { MatTooltipModule } from '@angular/material/tooltip';
 import { Router, RouterLink } from '@angular/router';
 
-import type { SupplierJson } from '../../../shared/suppliers-api';
+import type { SupplierJson } from '../../../shared/api/suppliers';
 import { Session } from '../core/session';
 import { PagedList } from '../ui/paged-list';
 import { SuppliersApi } from './suppliers-api';

@@ -2,13 +2,13 @@ import { HttpClient, HttpParams } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
 import { Observable } from 'rxjs';
 
-import type { Page, PartJson } from '../../../shared/catalog-api';
+import type { Page, PartJson } from '../../../shared/api/catalog';
 import type {
   PriceHistoryJson,
   SupplierItemJson,
   SupplierJson,
   UnmappedItemJson,
-} from '../../../shared/suppliers-api';
+} from '../../../shared/api/suppliers';
 
 export interface SupplierQuery {
   q?: string;

@@ -13,7 +13,7 @@ import {
   type Observable,
 } from 'rxjs';
 
-import type { Page } from '../../../shared/catalog-api';
+import type { Page } from '../../../shared/api/catalog';
 import { apiErrorMessage } from '../core/api-error';
 
 /** What a server-side list is asked for: ?q&sort&dir&page&pageSize. */

@@ -2,12 +2,12 @@
 // waiting on an order line; reorder rules, suggestions, sourcing and exchange rates are in
 // reorder-api.ts, re-exported here so client and server import one module.
 import { z } from 'zod';
-import { atMost } from './text-rules';
-import { moneyText } from './catalog-api';
-import { skirtField, MAX_PISTONS_PER_RECEIPT } from './stock-api';
-import { type WaitingItemJson } from './suppliers-api';
-import { isCalendarDay } from './insights-api';
-import type { LengthJson } from './lengths';
+import { atMost } from '../text-rules';
+import { moneyText } from './catalog';
+import { skirtField, MAX_PISTONS_PER_RECEIPT } from './stock';
+import { type WaitingItemJson } from './suppliers';
+import { isCalendarDay } from './insights';
+import type { LengthJson } from '../lengths';
 
 const uuid = z.string().uuid('must be a valid id');
 const isoDate = z
@@ -17,7 +17,7 @@ const isoDate = z
   // Date.parse would roll 2027-02-30 over to 2 March; a calendar check refuses it.
   .refine(isCalendarDay, 'is not a calendar date');
 
-export * from './reorder-api';
+export * from './reorder';
 
 // ---- Purchase orders -------------------------------------------------------------------------
 

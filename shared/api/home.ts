@@ -1,7 +1,7 @@
 // What the home page asks for: the day's work of the signed-in person's role, in a few short lists.
-import type { Role } from './session-types';
-import type { JobState } from './jobs-api';
-import type { OrderState } from './purchasing-api';
+import type { Role } from '../session-types';
+import type { JobState } from './jobs';
+import type { OrderState } from './purchasing';
 
 /** The sections of the home page, in the order they are shown. */
 export const HOME_SECTIONS = [

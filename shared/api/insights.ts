@@ -4,8 +4,8 @@
 // input with the same words. Money is exact decimal text ("1234.50"); shares are fractions ("0.8125").
 import { DateTime } from 'luxon';
 import { z } from 'zod';
-import { atMost } from './text-rules';
-import type { NeededPart } from './part-needs';
+import { atMost } from '../text-rules';
+import type { NeededPart } from '../part-needs';
 
 /** Longest period one request may cover: ten years of months is already more than any chart shows. */
 export const MAX_PERIOD_DAYS = 3660;

@@ -1,10 +1,10 @@
 // What the stock API accepts and answers: bins, receipts, adjustments, moves, scrapping, measuring,
 // piston units and the ledger. Shared by the server routes and the Angular forms.
 import { z } from 'zod';
-import { atMost, singleLine } from './text-rules';
-import { lengthField, moneyText, type UnitStatus } from './catalog-api';
-import type { LengthJson } from './lengths';
-import type { OrderState } from './purchasing-api';
+import { atMost, singleLine } from '../text-rules';
+import { lengthField, moneyText, type UnitStatus } from './catalog';
+import type { LengthJson } from '../lengths';
+import type { OrderState } from './purchasing';
 
 export const UNIT_STATUSES = ['free', 'held', 'issued', 'returned', 'scrapped'] as const;
 export const LEDGER_KINDS = [

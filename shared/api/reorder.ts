@@ -1,9 +1,9 @@
 // What the purchasing API accepts and answers about reordering: reorder rules and defaults, the
 // computed suggestion with its figures, the reorder list, sourcing offers and exchange rates.
 import { z } from 'zod';
-import { atMost } from './text-rules';
-import { currencyCode, type WaitingItemJson } from './suppliers-api';
-import { isCalendarDay } from './insights-api';
+import { atMost } from '../text-rules';
+import { currencyCode, type WaitingItemJson } from './suppliers';
+import { isCalendarDay } from './insights';
 
 const uuid = z.string().uuid('must be a valid id');
 const count = (max = 1_000_000) =>

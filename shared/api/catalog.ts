@@ -2,10 +2,10 @@
 // ladder. The zod schemas are used by the server routes and by the Angular forms, so both refuse
 // the same input with the same words.
 import { z } from 'zod';
-import { normalizeGtin, gtinProblem } from './gtin';
-import { parseLength, type LengthJson, type Nm, type ParseLengthOptions } from './lengths';
-import { atMost, singleLine } from './text-rules';
-import type { NeededPart } from './part-needs';
+import { normalizeGtin, gtinProblem } from '../gtin';
+import { parseLength, type LengthJson, type Nm, type ParseLengthOptions } from '../lengths';
+import { atMost, singleLine } from '../text-rules';
+import type { NeededPart } from '../part-needs';
 
 export const STROKE_TYPES = ['two', 'four'] as const;
 export type StrokeType = (typeof STROKE_TYPES)[number];

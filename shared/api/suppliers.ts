@@ -1,9 +1,9 @@
 // What the suppliers and price-list import API accepts and answers. The zod schemas serve the server
 // routes and the Angular forms alike.
 import { z } from 'zod';
-import type { LengthJson } from './lengths';
-import { isCurrencyCode } from './money';
-import { atMost, emailAddress, singleLine } from './text-rules';
+import type { LengthJson } from '../lengths';
+import { isCurrencyCode } from '../money';
+import { atMost, emailAddress, singleLine } from '../text-rules';
 
 export const currencyCode = z
   .string({ error: 'must be a three-letter ISO 4217 code, e.g. "EUR"' })

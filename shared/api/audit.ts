@@ -2,8 +2,8 @@
 // users, settings…) with who made it, when, and the record before and after. The owner browses it;
 // the query schema is shared so the page and the server refuse the same filters with the same words.
 import { z } from 'zod';
-import { atMost } from './text-rules';
-import { isCalendarDay } from './insights-api';
+import { atMost } from '../text-rules';
+import { isCalendarDay } from './insights';
 
 /** A recorded entity or action name: lower-case words joined by _ . or - ("part", "stock.receipt"). */
 const NAME = /^[a-z][a-z0-9_.-]{0,59}$/;

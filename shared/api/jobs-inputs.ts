@@ -2,9 +2,9 @@
 // and notes. The zod schemas are used by the server routes and the Angular forms, so both refuse
 // the same input with the same words.
 import { z } from 'zod';
-import { atMost, isOneEmailAddress, MAX_EMAIL_LENGTH, singleLine } from './text-rules';
-import { optionalLengthField } from './catalog-api';
-import { parseLength, type LengthUnit } from './lengths';
+import { atMost, isOneEmailAddress, MAX_EMAIL_LENGTH, singleLine } from '../text-rules';
+import { optionalLengthField } from './catalog';
+import { parseLength, type LengthUnit } from '../lengths';
 import { OPEN_STATES, READING_AXES, READING_DEPTHS } from './jobs-states';
 
 const uuid = z.string().uuid('must be a valid id');

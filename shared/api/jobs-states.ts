@@ -1,5 +1,5 @@
 // A job's states and the fixed lists the jobs contract names: reading depths and axes, photo limits.
-import type { Axis, Depth } from './bore-wear';
+import type { Axis, Depth } from '../bore-wear';
 
 /** A job's states in workshop order; the last two close the job. */
 export const JOB_STATES = [

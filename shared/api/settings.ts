@@ -1,6 +1,6 @@
 // The shop's settings as GET /api/settings answers them and PATCH /api/settings takes them (owner).
-import type { BarResolution } from './pass-plan';
-import type { StepPolicy } from './bore-choice';
+import type { BarResolution } from '../pass-plan';
+import type { StepPolicy } from '../bore-choice';
 
 export type ClearancePolicy = 'min' | 'mid' | 'max';
 
