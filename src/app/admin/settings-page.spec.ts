@@ -7,33 +7,15 @@ import { MatButtonHarness } from '@angular/material/button/testing';
 import { MatInputHarness } from '@angular/material/input/testing';
 
 import type { ShopSettingsJson } from '../../../shared/api/settings';
+import { DEFAULT_SETTINGS } from '../../../shared/settings-schema';
 import { Notifier } from '../core/notifier';
 import { SettingsPage } from './settings-page';
 
+// The shop's defaults, under a shop name and hours of its own.
 const SETTINGS: ShopSettingsJson = {
+  ...DEFAULT_SETTINGS,
   shopName: 'Quillfen Cylinder Works',
   shopHours: 'Mon–Fri 8–16',
-  timeZone: 'UTC',
-  locale: 'en-GB',
-  holdExpiryDays: 14,
-  clearancePolicy: 'mid',
-  maxCutPerPass: '0.020 in',
-  finishPass: '',
-  truingPass: '',
-  minCutPerPass: '0.001 in',
-  barResolution: '0.0001 in',
-  skipMarginalStep: false,
-  stepPolicy: 'first-that-cleans',
-  marginalCleanup: '0.05 mm',
-  orderCost: '25.00',
-  holdingCostRate: '0.25',
-  serviceLevel: 0.95,
-  homeCurrency: 'EUR',
-  taxRate: '20',
-  pricesIncludeTax: false,
-  depositPercent: '30',
-  cutOnlyAfterApproval: true,
-  shippingAllocation: 'value',
 };
 
 describe('SettingsPage', () => {
