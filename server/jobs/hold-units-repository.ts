@@ -28,6 +28,10 @@ export interface HoldUnitRow {
   family_id: string | null;
   step_id: string | null;
   step_label: string | null;
+  sku: string;
+  description: string;
+  material: string | null;
+  bin_code: string | null;
 }
 
 export interface FreeUnitRow {
@@ -57,6 +61,7 @@ export async function holdUnit(
   const q = k('piston_units as u')
     .join('parts as p', 'p.id', 'u.part_id')
     .leftJoin('series_steps as s', 's.id', 'p.step_id')
+    .leftJoin('bins as b', 'b.id', 'u.bin_id')
     .select(
       'u.id',
       'u.label',
@@ -67,6 +72,11 @@ export async function holdUnit(
       'p.family_id',
       'p.step_id',
       's.label as step_label',
+      // What the hold's answer shows, read here so placing a hold needs no re-read afterwards.
+      'p.sku',
+      'p.description',
+      'p.material',
+      'b.code as bin_code',
     );
   if ('id' in where) q.where('u.id', where.id);
   else q.where('u.label', where.label.trim().toUpperCase());
@@ -117,25 +127,6 @@ export function partsByIds(ids: string[], k: Knex = db): Promise<HoldPartRow[]> 
  * Claims a free piston for a job: the one statement that decides who gets a unit. Returns nothing
  * when the unit was not free (someone else was first, or it left the shelf).
  */
-export async function claimUnit(
-  trx: Knex,
-  unitId: string,
-  hold: { jobId: string; cylinder: number; holdId: string; expiresAt: Date | null },
-): Promise<{ id: string; part_id: string } | undefined> {
-  const [row] = await trx('piston_units')
-    .update({
-      status: 'held',
-      held_for_job_id: hold.jobId,
-      held_cylinder: hold.cylinder,
-      hold_id: hold.holdId,
-      hold_expires_at: hold.expiresAt,
-      updated_at: trx.fn.now(),
-    })
-    .where({ id: unitId, status: 'free' })
-    .returning<{ id: string; part_id: string }[]>(['id', 'part_id']);
-  return row;
-}
-
 /** Moves a held unit's marks to another job or cylinder (the unit stays held). */
 export async function remarkUnit(
   trx: Knex,

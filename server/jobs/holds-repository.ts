@@ -149,6 +149,24 @@ export async function activePistonHold(
   return opts.lock ? q.forUpdate() : q;
 }
 
+/** The job's cylinders that have a step to bore to, each with whether its measured piston is held. */
+export async function pistonsForSteps(
+  k: Knex,
+  jobId: string,
+): Promise<{ n: number; held: boolean }[]> {
+  return k('job_cylinders as c')
+    .select(
+      'c.n',
+      k.raw(
+        `exists (select 1 from holds h where h.job_id = c.job_id and h.cylinder = c.n
+           and h.unit_id is not null and h.released_at is null) as held`,
+      ),
+    )
+    .where('c.job_id', jobId)
+    .whereNotNull('c.chosen_step_id')
+    .orderBy('c.n');
+}
+
 /** A piston whose cylinder is cut stays with it: its hold no longer lapses. */
 export async function clearExpiry(trx: Knex, holdId: string, unitId: string): Promise<void> {
   await trx('holds').update({ expires_at: null }).where({ id: holdId });

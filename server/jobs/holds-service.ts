@@ -27,6 +27,7 @@ import {
   requireHoldJob,
 } from './hold-common';
 import { advanceState } from './job-state';
+import { holdJson } from './jobs-json';
 import { recordShortage } from '../insights/insights-service';
 import { isCheckViolation, isUniqueViolation } from '../db/pg-errors';
 import * as moves from '../stock/stock-movements';
@@ -93,8 +94,9 @@ export async function placeHold(
       if (cylinder.cut_at) {
         throw new Conflict(`Cylinder ${cylinder.n} of job ${job.number} is already cut.`);
       }
+      let held: repo.HoldRow | null = null;
       if (input.unitId) {
-        await holdUnit(trx, {
+        held = await holdUnit(trx, {
           actorId,
           job,
           cylinder,
@@ -117,7 +119,7 @@ export async function placeHold(
       faultPoint('holds.place.afterLedger');
       // Once every cylinder with a step has its piston, a job at booked-in or gauged moves on.
       await advanceState(trx, job, 'parts_set_aside', actorId);
-      return holdOut(holdId, trx);
+      return held ? holdJson(held) : holdOut(holdId, trx);
     });
   } catch (e) {
     // Nothing free at that step: noted for Ran short after the rollback, so the note survives.
@@ -168,10 +170,11 @@ interface HoldContext {
   expiresAt: Date | null;
 }
 
+/** Holds one measured piston; returns the hold as the answer shows it, from the rows already read. */
 async function holdUnit(
   trx: Conn,
   c: HoldContext & { unitId: string; unit: LengthUnit },
-): Promise<void> {
+): Promise<repo.HoldRow> {
   const { job, cylinder } = c;
   const piston = await repo.holdUnit({ id: c.unitId }, trx);
   if (!piston) throw new NotFound('That piston unit');
@@ -200,12 +203,23 @@ async function holdUnit(
     );
   }
 
-  const claimed = await repo.claimUnit(trx, piston.id, {
-    jobId: job.id,
-    cylinder: cylinder.n,
-    holdId: c.holdId,
-    expiresAt: c.expiresAt,
-  });
+  let claimed: { partId: string; createdAt: Date } | null;
+  try {
+    claimed = await moves.claimUnitForHold(trx, {
+      unitId: piston.id,
+      holdId: c.holdId,
+      jobId: job.id,
+      cylinder: cylinder.n,
+      expiresAt: c.expiresAt,
+      userId: c.actorId,
+      reason: `held for job ${job.number}, cylinder ${cylinder.n}`,
+    });
+  } catch (e) {
+    if (isCheckViolation(e)) {
+      throw new NotAvailable(`${piston.label} cannot be held: its part has nothing free on hand.`);
+    }
+    throw e;
+  }
   if (!claimed) {
     const now = await repo.holdUnit({ id: piston.id }, trx);
     const status = now?.status ?? piston.status;
@@ -214,37 +228,6 @@ async function holdUnit(
       { nextBest: await nextBest(trx, piston, job.family_id) },
     );
   }
-  try {
-    await moves.changeLevels(trx, piston.part_id, { onHand: 0, held: 1 });
-  } catch (e) {
-    if (isCheckViolation(e)) {
-      throw new NotAvailable(`${piston.label} cannot be held: its part has nothing free on hand.`);
-    }
-    throw e;
-  }
-  await repo.insertHold(trx, {
-    id: c.holdId,
-    job_id: job.id,
-    cylinder: cylinder.n,
-    part_id: piston.part_id,
-    unit_id: piston.id,
-    quantity: 1,
-    expires_at: c.expiresAt,
-    created_by: c.actorId,
-  });
-  await moves.insertLedger(trx, [
-    {
-      user_id: c.actorId,
-      part_id: piston.part_id,
-      unit_id: piston.id,
-      kind: 'reservation',
-      quantity: 0,
-      held_delta: 1,
-      job_id: job.id,
-      reason: `held for job ${job.number}, cylinder ${cylinder.n}`,
-      ref: c.holdId,
-    },
-  ]);
   // Holding a piston settles the step when none was chosen yet.
   if (!cylinder.chosen_step_id && piston.step_id) {
     await jobsRepo.updateCylinder(trx, job.id, cylinder.n, { chosen_step_id: piston.step_id });
@@ -268,6 +251,28 @@ async function holdUnit(
       expiresAt: c.expiresAt,
     },
   });
+  return {
+    id: c.holdId,
+    job_id: job.id,
+    job_number: job.number,
+    cylinder: cylinder.n,
+    part_id: piston.part_id,
+    sku: piston.sku,
+    kind: 'piston',
+    description: piston.description,
+    step_id: piston.step_id,
+    step_label: piston.step_label,
+    unit_id: piston.id,
+    unit_label: piston.label,
+    skirt_nm: piston.skirt_nm,
+    material: piston.material,
+    bin_code: piston.bin_code,
+    quantity: 1,
+    expires_at: c.expiresAt,
+    created_at: claimed.createdAt,
+    released_at: null,
+    release_reason: null,
+  };
 }
 
 async function holdCounted(

@@ -12,15 +12,12 @@ type Conn = Knex;
  * step to bore to must have its measured piston held for this job. Null when it may.
  */
 export async function whyNotReadyToCut(trx: Conn, jobId: string): Promise<string | null> {
-  const cylinders = await repo.cylindersOf(jobId, trx);
-  const holds = await holdsRepo.holdsOfJob(jobId, { activeOnly: true }, trx);
-  const toBore = cylinders.filter((c) => c.chosen_step_id !== null);
+  // One query: it runs after every hold, so it stays a single round trip.
+  const toBore = await holdsRepo.pistonsForSteps(trx, jobId);
   if (toBore.length === 0) {
     return 'No cylinder has a step to bore to yet: measure the bores and choose the oversize first.';
   }
-  const missing = toBore.filter(
-    (c) => !holds.some((h) => h.cylinder === c.n && h.unit_id !== null),
-  );
+  const missing = toBore.filter((c) => !c.held);
   if (missing.length > 0) {
     const names = missing.map((c) => c.n).join(', ');
     return `Cylinder ${names} ${missing.length === 1 ? 'has' : 'have'} no piston held for this job: hold the measured piston before cutting.`;

@@ -64,3 +64,61 @@ export async function insertLedger(k: Knex, rows: NewLedgerRow[]): Promise<numbe
   const inserted = await k('stock_ledger').insert(rows).returning<{ id: number }[]>('id');
   return inserted.map((r) => Number(r.id));
 }
+
+/**
+ * A measured piston set aside for a job, as one statement (data-modifying CTEs, so one round trip
+ * and one snapshot): the unit claimed only while it is still free, its part's held + 1 (the
+ * levels' CHECK refuses more held than on hand), the hold row and the ledger's reservation row.
+ * Returns null, with nothing written, when the unit was no longer free: someone else won it.
+ */
+export async function claimUnitForHold(
+  k: Knex,
+  c: {
+    unitId: string;
+    holdId: string;
+    jobId: string;
+    cylinder: number;
+    expiresAt: Date | null;
+    userId: string | null;
+    reason: string;
+  },
+): Promise<{ partId: string; createdAt: Date } | null> {
+  type Row = { part_id: string | null; created_at: Date | null; level_rows: number };
+  const result = await k.raw<{ rows: Row[] }>(
+    `WITH claimed AS (
+       UPDATE piston_units
+          SET status = 'held', held_for_job_id = :jobId, held_cylinder = :cylinder,
+              hold_id = :holdId, hold_expires_at = :expiresAt, updated_at = now()
+        WHERE id = :unitId AND status = 'free'
+       RETURNING id, part_id
+     ), levels AS (
+       UPDATE part_levels SET held = held + 1, updated_at = now()
+        WHERE part_id = (SELECT part_id FROM claimed)
+       RETURNING part_id
+     ), hold AS (
+       INSERT INTO holds (id, job_id, cylinder, part_id, unit_id, quantity, expires_at, created_by)
+       SELECT :holdId, :jobId, :cylinder, part_id, id, 1, :expiresAt, :userId FROM claimed
+       RETURNING created_at
+     ), ledger AS (
+       INSERT INTO stock_ledger (user_id, part_id, unit_id, kind, quantity, held_delta, job_id, reason, ref)
+       SELECT :userId, part_id, id, 'reservation', 0, 1, :jobId, :reason, :holdId FROM claimed
+       RETURNING id
+     )
+     SELECT (SELECT part_id FROM claimed) AS part_id, (SELECT created_at FROM hold) AS created_at,
+            (SELECT count(*) FROM levels)::int AS level_rows`,
+    {
+      unitId: c.unitId,
+      holdId: c.holdId,
+      jobId: c.jobId,
+      cylinder: c.cylinder,
+      expiresAt: c.expiresAt,
+      userId: c.userId,
+      reason: c.reason,
+    },
+  );
+  const row = result.rows[0];
+  if (!row?.part_id || !row.created_at) return null;
+  // Every part has its levels row; a claim without one would leave held and the ledger apart.
+  if (row.level_rows !== 1) throw new Error(`part_levels row missing for part ${row.part_id}`);
+  return { partId: row.part_id, createdAt: row.created_at };
+}
