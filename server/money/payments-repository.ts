@@ -76,3 +76,14 @@ export async function recordEvent(
     .returning('event_id');
   return rows.length === 1;
 }
+
+/**
+ * What the customer has paid on the job and not had back: the sum of its paid payments (online and
+ * at the counter), exact decimal text ("0" when nothing). The invoice and the payments list use it.
+ */
+export async function paidTotal(jobId: string, k: Knex = db): Promise<string> {
+  const row = await k('payments')
+    .where({ job_id: jobId, state: 'paid' })
+    .first(k.raw('coalesce(sum(amount), 0)::text as paid'));
+  return (row?.paid as string | undefined) ?? '0';
+}
