@@ -9,7 +9,7 @@ import type { CustomerJson } from '../../../shared/api/customers';
 import { apiErrorMessage } from '../core/api-error';
 import { Notifier } from '../core/notifier';
 import { Session } from '../core/session';
-import { loadEach } from '../insights/insight-loader';
+import { loadEach } from '../ui/load';
 import { CustomerCylinders } from './customer-cylinders';
 import { CustomerDetails } from './customer-details';
 import { CustomerEraseDialog } from './customer-erase-dialog';

@@ -9,7 +9,7 @@ import { formatShopDate } from '../../../shared/dates';
 import { JOB_STATE_LABELS } from '../../../shared/api/jobs';
 import { LengthPipe } from '../core/length-pipe';
 import { Session } from '../core/session';
-import { loadEach } from '../insights/insight-loader';
+import { loadEach } from '../ui/load';
 import { printPageRule } from '../ui/print-page';
 import { boreChart } from './bore-chart';
 import { BoreChartView } from './bore-chart-view';

@@ -5,7 +5,7 @@ import { Router } from '@angular/router';
 
 import type { AbcClass } from '../../../shared/api/insights';
 import { InsightChart } from './insight-chart';
-import { loadEach } from './insight-loader';
+import { loadEach } from '../ui/load';
 import { InsightPanel } from './insight-panel';
 import { InsightsApi } from './insights-api';
 import { paretoChart } from './insights-charts';

@@ -6,7 +6,7 @@ import { Router, RouterLink } from '@angular/router';
 import { NEAR_LAST_STEP_MAX } from '../../../shared/api/customers';
 import { LengthPipe } from '../core/length-pipe';
 import { InsightChart } from './insight-chart';
-import { loadEach } from './insight-loader';
+import { loadEach } from '../ui/load';
 import { InsightPanel } from './insight-panel';
 import { InsightsApi } from './insights-api';
 import { formatCount } from './insights-format';

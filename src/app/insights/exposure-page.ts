@@ -5,7 +5,7 @@ import { Router } from '@angular/router';
 
 import { waitingForWords, type NeededPart } from '../../../shared/part-needs';
 import { InsightChart } from './insight-chart';
-import { loadEach } from './insight-loader';
+import { loadEach } from '../ui/load';
 import { InsightPanel } from './insight-panel';
 import { InsightsApi } from './insights-api';
 import { exposureChart, supplierChart } from './insights-charts';

@@ -5,7 +5,7 @@ import { Router } from '@angular/router';
 
 import { defaultPeriod, isCalendarDay, type TopSellerRank } from '../../../shared/api/insights';
 import { InsightChart } from './insight-chart';
-import { loadEach } from './insight-loader';
+import { loadEach } from '../ui/load';
 import { InsightPanel } from './insight-panel';
 import { InsightsApi, type DayRange } from './insights-api';
 import {

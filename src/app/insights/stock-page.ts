@@ -4,7 +4,7 @@ import { MatTableModule } from '@angular/material/table';
 import { Router } from '@angular/router';
 
 import { InsightChart } from './insight-chart';
-import { loadEach } from './insight-loader';
+import { loadEach } from '../ui/load';
 import { InsightPanel } from './insight-panel';
 import { InsightsApi } from './insights-api';
 import { NO_FAMILY, stockValueChart } from './insights-charts';

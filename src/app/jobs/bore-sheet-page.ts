@@ -1,15 +1,11 @@
 import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
-import { toObservable, toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
-import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { RouterLink } from '@angular/router';
-import { catchError, filter, map, of, switchMap, tap } from 'rxjs';
-
-import type { CutUndoJson } from '../../../shared/cut-undo';
+import { filter } from 'rxjs';
 
 import {
   isOpenState,
@@ -25,8 +21,8 @@ import { Session } from '../core/session';
 import { CutDialog, type CutDialogData, type CutDialogResult } from './cut-dialog';
 import { JobsApi, type CylinderChanges } from './jobs-api';
 import { ShopDatePipe } from '../core/shop-date-pipe';
-
-type Loaded = { ok: true; sheet: BoreSheetJson & CutUndoJson } | { ok: false; message: string };
+import { ListState } from '../ui/list-state';
+import { loadEach } from '../ui/load';
 
 /**
  * The sheet that goes to the boring machine: every size worked out from the held piston, the
@@ -37,11 +33,11 @@ type Loaded = { ok: true; sheet: BoreSheetJson & CutUndoJson } | { ok: false; me
   imports: [
     ShopDatePipe,
     LengthPipe,
+    ListState,
     MatButtonModule,
     MatFormFieldModule,
     MatIconModule,
     MatInputModule,
-    MatProgressBarModule,
     RouterLink,
   ],
   templateUrl: './bore-sheet-page.html',
@@ -61,30 +57,11 @@ export class BoreSheetPage {
   protected readonly other = computed((): LengthUnit => (this.unit() === 'mm' ? 'in' : 'mm'));
   protected readonly printedAt = new Date();
 
-  private readonly reloads = signal(0);
-  protected readonly loading = signal(true);
-  private readonly loaded = toSignal(
-    toObservable(computed(() => ({ id: this.id(), n: this.cylinderNo(), r: this.reloads() }))).pipe(
-      tap(() => this.loading.set(true)),
-      switchMap(({ id, n }) =>
-        this.api.boreSheet(id, n).pipe(
-          map((sheet): Loaded => ({ ok: true, sheet })),
-          catchError((error: unknown) =>
-            of<Loaded>({ ok: false, message: apiErrorMessage(error) }),
-          ),
-        ),
-      ),
-      tap(() => this.loading.set(false)),
-    ),
+  protected readonly loaded = loadEach(
+    computed(() => ({ id: this.id(), n: this.cylinderNo() })),
+    ({ id, n }) => this.api.boreSheet(id, n),
   );
-  protected readonly sheet = computed(() => {
-    const loaded = this.loaded();
-    return loaded?.ok ? loaded.sheet : null;
-  });
-  protected readonly loadError = computed(() => {
-    const loaded = this.loaded();
-    return loaded && !loaded.ok ? loaded.message : '';
-  });
+  protected readonly sheet = this.loaded.value;
   protected readonly open = computed(() => {
     const sheet = this.sheet();
     return sheet ? isOpenState(sheet.job.state) : false;
@@ -169,7 +146,7 @@ export class BoreSheetPage {
         next: () => {
           this.busy.set(false);
           this.notifier.success(`The cut of cylinder ${sheet.cylinder} is taken back.`);
-          this.reloads.update((n) => n + 1);
+          this.loaded.reload();
         },
         error: (error: unknown) => {
           this.busy.set(false);
@@ -207,7 +184,7 @@ export class BoreSheetPage {
           this.busy.set(false);
           this.overrideText.set('');
           this.notifier.success(`Cylinder ${sheet.cylinder} marked as cut.`);
-          this.reloads.update((n) => n + 1);
+          this.loaded.reload();
         },
         error: (error: unknown) => {
           this.busy.set(false);
@@ -266,7 +243,7 @@ export class BoreSheetPage {
         this.busy.set(false);
         this.notifier.success(success);
         after();
-        this.reloads.update((n) => n + 1);
+        this.loaded.reload();
       },
       error: (error: unknown) => {
         this.busy.set(false);

@@ -7,15 +7,12 @@ import {
   linkedSignal,
   signal,
 } from '@angular/core';
-import { toObservable, toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
-import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { RouterLink } from '@angular/router';
-import { catchError, map, of, switchMap, tap } from 'rxjs';
 
 import { assessBore, type BoreAssessment } from '../../../shared/bore-assessment';
 import { ReadingsError, type Axis, type Depth, type Reading } from '../../../shared/bore-wear';
@@ -26,8 +23,6 @@ import {
   READING_AXES,
   READING_DEPTHS,
   type HoldJson,
-  type JobJson,
-  type RecommendationJson,
 } from '../../../shared/api/jobs';
 import {
   formatIn,
@@ -47,9 +42,8 @@ import { ShopDatePipe } from '../core/shop-date-pipe';
 import { HoldDialog, type HoldDialogData } from './hold-dialog';
 import { CylinderPast } from './cylinder-past';
 import { JobsApi, type ReadingBody } from './jobs-api';
-
-type Loaded = { ok: true; job: JobJson } | { ok: false; message: string };
-type RecLoaded = { ok: true; rec: RecommendationJson } | { ok: false; message: string } | null;
+import { ListState } from '../ui/list-state';
+import { loadById, loadEach } from '../ui/load';
 
 type CellKey = `${Depth}-${Axis}`;
 interface Cell {
@@ -87,11 +81,11 @@ interface Preview {
   imports: [
     CylinderPast,
     LengthPipe,
+    ListState,
     MatButtonModule,
     MatFormFieldModule,
     MatIconModule,
     MatInputModule,
-    MatProgressBarModule,
     RouterLink,
     ShopDatePipe,
   ],
@@ -114,30 +108,8 @@ export class CylinderPage {
   protected readonly axisLabels = AXIS_LABELS;
   protected readonly unit = this.session.unit;
 
-  private readonly reloads = signal(0);
-  protected readonly loading = signal(true);
-  private readonly loaded = toSignal(
-    toObservable(computed(() => ({ id: this.id(), reload: this.reloads() }))).pipe(
-      tap(() => this.loading.set(true)),
-      switchMap(({ id }) =>
-        this.api.get(id).pipe(
-          map((job): Loaded => ({ ok: true, job })),
-          catchError((error: unknown) =>
-            of<Loaded>({ ok: false, message: apiErrorMessage(error) }),
-          ),
-        ),
-      ),
-      tap(() => this.loading.set(false)),
-    ),
-  );
-  protected readonly job = computed(() => {
-    const loaded = this.loaded();
-    return loaded?.ok ? loaded.job : null;
-  });
-  protected readonly loadError = computed(() => {
-    const loaded = this.loaded();
-    return loaded && !loaded.ok ? loaded.message : '';
-  });
+  protected readonly loaded = loadById(this.id, (id) => this.api.get(id));
+  protected readonly job = this.loaded.value;
   protected readonly cylinder = computed(
     () => this.job()?.cylinderDetails.find((c) => c.n === this.cylinderNo()) ?? null,
   );
@@ -219,44 +191,18 @@ export class CylinderPage {
     return lengthJsonToNm(cleanup, 'mm') < 0;
   }
 
-  private readonly recReloads = signal(0);
-  private readonly recLoaded = toSignal(
-    toObservable(
-      computed(
-        () => ({
-          id: this.id(),
-          n: this.cylinderNo(),
-          measured: this.cylinder()?.measuredAt ?? null,
-          reload: this.recReloads(),
-        }),
-        // The job reloads after every change; only a new measurement or an asked reload refetches.
-        {
-          equal: (a, b) =>
-            a.id === b.id && a.n === b.n && a.measured === b.measured && a.reload === b.reload,
-        },
-      ),
-    ).pipe(
-      switchMap(({ id, n, measured }) =>
-        measured
-          ? this.api.recommendation(id, n).pipe(
-              map((rec): RecLoaded => ({ ok: true, rec })),
-              catchError((error: unknown) =>
-                of<RecLoaded>({ ok: false, message: apiErrorMessage(error) }),
-              ),
-            )
-          : of<RecLoaded>(null),
-      ),
-    ),
-    { initialValue: null },
+  /** The step choice; asked for once the bore is read, and again after each change here. */
+  private readonly rec = loadEach(
+    computed(() => {
+      const measured = this.cylinder()?.measuredAt ?? null;
+      return measured ? { id: this.id(), n: this.cylinderNo(), measured } : null;
+    }),
+    ({ id, n }) => this.api.recommendation(id, n),
+    // The job reloads after every change; only a new measurement or an asked reload refetches.
+    { equal: (a, b) => a?.id === b?.id && a?.n === b?.n && a?.measured === b?.measured },
   );
-  protected readonly recommendation = computed(() => {
-    const loaded = this.recLoaded();
-    return loaded?.ok ? loaded.rec : null;
-  });
-  protected readonly recError = computed(() => {
-    const loaded = this.recLoaded();
-    return loaded && !loaded.ok ? loaded.message : '';
-  });
+  protected readonly recommendation = this.rec.value;
+  protected readonly recError = this.rec.error;
   protected readonly suggested = computed(() => {
     const rec = this.recommendation();
     return rec?.choice ? (rec.steps.find((s) => s.stepId === rec.choice) ?? null) : null;
@@ -315,8 +261,7 @@ export class CylinderPage {
       next: () => {
         this.busy.set(false);
         this.notifier.success(`Readings for cylinder ${this.cylinderNo()} saved.`);
-        this.reloads.update((n) => n + 1);
-        this.recReloads.update((n) => n + 1);
+        this.reloadBoth();
       },
       error: (error: unknown) => {
         this.busy.set(false);
@@ -333,8 +278,7 @@ export class CylinderPage {
       next: () => {
         this.busy.set(false);
         this.notifier.success(`Cylinder ${this.cylinderNo()} goes to ${label}.`);
-        this.reloads.update((n) => n + 1);
-        this.recReloads.update((n) => n + 1);
+        this.reloadBoth();
       },
       error: (error: unknown) => {
         this.busy.set(false);
@@ -352,8 +296,7 @@ export class CylinderPage {
       next: (c) => {
         this.busy.set(false);
         this.notifier.success(`Cylinder ${this.cylinderNo()} is ${c.cylinder?.mark ?? 'linked'}.`);
-        this.reloads.update((n) => n + 1);
-        this.recReloads.update((n) => n + 1);
+        this.reloadBoth();
       },
       error: (error: unknown) => {
         this.busy.set(false);
@@ -376,8 +319,7 @@ export class CylinderPage {
           this.notifier.success(
             `${hold.unitLabel ?? hold.sku} is held for cylinder ${hold.cylinder}.`,
           );
-          this.reloads.update((n) => n + 1);
-          this.recReloads.update((n) => n + 1);
+          this.reloadBoth();
         }
       });
   }
@@ -389,13 +331,18 @@ export class CylinderPage {
       next: () => {
         this.busy.set(false);
         this.notifier.success(`${hold.unitLabel ?? hold.sku} is back on the shelf.`);
-        this.reloads.update((n) => n + 1);
-        this.recReloads.update((n) => n + 1);
+        this.reloadBoth();
       },
       error: (error: unknown) => {
         this.busy.set(false);
         this.notifier.error(apiErrorMessage(error));
       },
     });
+  }
+
+  /** After a change here both the job and the step choice may read differently. */
+  private reloadBoth(): void {
+    this.loaded.reload();
+    this.rec.reload();
   }
 }

@@ -12,13 +12,12 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatSelectModule } from '@angular/material/select';
 import { RouterLink } from '@angular/router';
-import { of } from 'rxjs';
 
 import type { BoreJson } from '../../../shared/api/customers';
 import type { EarlierBoreJson, RecommendationJson } from '../../../shared/api/jobs';
 import { LengthPipe } from '../core/length-pipe';
 import { CustomersApi } from '../customers/customers-api';
-import { loadEach } from '../insights/insight-loader';
+import { loadEach } from '../ui/load';
 import { ShopDatePipe } from '../core/shop-date-pipe';
 
 /**
@@ -139,7 +138,7 @@ export class CylinderPast {
   /** The customer's cylinders of this family, offered only while unlinked. */
   private readonly offered = loadEach(
     computed(() => (!this.cylinder() && this.editable() ? this.customerId() : null)),
-    (id) => (id ? this.api.cylinders(id) : of([])),
+    (id) => this.api.cylinders(id),
   );
   protected readonly known = computed(() =>
     (this.offered.value() ?? []).filter((c) => c.familyId === this.familyId()),
@@ -151,9 +150,7 @@ export class CylinderPast {
   }
 
   private readonly cylinderId = computed(() => this.cylinder()?.id ?? null);
-  protected readonly detail = loadEach(this.cylinderId, (id) =>
-    id ? this.api.cylinder(id) : of(null),
-  );
+  protected readonly detail = loadEach(this.cylinderId, (id) => this.api.cylinder(id));
   /** Bores from other jobs: this job's own cut is not an earlier bore. */
   private readonly before = computed<BoreJson[]>(() =>
     (this.detail.value()?.bores ?? []).filter((b) => b.jobId !== this.jobId()),

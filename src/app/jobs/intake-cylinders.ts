@@ -20,7 +20,7 @@ import { formatShopDate } from '../../../shared/dates';
 import { apiErrorMessage, apiFieldErrors } from '../core/api-error';
 import { Session } from '../core/session';
 import { CustomersApi } from '../customers/customers-api';
-import { loadEach } from '../insights/insight-loader';
+import { loadEach } from '../ui/load';
 
 /**
  * At intake: which of the customer's known cylinders each job cylinder is, or a new one under the

@@ -8,31 +8,26 @@ import {
   signal,
   viewChild,
 } from '@angular/core';
-import { toObservable, toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
-import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSlideToggleModule } from '@angular/material/slide-toggle';
 import { RouterLink } from '@angular/router';
-import { catchError, debounceTime, distinctUntilChanged, map, of, switchMap, tap } from 'rxjs';
 
 import {
   JOB_STATE_HINTS,
   JOB_STATE_LABELS,
   OPEN_STATES,
   type JobListItemJson,
-  type Page,
 } from '../../../shared/api/jobs';
 import { waitingForWords } from '../../../shared/part-needs';
-import { apiErrorMessage } from '../core/api-error';
 import { Session } from '../core/session';
 import { JobsApi, type JobListQuery } from './jobs-api';
 import { ShopDatePipe } from '../core/shop-date-pipe';
-
-type Loaded = { ok: true; page: Page<JobListItemJson> } | { ok: false; message: string };
+import { ListState } from '../ui/list-state';
+import { debounced, loadEach } from '../ui/load';
 
 /** Enough for every open job a shop has on the go; more than this shows a note to search. */
 const BOARD_SIZE = 300;
@@ -45,12 +40,12 @@ const BOARD_SIZE = 300;
   selector: 'app-job-board',
   imports: [
     ShopDatePipe,
+    ListState,
     MatButtonModule,
     MatButtonToggleModule,
     MatFormFieldModule,
     MatIconModule,
     MatInputModule,
-    MatProgressBarModule,
     MatSlideToggleModule,
     NgTemplateOutlet,
     RouterLink,
@@ -73,55 +68,24 @@ export class JobBoard {
   protected readonly text = signal('');
   protected readonly show = signal<'open' | 'closed'>('open');
   protected readonly waitingOnly = signal(false);
-  private readonly reloads = signal(0);
-
-  private readonly q = toSignal(
-    toObservable(this.text).pipe(debounceTime(250), distinctUntilChanged()),
-    { initialValue: '' },
-  );
+  private readonly q = debounced(this.text);
 
   private readonly query = computed(
     () =>
       ({
         state: this.show(),
-        q: this.q().trim() || undefined,
+        q: this.q() || undefined,
         waiting: this.show() === 'open' && this.waitingOnly() ? true : undefined,
         sort: this.show() === 'open' ? 'due' : 'created',
         dir: this.show() === 'open' ? 'asc' : 'desc',
         page: 1,
         pageSize: BOARD_SIZE,
-        reload: this.reloads(),
-      }) satisfies JobListQuery & { reload: number },
+      }) satisfies JobListQuery,
   );
 
-  protected readonly loading = signal(true);
-  private readonly loaded = toSignal(
-    toObservable(this.query).pipe(
-      tap(() => this.loading.set(true)),
-      switchMap(({ reload: _reload, ...query }) =>
-        this.api.list(query).pipe(
-          map((page): Loaded => ({ ok: true, page })),
-          catchError((error: unknown) =>
-            of<Loaded>({ ok: false, message: apiErrorMessage(error) }),
-          ),
-        ),
-      ),
-      tap(() => this.loading.set(false)),
-    ),
-  );
-
-  protected readonly jobs = computed(() => {
-    const loaded = this.loaded();
-    return loaded?.ok ? loaded.page.items : [];
-  });
-  protected readonly total = computed(() => {
-    const loaded = this.loaded();
-    return loaded?.ok ? loaded.page.total : 0;
-  });
-  protected readonly loadError = computed(() => {
-    const loaded = this.loaded();
-    return loaded && !loaded.ok ? loaded.message : '';
-  });
+  protected readonly loaded = loadEach(this.query, (query) => this.api.list(query));
+  protected readonly jobs = computed(() => this.loaded.value()?.items ?? []);
+  protected readonly total = computed(() => this.loaded.value()?.total ?? 0);
 
   /** One column per open stage, each keeping the server's order (due date first). */
   protected readonly columns = computed(() =>
@@ -161,9 +125,5 @@ export class JobBoard {
 
   protected stateLabel(job: JobListItemJson): string {
     return JOB_STATE_LABELS[job.state];
-  }
-
-  protected reload(): void {
-    this.reloads.update((n) => n + 1);
   }
 }

@@ -1,22 +1,12 @@
-import {
-  ChangeDetectionStrategy,
-  Component,
-  computed,
-  inject,
-  input,
-  linkedSignal,
-  signal,
-} from '@angular/core';
-import { toObservable, toSignal } from '@angular/core/rxjs-interop';
+import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
-import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSlideToggleModule } from '@angular/material/slide-toggle';
 import { RouterLink } from '@angular/router';
-import { catchError, map, of, switchMap, tap } from 'rxjs';
+import type { Observable } from 'rxjs';
 
 import {
   isOpenState,
@@ -37,8 +27,8 @@ import { JobCloseDialog, type JobCloseData } from './job-close-dialog';
 import { JobsApi } from './jobs-api';
 import { makeThumbnail } from './make-thumbnail';
 import { ShopDatePipe } from '../core/shop-date-pipe';
-
-type Loaded = { ok: true; job: JobJson } | { ok: false; message: string };
+import { ListState } from '../ui/list-state';
+import { loadById } from '../ui/load';
 
 /** One job: the customer, each cylinder's state, its photos and history, and what to do next. */
 @Component({
@@ -46,11 +36,11 @@ type Loaded = { ok: true; job: JobJson } | { ok: false; message: string };
   imports: [
     ShopDatePipe,
     LengthPipe,
+    ListState,
     MatButtonModule,
     MatFormFieldModule,
     MatIconModule,
     MatInputModule,
-    MatProgressBarModule,
     MatSlideToggleModule,
     RouterLink,
   ],
@@ -79,31 +69,9 @@ export class JobPage {
   );
   protected readonly counter = computed(() => this.machine() || this.role() === 'staff');
 
-  private readonly reloads = signal(0);
-  protected readonly loading = signal(true);
-  private readonly loaded = toSignal(
-    toObservable(computed(() => ({ id: this.id(), reload: this.reloads() }))).pipe(
-      tap(() => this.loading.set(true)),
-      switchMap(({ id }) =>
-        this.api.get(id).pipe(
-          map((job): Loaded => ({ ok: true, job })),
-          catchError((error: unknown) =>
-            of<Loaded>({ ok: false, message: apiErrorMessage(error) }),
-          ),
-        ),
-      ),
-      tap(() => this.loading.set(false)),
-    ),
-  );
-  /** The job on screen; an action's answer replaces it without another request. */
-  protected readonly job = linkedSignal(() => {
-    const loaded = this.loaded();
-    return loaded?.ok ? loaded.job : null;
-  });
-  protected readonly loadError = computed(() => {
-    const loaded = this.loaded();
-    return loaded && !loaded.ok ? loaded.message : '';
-  });
+  /** The job on screen; an action's answer replaces it (`loaded.set`) without another request. */
+  protected readonly loaded = loadById(this.id, (id) => this.api.get(id));
+  protected readonly job = this.loaded.value;
   protected readonly open = computed(() => {
     const job = this.job();
     return job ? isOpenState(job.state) : false;
@@ -118,10 +86,6 @@ export class JobPage {
   protected readonly busy = signal(false);
   protected readonly uploading = signal(false);
   protected readonly noteText = signal('');
-
-  protected reload(): void {
-    this.reloads.update((n) => n + 1);
-  }
 
   protected moveTo(state: OpenState): void {
     const job = this.job();
@@ -181,7 +145,7 @@ export class JobPage {
       next: () => {
         this.uploading.set(false);
         this.notifier.success('Photo added.');
-        this.reload();
+        this.loaded.reload();
       },
       error: (error: unknown) => {
         this.uploading.set(false);
@@ -190,16 +154,12 @@ export class JobPage {
     });
   }
 
-  private run(
-    request: import('rxjs').Observable<JobJson>,
-    success: string,
-    after?: () => void,
-  ): void {
+  private run(request: Observable<JobJson>, success: string, after?: () => void): void {
     this.busy.set(true);
     request.subscribe({
       next: (job) => {
         this.busy.set(false);
-        this.job.set(job);
+        this.loaded.set(job);
         this.notifier.success(success);
         after?.();
       },
