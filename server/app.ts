@@ -26,6 +26,16 @@ export interface CreatedApp {
   close(): Promise<void>;
 }
 
+/** Built files whose names stay the same from one build to the next. */
+const UNHASHED = new Set([
+  'index.html',
+  'ngsw.json',
+  'ngsw-worker.js',
+  'safety-worker.js',
+  'worker-basic.min.js',
+  'manifest.webmanifest',
+]);
+
 export function distDir(): string {
   return config.DIST_DIR ?? path.resolve(__dirname, '..', 'dist', 'stepstock', 'browser');
 }
@@ -93,7 +103,17 @@ export function createApp(opts: { databaseUrl?: string; serveClient?: boolean } 
 
   const dist = distDir();
   if (opts.serveClient !== false && existsSync(dist)) {
-    app.use(express.static(dist, { index: false, maxAge: '1h' }));
+    app.use(
+      express.static(dist, {
+        index: false,
+        maxAge: '1h',
+        setHeaders: (res, file) => {
+          // The service worker, its manifest of files and the app manifest name what the current
+          // build is: a browser must ask again each time, or a tablet keeps last week's app.
+          if (UNHASHED.has(path.basename(file))) res.setHeader('Cache-Control', 'no-cache');
+        },
+      }),
+    );
     // Every other path is a client route: answer the app shell and let the Angular router decide.
     app.get('/{*splat}', (_req, res) => {
       res.setHeader('Cache-Control', 'no-cache');

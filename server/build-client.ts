@@ -11,6 +11,7 @@ const INPUTS = [
   'tsconfig.json',
   'tsconfig.app.json',
   'package-lock.json',
+  'ngsw-config.json',
 ];
 
 function newestMtime(p: string): number {

@@ -62,6 +62,21 @@ describe('HTTPS from Stepstock itself', () => {
     expect(String(page.headers['strict-transport-security'])).toMatch(/max-age=\d+/);
   });
 
+  it('when the tablet asks for the service worker over HTTPS, then the worker, its file list and the manifest are served', async () => {
+    // Browsers run a service worker only on a secure origin: this is what a tablet on the LAN gets.
+    const worker = await httpsGet(`${server.url}/ngsw-worker.js`, cert);
+    expect(worker.status).toBe(200);
+    expect(String(worker.headers['content-type'])).toMatch(/javascript/);
+    const list = await httpsGet(`${server.url}/ngsw.json`, cert);
+    expect(list.status).toBe(200);
+    expect(String(list.headers['content-type'])).toMatch(/^application\/json/);
+    const files = JSON.parse(list.body) as { assetGroups: { urls: string[] }[] };
+    expect(files.assetGroups.flatMap((g) => g.urls)).toContain('/index.html');
+    const manifest = await httpsGet(`${server.url}/manifest.webmanifest`, cert);
+    expect(manifest.status).toBe(200);
+    expect(String(manifest.headers['content-type'])).toMatch(/^application\/manifest\+json/);
+  });
+
   it('when a client does not trust the certificate, then it gets no answer', async () => {
     const other = execFileSync(
       'openssl',

@@ -4,6 +4,43 @@ import { catchError, firstValueFrom, map, Observable, of, tap, throwError } from
 
 import type { SessionResponse, SessionUser } from '../../../shared/session-types';
 import { HANDLES_OWN_401 } from './http-context';
+import { clearCachedAnswers, idbOfflineStorage } from './offline-store';
+
+/**
+ * Who was last signed in on this device, so a tablet that reloads with the network down can still
+ * open the pages its service worker kept. Only the name, role and unit: the session itself is the
+ * server's HttpOnly cookie, and every answer is still the server's decision once it is reachable.
+ */
+const LAST_SESSION_KEY = 'stepstock.session.last';
+
+/**
+ * The server was not reached: the service worker's 504 (its fetch failed), or no network at all.
+ * A plain failed request with the network up (a development server stopped) is not offline use.
+ */
+function unreachable(error: unknown): boolean {
+  if (!(error instanceof HttpErrorResponse)) return false;
+  return error.status === 504 || (error.status === 0 && !navigator.onLine);
+}
+
+function remembered(): SessionResponse | null {
+  try {
+    const stored: unknown = JSON.parse(localStorage.getItem(LAST_SESSION_KEY) ?? 'null');
+    return stored && typeof stored === 'object' && 'user' in stored
+      ? (stored as SessionResponse)
+      : null;
+  } catch {
+    return null;
+  }
+}
+
+function remember(response: SessionResponse | null): void {
+  try {
+    if (response) localStorage.setItem(LAST_SESSION_KEY, JSON.stringify(response));
+    else localStorage.removeItem(LAST_SESSION_KEY);
+  } catch {
+    /* private mode: offline start-up is not offered */
+  }
+}
 
 /**
  * Who is signed in. The server holds the session (an HttpOnly cookie); this keeps the answer of
@@ -26,6 +63,8 @@ export class Session {
   /** The shop's home currency: stock is valued in it. */
   readonly currency = computed(() => this.current()?.shop?.currency || 'EUR');
   readonly unit = computed(() => this.user()?.unit ?? 'mm');
+  /** True when the server could not be reached at start-up and the last sign-in on this device stands in. */
+  readonly offline = signal(false);
 
   /**
    * Asks the server who is signed in: the user, or null on 401. Other failures (server down)
@@ -44,6 +83,8 @@ export class Session {
             this.clear();
             return null;
           }
+          const last = unreachable(error) ? remembered() : null;
+          if (last) return this.accept(last, { offline: true });
           throw error;
         },
       )
@@ -67,8 +108,13 @@ export class Session {
       .pipe(map((response) => this.accept(response)));
   }
 
-  /** Ends the session; one that had already ended (401) counts as signed out too. */
+  /**
+   * Ends the session; one that had already ended (401) counts as signed out too. What this person
+   * left on the device goes with it: the service worker's copies of the bench and their unsent
+   * entries, so the next person on a shared tablet sees none of it.
+   */
   signOut(): Observable<void> {
+    const userId = this.user()?.id ?? null;
     return this.http
       .delete<void>('/api/session', { context: new HttpContext().set(HANDLES_OWN_401, true) })
       .pipe(
@@ -77,7 +123,11 @@ export class Session {
             ? of(undefined)
             : throwError(() => error),
         ),
-        tap(() => this.clear()),
+        tap(() => {
+          // Finished in the background, so the sign-in page shows at once while the copies go.
+          void forgetDevice(userId);
+          this.clear();
+        }),
       );
   }
 
@@ -85,17 +135,33 @@ export class Session {
   updateUser(user: SessionUser): void {
     const current = this.current();
     this.current.set({ ...current, user });
+    remember({ ...current, user });
   }
 
   /** Forgets the user, e.g. after the server answered 401 because the session ended. */
   clear(): void {
     this.current.set(null);
+    this.offline.set(false);
     this.loaded = true;
+    remember(null);
   }
 
-  private accept(response: SessionResponse): SessionUser {
+  private accept(response: SessionResponse, how = { offline: false }): SessionUser {
+    const before = remembered();
+    // Someone else on this tablet: the last person's cached pages are not theirs to read.
+    if (!how.offline && before && before.user.id !== response.user.id) void clearCachedAnswers();
     this.current.set(response);
+    this.offline.set(how.offline);
     this.loaded = true;
+    if (!how.offline) remember(response);
     return response.user;
   }
+}
+
+/** Forgets what one person left on this device; a failure here must not keep them signed in. */
+async function forgetDevice(userId: string | null): Promise<void> {
+  await Promise.all([
+    clearCachedAnswers().catch(() => undefined),
+    userId ? idbOfflineStorage.removeUser(userId).catch(() => undefined) : undefined,
+  ]);
 }

@@ -18,9 +18,11 @@ import { MatTooltipModule } from '@angular/material/tooltip';
 import { NavigationEnd, Router, RouterLink, RouterOutlet } from '@angular/router';
 import { filter, map, startWith } from 'rxjs';
 
+import { formatShopDate } from '../../../shared/dates';
 import { apiErrorMessage } from './api-error';
 import { activeNavPath, NAV_GROUPS, navGroupsFor, type NavGroupId } from './nav-items';
 import { Notifier } from './notifier';
+import { OfflineStatus } from './offline-status';
 import { ROLE_LABELS } from './role-labels';
 import { Session } from './session';
 
@@ -63,6 +65,7 @@ export class Shell {
   private readonly router = inject(Router);
   private readonly notifier = inject(Notifier);
   protected readonly session = inject(Session);
+  private readonly offline = inject(OfflineStatus);
 
   private readonly nav = viewChild.required<MatSidenav>('nav');
 
@@ -96,6 +99,32 @@ export class Shell {
     const user = this.session.user();
     return user ? ROLE_LABELS[user.role] : '';
   });
+
+  /**
+   * Said plainly above the page whenever what it shows may be out of date: the network is down,
+   * or the server did not answer in time and the service worker showed its copy.
+   */
+  protected readonly offlineNote = computed(() => {
+    const asOf = this.offline.shownAsOf();
+    const online = this.offline.online() && !this.session.offline();
+    if (asOf) return `Offline — shown as of ${this.timeOf(asOf)}`;
+    return online ? '' : 'Offline — what you type waits here and is sent when the network is back';
+  });
+
+  /** "14:05" today, with the day before it when the copy is older. */
+  private timeOf(when: Date): string {
+    const zone = { timeZone: this.session.timeZone() };
+    const day = (d: Date) => new Intl.DateTimeFormat('en-CA', zone).format(d);
+    const time = new Intl.DateTimeFormat('en-GB', {
+      ...zone,
+      hour: '2-digit',
+      minute: '2-digit',
+      hourCycle: 'h23',
+    }).format(when);
+    return day(when) === day(new Date())
+      ? time
+      : `${formatShopDate(when, 'date', { locale: this.session.locale(), ...zone })} ${time}`;
+  }
 
   /** A folded section still opens when it holds the page shown, so the highlight is never hidden. */
   protected isCollapsed(id: NavGroupId): boolean {
