@@ -19,6 +19,7 @@ import { registerExportsRoutes } from './exports/exports-routes';
 import { registerAuditRoutes } from './audit/audit-routes';
 import { registerMoneyRoutes } from './money/money-routes';
 import { registerPublicRoutes } from './money/public-routes';
+import { registerInvoiceRoutes } from './money/invoice-routes';
 import { registerCustomersRoutes } from './customers/customers-routes';
 import { registerHomeRoutes } from './home/home-routes';
 
@@ -41,6 +42,7 @@ export function registerAllRoutes(api: Router): void {
   registerAuditRoutes(api);
   registerMoneyRoutes(api);
   registerPublicRoutes(api);
+  registerInvoiceRoutes(api);
   registerCustomersRoutes(api);
   registerHomeRoutes(api);
 }

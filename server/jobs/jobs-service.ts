@@ -28,6 +28,7 @@ import * as holdsRepo from './holds-repository';
 import { releaseInTransaction } from './hold-release';
 import { whyNotReadyToCut } from './job-state';
 import { whyNotApproved } from '../money/approval-service';
+import { issueInvoice } from '../money/invoice-service';
 import {
   cylinderJson,
   eventJson,
@@ -333,6 +334,8 @@ export async function collectJob(
       issued.push(hold.quantity === 1 ? part.sku : `${part.sku} ×${hold.quantity}`);
     }
     faultPoint('jobs.collect.afterIssue');
+    // The invoice charges what was just issued; a balance still owed does not stop the hand-back.
+    const invoice = await issueInvoice(trx, actorId, id);
     await repo.setJobState(trx, id, 'handed_back');
     await repo.insertEvent(trx, {
       jobId: id,
@@ -349,7 +352,7 @@ export async function collectJob(
       entity: 'job',
       entityId: id,
       before: { state: job.state },
-      after: { state: 'handed_back', issuedHolds: holds.map((h) => h.id) },
+      after: { state: 'handed_back', issuedHolds: holds.map((h) => h.id), invoice: invoice.number },
     });
   });
   return getJob(id, unit, k);

@@ -167,6 +167,7 @@ export function createMailWorker(opts: MailWorkerOptions = {}): MailWorker {
             filename: a.filename,
             contentType: a.contentType,
             content: a.content,
+            ...(a.encoding ? { encoding: a.encoding } : {}),
           })),
         });
       } catch (e) {

@@ -5,8 +5,9 @@ import type { Knex } from 'knex';
 export interface MailAttachment {
   filename: string;
   contentType: string;
-  /** Text content (CSV, plain text); binary attachments are not needed by any mail we send. */
+  /** Text content (CSV, plain text), or a binary file (a PDF) written in base64. */
   content: string;
+  encoding?: 'base64';
 }
 
 export interface OutgoingMail {

@@ -230,21 +230,98 @@ export interface InvoiceLineJson {
   quantity: string;
   unitPrice: string;
   total: string;
+  /** A part issued to the job that the estimate did not have. */
+  sinceEstimate: boolean;
+}
+
+export interface CreditNoteLineJson {
+  description: string;
+  quantity: string;
+  unitPrice: string;
+  total: string;
+}
+
+export interface CreditNoteJson {
+  number: string;
+  /** The invoice it corrects. */
+  invoiceNumber: string;
+  issuedAt: string;
+  reason: string;
+  lines: CreditNoteLineJson[];
+  subtotal: string;
+  tax: string;
+  /** What it takes off the invoice (a positive amount). */
+  total: string;
+  currency: string;
+}
+
+/** A payment counted on the invoice: paid, not refunded. */
+export interface InvoicePaymentJson {
+  purpose: PaymentPurpose;
+  method: PaymentMethod;
+  amount: string;
+  paidAt: string | null;
 }
 
 export interface InvoiceJson {
   number: string;
   issuedAt: string;
+  jobNumber: string;
+  customerName: string | null;
   lines: InvoiceLineJson[];
   subtotal: string;
   tax: string;
   total: string;
+  /** Deposits and payments received for the job, now (paid and not refunded). */
   paid: string;
+  /** Taken off the total by credit notes. */
+  credited: string;
+  /** total − credited − paid; more than 0 means the customer still owes it. */
   balance: string;
   currency: string;
   taxRate: string;
   pricesIncludeTax: boolean;
+  /** The estimate the lines came from, and whether the customer had approved that version. */
+  estimateVersion: number | null;
+  estimateApproved: boolean;
+  payments: InvoicePaymentJson[];
+  creditNotes: CreditNoteJson[];
 }
+
+/**
+ * A correction of an issued invoice: a reason, and either lines or one amount (one line of that
+ * price). Lines are priced as the invoice's are (with or without tax, as the invoice says).
+ */
+export const creditNoteInput = z
+  .object({
+    reason: text(300, 'the reason for the correction'),
+    lines: z
+      .array(lineInput, { error: 'must be a list of lines' })
+      .min(1, 'give at least one line')
+      .max(50, 'at most 50 lines')
+      .optional(),
+    amount: positiveAmount.optional(),
+  })
+  .strict()
+  .superRefine((v, ctx) => {
+    if ((v.lines === undefined) === (v.amount === undefined)) {
+      ctx.addIssue({
+        code: 'custom',
+        path: [v.lines === undefined ? 'amount' : 'lines'],
+        message: 'give either lines or an amount (not both)',
+      });
+    }
+    for (const [i, line] of (v.lines ?? []).entries()) {
+      if (Number(line.unitPrice) <= 0) {
+        ctx.addIssue({
+          code: 'custom',
+          path: ['lines', i, 'unitPrice'],
+          message: 'must be more than 0 (a credit note takes money off)',
+        });
+      }
+    }
+  });
+export type CreditNoteInput = z.output<typeof creditNoteInput>;
 
 /** Where the job stands, in words for the customer (the public page). */
 export const CUSTOMER_JOB_WORDS: Record<string, string> = {

@@ -167,6 +167,11 @@ const EXPECTED: Record<string, Access> = {
   'POST /api/jobs/:id/estimate/discount': ['owner', 'staff'],
   'POST /api/jobs/:id/estimate/send': ['owner', 'staff'],
   'POST /api/jobs/:id/estimate/approval': ['owner', 'staff'],
+  // The invoice issued at hand-back: everyone reads and prints it; staff and the owner correct it
+  // with a credit note.
+  'GET /api/jobs/:id/invoice': ALL,
+  'GET /api/jobs/:id/invoice.pdf': ALL,
+  'POST /api/jobs/:id/invoice/credit-notes': ['owner', 'staff'],
   // The customer's page: the token in the link is the credential.
   'GET /api/public/jobs/:token': 'public',
   'POST /api/public/jobs/:token/approve': 'public',
