@@ -289,24 +289,71 @@ export interface LadderUnitRow {
   bin_code: string | null;
 }
 
-/** The family's pistons on the shelf (free or held), smallest measured first, "to measure" last. */
-export function familyShelfUnits(familyId: string, k: Knex = db): Promise<LadderUnitRow[]> {
-  return k('piston_units as u')
+/**
+ * The family's pistons on the shelf (free or held), at most `perStep` of each step: the measured
+ * free ones nearest the step's nominal bore first, then those still to measure, then held ones;
+ * with how many the step has in all. Shown smallest measured first, "to measure" last. A family
+ * can hold thousands of pistons; the ladder shows a handful per step and pages the rest.
+ */
+export async function familyShelfUnits(
+  familyId: string,
+  perStep: number,
+  k: Knex = db,
+): Promise<(LadderUnitRow & { step_total: number })[]> {
+  const result = await k.raw<{ rows: (LadderUnitRow & { step_total: number })[] }>(
+    `SELECT id, part_id, step_id, label, skirt_nm, status, bin_id, bin_code, step_total
+       FROM (SELECT u.id, u.part_id, p.step_id, u.label, u.skirt_nm, u.status, u.bin_id,
+                    b.code AS bin_code,
+                    count(*) OVER (PARTITION BY p.step_id)::int AS step_total,
+                    row_number() OVER (
+                      PARTITION BY p.step_id
+                      ORDER BY u.status = 'held', u.skirt_nm IS NULL,
+                               abs(u.skirt_nm::bigint - (f.standard_bore_nm + s.offset_nm)), u.label
+                    ) AS nearness
+               FROM piston_units u
+               JOIN parts p ON p.id = u.part_id
+               JOIN engine_families f ON f.id = p.family_id
+               JOIN series_steps s ON s.id = p.step_id
+               LEFT JOIN bins b ON b.id = u.bin_id
+              WHERE p.family_id = :familyId AND u.status IN ('free', 'held')) shelf
+      WHERE nearness <= :perStep
+      ORDER BY skirt_nm ASC NULLS LAST, label ASC`,
+    { familyId, perStep },
+  );
+  return result.rows;
+}
+
+/** One step's pistons on the shelf, a page at a time, in the ladder's order. */
+export async function stepShelfUnits(
+  familyId: string,
+  stepId: string,
+  page: { page: number; pageSize: number },
+  k: Knex = db,
+): Promise<{ rows: LadderUnitRow[]; total: number }> {
+  const base = k('piston_units as u')
     .join('parts as p', 'p.id', 'u.part_id')
-    .leftJoin('bins as b', 'b.id', 'u.bin_id')
-    .where('p.family_id', familyId)
-    .whereIn('u.status', ['free', 'held'])
-    .select(
-      'u.id',
-      'u.part_id',
-      'p.step_id',
-      'u.label',
-      'u.skirt_nm',
-      'u.status',
-      'u.bin_id',
-      'b.code as bin_code',
-    )
-    .orderByRaw('u.skirt_nm ASC NULLS LAST, u.label ASC') as unknown as Promise<LadderUnitRow[]>;
+    .where({ 'p.family_id': familyId, 'p.step_id': stepId })
+    .whereIn('u.status', ['free', 'held']);
+  const [rows, count] = await Promise.all([
+    base
+      .clone()
+      .leftJoin('bins as b', 'b.id', 'u.bin_id')
+      .select(
+        'u.id',
+        'u.part_id',
+        'p.step_id',
+        'u.label',
+        'u.skirt_nm',
+        'u.status',
+        'u.bin_id',
+        'b.code as bin_code',
+      )
+      .orderByRaw('u.skirt_nm ASC NULLS LAST, u.label ASC')
+      .limit(page.pageSize)
+      .offset((page.page - 1) * page.pageSize),
+    base.clone().count<{ n: string }[]>('* as n'),
+  ]);
+  return { rows: rows as LadderUnitRow[], total: Number(count[0]?.n ?? 0) };
 }
 
 export interface KitRow {

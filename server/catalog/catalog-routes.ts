@@ -95,6 +95,14 @@ export function registerCatalogRoutes(router: Router): void {
     params: idParams,
     handler: ({ params }) => ladders.ladder(params.id),
   });
+  route(router, {
+    method: 'get',
+    path: '/api/engine-families/:id/ladder/steps/:stepId/units',
+    access: 'signed-in',
+    params: z.object({ id: uuidParam, stepId: uuidParam }),
+    query: pageQuery,
+    handler: ({ params, query }) => ladders.stepUnits(params.id, params.stepId, query),
+  });
 
   route(router, {
     method: 'get',

@@ -4,7 +4,13 @@
 import type { Knex } from 'knex';
 import { db } from '../db/knex';
 import { NotFound } from '../errors';
-import type { ExposureItemJson, LadderJson, LadderStepJson, Page } from '../../shared/api/catalog';
+import type {
+  ExposureItemJson,
+  LadderJson,
+  LadderStepJson,
+  LadderUnitJson,
+  Page,
+} from '../../shared/api/catalog';
 import { kitFree } from '../../shared/kits';
 import { toLengthJson } from '../../shared/lengths';
 import { stepNominalBore } from '../../shared/step-series';
@@ -13,6 +19,21 @@ import * as repo from './catalog-repository';
 import { familyJson, lengthOrNull } from './catalog-json';
 import { containsPattern } from '../db/like-pattern';
 
+/** How many pistons of a step the ladder itself shows; the rest come a page at a time. */
+export const LADDER_UNITS_PER_STEP = 12;
+
+function unitJson(u: repo.LadderUnitRow): LadderUnitJson {
+  return {
+    id: u.id,
+    partId: u.part_id,
+    label: u.label,
+    skirt: lengthOrNull(u.skirt_nm),
+    status: u.status,
+    bin: u.bin_code,
+    binId: u.bin_id,
+  };
+}
+
 export async function ladder(familyId: string, k: Knex = db): Promise<LadderJson> {
   const row = await repo.findFamily(familyId, k);
   if (!row) throw new NotFound('That engine family');
@@ -20,7 +41,7 @@ export async function ladder(familyId: string, k: Knex = db): Promise<LadderJson
     needs.familyStepFree(familyId, k),
     repo.familyStepLevels(familyId, k),
     repo.familyStepOnOrder(familyId, k),
-    repo.familyShelfUnits(familyId, k),
+    repo.familyShelfUnits(familyId, LADDER_UNITS_PER_STEP, k),
     repo.familyKits(familyId, k),
   ]);
   const components = await repo.componentsOf(
@@ -58,20 +79,28 @@ export async function ladder(familyId: string, k: Knex = db): Promise<LadderJson
       kitsFree,
       nothingFree: missing.length > 0,
       missing,
-      units: units
-        .filter((u) => u.step_id === step.step_id)
-        .map((u) => ({
-          id: u.id,
-          partId: u.part_id,
-          label: u.label,
-          skirt: lengthOrNull(u.skirt_nm),
-          status: u.status,
-          bin: u.bin_code,
-          binId: u.bin_id,
-        })),
+      ...shownUnits(units.filter((u) => u.step_id === step.step_id)),
     };
   });
   return { family: familyJson(row), steps: ladderSteps };
+}
+
+function shownUnits(rows: (repo.LadderUnitRow & { step_total: number })[]) {
+  const total = rows[0]?.step_total ?? 0;
+  return { units: rows.map(unitJson), unitsTotal: total };
+}
+
+/** All of one step's pistons on the shelf, paged, for "show them all" under a step. */
+export async function stepUnits(
+  familyId: string,
+  stepId: string,
+  query: { page: number; pageSize: number },
+  k: Knex = db,
+): Promise<Page<LadderUnitJson>> {
+  const family = await repo.findFamily(familyId, k);
+  if (!family) throw new NotFound('That engine family');
+  const { rows, total } = await repo.stepShelfUnits(familyId, stepId, query, k);
+  return { items: rows.map(unitJson), total };
 }
 
 export async function listExposure(

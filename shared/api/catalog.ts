@@ -275,7 +275,12 @@ export interface LadderStepJson {
   nothingFree: boolean;
   /** What it lacks, piston first. */
   missing: NeededPart[];
+  /**
+   * A few of the step's pistons on the shelf (free or held): the free measured ones nearest the
+   * nominal bore first. `unitsTotal` counts them all; the rest come from the step's units route.
+   */
   units: LadderUnitJson[];
+  unitsTotal: number;
 }
 
 export interface LadderJson {

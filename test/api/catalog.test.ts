@@ -218,6 +218,41 @@ describe('step ladder', () => {
     });
   });
 
+  it('when a step has more pistons than the ladder shows, then it shows the 12 nearest its nominal bore, counts them all and pages the rest', async () => {
+    const fx = await makeFamily(owner);
+    const piston = await makePart(owner, fx, 'piston', 2);
+    // 14 measured pistons from 2.5170 in to 2.5183 in, and one still to measure. The step's
+    // nominal bore is 2.5200 in, so the nearest twelve are the largest twelve skirts.
+    const skirts = Array.from({ length: 14 }, (_, i) => `${(2.517 + i / 10000).toFixed(4)} in`);
+    await receive(staff, {
+      partId: piston.id,
+      quantity: 15,
+      binId: fx.binId,
+      units: [...skirts.map((skirt) => ({ skirt })), {}],
+    });
+    const res = await machinist.get(`/api/engine-families/${fx.familyId}/ladder`);
+    expect(res.status).toBe(200);
+    const step = res.body.steps[2];
+    expect(step.unitsTotal).toBe(15);
+    expect(step.units.map((u: { skirt: { in: string } }) => u.skirt.in)).toEqual(
+      skirts.slice(2).map((s) => s.replace(' in', '')),
+    );
+
+    const url = `/api/engine-families/${fx.familyId}/ladder/steps/${fx.steps[2].id}/units`;
+    const first = await machinist.get(`${url}?page=1&pageSize=10`);
+    expect(first.status).toBe(200);
+    expect(first.body.total).toBe(15);
+    expect(first.body.items).toHaveLength(10);
+    expect(first.body.items[0].skirt.in).toBe('2.5170');
+    const second = await machinist.get(`${url}?page=2&pageSize=10`);
+    expect(second.body.items).toHaveLength(5);
+    expect(second.body.items[4]).toMatchObject({ skirt: null, status: 'free' });
+    const unknown = await machinist.get(
+      `/api/engine-families/00000000-0000-4000-8000-000000000000/ladder/steps/${fx.steps[2].id}/units`,
+    );
+    expect(unknown.status).toBe(404);
+  });
+
   it('when the family allows less than the series offers, then steps past the largest oversize are left out', async () => {
     const fx = await makeFamily(owner, { maxOversize: '0.020 in' });
     const res = await owner.get(`/api/engine-families/${fx.familyId}/ladder`);

@@ -35,6 +35,7 @@ const EXPECTED: Record<string, Access> = {
   'GET /api/engine-families/:id': ALL,
   'PATCH /api/engine-families/:id': ['owner', 'buyer'],
   'GET /api/engine-families/:id/ladder': ALL,
+  'GET /api/engine-families/:id/ladder/steps/:stepId/units': ALL,
   'GET /api/exposure': ALL,
   'GET /api/parts': ALL,
   'POST /api/parts': ['owner', 'buyer'],

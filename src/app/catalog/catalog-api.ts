@@ -5,6 +5,7 @@ import { Observable } from 'rxjs';
 import type {
   FamilyJson,
   LadderJson,
+  LadderUnitJson,
   Page,
   PartDetailJson,
   PartJson,
@@ -110,6 +111,19 @@ export class CatalogApi {
 
   ladder(familyId: string): Observable<LadderJson> {
     return this.http.get<LadderJson>(`/api/engine-families/${encodeURIComponent(familyId)}/ladder`);
+  }
+
+  /** One step's pistons on the shelf, a page at a time (the ladder itself shows a few). */
+  stepUnits(
+    familyId: string,
+    stepId: string,
+    page: number,
+    pageSize: number,
+  ): Observable<Page<LadderUnitJson>> {
+    return this.http.get<Page<LadderUnitJson>>(
+      `/api/engine-families/${encodeURIComponent(familyId)}/ladder/steps/${encodeURIComponent(stepId)}/units`,
+      { params: params({ page, pageSize }) },
+    );
   }
 
   stepSeries(): Observable<Page<StepSeriesJson>> {

@@ -70,6 +70,7 @@ const LADDER: LadderJson = {
           binId: 'b1',
         },
       ],
+      unitsTotal: 1,
     },
     {
       stepId: 'st1',
@@ -103,6 +104,8 @@ const LADDER: LadderJson = {
           binId: 'b2',
         },
       ],
+      // A third piston on the shelf that the ladder leaves to "show the other".
+      unitsTotal: 3,
     },
     {
       // A free piston but no free ring set: still an empty step, a cylinder bored to it waits.
@@ -117,6 +120,7 @@ const LADDER: LadderJson = {
       nothingFree: true,
       missing: ['rings'],
       units: [],
+      unitsTotal: 0,
     },
   ],
 };
@@ -187,5 +191,37 @@ describe('StepLadder', () => {
     const step = el().querySelectorAll('li.step')[1];
     expect(step.textContent).toContain('2.5100 in');
     expect(step.querySelector('.chip')?.textContent?.trim()).toBe('2.5083 in');
+  });
+
+  it('when a step has more pistons than shown, then a button loads the whole shelf of that step', async () => {
+    const step = () => el().querySelectorAll('li.step')[1];
+    const more = step().querySelector<HTMLButtonElement>('button.show-more');
+    expect(more?.textContent).toMatch(/Show the other 1\s+piston/);
+    expect(el().querySelectorAll('li.step')[0].querySelector('button.show-more')).toBeNull();
+    more?.click();
+    const req = http.expectOne(
+      (r) =>
+        r.url === '/api/engine-families/f1/ladder/steps/st1/units' && r.params.get('page') === '1',
+    );
+    const unit = (id: string, label: string, nm: number | null) => ({
+      id,
+      partId: 'p1',
+      label,
+      skirt: nm === null ? null : toLengthJson(nm),
+      status: 'free',
+      bin: 'A-2',
+      binId: 'b2',
+    });
+    req.flush({
+      items: [
+        unit('u3', 'PU-000004', 63_700_000),
+        unit('u1', 'PU-000002', 63_710_820),
+        unit('u2', 'PU-000003', null),
+      ],
+      total: 3,
+    });
+    await fixture.whenStable();
+    expect(step().querySelectorAll('.chip')).toHaveLength(3);
+    expect(step().querySelector('button.show-more')).toBeNull();
   });
 });

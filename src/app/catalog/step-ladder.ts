@@ -24,6 +24,9 @@ import { LengthPipe } from '../core/length-pipe';
 import { Session } from '../core/session';
 import { CatalogApi } from './catalog-api';
 
+/** Pistons per page when a step is opened in full. */
+const SHELF_PAGE = 100;
+
 type Loaded =
   { state: 'loading' } | { state: 'ok'; ladder: LadderJson } | { state: 'error'; message: string };
 
@@ -100,12 +103,41 @@ export class StepLadder {
     return role === 'owner' || role === 'buyer' || role === 'staff';
   });
 
+  /** Steps opened in full: every piston on the shelf, loaded a page at a time. */
+  private readonly opened = signal<Record<string, { units: LadderUnitJson[]; total: number }>>({});
+  protected readonly openError = signal('');
+
+  protected shelf(step: LadderStepJson): LadderUnitJson[] {
+    return this.opened()[step.stepId]?.units ?? step.units;
+  }
+
   protected freeUnits(step: LadderStepJson): LadderUnitJson[] {
-    return step.units.filter((unit) => unit.status === 'free');
+    return this.shelf(step).filter((unit) => unit.status === 'free');
   }
 
   protected heldUnits(step: LadderStepJson): LadderUnitJson[] {
-    return step.units.filter((unit) => unit.status === 'held');
+    return this.shelf(step).filter((unit) => unit.status === 'held');
+  }
+
+  /** How many of the step's pistons are not shown yet. */
+  protected notShown(step: LadderStepJson): number {
+    const open = this.opened()[step.stepId];
+    return open ? open.total - open.units.length : step.unitsTotal - step.units.length;
+  }
+
+  /** The first click swaps the few nearest the nominal for the full shelf; each next one adds a page. */
+  protected showMore(step: LadderStepJson): void {
+    const open = this.opened()[step.stepId];
+    const page = open ? Math.floor(open.units.length / SHELF_PAGE) + 1 : 1;
+    this.openError.set('');
+    this.api.stepUnits(this.id(), step.stepId, page, SHELF_PAGE).subscribe({
+      next: (res) =>
+        this.opened.update((all) => ({
+          ...all,
+          [step.stepId]: { units: [...(open?.units ?? []), ...res.items], total: res.total },
+        })),
+      error: (error: unknown) => this.openError.set(apiErrorMessage(error)),
+    });
   }
 
   protected setUnit(value: unknown): void {
@@ -113,6 +145,7 @@ export class StepLadder {
   }
 
   protected reload(): void {
+    this.opened.set({});
     this.reloads.update((n) => n + 1);
   }
 }
