@@ -1,9 +1,5 @@
 // One error model: every error the API answers carries an HTTP status and a stable code.
-export interface ErrorDetail {
-  field?: string;
-  line?: number;
-  message: string;
-}
+import type { ErrorDetail } from '../shared/api/common';
 
 export class AppError extends Error {
   constructor(

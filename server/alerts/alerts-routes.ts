@@ -1,7 +1,8 @@
 // Stock alerts, for the people who reorder: the buyer and the owner.
 import type { Router } from 'express';
 import { z } from 'zod';
-import { route, uuidParam } from '../http/route';
+import { route } from '../http/route';
+import { idField } from '../../shared/api/common';
 import { alertsQuery } from '../../shared/api/alerts';
 import type { Role } from '../../shared/session-types';
 import { acknowledgeAlert, listAlerts, mailModeOf } from './alerts-service';
@@ -27,7 +28,7 @@ export function registerAlertsRoutes(router: Router): void {
     method: 'post',
     path: '/api/alerts/:id/acknowledge',
     access: READERS,
-    params: z.object({ id: uuidParam }),
+    params: z.object({ id: idField }),
     handler: ({ params, user }) => acknowledgeAlert(user.id, params.id),
   });
 }

@@ -2,7 +2,8 @@
 // signed in reads; owner and buyer change the catalog.
 import type { Router } from 'express';
 import { z } from 'zod';
-import { pageQuery, route, uuidParam } from '../http/route';
+import { route } from '../http/route';
+import { idField, pageQuery } from '../../shared/api/common';
 import {
   familyInput,
   familyPatch,
@@ -21,7 +22,7 @@ import * as ladders from './ladder-service';
 const CATALOG_EDITORS: Role[] = ['owner', 'buyer'];
 /** A part's average cost is the shop's cost; its sale price is the list price everyone quotes. */
 const PART_MONEY: MoneyFields = { cost: ['averageCost'] };
-const idParams = z.object({ id: uuidParam });
+const idParams = z.object({ id: idField });
 const activeFilter = z
   .enum(['true', 'false', 'all'], { error: 'must be true, false or all' })
   .optional()
@@ -34,13 +35,13 @@ const familiesQuery = pageQuery.extend({
 
 const partsQuery = pageQuery.extend({
   sort: z.enum(PART_SORTS, { error: `must be one of ${PART_SORTS.join(', ')}` }).optional(),
-  familyId: uuidParam.optional(),
-  stepId: uuidParam.optional(),
+  familyId: idField.optional(),
+  stepId: idField.optional(),
   kind: z.enum(PART_KINDS, { error: 'must be piston, rings, kit or other' }).optional(),
   active: activeFilter,
 });
 
-const exposureQuery = pageQuery.extend({ familyId: uuidParam.optional() });
+const exposureQuery = pageQuery.extend({ familyId: idField.optional() });
 
 export function registerCatalogRoutes(router: Router): void {
   route(router, {

@@ -7,7 +7,6 @@ import { BadRequest, Conflict, NotFound } from '../errors';
 import {
   type FamilyInput,
   type FamilyPatch,
-  type Page,
   type StepSeriesInput,
   type StepSeriesJson,
 } from '../../shared/api/catalog';
@@ -16,6 +15,7 @@ import { customSeries, StepSeriesError } from '../../shared/step-series';
 import * as repo from './catalog-repository';
 import { familyJson } from './catalog-json';
 import { isUniqueViolation } from '../db/pg-errors';
+import type { Page } from '../../shared/api/common';
 export * from './parts-service';
 
 type Conn = Knex;

@@ -9,7 +9,6 @@ import type {
   LadderJson,
   LadderStepJson,
   LadderUnitJson,
-  Page,
 } from '../../shared/api/catalog';
 import { kitFree } from '../../shared/kits';
 import { toLengthJson } from '../../shared/lengths';
@@ -18,6 +17,7 @@ import * as needs from '../stock/part-needs-repository';
 import * as repo from './catalog-repository';
 import { familyJson, lengthOrNull } from './catalog-json';
 import { containsPattern } from '../db/like-pattern';
+import type { Page } from '../../shared/api/common';
 
 /** How many pistons of a step the ladder itself shows; the rest come a page at a time. */
 export const LADDER_UNITS_PER_STEP = 12;

@@ -7,7 +7,6 @@ import { recordAudit } from '../audit/audit';
 import { BadRequest, Conflict, NotFound } from '../errors';
 import { normalizeGtin } from '../../shared/gtin';
 import {
-  type Page,
   type PartDetailJson,
   type PartInput,
   type PartJson,
@@ -19,6 +18,7 @@ import { stepNominalBore } from '../../shared/step-series';
 import * as repo from './catalog-repository';
 import { partJson, partLevels } from './catalog-json';
 import { isUniqueViolation, pgConstraint } from '../db/pg-errors';
+import type { Page } from '../../shared/api/common';
 type Conn = Knex;
 
 // ---- Parts ------------------------------------------------------------------------------------

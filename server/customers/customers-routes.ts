@@ -3,7 +3,8 @@
 // owner's. An export is everything the shop holds about the customer, as JSON or CSV.
 import type { Router } from 'express';
 import { z } from 'zod';
-import { pageQuery, route, uuidParam } from '../http/route';
+import { route } from '../http/route';
+import { idField, pageQuery } from '../../shared/api/common';
 import type { MoneyFields } from '../../shared/money-visibility';
 import type { Role } from '../../shared/session-types';
 import {
@@ -24,7 +25,7 @@ const OWNER: Role[] = ['owner'];
 /** A job's estimate total is what the shop charges: staff and the owner see it (shared/money-visibility). */
 const CUSTOMER_MONEY: MoneyFields = { sold: ['total'] };
 
-const idParams = z.object({ id: uuidParam });
+const idParams = z.object({ id: idField });
 const searchQuery = pageQuery.pick({ q: true, page: true, pageSize: true });
 const exportQuery = z
   .object({

@@ -14,10 +14,10 @@ import {
   type CustomerListItemJson,
   type CustomerPatch,
 } from '../../shared/api/customers';
-import type { Page } from '../../shared/api/jobs';
 import * as repo from './customers-repository';
 import { jobTotals } from './customer-money';
 import { forgetAddress } from '../mail/outbox';
+import type { Page } from '../../shared/api/common';
 
 type Conn = Knex;
 

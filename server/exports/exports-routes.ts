@@ -2,7 +2,8 @@
 // step ladder for everyone who may read the ladder.
 import type { Router } from 'express';
 import { z } from 'zod';
-import { route, uuidParam } from '../http/route';
+import { route } from '../http/route';
+import { idField } from '../../shared/api/common';
 import { sendCsv } from '../insights/insights-csv';
 import type { Role } from '../../shared/session-types';
 import * as service from './exports-service';
@@ -20,14 +21,14 @@ export function registerExportsRoutes(router: Router): void {
     method: 'get',
     path: '/api/exports/families/:id/ladder.csv',
     access: 'signed-in',
-    params: z.object({ id: uuidParam }),
+    params: z.object({ id: idField }),
     handler: async ({ params, res }) => sendCsv(res, await service.ladderTable(params.id)),
   });
   route(router, {
     method: 'get',
     path: '/api/exports/price-comparison.csv',
     access: STOCK_READERS,
-    query: z.object({ familyId: uuidParam.optional() }).strict(),
+    query: z.object({ familyId: idField.optional() }).strict(),
     handler: async ({ query, res }) =>
       sendCsv(res, await service.priceComparisonTable(query.familyId)),
   });

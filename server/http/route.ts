@@ -4,7 +4,8 @@
 import type { Request, Response, RequestHandler, Router } from 'express';
 import { z, type ZodType } from 'zod';
 import type { Role } from '../../shared/session-types';
-import { BadRequest, Forbidden, Unauthorized, type ErrorDetail } from '../errors';
+import { BadRequest, Forbidden, Unauthorized } from '../errors';
+import type { ErrorDetail } from '../../shared/api/common';
 import type { SessionUser } from '../../shared/session-types';
 import { hiddenMoneyFields, withoutMoney, type MoneyFields } from '../../shared/money-visibility';
 
@@ -146,18 +147,6 @@ export function route<B, Q, P>(router: Router, spec: RouteSpec<B, Q, P>): void {
   };
   router[spec.method](spec.path, accessGuard(spec.access), ...(spec.before ?? []), run);
 }
-
-/** Shared query-string schemas for paged lists: ?q&sort&dir&page&pageSize. */
-export const pageQuery = z.object({
-  q: z.string().max(200).optional(),
-  sort: z.string().max(40).optional(),
-  dir: z.enum(['asc', 'desc']).optional(),
-  page: z.coerce.number().int().min(1).max(100000).default(1),
-  pageSize: z.coerce.number().int().min(1).max(500).default(50),
-});
-export type PageQuery = z.infer<typeof pageQuery>;
-
-export const uuidParam = z.string().uuid('must be a valid id');
 
 /**
  * Deny by default: refuses to build an app with a route that was not declared through `route()`

@@ -6,7 +6,8 @@ import { basename, extname, join } from 'node:path';
 import type { RequestHandler, Router } from 'express';
 import multer from 'multer';
 import { z } from 'zod';
-import { pageQuery, route, uuidParam, zodDetails } from '../http/route';
+import { route, zodDetails } from '../http/route';
+import { idField, pageQuery } from '../../shared/api/common';
 import { BadRequest, UnsupportedMediaType } from '../errors';
 import type { Role } from '../../shared/session-types';
 import { IMPORT_STATUSES, commitInput, mappingInput } from '../../shared/api/suppliers';
@@ -19,10 +20,10 @@ export const IMPORTERS: Role[] = ['owner', 'buyer', 'staff'];
 export const MAX_UPLOAD_BYTES = 50 * 1024 * 1024;
 const ALLOWED_EXTENSIONS = ['.csv', '.tsv', '.txt'];
 
-const idParams = z.object({ id: uuidParam });
-const progressQuery = z.object({ progress: uuidParam.optional() }).strict();
+const idParams = z.object({ id: idField });
+const progressQuery = z.object({ progress: idField.optional() }).strict();
 const importsQuery = pageQuery.pick({ page: true, pageSize: true }).extend({
-  supplierId: uuidParam.optional(),
+  supplierId: idField.optional(),
   status: z
     .enum(IMPORT_STATUSES, { error: `must be one of ${IMPORT_STATUSES.join(', ')}` })
     .optional(),
@@ -163,7 +164,7 @@ export function registerImportsRoutes(router: Router): void {
     method: 'get',
     path: '/api/price-list-imports/progress/:token',
     access: IMPORTERS,
-    params: z.object({ token: uuidParam }),
+    params: z.object({ token: idField }),
     handler: ({ params }) => service.progress(params.token),
   });
   route(router, {

@@ -11,7 +11,6 @@ import { logger } from '../logger';
 import { AppError, BadRequest, Conflict, NotFound } from '../errors';
 import { faultPoint } from '../testing-faults';
 import { toLengthJson } from '../../shared/lengths';
-import type { Page } from '../../shared/api/catalog';
 import type { SessionUser } from '../../shared/session-types';
 import type {
   CommitJson,
@@ -31,6 +30,7 @@ import { readPriceListBatches, type ParseCounts } from './parse-price-list';
 import { proposeMapping, resolveMapping, type ColumnMapping } from './propose-mapping';
 import * as repo from './imports-repository';
 import * as previews from './previews-repository';
+import type { Page } from '../../shared/api/common';
 
 /** Row errors and warnings kept with an import (the counts say how many there were in all). */
 export const MAX_ISSUES = 500;

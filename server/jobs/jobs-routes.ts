@@ -5,7 +5,8 @@ import type { Router } from 'express';
 import multer from 'multer';
 import { refuseLargerThan } from '../http/upload-limits';
 import { z } from 'zod';
-import { pageQuery, route, uuidParam } from '../http/route';
+import { route } from '../http/route';
+import { idField, pageQuery } from '../../shared/api/common';
 import type { Role } from '../../shared/session-types';
 import {
   cutInput,
@@ -37,16 +38,16 @@ import { undoCut } from './cut-undo-service';
 const COUNTER: Role[] = ['owner', 'machinist', 'staff'];
 const MACHINE: Role[] = ['owner', 'machinist'];
 
-const idParams = z.object({ id: uuidParam });
+const idParams = z.object({ id: idField });
 const cylinderParams = z.object({
-  id: uuidParam,
+  id: idField,
   n: z.coerce
     .number({ error: 'must be a cylinder number' })
     .int('must be a whole number')
     .min(1, 'cylinders are numbered from 1')
     .max(24, 'at most 24'),
 });
-const photoParams = z.object({ id: uuidParam, photoId: uuidParam });
+const photoParams = z.object({ id: idField, photoId: idField });
 
 const CLOSED_STATES: JobState[] = ['handed_back', 'called_off'];
 const stateFilter = z
@@ -74,14 +75,14 @@ const stateFilter = z
 const jobsQuery = pageQuery.extend({
   state: stateFilter,
   sort: z.enum(JOB_SORTS, { error: `must be one of ${JOB_SORTS.join(', ')}` }).optional(),
-  familyId: uuidParam.optional(),
+  familyId: idField.optional(),
   waiting: z
     .enum(['true', 'false'], { error: 'must be true or false' })
     .optional()
     .transform((v) => (v === undefined ? undefined : v === 'true')),
 });
 
-const proposalQuery = z.object({ stepId: uuidParam.optional() }).strict();
+const proposalQuery = z.object({ stepId: idField.optional() }).strict();
 
 const photoUpload = multer({
   storage: multer.memoryStorage(),

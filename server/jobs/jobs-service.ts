@@ -18,7 +18,6 @@ import {
   type JobListItemJson,
   type JobPatch,
   type JobState,
-  type Page,
 } from '../../shared/api/jobs';
 import * as repo from './jobs-repository';
 import { findOrCreateForJob, requireLiveCustomer } from '../customers/customers-service';
@@ -38,6 +37,7 @@ import {
   photoJson,
 } from './jobs-json';
 import * as moves from '../stock/stock-movements';
+import type { Page } from '../../shared/api/common';
 
 type Conn = Knex;
 

@@ -1,6 +1,7 @@
 // The Mailbox route, for the owner: what the local SMTP server received.
 import type { Router } from 'express';
-import { pageQuery, route } from '../http/route';
+import { route } from '../http/route';
+import { pageQuery } from '../../shared/api/common';
 import type { MailboxPageJson } from '../../shared/api/mail';
 import { mailboxPage } from './mailbox-service';
 

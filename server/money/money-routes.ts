@@ -2,7 +2,8 @@
 // taken by staff. Everyone signed in reads; staff and the owner price and take approvals.
 import type { Router } from 'express';
 import { z } from 'zod';
-import { route, uuidParam } from '../http/route';
+import { route } from '../http/route';
+import { idField } from '../../shared/api/common';
 import type { Role } from '../../shared/session-types';
 import {
   approvalInput,
@@ -17,8 +18,8 @@ import * as estimates from './estimate-service';
 import * as approvals from './approval-service';
 
 export const MONEY: Role[] = ['owner', 'staff'];
-const idParams = z.object({ id: uuidParam });
-const lineParams = z.object({ id: uuidParam, lineId: uuidParam });
+const idParams = z.object({ id: idField });
+const lineParams = z.object({ id: idField, lineId: idField });
 
 export function registerMoneyRoutes(router: Router): void {
   route(router, {

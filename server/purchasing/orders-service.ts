@@ -5,7 +5,7 @@ import type { Knex } from 'knex';
 import { db } from '../db/knex';
 import { recordAudit } from '../audit/audit';
 import { BadRequest, Conflict, NotFound } from '../errors';
-import { displayGtin, type Page } from '../../shared/api/catalog';
+import { displayGtin } from '../../shared/api/catalog';
 import {
   ORDER_STATE_LABELS,
   type OrderInput,
@@ -21,6 +21,7 @@ import {
 import { D, moneyOut } from '../../shared/purchase-money';
 import * as repo from './orders-repository';
 import { isUniqueViolation } from '../db/pg-errors';
+import type { Page } from '../../shared/api/common';
 
 function fieldError(field: string, message: string): BadRequest {
   return new BadRequest(`${field}: ${message}`, [{ field, message }]);

@@ -3,7 +3,8 @@
 // receive; everyone may see what is on order; machinists may set a job to wait for a piston.
 import type { Router } from 'express';
 import { z } from 'zod';
-import { route, uuidParam } from '../http/route';
+import { route } from '../http/route';
+import { idField } from '../../shared/api/common';
 import {
   currencyParam,
   draftsInput,
@@ -37,7 +38,7 @@ const WAIT_KEEPERS: Role[] = ['owner', 'buyer', 'machinist'];
 const ORDER_MONEY: MoneyFields = {
   cost: ['unitPrice', 'lineTotal', 'total', 'shipping', 'unitCost', 'averageCost'],
 };
-const idParams = z.object({ id: uuidParam });
+const idParams = z.object({ id: idField });
 
 export function registerPurchasingRoutes(router: Router): void {
   // ---- Reorder rules ----
@@ -75,7 +76,7 @@ export function registerPurchasingRoutes(router: Router): void {
     method: 'get',
     path: '/api/reorder-defaults',
     access: BUYERS,
-    query: z.object({ familyId: uuidParam.optional() }),
+    query: z.object({ familyId: idField.optional() }),
     handler: ({ query }) => reorder.listDefaults(query.familyId),
   });
   route(router, {
@@ -165,7 +166,7 @@ export function registerPurchasingRoutes(router: Router): void {
     query: z
       .object({
         gtin: z.string().trim().min(1, 'scan or type a GTIN').max(40).optional(),
-        partId: z.string().uuid('must be a valid id').optional(),
+        partId: idField.optional(),
       })
       .refine((q) => q.gtin !== undefined || q.partId !== undefined, {
         message: 'scan or type a GTIN, or name the part',

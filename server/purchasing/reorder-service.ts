@@ -12,7 +12,6 @@ import {
   reorderPoint,
   ReorderError,
 } from '../../shared/reorder';
-import type { Page } from '../../shared/api/catalog';
 import type {
   Figure,
   ReorderDefaultInput,
@@ -29,6 +28,7 @@ import { mean, sampleStandardDeviation } from 'simple-statistics';
 import * as repo from './reorder-repository';
 import { bestOffer, offersFor, shopToday } from './sourcing-service';
 import { formatShopDate } from '../../shared/dates';
+import type { Page } from '../../shared/api/common';
 
 /** Used when no supplier offers the part and none is given: an assumption, shown as one. */
 export const FALLBACK_LEAD_DAYS = 14;

@@ -2,7 +2,8 @@
 // ledger. Everyone signed in reads; each change names the roles that do it in the shop.
 import type { Router } from 'express';
 import { z } from 'zod';
-import { pageQuery, route, uuidParam } from '../http/route';
+import { route } from '../http/route';
+import { idField, pageQuery } from '../../shared/api/common';
 import type { MoneyFields } from '../../shared/money-visibility';
 import type { Role } from '../../shared/session-types';
 import { receiveAtDesk } from '../purchasing/receiving-desk-service';
@@ -27,15 +28,15 @@ const SCRAPPERS: Role[] = ['owner', 'buyer', 'staff'];
 /** Unit and average costs are the shop's costs; an issue's sale price is what it sold for. */
 const STOCK_MONEY: MoneyFields = { cost: ['unitCost', 'averageCost'], sold: ['salePrice'] };
 
-const idParams = z.object({ id: uuidParam });
+const idParams = z.object({ id: idField });
 
 const unitsQuery = pageQuery.extend({
   sort: z.enum(UNIT_SORTS, { error: `must be one of ${UNIT_SORTS.join(', ')}` }).optional(),
-  partId: uuidParam.optional(),
-  familyId: uuidParam.optional(),
-  stepId: uuidParam.optional(),
-  binId: uuidParam.optional(),
-  receiptId: uuidParam.optional(),
+  partId: idField.optional(),
+  familyId: idField.optional(),
+  stepId: idField.optional(),
+  binId: idField.optional(),
+  receiptId: idField.optional(),
   status: z
     .enum([...UNIT_STATUSES, 'on-shelf'], {
       error: `must be one of ${UNIT_STATUSES.join(', ')} or on-shelf`,
@@ -44,8 +45,8 @@ const unitsQuery = pageQuery.extend({
 });
 
 const ledgerQuery = pageQuery.extend({
-  partId: uuidParam.optional(),
-  unitId: uuidParam.optional(),
+  partId: idField.optional(),
+  unitId: idField.optional(),
   kind: z.enum(LEDGER_KINDS, { error: `must be one of ${LEDGER_KINDS.join(', ')}` }).optional(),
 });
 

@@ -10,7 +10,6 @@ import { Conflict, NotAvailable, NotFound } from '../errors';
 import { faultPoint } from '../testing-faults';
 import Decimal from 'decimal.js';
 import { receiptValue } from '../../shared/average-cost';
-import type { Page } from '../../shared/api/catalog';
 import type {
   AdjustmentInput,
   BinInput,
@@ -34,6 +33,7 @@ import {
   requirePart,
   STATUS_WORDS,
 } from './stock-checks';
+import type { Page } from '../../shared/api/common';
 
 type Conn = Knex;
 

@@ -2,7 +2,8 @@
 // who bring price lists in, read them too.
 import type { Router } from 'express';
 import { z } from 'zod';
-import { pageQuery, route, uuidParam } from '../http/route';
+import { route } from '../http/route';
+import { idField, pageQuery } from '../../shared/api/common';
 import type { Role } from '../../shared/session-types';
 import {
   ITEM_SORTS,
@@ -17,8 +18,8 @@ import * as service from './suppliers-service';
 export const SUPPLIER_EDITORS: Role[] = ['owner', 'buyer'];
 export const SUPPLIER_READERS: Role[] = ['owner', 'buyer', 'staff'];
 
-const idParams = z.object({ id: uuidParam });
-const itemParams = z.object({ id: uuidParam, itemId: uuidParam });
+const idParams = z.object({ id: idField });
+const itemParams = z.object({ id: idField, itemId: idField });
 
 const booleanFilter = z
   .enum(['true', 'false', 'all'], { error: 'must be true, false or all' })
@@ -38,7 +39,7 @@ const itemsQuery = pageQuery.extend({
 const historyQuery = pageQuery.pick({ page: true, pageSize: true });
 
 const unmappedQuery = pageQuery.pick({ q: true, page: true, pageSize: true }).extend({
-  supplierId: uuidParam.optional(),
+  supplierId: idField.optional(),
 });
 
 export function registerSuppliersRoutes(router: Router): void {

@@ -5,7 +5,6 @@ import { db } from '../db/knex';
 import { recordAudit } from '../audit/audit';
 import { BadRequest, Conflict, NotFound } from '../errors';
 import { toLengthJson } from '../../shared/lengths';
-import type { Page } from '../../shared/api/catalog';
 import type {
   PriceHistoryJson,
   SuggestionJson,
@@ -18,6 +17,7 @@ import type {
 } from '../../shared/api/suppliers';
 import * as repo from './suppliers-repository';
 import { isUniqueViolation } from '../db/pg-errors';
+import type { Page } from '../../shared/api/common';
 
 type Conn = Knex;
 

@@ -1,6 +1,7 @@
 import type { Router } from 'express';
 import { z } from 'zod';
-import { pageQuery, route, uuidParam } from '../http/route';
+import { route } from '../http/route';
+import { idField, pageQuery } from '../../shared/api/common';
 import { ROLES } from '../../shared/session-types';
 import { MIN_PASSWORD_LENGTH } from '../auth/passwords';
 import { emailAddress, singleLine } from '../../shared/text-rules';
@@ -53,7 +54,7 @@ export function registerUsersRoutes(router: Router): void {
     method: 'patch',
     path: '/api/users/:id',
     access: ['owner'],
-    params: z.object({ id: uuidParam }),
+    params: z.object({ id: idField }),
     body: userPatch,
     handler: ({ body, params, user }) => changeUser(user.id, params.id, body),
   });

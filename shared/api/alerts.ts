@@ -1,6 +1,7 @@
 // What the alerts API accepts and answers: reorder alerts raised when a part's free stock falls to
 // its reorder point, and their acknowledgement.
 import { z } from 'zod';
+import { idField, pageNumber, pageSizeField } from './common';
 
 export const ALERT_KINDS = ['reorder_point'] as const;
 export type AlertKind = (typeof ALERT_KINDS)[number];
@@ -10,9 +11,9 @@ export type AlertState = (typeof ALERT_STATES)[number];
 
 export const alertsQuery = z.object({
   state: z.enum(ALERT_STATES, { error: 'must be open, acknowledged or all' }).default('open'),
-  partId: z.string().uuid('must be a valid id').optional(),
-  page: z.coerce.number().int().min(1).max(100000).default(1),
-  pageSize: z.coerce.number().int().min(1).max(500).default(50),
+  partId: idField.optional(),
+  page: pageNumber,
+  pageSize: pageSizeField(),
 });
 export type AlertsQuery = z.output<typeof alertsQuery>;
 

@@ -3,16 +3,10 @@
 // the query schema is shared so the page and the server refuse the same filters with the same words.
 import { z } from 'zod';
 import { atMost } from '../text-rules';
-import { isCalendarDay } from './insights';
+import { calendarDay, pageNumber, pageSizeField, sortDir } from './common';
 
 /** A recorded entity or action name: lower-case words joined by _ . or - ("part", "stock.receipt"). */
 const NAME = /^[a-z][a-z0-9_.-]{0,59}$/;
-
-const day = z
-  .string()
-  .trim()
-  .max(10, atMost(10, 'must be a calendar day written YYYY-MM-DD'))
-  .refine(isCalendarDay, 'must be a calendar day written YYYY-MM-DD, e.g. 2027-03-14');
 
 export const AUDIT_PAGE_SIZES = [25, 50, 100, 200] as const;
 
@@ -34,11 +28,11 @@ export const auditQuery = z
     /** Who made the change. */
     user: z.string().uuid('must be a valid user id').optional(),
     /** First and last calendar day shown, in the shop's time zone, both included. */
-    from: day.optional(),
-    to: day.optional(),
-    dir: z.enum(['asc', 'desc'], { error: 'must be asc or desc' }).default('desc'),
-    page: z.coerce.number().int().min(1).max(100_000).default(1),
-    pageSize: z.coerce.number().int().min(1).max(200).default(50),
+    from: calendarDay.optional(),
+    to: calendarDay.optional(),
+    dir: sortDir.default('desc'),
+    page: pageNumber,
+    pageSize: pageSizeField(200),
   })
   .strict()
   .refine((q) => !q.from || !q.to || q.from <= q.to, {

@@ -3,7 +3,8 @@
 // the same input with the same words.
 import { z } from 'zod';
 import { normalizeGtin, gtinProblem } from '../gtin';
-import { parseLength, type LengthJson, type Nm, type ParseLengthOptions } from '../lengths';
+import type { LengthJson } from '../lengths';
+import { idField, lengthField, moneyText, optionalLengthField } from './common';
 import { atMost, singleLine } from '../text-rules';
 import type { NeededPart } from '../part-needs';
 
@@ -15,52 +16,6 @@ export const PART_KINDS = ['piston', 'rings', 'kit', 'other'] as const;
 export type PartKind = (typeof PART_KINDS)[number];
 export const PISTON_MATERIALS = ['cast', 'forged'] as const;
 export type PistonMaterial = (typeof PISTON_MATERIALS)[number];
-
-/** A typed length is short ("2.5555 in"); anything longer is refused before it is read. */
-const MAX_LENGTH_TEXT = 40;
-const LENGTH_HINT = 'must be text with its unit, for example "64.91 mm" or "2.5555 in"';
-
-/** A length typed with its unit ("2.5555 in"), read into exact nanometres or refused with a reason. */
-export function lengthField(opts: ParseLengthOptions = {}) {
-  return z
-    .string({ error: LENGTH_HINT })
-    .max(MAX_LENGTH_TEXT, atMost(MAX_LENGTH_TEXT))
-    .transform((text, ctx): Nm => {
-      const parsed = parseLength(text, opts);
-      if (!parsed.ok) {
-        ctx.addIssue({ code: 'custom', message: parsed.message });
-        return z.NEVER;
-      }
-      return parsed.nm;
-    });
-}
-
-/** A length that may be left out or cleared (null or ""): null means "not recorded". */
-export function optionalLengthField(opts: ParseLengthOptions = {}) {
-  return z
-    .string({ error: LENGTH_HINT })
-    .max(MAX_LENGTH_TEXT, atMost(MAX_LENGTH_TEXT))
-    .nullable()
-    .transform((text, ctx): Nm | null => {
-      if (text === null || text.trim() === '') return null;
-      const parsed = parseLength(text, opts);
-      if (!parsed.ok) {
-        ctx.addIssue({ code: 'custom', message: parsed.message });
-        return z.NEVER;
-      }
-      return parsed.nm;
-    });
-}
-
-/** Money as exact decimal text, 0 or more, at most 4 decimals ("12.50"). */
-export const moneyText = z
-  .string({ error: 'must be an amount written as text, e.g. "12.50"' })
-  .trim()
-  .max(20, atMost(20))
-  .regex(
-    /^\d{1,10}(\.\d{1,4})?$/,
-    'must be an amount, 0 or more, like "12.50" (at most 4 decimals)',
-  );
 
 /**
  * A GTIN (EAN-13, UPC-A, GTIN-8 or GTIN-14) with a valid check digit, stored in its 14-digit form;
@@ -90,7 +45,6 @@ export function displayGtin(gtin14: string): string {
 
 const code = singleLine(24).pipe(z.string().min(1, 'enter a code'));
 const name = singleLine(120).pipe(z.string().min(1, 'enter a name'));
-const uuid = z.string().uuid('must be a valid id');
 const bore = lengthField({ max: 500_000_000 });
 const smallLength = lengthField({ allowZero: true, max: 10_000_000 });
 const optionalSmallLength = optionalLengthField({ allowZero: true, max: 10_000_000 });
@@ -116,7 +70,7 @@ export const familyInput = z
     honeAllowance: smallLength,
     cleanup: smallLength,
     maxOversize: smallLength,
-    stepSeriesId: uuid,
+    stepSeriesId: idField,
     maxTaper: optionalSmallLength.optional(),
     maxOutOfRound: optionalSmallLength.optional(),
     ringGapMin: optionalSmallLength.optional(),
@@ -165,8 +119,8 @@ const partFields = {
     .min(1, 'enter our part number')
     .max(40, atMost(40))
     .regex(/^[A-Za-z0-9][A-Za-z0-9._/+-]*$/, 'letters, digits and . _ / + - only'),
-  familyId: uuid.nullable().optional(),
-  stepId: uuid.nullable().optional(),
+  familyId: idField.nullable().optional(),
+  stepId: idField.nullable().optional(),
   description: singleLine(300).pipe(z.string().min(1, 'enter a description')),
   material: z.enum(PISTON_MATERIALS, { error: 'must be cast or forged' }).nullable().optional(),
   ringCount: z.number().int().min(1).max(6).nullable().optional(),
@@ -176,7 +130,7 @@ const partFields = {
   reorderPoint: z.number().int().min(0).max(1_000_000).nullable().optional(),
   orderUpTo: z.number().int().min(0).max(1_000_000).nullable().optional(),
   components: z
-    .array(z.object({ partId: uuid, quantity: z.number().int().min(1).max(1000) }).strict())
+    .array(z.object({ partId: idField, quantity: z.number().int().min(1).max(1000) }).strict())
     .max(20)
     .optional(),
 };
@@ -348,11 +302,6 @@ export interface PartDetailJson extends PartJson {
   }[];
   createdAt: string;
   updatedAt: string;
-}
-
-export interface Page<T> {
-  items: T[];
-  total: number;
 }
 
 export const PART_SORTS = [

@@ -2,12 +2,11 @@
 // records of one person, export and erasure, and the customer's cylinders with their bores. The
 // zod schemas serve the server routes and the Angular forms alike.
 import { z } from 'zod';
+import { idField } from './common';
 import type { LengthJson } from '../lengths';
 import type { JobState } from './jobs';
 import { singleLine } from '../text-rules';
 import type { EstimateState } from './money';
-
-const uuid = z.string().uuid('must be a valid id');
 
 export const CUSTOMER_NAME_MAX = 120;
 /** What an erased customer's name reads as: no trace of the person, still a distinct row. */
@@ -55,7 +54,7 @@ export const customerPatch = customerInput
   .refine((p) => Object.values(p).some((v) => v !== undefined), 'nothing to change');
 export type CustomerPatch = z.output<typeof customerPatch>;
 
-export const mergeInput = z.object({ fromId: uuid }).strict();
+export const mergeInput = z.object({ fromId: idField }).strict();
 
 export const eraseInput = z.object({}).strict();
 
@@ -67,7 +66,7 @@ export const cylinderInput = z
       .min(1, "enter the shop's mark for the cylinder")
       .max(40, 'at most 40 characters')
       .regex(/^[\x20-\x7e]+$/, 'letters, digits and plain punctuation only, so the tag can print'),
-    familyId: uuid,
+    familyId: idField,
     castNumber: optionalText(60),
   })
   .strict();

@@ -4,35 +4,12 @@
 // input with the same words. Money is exact decimal text ("1234.50"); shares are fractions ("0.8125").
 import { DateTime } from 'luxon';
 import { z } from 'zod';
-import { atMost } from '../text-rules';
+import { calendarDay, daysBetween } from './common';
 import type { NeededPart } from '../part-needs';
 
 /** Longest period one request may cover: ten years of months is already more than any chart shows. */
 export const MAX_PERIOD_DAYS = 3660;
 export const MAX_MONTHS = 120;
-
-const ISO_DAY = /^(\d{4})-(\d{2})-(\d{2})$/;
-
-/** True for a real calendar day written YYYY-MM-DD (no 2026-02-30). */
-export function isCalendarDay(text: string): boolean {
-  const m = ISO_DAY.exec(text);
-  if (!m) return false;
-  const [year, month, day] = [Number(m[1]), Number(m[2]), Number(m[3])];
-  const date = new Date(Date.UTC(year, month - 1, day));
-  return (
-    year >= 1900 &&
-    year <= 9999 &&
-    date.getUTCFullYear() === year &&
-    date.getUTCMonth() === month - 1 &&
-    date.getUTCDate() === day
-  );
-}
-
-/** Whole days from one calendar day to another (both YYYY-MM-DD); negative when `to` is earlier. */
-export function daysBetween(from: string, to: string): number {
-  const ms = Date.parse(`${to}T00:00:00Z`) - Date.parse(`${from}T00:00:00Z`);
-  return Math.round(ms / 86_400_000);
-}
 
 /**
  * The period shown when none is asked for: the last twelve calendar months, from the first day of
@@ -48,12 +25,6 @@ export function defaultPeriod(
     to: today.toISODate() as string,
   };
 }
-
-const day = z
-  .string({ error: 'must be a date written YYYY-MM-DD' })
-  .trim()
-  .max(10, atMost(10, 'must be a date written YYYY-MM-DD'))
-  .refine(isCalendarDay, 'must be a real date written YYYY-MM-DD, e.g. "2026-03-31"');
 
 /** Both ends of a period or neither; the end not before the start; not longer than ten years. */
 function checkPeriod(q: { from?: string; to?: string }, ctx: z.RefinementCtx): void {
@@ -83,7 +54,7 @@ function checkPeriod(q: { from?: string; to?: string }, ctx: z.RefinementCtx): v
 }
 
 /** A period of calendar days in the shop's time zone, both ends included; by default the last 12 months. */
-const periodShape = { from: day.optional(), to: day.optional() };
+const periodShape = { from: calendarDay.optional(), to: calendarDay.optional() };
 
 export const SALES_GROUPS = ['family', 'step'] as const;
 export type SalesGroup = (typeof SALES_GROUPS)[number];

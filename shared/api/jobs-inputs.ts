@@ -3,11 +3,10 @@
 // the same input with the same words.
 import { z } from 'zod';
 import { atMost, isOneEmailAddress, MAX_EMAIL_LENGTH, singleLine } from '../text-rules';
-import { optionalLengthField } from './catalog';
+import { idField, isCalendarDay, optionalLengthField } from './common';
 import { parseLength, type LengthUnit } from '../lengths';
 import { OPEN_STATES, READING_AXES, READING_DEPTHS } from './jobs-states';
 
-const uuid = z.string().uuid('must be a valid id');
 /** Optional text: left out stays undefined (no change), "" or null become null (cleared). */
 const optionalText = (max: number) =>
   z
@@ -19,17 +18,11 @@ const optionalText = (max: number) =>
 export const isoDate = z
   .string({ error: 'must be a date written as YYYY-MM-DD' })
   .max(10, atMost(10, 'must be a date written as YYYY-MM-DD'))
-  .regex(/^\d{4}-\d{2}-\d{2}$/, 'must be a date written as YYYY-MM-DD')
+  .refine(isCalendarDay, 'is not a date on the calendar')
+  // A due date outside these years is a typing slip, not a plan.
   .refine((text) => {
-    const [y, m, d] = text.split('-').map(Number);
-    const date = new Date(Date.UTC(y, m - 1, d));
-    return (
-      y >= 2000 &&
-      y <= 2200 &&
-      date.getUTCFullYear() === y &&
-      date.getUTCMonth() === m - 1 &&
-      date.getUTCDate() === d
-    );
+    const year = Number(text.slice(0, 4));
+    return year >= 2000 && year <= 2200;
   }, 'is not a date on the calendar');
 
 const customerFields = {
@@ -54,16 +47,16 @@ export const jobInput = z
   .object({
     ...customerFields,
     /** The customer's record; the typed name, phone and e-mail still work and find or make one. */
-    customerId: uuid.optional(),
+    customerId: idField.optional(),
     customerName: customerFields.customerName.optional(),
-    familyId: uuid,
+    familyId: idField,
     cylinders: z
       .number({ error: 'must be a whole number' })
       .int('must be a whole number')
       .min(1, 'at least 1')
       .max(24, 'at most 24'),
     /** The customer's known cylinder for each job cylinder, in order (null: not marked). */
-    cylinderIds: z.array(uuid.nullable()).max(24, 'at most 24').optional(),
+    cylinderIds: z.array(idField.nullable()).max(24, 'at most 24').optional(),
   })
   .strict()
   .refine((j) => (j.customerId === undefined) !== (j.customerName === undefined), {
@@ -137,8 +130,8 @@ const smallLength = optionalLengthField({ allowZero: true, max: 10_000_000 });
 export const cylinderPatch = z
   .object({
     /** The customer's cylinder this job cylinder is (null: unlink). */
-    cylinderId: uuid.nullable(),
-    stepId: uuid.nullable(),
+    cylinderId: idField.nullable(),
+    stepId: idField.nullable(),
     clearance: smallLength,
     measuredAfterHone: optionalLengthField({ max: 500_000_000 }),
     ringGap: smallLength,
@@ -170,8 +163,8 @@ const cylinderNumber = z
 export const holdInput = z
   .object({
     cylinder: cylinderNumber,
-    unitId: uuid.optional(),
-    partId: uuid.optional(),
+    unitId: idField.optional(),
+    partId: idField.optional(),
     quantity: z.number().int('must be a whole number').min(1).max(24).optional(),
     /** Days until the hold lapses; null for no expiry; left out: the shop's default. */
     expiresInDays: z.number().int().min(1).max(365).nullable().optional(),
@@ -187,7 +180,7 @@ export const holdInput = z
   });
 export type HoldInput = z.output<typeof holdInput>;
 
-export const holdMoveInput = z.object({ jobId: uuid, cylinder: cylinderNumber }).strict();
+export const holdMoveInput = z.object({ jobId: idField, cylinder: cylinderNumber }).strict();
 export type HoldMoveInput = z.output<typeof holdMoveInput>;
 
 export const noteInput = z

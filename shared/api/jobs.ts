@@ -1,13 +1,11 @@
 // The jobs contract: what the API answers (below), with its states (jobs-states.ts) and what it
 // accepts (jobs-inputs.ts) re-exported, so client and server import one module.
-import { type Page } from './catalog';
 import { type LengthJson, type LengthUnit } from '../lengths';
 import type { Axis, Depth } from '../bore-wear';
 import type { NeededPart } from '../part-needs';
 import type { BarResolution, PassKind } from '../pass-plan';
 import type { StepAlternative } from '../bore-choice';
 
-export type { Page };
 export * from './jobs-states';
 export * from './jobs-inputs';
 import type { JobState } from './jobs-states';

@@ -2,20 +2,10 @@
 // waiting on an order line; reorder rules, suggestions, sourcing and exchange rates are in
 // reorder-api.ts, re-exported here so client and server import one module.
 import { z } from 'zod';
-import { atMost } from '../text-rules';
-import { moneyText } from './catalog';
 import { skirtField, MAX_PISTONS_PER_RECEIPT } from './stock';
 import { type WaitingItemJson } from './suppliers';
-import { isCalendarDay } from './insights';
+import { calendarDay, idField, moneyText, pageNumber, pageSizeField, sortDir } from './common';
 import type { LengthJson } from '../lengths';
-
-const uuid = z.string().uuid('must be a valid id');
-const isoDate = z
-  .string()
-  .max(10, atMost(10, 'must be a date like 2027-03-14'))
-  .regex(/^\d{4}-\d{2}-\d{2}$/, 'must be a date like 2027-03-14')
-  // Date.parse would roll 2027-02-30 over to 2 March; a calendar check refuses it.
-  .refine(isCalendarDay, 'is not a calendar date');
 
 export * from './reorder';
 
@@ -50,7 +40,7 @@ const unitPriceField = z.union([
 
 const orderLineInput = z
   .object({
-    partId: uuid,
+    partId: idField,
     quantity: z
       .number({ error: 'must be a whole number' })
       .int('must be a whole number')
@@ -62,12 +52,12 @@ const orderLineInput = z
 
 export const orderInput = z
   .object({
-    supplierId: uuid,
+    supplierId: idField,
     lines: z
       .array(orderLineInput)
       .min(1, 'add at least one line')
       .max(MAX_ORDER_LINES, `at most ${MAX_ORDER_LINES} lines`),
-    expectedOn: isoDate.nullable().optional(),
+    expectedOn: calendarDay.nullable().optional(),
     notes: z.string().max(2000, 'at most 2000 characters').optional(),
     /** What the supplier charges to ship it, in the order's currency; default: their usual. */
     shipping: unitPriceField.optional(),
@@ -78,7 +68,7 @@ export type OrderInput = z.output<typeof orderInput>;
 export const orderPatch = z
   .object({
     lines: orderInput.shape.lines.optional(),
-    expectedOn: isoDate.nullable().optional(),
+    expectedOn: calendarDay.nullable().optional(),
     notes: z.string().max(2000, 'at most 2000 characters').optional(),
     shipping: unitPriceField.optional(),
   })
@@ -88,19 +78,19 @@ export type OrderPatch = z.output<typeof orderPatch>;
 export const ordersQuery = z.object({
   q: z.string().max(200).optional(),
   state: z.enum([...ORDER_STATES, 'open'], { error: 'must be an order state or open' }).optional(),
-  supplierId: uuid.optional(),
+  supplierId: idField.optional(),
   sort: z.enum(['number', 'createdAt', 'expectedOn', 'supplier', 'state']).optional(),
-  dir: z.enum(['asc', 'desc']).optional(),
-  page: z.coerce.number().int().min(1).max(100000).default(1),
-  pageSize: z.coerce.number().int().min(1).max(500).default(50),
+  dir: sortDir.optional(),
+  page: pageNumber,
+  pageSize: pageSizeField(),
 });
 export type OrdersQuery = z.output<typeof ordersQuery>;
 
 export const draftsInput = z
   .object({
     /** Only these parts; all low parts when left out. */
-    partIds: z.array(uuid).max(500).optional(),
-    familyId: uuid.optional(),
+    partIds: z.array(idField).max(500).optional(),
+    familyId: idField.optional(),
   })
   .strict();
 export type DraftsInput = z.output<typeof draftsInput>;
@@ -111,7 +101,7 @@ export const receiptLinesInput = z
       .array(
         z
           .object({
-            lineId: uuid,
+            lineId: idField,
             quantity: z
               .number({ error: 'must be a whole number' })
               .int('must be a whole number')
@@ -121,13 +111,13 @@ export const receiptLinesInput = z
               .array(z.object({ skirt: skirtField.nullable().optional() }).strict())
               .max(MAX_PISTONS_PER_RECEIPT)
               .optional(),
-            binId: uuid.optional(),
+            binId: idField.optional(),
           })
           .strict(),
       )
       .min(1, 'receive at least one line')
       .max(MAX_ORDER_LINES),
-    binId: uuid.optional(),
+    binId: idField.optional(),
     note: z.string().trim().max(500).optional(),
   })
   .strict();
@@ -262,16 +252,16 @@ export interface OpenLineJson {
 
 export const waitInput = z
   .object({
-    jobId: uuid,
+    jobId: idField,
     cylinder: z.number().int().min(1).max(24),
-    lineId: uuid,
+    lineId: idField,
   })
   .strict();
 export type WaitInput = z.output<typeof waitInput>;
 
 export const waitsQuery = z.object({
-  jobId: uuid.optional(),
-  lineId: uuid.optional(),
+  jobId: idField.optional(),
+  lineId: idField.optional(),
   active: z
     .enum(['true', 'false'])
     .optional()

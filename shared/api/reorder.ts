@@ -2,22 +2,15 @@
 // computed suggestion with its figures, the reorder list, sourcing offers and exchange rates.
 import { z } from 'zod';
 import { atMost } from '../text-rules';
-import { currencyCode, type WaitingItemJson } from './suppliers';
-import { isCalendarDay } from './insights';
+import { calendarDay, currencyCode, idField, pageNumber, pageSizeField } from './common';
+import type { WaitingItemJson } from './suppliers';
 
-const uuid = z.string().uuid('must be a valid id');
 const count = (max = 1_000_000) =>
   z
     .number({ error: 'must be a whole number' })
     .int('must be a whole number')
     .min(0, 'must be 0 or more')
     .max(max, `at most ${max}`);
-const isoDate = z
-  .string()
-  .max(10, atMost(10, 'must be a date like 2027-03-14'))
-  .regex(/^\d{4}-\d{2}-\d{2}$/, 'must be a date like 2027-03-14')
-  // Date.parse would roll 2027-02-30 over to 2 March; a calendar check refuses it.
-  .refine(isCalendarDay, 'is not a calendar date');
 
 // ---- Reorder rules -----------------------------------------------------------------------------
 
@@ -50,8 +43,8 @@ export interface ReorderRuleJson {
 
 export const reorderDefaultInput = z
   .object({
-    familyId: uuid,
-    stepId: uuid.nullable(),
+    familyId: idField,
+    stepId: idField.nullable(),
     kind: z.enum(['piston', 'rings'], { error: 'must be piston or rings' }),
     reorderPoint: count(),
     orderUpTo: count(),
@@ -124,14 +117,14 @@ export interface ReorderSuggestionJson {
 
 export const reorderListQuery = z.object({
   q: z.string().max(200).optional(),
-  familyId: uuid.optional(),
+  familyId: idField.optional(),
   /** Only parts at or below their reorder point, counting what is on order. */
   low: z
     .enum(['true', 'false'], { error: 'must be true or false' })
     .optional()
     .transform((v) => v !== 'false'),
-  page: z.coerce.number().int().min(1).max(100000).default(1),
-  pageSize: z.coerce.number().int().min(1).max(500).default(50),
+  page: pageNumber,
+  pageSize: pageSizeField(),
 });
 export type ReorderListQuery = z.output<typeof reorderListQuery>;
 
@@ -161,10 +154,10 @@ export interface ReorderLineJson {
 
 export const sourcingQuery = z
   .object({
-    familyId: uuid.optional(),
-    stepId: uuid.optional(),
-    partId: uuid.optional(),
-    neededBy: isoDate.optional(),
+    familyId: idField.optional(),
+    stepId: idField.optional(),
+    partId: idField.optional(),
+    neededBy: calendarDay.optional(),
     /** Units wanted: the shipping share is spread over them. */
     quantity: z.coerce.number().int().min(1).max(10_000).default(1),
   })

@@ -2,7 +2,8 @@
 // piston units and the ledger. Shared by the server routes and the Angular forms.
 import { z } from 'zod';
 import { atMost, singleLine } from '../text-rules';
-import { lengthField, moneyText, type UnitStatus } from './catalog';
+import type { UnitStatus } from './catalog';
+import { idField, lengthField, moneyText } from './common';
 import type { LengthJson } from '../lengths';
 import type { OrderState } from './purchasing';
 
@@ -25,7 +26,6 @@ export const MAX_STOCK_QUANTITY = 10_000;
 /** Pistons in one receipt: each gets its own row, label and measurement. */
 export const MAX_PISTONS_PER_RECEIPT = 500;
 
-const uuid = z.string().uuid('must be a valid id');
 /** A measured piston skirt diameter: a piston is never larger than 500 mm across. */
 export const skirtField = lengthField({ max: 500_000_000 });
 const reason = z.string().trim().min(1, 'give a reason').max(500, 'at most 500 characters');
@@ -45,13 +45,13 @@ export type BinInput = z.output<typeof binInput>;
 
 export const receiptInput = z
   .object({
-    partId: uuid,
+    partId: idField,
     quantity: z
       .number({ error: 'must be a whole number' })
       .int('must be a whole number')
       .min(1, 'must be at least 1')
       .max(MAX_STOCK_QUANTITY, `at most ${MAX_STOCK_QUANTITY} in one receipt`),
-    binId: uuid,
+    binId: idField,
     unitCost: moneyText,
     note: z.string().trim().max(500).optional(),
     /** Pistons only: one entry per piston; leave out skirt (or null) for "to measure". */
@@ -69,7 +69,7 @@ export type ReceiptInput = z.output<typeof receiptInput>;
  * ordered at the cost typed.
  */
 export const deskReceiptInput = receiptInput
-  .extend({ unitCost: moneyText.optional(), orderLineId: uuid.optional() })
+  .extend({ unitCost: moneyText.optional(), orderLineId: idField.optional() })
   .strict()
   .superRefine((v, ctx) => {
     if (!v.orderLineId && v.unitCost === undefined) {
@@ -84,7 +84,7 @@ export type DeskReceiptInput = z.output<typeof deskReceiptInput>;
 
 export const adjustmentInput = z
   .object({
-    partId: uuid,
+    partId: idField,
     quantity: z
       .number({ error: 'must be a whole number' })
       .int('must be a whole number')
@@ -97,7 +97,7 @@ export const adjustmentInput = z
 export type AdjustmentInput = z.output<typeof adjustmentInput>;
 
 export const moveInput = z
-  .object({ unitId: uuid.optional(), partId: uuid.optional(), toBinId: uuid })
+  .object({ unitId: idField.optional(), partId: idField.optional(), toBinId: idField })
   .strict()
   .refine((m) => (m.unitId ? 1 : 0) + (m.partId ? 1 : 0) === 1, {
     message: 'give either unitId (one piston) or partId (a counted part)',

@@ -1,27 +1,9 @@
 // What the suppliers and price-list import API accepts and answers. The zod schemas serve the server
 // routes and the Angular forms alike.
 import { z } from 'zod';
+import { currencyCode, idField, moneyText } from './common';
 import type { LengthJson } from '../lengths';
-import { isCurrencyCode } from '../money';
-import { atMost, emailAddress, singleLine } from '../text-rules';
-
-export const currencyCode = z
-  .string({ error: 'must be a three-letter ISO 4217 code, e.g. "EUR"' })
-  .trim()
-  .max(3, atMost(3, 'must be a three-letter ISO 4217 code, e.g. "EUR"'))
-  .transform((v) => v.toUpperCase())
-  .refine((v) => isCurrencyCode(v), {
-    message: 'is not an ISO 4217 currency code (e.g. EUR, USD, GBP)',
-  });
-
-const amount = z
-  .string({ error: 'must be an amount written as text, e.g. "12.50"' })
-  .trim()
-  .max(20, atMost(20))
-  .regex(
-    /^\d{1,10}(\.\d{1,4})?$/,
-    'must be an amount, 0 or more, like "12.50" (at most 4 decimals)',
-  );
+import { emailAddress, singleLine } from '../text-rules';
 
 // One address a purchase order can be sent to; a list or a name with brackets is refused here
 // rather than failing (or reaching only part of it) at sending time.
@@ -37,8 +19,8 @@ export const supplierInput = z.strictObject({
     .min(0)
     .max(365),
   contacts: z.string().max(2000, 'at most 2000 characters').optional(),
-  minOrder: amount.optional(),
-  shippingCost: amount.optional(),
+  minOrder: moneyText.optional(),
+  shippingCost: moneyText.optional(),
   notes: z.string().max(4000, 'at most 4000 characters').optional(),
   active: z.boolean().optional(),
 });
@@ -130,7 +112,7 @@ export interface WaitingItemJson {
 }
 
 export const itemMappingInput = z.strictObject({
-  partId: z.string().uuid('must be a valid id').nullable(),
+  partId: idField.nullable(),
 });
 
 // ---- Price-list imports ------------------------------------------------------------------------

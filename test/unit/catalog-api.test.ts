@@ -1,16 +1,9 @@
 // The catalog and stock request schemas that both the server routes and the Angular forms use.
 // Length values rest on 1 in = 25.4 mm exactly (international yard and pound agreement of 1959, as
 // stated in NIST Special Publication 811, appendix B).
-import {
-  displayGtin,
-  familyPatch,
-  gtinField,
-  lengthField,
-  moneyText,
-  optionalLengthField,
-  partInput,
-} from '../../shared/api/catalog';
+import { displayGtin, familyPatch, gtinField, partInput } from '../../shared/api/catalog';
 import { adjustmentInput, moveInput, receiptInput } from '../../shared/api/stock';
+import { lengthField, moneyText, optionalLengthField } from '../../shared/api/common';
 
 describe('lengthField', () => {
   const field = lengthField();

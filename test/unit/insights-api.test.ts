@@ -1,12 +1,11 @@
 import {
   MAX_PERIOD_DAYS,
-  daysBetween,
   defaultPeriod,
-  isCalendarDay,
   monthsQuery,
   salesQuery,
   topSellersQuery,
 } from '../../shared/api/insights';
+import { daysBetween, isCalendarDay } from '../../shared/api/common';
 
 describe('calendar days for insight periods', () => {
   // Gregorian leap-year rule (as used by ISO 8601): every 4th year, except centuries not divisible

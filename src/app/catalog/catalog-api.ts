@@ -6,12 +6,12 @@ import type {
   FamilyJson,
   LadderJson,
   LadderUnitJson,
-  Page,
   PartDetailJson,
   PartJson,
   PartKind,
   StepSeriesJson,
 } from '../../../shared/api/catalog';
+import type { Page } from '../../../shared/api/common';
 
 export interface FamilyQuery {
   q?: string;

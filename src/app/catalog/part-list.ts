@@ -24,7 +24,6 @@ import { catchError, debounce, distinctUntilChanged, map, of, switchMap, tap, ti
 import {
   PART_KINDS,
   type FamilyJson,
-  type Page,
   type PartJson,
   type PartKind,
   type StepSeriesJson,
@@ -34,6 +33,7 @@ import { Session } from '../core/session';
 import { CatalogApi, type PartQuery } from './catalog-api';
 import { looksScanned } from '../ui/scan';
 import { KIND_LABELS } from './part-words';
+import type { Page } from '../../../shared/api/common';
 
 type Loaded = { ok: true; page: Page<PartJson>; q: string } | { ok: false; message: string };
 

@@ -1,19 +1,8 @@
 import { HttpErrorResponse } from '@angular/common/http';
-
-/** One problem the server found in a request: a form field or a line of an uploaded file. */
-export interface ApiErrorDetail {
-  field?: string;
-  line?: number;
-  message: string;
-}
-
-/** The error body every /api route answers with. */
-export interface ApiErrorBody {
-  error: { code: string; message: string; details?: ApiErrorDetail[] };
-}
+import type { ErrorBody, ErrorDetail } from '../../../shared/api/common';
 
 /** The server's error body, when the failure carried one. */
-export function apiErrorBody(error: unknown): ApiErrorBody | null {
+export function apiErrorBody(error: unknown): ErrorBody | null {
   if (!(error instanceof HttpErrorResponse)) return null;
   const body: unknown = error.error;
   if (typeof body !== 'object' || body === null || !('error' in body)) return null;
@@ -61,7 +50,7 @@ function words(name: string): string {
  * must be at least 1."). A reason written as a whole sentence keeps its own capital after a colon.
  */
 export function detailSentence(
-  detail: ApiErrorDetail,
+  detail: ErrorDetail,
   labels: Readonly<Record<string, string>> = {},
 ): string {
   const message = detail.message.trim();
@@ -79,7 +68,7 @@ export function detailSentence(
  * The server's summary, unless it only repeats its first detail with the raw path ("lines.0.quantity:
  * must be at least 1"), which the details already say in words.
  */
-function ownSummary(body: ApiErrorBody): string {
+function ownSummary(body: ErrorBody): string {
   const { message, details = [] } = body.error;
   const first = details[0];
   const repeats = details.some((d) => {
@@ -160,7 +149,7 @@ export function apiUnplacedMessage(
   return [ownSummary(body), ...sentences].filter(Boolean).join(' ');
 }
 
-function isDetail(value: unknown): value is ApiErrorDetail {
+function isDetail(value: unknown): value is ErrorDetail {
   return (
     typeof value === 'object' &&
     value !== null &&

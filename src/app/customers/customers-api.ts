@@ -8,7 +8,7 @@ import type {
   CustomerListItemJson,
   CylinderDetailJson,
 } from '../../../shared/api/customers';
-import type { Page } from '../../../shared/api/jobs';
+import type { Page } from '../../../shared/api/common';
 
 export interface CustomerBody {
   name?: string;

@@ -8,12 +8,12 @@ import { MatTableModule } from '@angular/material/table';
 import { Router, RouterLink } from '@angular/router';
 import { catchError, map, of, switchMap, tap } from 'rxjs';
 
-import type { Page } from '../../../shared/api/catalog';
 import type { ImportLogEntryJson, ImportStatus } from '../../../shared/api/suppliers';
 import { apiErrorMessage } from '../core/api-error';
 import { ImportsApi } from './imports-api';
 import { STATUS_WORDS } from './import-words';
 import { ShopDatePipe } from '../core/shop-date-pipe';
+import type { Page } from '../../../shared/api/common';
 
 type Loaded = { ok: true; page: Page<ImportLogEntryJson> } | { ok: false; message: string };
 

@@ -38,7 +38,8 @@ import {
   type MappingJson,
   type SupplierJson,
 } from '../../../shared/api/suppliers';
-import { apiErrorBody, apiErrorMessage, type ApiErrorDetail } from '../core/api-error';
+import { apiErrorBody, apiErrorMessage } from '../core/api-error';
+import type { ErrorDetail } from '../../../shared/api/common';
 import { ImportCommit } from './import-commit';
 import { ImportPreview } from './import-preview';
 import { ImportsApi } from './imports-api';
@@ -49,7 +50,7 @@ const REQUIRED: MappingFieldName[] = ['sku', 'price'];
 
 interface Problem {
   message: string;
-  details: ApiErrorDetail[];
+  details: ErrorDetail[];
 }
 
 /**

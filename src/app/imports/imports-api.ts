@@ -2,7 +2,6 @@ import { HttpClient, HttpEvent, HttpParams } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
 import { Observable } from 'rxjs';
 
-import type { Page } from '../../../shared/api/catalog';
 import type {
   CommitJson,
   DuplicateJson,
@@ -12,6 +11,7 @@ import type {
   MappingJson,
   SupplierJson,
 } from '../../../shared/api/suppliers';
+import type { Page } from '../../../shared/api/common';
 
 function params(query: object): HttpParams {
   let result = new HttpParams();

@@ -16,9 +16,10 @@ import { MatInputModule } from '@angular/material/input';
 import { DateTime } from 'luxon';
 
 import { patternHint } from '../../../shared/dates';
-import { MAX_PERIOD_DAYS, daysBetween } from '../../../shared/api/insights';
+import { MAX_PERIOD_DAYS } from '../../../shared/api/insights';
 import { Session } from '../core/session';
 import type { DayRange } from './insights-api';
+import { daysBetween } from '../../../shared/api/common';
 
 interface Preset {
   label: string;

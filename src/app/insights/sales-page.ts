@@ -3,7 +3,7 @@ import { MatButtonToggleModule } from '@angular/material/button-toggle';
 import { MatTableModule } from '@angular/material/table';
 import { Router } from '@angular/router';
 
-import { defaultPeriod, isCalendarDay, type TopSellerRank } from '../../../shared/api/insights';
+import { defaultPeriod, type TopSellerRank } from '../../../shared/api/insights';
 import { InsightChart } from './insight-chart';
 import { loadEach } from '../ui/load';
 import { InsightPanel } from './insight-panel';
@@ -18,6 +18,7 @@ import {
 import { formatAmount, formatCount, formatShare } from './insights-format';
 import { ShopDatePipe } from '../core/shop-date-pipe';
 import { PeriodPicker } from './period-picker';
+import { isCalendarDay } from '../../../shared/api/common';
 
 /** The period in the address (?from&to), or the last twelve months. */
 export function periodFrom(from: string | undefined, to: string | undefined): DayRange {

@@ -12,13 +12,13 @@ import type {
   JobListItemJson,
   JobState,
   OpenState,
-  Page,
   PhotoJson,
   ProposalJson,
   ReadingsResultJson,
   RecommendationJson,
 } from '../../../shared/api/jobs';
 import type { UnitJson } from '../../../shared/api/stock';
+import type { Page } from '../../../shared/api/common';
 
 export interface JobListQuery {
   /** 'open', 'closed', 'all' or one state. */

@@ -12,7 +12,6 @@ import { MatTableModule } from '@angular/material/table';
 import { Router, RouterLink } from '@angular/router';
 import { catchError, debounceTime, distinctUntilChanged, map, of, switchMap, tap } from 'rxjs';
 
-import type { Page } from '../../../shared/api/catalog';
 import {
   ORDER_STATE_LABELS,
   ORDER_STATES,
@@ -23,6 +22,7 @@ import { apiErrorMessage } from '../core/api-error';
 import { Session } from '../core/session';
 import { PurchasingApi } from './purchasing-api';
 import { ShopDatePipe } from '../core/shop-date-pipe';
+import type { Page } from '../../../shared/api/common';
 
 type Loaded = { ok: true; page: Page<OrderListItemJson> } | { ok: false; message: string };
 const SORTABLE = ['number', 'createdAt', 'expectedOn', 'supplier', 'state'] as const;

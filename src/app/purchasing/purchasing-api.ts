@@ -2,7 +2,7 @@ import { HttpClient, HttpParams } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
 import { Observable } from 'rxjs';
 
-import type { FamilyJson, LadderJson, Page, PartJson } from '../../../shared/api/catalog';
+import type { FamilyJson, LadderJson, PartJson } from '../../../shared/api/catalog';
 import type {
   DraftsJson,
   ExchangeRateJson,
@@ -20,6 +20,7 @@ import type {
   WaitJson,
 } from '../../../shared/api/purchasing';
 import type { SupplierJson } from '../../../shared/api/suppliers';
+import type { Page } from '../../../shared/api/common';
 
 function params(query: object): HttpParams {
   let result = new HttpParams();

@@ -12,11 +12,11 @@ import { MatTooltipModule } from '@angular/material/tooltip';
 import { RouterLink } from '@angular/router';
 import { catchError, debounceTime, distinctUntilChanged, map, of, switchMap, tap } from 'rxjs';
 
-import type { Page } from '../../../shared/api/catalog';
 import type { DraftsJson, ReorderLineJson, RuleSource } from '../../../shared/api/purchasing';
 import { apiErrorMessage } from '../core/api-error';
 import { Notifier } from '../core/notifier';
 import { PurchasingApi } from './purchasing-api';
+import type { Page } from '../../../shared/api/common';
 
 type Loaded = { ok: true; page: Page<ReorderLineJson> } | { ok: false; message: string };
 

@@ -12,11 +12,11 @@ import { MatTableModule } from '@angular/material/table';
 import { RouterLink } from '@angular/router';
 import { catchError, debounceTime, distinctUntilChanged, map, of, switchMap, tap } from 'rxjs';
 
-import type { Page } from '../../../shared/api/catalog';
 import type { BinJson } from '../../../shared/api/stock';
 import { apiErrorBody, apiErrorMessage, apiFieldErrors } from '../core/api-error';
 import { Notifier } from '../core/notifier';
 import { StockApi } from './stock-api';
+import type { Page } from '../../../shared/api/common';
 
 type Loaded = { ok: true; page: Page<BinJson> } | { ok: false; message: string };
 

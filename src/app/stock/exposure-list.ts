@@ -10,11 +10,12 @@ import { MatTableModule } from '@angular/material/table';
 import { RouterLink } from '@angular/router';
 import { catchError, debounceTime, distinctUntilChanged, map, of, switchMap, tap } from 'rxjs';
 
-import type { ExposureItemJson, Page } from '../../../shared/api/catalog';
+import type { ExposureItemJson } from '../../../shared/api/catalog';
 import { emptyStepWords } from '../../../shared/part-needs';
 import { apiErrorMessage } from '../core/api-error';
 import { LengthPipe } from '../core/length-pipe';
 import { StockApi } from './stock-api';
+import type { Page } from '../../../shared/api/common';
 
 type Loaded = { ok: true; page: Page<ExposureItemJson> } | { ok: false; message: string };
 

@@ -20,7 +20,7 @@ import { MatTableModule } from '@angular/material/table';
 import { RouterLink } from '@angular/router';
 import { catchError, map, of, switchMap, tap } from 'rxjs';
 
-import type { Page, PartDetailJson, PartJson } from '../../../shared/api/catalog';
+import type { PartDetailJson, PartJson } from '../../../shared/api/catalog';
 import {
   LEDGER_KINDS,
   type LedgerJson,
@@ -35,6 +35,7 @@ import { MoveDialog, type MoveTarget } from './move-dialog';
 import { StockApi } from './stock-api';
 import { KIND_WORDS } from './stock-words';
 import { ShopDatePipe } from '../core/shop-date-pipe';
+import type { Page } from '../../../shared/api/common';
 
 type Loaded = { ok: true; page: Page<LedgerJson> } | { ok: false; message: string };
 

@@ -4,7 +4,6 @@ import { Observable } from 'rxjs';
 
 import type {
   ExposureItemJson,
-  Page,
   PartDetailJson,
   PartJson,
   UnitStatus,
@@ -18,6 +17,7 @@ import type {
   UnitJson,
 } from '../../../shared/api/stock';
 import type { OpenLineJson } from '../../../shared/api/purchasing';
+import type { Page } from '../../../shared/api/common';
 
 export interface UnitQuery {
   q?: string;

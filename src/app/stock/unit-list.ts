@@ -33,7 +33,7 @@ import {
   timer,
 } from 'rxjs';
 
-import type { Page, UnitStatus } from '../../../shared/api/catalog';
+import type { UnitStatus } from '../../../shared/api/catalog';
 import type { StockChangeJson, UnitJson } from '../../../shared/api/stock';
 import { apiErrorMessage } from '../core/api-error';
 import { LengthPipe } from '../core/length-pipe';
@@ -46,6 +46,7 @@ import { ScrapDialog } from './scrap-dialog';
 import { StockApi, type UnitQuery } from './stock-api';
 import { STATUS_LABELS } from './stock-words';
 import { ShopDatePipe } from '../core/shop-date-pipe';
+import type { Page } from '../../../shared/api/common';
 
 type Loaded = { ok: true; page: Page<UnitJson> } | { ok: false; message: string };
 type StatusFilter = UnitStatus | 'on-shelf' | '';

@@ -27,7 +27,7 @@ import {
   tap,
 } from 'rxjs';
 
-import type { Page, PartJson } from '../../../shared/api/catalog';
+import type { PartJson } from '../../../shared/api/catalog';
 import { formatMoney } from '../../../shared/money';
 import type { SuggestionJson, UnmappedItemJson } from '../../../shared/api/suppliers';
 import { apiErrorMessage } from '../core/api-error';
@@ -35,6 +35,7 @@ import { LengthPipe } from '../core/length-pipe';
 import { Notifier } from '../core/notifier';
 import { Session } from '../core/session';
 import { SuppliersApi } from './suppliers-api';
+import type { Page } from '../../../shared/api/common';
 
 type Loaded = { ok: true; page: Page<UnmappedItemJson> } | { ok: false; message: string };
 

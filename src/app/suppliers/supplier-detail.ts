@@ -31,7 +31,6 @@ import {
   tap,
 } from 'rxjs';
 
-import type { Page } from '../../../shared/api/catalog';
 import { formatMoney } from '../../../shared/money';
 import type { SupplierItemJson, SupplierJson } from '../../../shared/api/suppliers';
 import { apiErrorMessage } from '../core/api-error';
@@ -40,6 +39,7 @@ import { Session } from '../core/session';
 import { PriceHistoryDialog, type PriceHistoryData } from './price-history-dialog';
 import { SuppliersApi, type ItemQuery } from './suppliers-api';
 import { ShopDatePipe } from '../core/shop-date-pipe';
+import type { Page } from '../../../shared/api/common';
 
 type LoadedItems = { ok: true; page: Page<SupplierItemJson> } | { ok: false; message: string };
 type LoadedSupplier =

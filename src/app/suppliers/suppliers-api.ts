@@ -2,13 +2,14 @@ import { HttpClient, HttpParams } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
 import { Observable } from 'rxjs';
 
-import type { Page, PartJson } from '../../../shared/api/catalog';
+import type { PartJson } from '../../../shared/api/catalog';
 import type {
   PriceHistoryJson,
   SupplierItemJson,
   SupplierJson,
   UnmappedItemJson,
 } from '../../../shared/api/suppliers';
+import type { Page } from '../../../shared/api/common';
 
 export interface SupplierQuery {
   q?: string;

@@ -13,8 +13,8 @@ import {
   type Observable,
 } from 'rxjs';
 
-import type { Page } from '../../../shared/api/catalog';
 import { apiErrorMessage } from '../core/api-error';
+import type { Page } from '../../../shared/api/common';
 
 /** What a server-side list is asked for: ?q&sort&dir&page&pageSize. */
 export interface PageRequest<S extends string> {
