@@ -2,12 +2,13 @@
 // correct one with a credit note (an issued invoice itself never changes).
 import type { Router } from 'express';
 import { z } from 'zod';
-import { route, uuidParam } from '../http/route';
+import { route } from '../http/route';
+import { idField } from '../../shared/api/common';
 import { creditNoteInput } from '../../shared/api/money';
 import * as invoices from './invoice-service';
 import { MONEY } from './money-routes';
 
-const idParams = z.object({ id: uuidParam });
+const idParams = z.object({ id: idField });
 
 export function registerInvoiceRoutes(router: Router): void {
   route(router, {
