@@ -100,7 +100,7 @@ export function registerCatalogRoutes(router: Router): void {
     method: 'get',
     path: '/api/engine-families/:id/ladder/steps/:stepId/units',
     access: 'signed-in',
-    params: z.object({ id: uuidParam, stepId: uuidParam }),
+    params: z.object({ id: idField, stepId: idField }),
     query: pageQuery,
     handler: ({ params, query }) => ladders.stepUnits(params.id, params.stepId, query),
   });
