@@ -4,6 +4,7 @@
 import { z } from 'zod';
 
 import type { Role } from './session-types';
+import { allows } from './access';
 
 /** How long the machinist who marked the cut may take it back alone. */
 export const CUT_UNDO_MINUTES = 10;
@@ -69,7 +70,7 @@ export function whyNoCutUndo(
   }
   const ownShortWindow = facts.cutBy === actor.id && now <= undoUntil(facts.cutAt);
   if (ownShortWindow) return null;
-  if (actor.role === 'owner') {
+  if (allows(actor.role, 'undoAnyCut')) {
     return reason.trim().length >= 3
       ? null
       : {

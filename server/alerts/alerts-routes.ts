@@ -4,16 +4,14 @@ import { z } from 'zod';
 import { route } from '../http/route';
 import { idField } from '../../shared/api/common';
 import { alertsQuery } from '../../shared/api/alerts';
-import type { Role } from '../../shared/session-types';
 import { acknowledgeAlert, listAlerts, mailModeOf } from './alerts-service';
-
-const READERS: Role[] = ['owner', 'buyer'];
+import { may } from '../../shared/access';
 
 export function registerAlertsRoutes(router: Router): void {
   route(router, {
     method: 'get',
     path: '/api/alerts',
-    access: READERS,
+    access: may.handleAlerts,
     query: alertsQuery,
     handler: ({ query }) => listAlerts(query),
   });
@@ -21,13 +19,13 @@ export function registerAlertsRoutes(router: Router): void {
   route(router, {
     method: 'get',
     path: '/api/alerts/mail-mode',
-    access: READERS,
+    access: may.handleAlerts,
     handler: ({ user }) => mailModeOf(user.id),
   });
   route(router, {
     method: 'post',
     path: '/api/alerts/:id/acknowledge',
-    access: READERS,
+    access: may.handleAlerts,
     params: z.object({ id: idField }),
     handler: ({ params, user }) => acknowledgeAlert(user.id, params.id),
   });

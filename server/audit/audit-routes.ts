@@ -3,12 +3,13 @@ import type { Router } from 'express';
 import { route } from '../http/route';
 import { auditQuery } from '../../shared/api/audit';
 import { browseAudit } from './audit-service';
+import { may } from '../../shared/access';
 
 export function registerAuditRoutes(router: Router): void {
   route(router, {
     method: 'get',
     path: '/api/audit',
-    access: ['owner'],
+    access: may.administer,
     query: auditQuery,
     handler: ({ query }) => browseAudit(query),
   });

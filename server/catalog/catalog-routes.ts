@@ -15,11 +15,10 @@ import {
   stepSeriesInput,
 } from '../../shared/api/catalog';
 import type { MoneyFields } from '../../shared/money-visibility';
-import type { Role } from '../../shared/session-types';
 import * as service from './catalog-service';
 import * as ladders from './ladder-service';
+import { may } from '../../shared/access';
 
-const CATALOG_EDITORS: Role[] = ['owner', 'buyer'];
 /** A part's average cost is the shop's cost; its sale price is the list price everyone quotes. */
 const PART_MONEY: MoneyFields = { cost: ['averageCost'] };
 const idParams = z.object({ id: idField });
@@ -53,7 +52,7 @@ export function registerCatalogRoutes(router: Router): void {
   route(router, {
     method: 'post',
     path: '/api/step-series',
-    access: CATALOG_EDITORS,
+    access: may.editCatalog,
     body: stepSeriesInput,
     status: 201,
     handler: ({ body, user }) => service.createStepSeries(user.id, body),
@@ -69,7 +68,7 @@ export function registerCatalogRoutes(router: Router): void {
   route(router, {
     method: 'post',
     path: '/api/engine-families',
-    access: CATALOG_EDITORS,
+    access: may.editCatalog,
     body: familyInput,
     status: 201,
     handler: ({ body, user }) => service.createFamily(user.id, body),
@@ -84,7 +83,7 @@ export function registerCatalogRoutes(router: Router): void {
   route(router, {
     method: 'patch',
     path: '/api/engine-families/:id',
-    access: CATALOG_EDITORS,
+    access: may.editCatalog,
     params: idParams,
     body: familyPatch,
     handler: ({ params, body, user }) => service.updateFamily(user.id, params.id, body),
@@ -124,7 +123,7 @@ export function registerCatalogRoutes(router: Router): void {
   route(router, {
     method: 'post',
     path: '/api/parts',
-    access: CATALOG_EDITORS,
+    access: may.editCatalog,
     money: PART_MONEY,
     body: partInput,
     status: 201,
@@ -141,7 +140,7 @@ export function registerCatalogRoutes(router: Router): void {
   route(router, {
     method: 'patch',
     path: '/api/parts/:id',
-    access: CATALOG_EDITORS,
+    access: may.editCatalog,
     money: PART_MONEY,
     params: idParams,
     body: partPatch,

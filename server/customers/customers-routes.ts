@@ -6,7 +6,6 @@ import { z } from 'zod';
 import { route } from '../http/route';
 import { idField, pageQuery } from '../../shared/api/common';
 import type { MoneyFields } from '../../shared/money-visibility';
-import type { Role } from '../../shared/session-types';
 import {
   customerInput,
   customerPatch,
@@ -19,9 +18,8 @@ import { sendCsv } from '../insights/insights-csv';
 import * as customers from './customers-service';
 import * as cylinders from './cylinders-service';
 import { exportCsvTable, exportCustomer } from './customer-export';
+import { may } from '../../shared/access';
 
-const COUNTER: Role[] = ['owner', 'machinist', 'staff'];
-const OWNER: Role[] = ['owner'];
 /** A job's estimate total is what the shop charges: staff and the owner see it (shared/money-visibility). */
 const CUSTOMER_MONEY: MoneyFields = { sold: ['total'] };
 
@@ -47,7 +45,7 @@ export function registerCustomersRoutes(router: Router): void {
     method: 'post',
     path: '/api/customers',
     money: CUSTOMER_MONEY,
-    access: COUNTER,
+    access: may.runCounter,
     body: customerInput,
     status: 201,
     handler: ({ body, user }) => customers.createCustomer(user.id, body),
@@ -64,7 +62,7 @@ export function registerCustomersRoutes(router: Router): void {
     method: 'patch',
     path: '/api/customers/:id',
     money: CUSTOMER_MONEY,
-    access: COUNTER,
+    access: may.runCounter,
     params: idParams,
     body: customerPatch,
     handler: ({ params, body, user }) => customers.patchCustomer(user.id, params.id, body),
@@ -73,7 +71,7 @@ export function registerCustomersRoutes(router: Router): void {
     method: 'post',
     path: '/api/customers/:id/merge',
     money: CUSTOMER_MONEY,
-    access: OWNER,
+    access: may.mergeCustomers,
     params: idParams,
     body: mergeInput,
     handler: ({ params, body, user }) => customers.mergeCustomers(user.id, params.id, body.fromId),
@@ -102,7 +100,7 @@ export function registerCustomersRoutes(router: Router): void {
     method: 'post',
     path: '/api/customers/:id/erase',
     money: CUSTOMER_MONEY,
-    access: OWNER,
+    access: may.mergeCustomers,
     params: idParams,
     body: eraseInput,
     handler: ({ params, user }) => customers.eraseCustomer(user.id, params.id),
@@ -117,7 +115,7 @@ export function registerCustomersRoutes(router: Router): void {
   route(router, {
     method: 'post',
     path: '/api/customers/:id/cylinders',
-    access: COUNTER,
+    access: may.runCounter,
     params: idParams,
     body: cylinderInput,
     status: 201,

@@ -5,16 +5,14 @@ import { z } from 'zod';
 import { route } from '../http/route';
 import { idField } from '../../shared/api/common';
 import { sendCsv } from '../insights/insights-csv';
-import type { Role } from '../../shared/session-types';
 import * as service from './exports-service';
-
-const STOCK_READERS: Role[] = ['owner', 'buyer', 'staff'];
+import { may } from '../../shared/access';
 
 export function registerExportsRoutes(router: Router): void {
   route(router, {
     method: 'get',
     path: '/api/exports/stock.csv',
-    access: STOCK_READERS,
+    access: may.exportStock,
     handler: async ({ res, user }) => sendCsv(res, await service.stockTable(user.role)),
   });
   route(router, {
@@ -27,7 +25,7 @@ export function registerExportsRoutes(router: Router): void {
   route(router, {
     method: 'get',
     path: '/api/exports/price-comparison.csv',
-    access: STOCK_READERS,
+    access: may.exportStock,
     query: z.object({ familyId: idField.optional() }).strict(),
     handler: async ({ query, res }) =>
       sendCsv(res, await service.priceComparisonTable(query.familyId)),

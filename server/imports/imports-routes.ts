@@ -9,14 +9,13 @@ import { z } from 'zod';
 import { route, zodDetails } from '../http/route';
 import { idField, pageQuery } from '../../shared/api/common';
 import { BadRequest, UnsupportedMediaType } from '../errors';
-import type { Role } from '../../shared/session-types';
 import { IMPORT_STATUSES, commitInput, mappingInput } from '../../shared/api/suppliers';
 import type { ColumnMapping } from './propose-mapping';
 import { refuseLargerThan } from '../http/upload-limits';
 import * as service from './imports-service';
 import { withImportSlot } from './import-slots';
+import { may } from '../../shared/access';
 
-export const IMPORTERS: Role[] = ['owner', 'buyer', 'staff'];
 export const MAX_UPLOAD_BYTES = 50 * 1024 * 1024;
 const ALLOWED_EXTENSIONS = ['.csv', '.tsv', '.txt'];
 
@@ -103,7 +102,7 @@ export function registerImportsRoutes(router: Router): void {
   route(router, {
     method: 'post',
     path: '/api/suppliers/:id/price-lists',
-    access: IMPORTERS,
+    access: may.importPriceLists,
     params: idParams,
     query: progressQuery,
     before: [
@@ -142,7 +141,7 @@ export function registerImportsRoutes(router: Router): void {
   route(router, {
     method: 'post',
     path: '/api/price-list-imports/:id/commit',
-    access: IMPORTERS,
+    access: may.importPriceLists,
     params: idParams,
     query: progressQuery,
     body: commitInput,
@@ -156,21 +155,21 @@ export function registerImportsRoutes(router: Router): void {
   route(router, {
     method: 'get',
     path: '/api/price-list-imports',
-    access: IMPORTERS,
+    access: may.importPriceLists,
     query: importsQuery,
     handler: ({ query }) => service.listImports(query),
   });
   route(router, {
     method: 'get',
     path: '/api/price-list-imports/progress/:token',
-    access: IMPORTERS,
+    access: may.importPriceLists,
     params: z.object({ token: idField }),
     handler: ({ params }) => service.progress(params.token),
   });
   route(router, {
     method: 'get',
     path: '/api/price-list-imports/:id',
-    access: IMPORTERS,
+    access: may.importPriceLists,
     params: idParams,
     handler: ({ params }) => service.getImport(params.id),
   });

@@ -12,15 +12,13 @@ import { nearLastStepTable } from './cylinders-table';
 import * as service from './insights-service';
 import * as tables from './insights-tables';
 import { sendCsv, type CsvTable } from './insights-csv';
-
-const OWNER: Role[] = ['owner'];
-const STOCK_SIDE: Role[] = ['owner', 'buyer'];
+import { may } from '../../shared/access';
 
 /** Declares one figure twice: as JSON at `path` and as a CSV download at `path.csv`. */
 function figure<Q, A, R>(
   router: Router,
   path: string,
-  access: Role[],
+  access: readonly Role[],
   query: ZodType<Q>,
   load: (query: Q) => Promise<A>,
   table: (answer: A) => CsvTable<R>,
@@ -36,11 +34,18 @@ function figure<Q, A, R>(
 }
 
 export function registerInsightsRoutes(router: Router): void {
-  figure(router, '/api/insights/sales', OWNER, salesQuery, service.sales, tables.salesTable);
+  figure(
+    router,
+    '/api/insights/sales',
+    may.readSales,
+    salesQuery,
+    service.sales,
+    tables.salesTable,
+  );
   figure(
     router,
     '/api/insights/sales/monthly',
-    OWNER,
+    may.readSales,
     monthlyQuery,
     service.monthly,
     tables.monthlyTable,
@@ -48,7 +53,7 @@ export function registerInsightsRoutes(router: Router): void {
   figure(
     router,
     '/api/insights/top-sellers',
-    OWNER,
+    may.readSales,
     topSellersQuery,
     service.topSellers,
     tables.topSellersTable,
@@ -56,7 +61,7 @@ export function registerInsightsRoutes(router: Router): void {
   figure(
     router,
     '/api/insights/stock-value',
-    STOCK_SIDE,
+    may.readStockFigures,
     monthsQuery,
     (q) => service.stockValue(q.months),
     tables.stockValueTable,
@@ -64,7 +69,7 @@ export function registerInsightsRoutes(router: Router): void {
   figure(
     router,
     '/api/insights/dead-stock',
-    STOCK_SIDE,
+    may.readStockFigures,
     monthsQuery,
     (q) => service.deadStock(q.months),
     tables.deadStockTable,
@@ -72,7 +77,7 @@ export function registerInsightsRoutes(router: Router): void {
   figure(
     router,
     '/api/insights/abc',
-    STOCK_SIDE,
+    may.readStockFigures,
     monthsQuery,
     (q) => service.abc(q.months),
     tables.abcTable,
@@ -80,7 +85,7 @@ export function registerInsightsRoutes(router: Router): void {
   figure(
     router,
     '/api/insights/exposure',
-    STOCK_SIDE,
+    may.readStockFigures,
     monthsQuery,
     (q) => service.exposure(q.months),
     tables.exposureTable,
@@ -88,7 +93,7 @@ export function registerInsightsRoutes(router: Router): void {
   figure(
     router,
     '/api/insights/supplier-reliability',
-    STOCK_SIDE,
+    may.readStockFigures,
     monthsQuery,
     (q) => service.supplierReliability(q.months),
     tables.supplierReliabilityTable,
@@ -96,7 +101,7 @@ export function registerInsightsRoutes(router: Router): void {
   figure(
     router,
     '/api/insights/cylinders-near-last-step',
-    OWNER,
+    may.readSales,
     nearLastStepQuery,
     (q) => nearLastStep(q.within),
     nearLastStepTable,

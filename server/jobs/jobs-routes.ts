@@ -7,7 +7,6 @@ import { refuseLargerThan } from '../http/upload-limits';
 import { z } from 'zod';
 import { route } from '../http/route';
 import { idField, pageQuery } from '../../shared/api/common';
-import type { Role } from '../../shared/session-types';
 import {
   cutInput,
   cylinderPatch,
@@ -34,9 +33,7 @@ import * as proposals from './proposal-service';
 import * as photos from './photos-service';
 import { undoCutInput } from '../../shared/cut-undo';
 import { undoCut } from './cut-undo-service';
-
-const COUNTER: Role[] = ['owner', 'machinist', 'staff'];
-const MACHINE: Role[] = ['owner', 'machinist'];
+import { may } from '../../shared/access';
 
 const idParams = z.object({ id: idField });
 const cylinderParams = z.object({
@@ -96,7 +93,7 @@ export function registerJobsRoutes(router: Router): void {
   route(router, {
     method: 'post',
     path: '/api/jobs',
-    access: COUNTER,
+    access: may.runCounter,
     body: jobInput,
     status: 201,
     handler: ({ body, user }) => jobs.createJob(user.id, body, user.unit),
@@ -121,7 +118,7 @@ export function registerJobsRoutes(router: Router): void {
   route(router, {
     method: 'patch',
     path: '/api/jobs/:id',
-    access: COUNTER,
+    access: may.runCounter,
     params: idParams,
     body: jobPatch,
     handler: ({ params, body, user }) => jobs.patchJob(user, params.id, body, user.unit),
@@ -129,7 +126,7 @@ export function registerJobsRoutes(router: Router): void {
   route(router, {
     method: 'post',
     path: '/api/jobs/:id/notes',
-    access: COUNTER,
+    access: may.runCounter,
     params: idParams,
     body: noteInput,
     status: 201,
@@ -138,14 +135,14 @@ export function registerJobsRoutes(router: Router): void {
   route(router, {
     method: 'post',
     path: '/api/jobs/:id/collect',
-    access: COUNTER,
+    access: may.runCounter,
     params: idParams,
     handler: ({ params, user }) => jobs.collectJob(user.id, params.id, user.unit),
   });
   route(router, {
     method: 'post',
     path: '/api/jobs/:id/cancel',
-    access: COUNTER,
+    access: may.runCounter,
     params: idParams,
     handler: ({ params, user }) => jobs.cancelJob(user.id, params.id, user.unit),
   });
@@ -154,7 +151,7 @@ export function registerJobsRoutes(router: Router): void {
   route(router, {
     method: 'put',
     path: '/api/jobs/:id/cylinders/:n/readings',
-    access: MACHINE,
+    access: may.machine,
     params: cylinderParams,
     body: readingsInput,
     handler: ({ params, body, user }) =>
@@ -163,7 +160,7 @@ export function registerJobsRoutes(router: Router): void {
   route(router, {
     method: 'patch',
     path: '/api/jobs/:id/cylinders/:n',
-    access: MACHINE,
+    access: may.machine,
     params: cylinderParams,
     body: cylinderPatch,
     handler: ({ params, body, user }) =>
@@ -179,7 +176,7 @@ export function registerJobsRoutes(router: Router): void {
   route(router, {
     method: 'get',
     path: '/api/jobs/:id/cylinders/:n/proposal',
-    access: MACHINE,
+    access: may.machine,
     params: cylinderParams,
     query: proposalQuery,
     handler: ({ params, query }) => proposals.proposal(params.id, params.n, query.stepId),
@@ -187,14 +184,14 @@ export function registerJobsRoutes(router: Router): void {
   route(router, {
     method: 'get',
     path: '/api/jobs/:id/cylinders/:n/bore-sheet',
-    access: MACHINE,
+    access: may.machine,
     params: cylinderParams,
     handler: ({ params, user }) => sheets.boreSheet(params.id, params.n, user.unit),
   });
   route(router, {
     method: 'post',
     path: '/api/jobs/:id/cylinders/:n/cut',
-    access: MACHINE,
+    access: may.machine,
     params: cylinderParams,
     body: cutInput,
     handler: ({ params, user, body }) =>
@@ -203,7 +200,7 @@ export function registerJobsRoutes(router: Router): void {
   route(router, {
     method: 'post',
     path: '/api/jobs/:id/cylinders/:n/cut/undo',
-    access: MACHINE,
+    access: may.machine,
     params: cylinderParams,
     body: undoCutInput,
     handler: ({ params, user, body }) =>
@@ -214,7 +211,7 @@ export function registerJobsRoutes(router: Router): void {
   route(router, {
     method: 'post',
     path: '/api/jobs/:id/holds',
-    access: MACHINE,
+    access: may.machine,
     params: idParams,
     body: holdInput,
     status: 201,
@@ -223,7 +220,7 @@ export function registerJobsRoutes(router: Router): void {
   route(router, {
     method: 'delete',
     path: '/api/holds/:id',
-    access: MACHINE,
+    access: may.machine,
     params: idParams,
     handler: async ({ params, user }) => {
       await releaseHold(user.id, params.id);
@@ -232,7 +229,7 @@ export function registerJobsRoutes(router: Router): void {
   route(router, {
     method: 'post',
     path: '/api/holds/:id/move',
-    access: MACHINE,
+    access: may.machine,
     params: idParams,
     body: holdMoveInput,
     handler: ({ params, body, user }) => moveHold(user.id, params.id, body),
@@ -240,7 +237,7 @@ export function registerJobsRoutes(router: Router): void {
   route(router, {
     method: 'post',
     path: '/api/holds/sweep',
-    access: ['owner'],
+    access: may.administer,
     body: z.object({}).strict(),
     handler: ({ user }) => sweepExpiredHolds(user.id),
   });
@@ -249,7 +246,7 @@ export function registerJobsRoutes(router: Router): void {
   route(router, {
     method: 'post',
     path: '/api/jobs/:id/photos',
-    access: COUNTER,
+    access: may.runCounter,
     // A photo and its thumbnail at most, plus the multipart framing.
     before: [refuseLargerThan(2 * MAX_PHOTO_BYTES + 64 * 1024, 'The photo'), photoUpload],
     params: idParams,

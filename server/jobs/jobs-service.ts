@@ -38,6 +38,7 @@ import {
 } from './jobs-json';
 import * as moves from '../stock/stock-movements';
 import type { Page } from '../../shared/api/common';
+import { allows } from '../../shared/access';
 
 type Conn = Knex;
 
@@ -211,7 +212,7 @@ export async function patchJob(
   unit: LengthUnit,
   k: Conn = db,
 ): Promise<JobJson> {
-  if (patch.state !== undefined && actor.role === 'staff') {
+  if (patch.state !== undefined && !allows(actor.role, 'moveJobs')) {
     throw new Forbidden('Only a machinist or the owner moves a job through the workshop.');
   }
   await k.transaction(async (trx) => {

@@ -4,12 +4,13 @@ import { route } from '../http/route';
 import { pageQuery } from '../../shared/api/common';
 import type { MailboxPageJson } from '../../shared/api/mail';
 import { mailboxPage } from './mailbox-service';
+import { may } from '../../shared/access';
 
 export function registerMailRoutes(router: Router): void {
   route(router, {
     method: 'get',
     path: '/api/mailbox',
-    access: ['owner'],
+    access: may.administer,
     query: pageQuery.omit({ sort: true, dir: true }),
     handler: ({ query }): Promise<MailboxPageJson> => mailboxPage(query),
   });

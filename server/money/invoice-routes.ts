@@ -6,7 +6,7 @@ import { route } from '../http/route';
 import { idField } from '../../shared/api/common';
 import { creditNoteInput } from '../../shared/api/money';
 import * as invoices from './invoice-service';
-import { MONEY } from './money-routes';
+import { may } from '../../shared/access';
 
 const idParams = z.object({ id: idField });
 
@@ -35,7 +35,7 @@ export function registerInvoiceRoutes(router: Router): void {
   route(router, {
     method: 'post',
     path: '/api/jobs/:id/invoice/credit-notes',
-    access: MONEY,
+    access: may.takeMoney,
     params: idParams,
     body: creditNoteInput,
     status: 201,

@@ -4,7 +4,6 @@ import type { Router } from 'express';
 import { z } from 'zod';
 import { route } from '../http/route';
 import { idField } from '../../shared/api/common';
-import type { Role } from '../../shared/session-types';
 import {
   approvalInput,
   discountInput,
@@ -16,8 +15,8 @@ import {
 import * as labour from './labour-service';
 import * as estimates from './estimate-service';
 import * as approvals from './approval-service';
+import { may } from '../../shared/access';
 
-export const MONEY: Role[] = ['owner', 'staff'];
 const idParams = z.object({ id: idField });
 const lineParams = z.object({ id: idField, lineId: idField });
 
@@ -31,7 +30,7 @@ export function registerMoneyRoutes(router: Router): void {
   route(router, {
     method: 'post',
     path: '/api/labour-operations',
-    access: ['owner'],
+    access: may.setRates,
     body: labourInput,
     status: 201,
     handler: ({ body, user }) => labour.createLabour(user.id, body),
@@ -39,7 +38,7 @@ export function registerMoneyRoutes(router: Router): void {
   route(router, {
     method: 'patch',
     path: '/api/labour-operations/:id',
-    access: ['owner'],
+    access: may.setRates,
     params: idParams,
     body: labourPatch,
     handler: ({ params, body, user }) => labour.patchLabour(user.id, params.id, body),
@@ -55,7 +54,7 @@ export function registerMoneyRoutes(router: Router): void {
   route(router, {
     method: 'post',
     path: '/api/jobs/:id/estimate/lines',
-    access: MONEY,
+    access: may.takeMoney,
     params: idParams,
     body: lineInput,
     status: 201,
@@ -64,7 +63,7 @@ export function registerMoneyRoutes(router: Router): void {
   route(router, {
     method: 'patch',
     path: '/api/jobs/:id/estimate/lines/:lineId',
-    access: MONEY,
+    access: may.takeMoney,
     params: lineParams,
     body: linePatch,
     handler: ({ params, body, user }) =>
@@ -73,14 +72,14 @@ export function registerMoneyRoutes(router: Router): void {
   route(router, {
     method: 'delete',
     path: '/api/jobs/:id/estimate/lines/:lineId',
-    access: MONEY,
+    access: may.takeMoney,
     params: lineParams,
     handler: ({ params, user }) => estimates.removeLine(user.id, params.id, params.lineId),
   });
   route(router, {
     method: 'post',
     path: '/api/jobs/:id/estimate/discount',
-    access: MONEY,
+    access: may.takeMoney,
     params: idParams,
     body: discountInput,
     status: 201,
@@ -89,7 +88,7 @@ export function registerMoneyRoutes(router: Router): void {
   route(router, {
     method: 'post',
     path: '/api/jobs/:id/estimate/send',
-    access: MONEY,
+    access: may.takeMoney,
     params: idParams,
     body: z.object({}).strict(),
     handler: ({ params, user }) => approvals.sendEstimate(user.id, params.id),
@@ -97,7 +96,7 @@ export function registerMoneyRoutes(router: Router): void {
   route(router, {
     method: 'post',
     path: '/api/jobs/:id/estimate/approval',
-    access: MONEY,
+    access: may.takeMoney,
     params: idParams,
     body: approvalInput,
     handler: ({ params, body, user }) => approvals.approveAtCounter(user.id, params.id, body),

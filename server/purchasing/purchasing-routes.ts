@@ -22,7 +22,6 @@ import {
   waitsQuery,
 } from '../../shared/api/purchasing';
 import type { MoneyFields } from '../../shared/money-visibility';
-import type { Role } from '../../shared/session-types';
 import * as drafts from './drafts-service';
 import * as orders from './orders-service';
 import * as openLines from './open-lines-service';
@@ -30,10 +29,8 @@ import { sendOrder } from './order-send-service';
 import { receiveAgainstOrder } from './receiving-service';
 import * as reorder from './reorder-service';
 import * as sourcing from './sourcing-service';
+import { may } from '../../shared/access';
 
-const BUYERS: Role[] = ['owner', 'buyer'];
-const RECEIVERS: Role[] = ['owner', 'buyer', 'staff'];
-const WAIT_KEEPERS: Role[] = ['owner', 'buyer', 'machinist'];
 /** What the shop agreed to pay a supplier, and the unit costs of pistons received against it. */
 const ORDER_MONEY: MoneyFields = {
   cost: ['unitPrice', 'lineTotal', 'total', 'shipping', 'unitCost', 'averageCost'],
@@ -45,14 +42,14 @@ export function registerPurchasingRoutes(router: Router): void {
   route(router, {
     method: 'get',
     path: '/api/parts/:id/reorder-rule',
-    access: BUYERS,
+    access: may.buy,
     params: idParams,
     handler: ({ params }) => reorder.getRule(params.id),
   });
   route(router, {
     method: 'put',
     path: '/api/parts/:id/reorder-rule',
-    access: BUYERS,
+    access: may.buy,
     params: idParams,
     body: reorderRuleInput,
     handler: ({ params, body, user }) => reorder.setRule(user.id, params.id, body),
@@ -60,7 +57,7 @@ export function registerPurchasingRoutes(router: Router): void {
   route(router, {
     method: 'get',
     path: '/api/parts/:id/reorder-suggestion',
-    access: BUYERS,
+    access: may.buy,
     params: idParams,
     query: reorderSuggestionQuery,
     handler: ({ params, query }) => reorder.suggestion(params.id, query),
@@ -68,28 +65,28 @@ export function registerPurchasingRoutes(router: Router): void {
   route(router, {
     method: 'get',
     path: '/api/reorder',
-    access: BUYERS,
+    access: may.buy,
     query: reorderListQuery,
     handler: ({ query }) => reorder.listReorder(query),
   });
   route(router, {
     method: 'get',
     path: '/api/reorder-defaults',
-    access: BUYERS,
+    access: may.buy,
     query: z.object({ familyId: idField.optional() }),
     handler: ({ query }) => reorder.listDefaults(query.familyId),
   });
   route(router, {
     method: 'put',
     path: '/api/reorder-defaults',
-    access: BUYERS,
+    access: may.buy,
     body: reorderDefaultInput,
     handler: ({ body, user }) => reorder.setDefault(user.id, body),
   });
   route(router, {
     method: 'delete',
     path: '/api/reorder-defaults/:id',
-    access: BUYERS,
+    access: may.buy,
     params: idParams,
     handler: async ({ params, user }) => {
       await reorder.deleteDefault(user.id, params.id);
@@ -101,20 +98,20 @@ export function registerPurchasingRoutes(router: Router): void {
   route(router, {
     method: 'get',
     path: '/api/sourcing',
-    access: BUYERS,
+    access: may.buy,
     query: sourcingQuery,
     handler: ({ query }) => sourcing.sourcing(query),
   });
   route(router, {
     method: 'get',
     path: '/api/exchange-rates',
-    access: BUYERS,
+    access: may.buy,
     handler: () => sourcing.listRates(),
   });
   route(router, {
     method: 'put',
     path: '/api/exchange-rates/:currency',
-    access: ['owner'],
+    access: may.setRates,
     params: currencyParam,
     body: rateInput,
     handler: ({ params, body, user }) => sourcing.setRate(user.id, params.currency, body.rate),
@@ -122,7 +119,7 @@ export function registerPurchasingRoutes(router: Router): void {
   route(router, {
     method: 'delete',
     path: '/api/exchange-rates/:currency',
-    access: ['owner'],
+    access: may.setRates,
     params: currencyParam,
     handler: async ({ params, user }) => {
       await sourcing.deleteRate(user.id, params.currency);
@@ -142,7 +139,7 @@ export function registerPurchasingRoutes(router: Router): void {
   route(router, {
     method: 'post',
     path: '/api/purchase-orders',
-    access: BUYERS,
+    access: may.buy,
     money: ORDER_MONEY,
     body: orderInput,
     status: 201,
@@ -151,7 +148,7 @@ export function registerPurchasingRoutes(router: Router): void {
   route(router, {
     method: 'post',
     path: '/api/purchase-orders/drafts',
-    access: BUYERS,
+    access: may.buy,
     money: ORDER_MONEY,
     body: draftsInput,
     status: 201,
@@ -160,7 +157,7 @@ export function registerPurchasingRoutes(router: Router): void {
   route(router, {
     method: 'get',
     path: '/api/purchase-orders/open-lines',
-    access: RECEIVERS,
+    access: may.receiveStock,
     money: ORDER_MONEY,
     // By a scanned box's GTIN, or by the part being received (the one receiving page).
     query: z
@@ -188,7 +185,7 @@ export function registerPurchasingRoutes(router: Router): void {
   route(router, {
     method: 'patch',
     path: '/api/purchase-orders/:id',
-    access: BUYERS,
+    access: may.buy,
     money: ORDER_MONEY,
     params: idParams,
     body: orderPatch,
@@ -197,7 +194,7 @@ export function registerPurchasingRoutes(router: Router): void {
   route(router, {
     method: 'post',
     path: '/api/purchase-orders/:id/send',
-    access: BUYERS,
+    access: may.buy,
     money: ORDER_MONEY,
     params: idParams,
     body: z.object({}).strict(),
@@ -206,7 +203,7 @@ export function registerPurchasingRoutes(router: Router): void {
   route(router, {
     method: 'post',
     path: '/api/purchase-orders/:id/cancel',
-    access: BUYERS,
+    access: may.buy,
     money: ORDER_MONEY,
     params: idParams,
     body: z.object({}).strict(),
@@ -215,7 +212,7 @@ export function registerPurchasingRoutes(router: Router): void {
   route(router, {
     method: 'post',
     path: '/api/purchase-orders/:id/receipts',
-    access: RECEIVERS,
+    access: may.receiveStock,
     money: ORDER_MONEY,
     params: idParams,
     body: receiptLinesInput,
@@ -234,7 +231,7 @@ export function registerPurchasingRoutes(router: Router): void {
   route(router, {
     method: 'post',
     path: '/api/order-waits',
-    access: WAIT_KEEPERS,
+    access: may.keepOrderWaits,
     body: waitInput,
     status: 201,
     handler: ({ body, user }) => orders.addWait(user.id, body),
@@ -242,7 +239,7 @@ export function registerPurchasingRoutes(router: Router): void {
   route(router, {
     method: 'delete',
     path: '/api/order-waits/:id',
-    access: WAIT_KEEPERS,
+    access: may.keepOrderWaits,
     params: idParams,
     handler: async ({ params, user }) => {
       await orders.cancelWait(user.id, params.id);
@@ -252,7 +249,7 @@ export function registerPurchasingRoutes(router: Router): void {
   route(router, {
     method: 'get',
     path: '/api/order-lines/:id/wait-candidates',
-    access: WAIT_KEEPERS,
+    access: may.keepOrderWaits,
     params: idParams,
     handler: ({ params }) => orders.waitCandidates(params.id),
   });

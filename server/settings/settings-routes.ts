@@ -1,6 +1,7 @@
 import type { Router } from 'express';
 import { route } from '../http/route';
 import { getSettings, saveSettings, shopSettingsSchema } from './settings-service';
+import { may } from '../../shared/access';
 
 export function registerSettingsRoutes(router: Router): void {
   route(router, {
@@ -12,7 +13,7 @@ export function registerSettingsRoutes(router: Router): void {
   route(router, {
     method: 'patch',
     path: '/api/settings',
-    access: ['owner'],
+    access: may.administer,
     body: shopSettingsSchema.partial().strict(),
     handler: ({ body, user }) => saveSettings(user.id, body),
   });

@@ -5,7 +5,6 @@ import { z } from 'zod';
 import { route } from '../http/route';
 import { idField, pageQuery } from '../../shared/api/common';
 import type { MoneyFields } from '../../shared/money-visibility';
-import type { Role } from '../../shared/session-types';
 import { receiveAtDesk } from '../purchasing/receiving-desk-service';
 import {
   adjustmentInput,
@@ -20,11 +19,8 @@ import {
 } from '../../shared/api/stock';
 import * as service from './stock-service';
 import * as care from './unit-care-service';
+import { may } from '../../shared/access';
 
-const RECEIVERS: Role[] = ['owner', 'buyer', 'staff'];
-const MEASURERS: Role[] = ['owner', 'buyer', 'staff', 'machinist'];
-const ADJUSTERS: Role[] = ['owner', 'buyer'];
-const SCRAPPERS: Role[] = ['owner', 'buyer', 'staff'];
 /** Unit and average costs are the shop's costs; an issue's sale price is what it sold for. */
 const STOCK_MONEY: MoneyFields = { cost: ['unitCost', 'averageCost'], sold: ['salePrice'] };
 
@@ -61,7 +57,7 @@ export function registerStockRoutes(router: Router): void {
   route(router, {
     method: 'post',
     path: '/api/bins',
-    access: RECEIVERS,
+    access: may.receiveStock,
     body: binInput,
     status: 201,
     handler: ({ body, user }) => service.createBin(user.id, body),
@@ -70,7 +66,7 @@ export function registerStockRoutes(router: Router): void {
   route(router, {
     method: 'post',
     path: '/api/stock/receipts',
-    access: RECEIVERS,
+    access: may.receiveStock,
     money: STOCK_MONEY,
     body: deskReceiptInput,
     status: 201,
@@ -80,7 +76,7 @@ export function registerStockRoutes(router: Router): void {
   route(router, {
     method: 'post',
     path: '/api/stock/adjustments',
-    access: ADJUSTERS,
+    access: may.adjustStock,
     money: STOCK_MONEY,
     body: adjustmentInput,
     status: 201,
@@ -89,7 +85,7 @@ export function registerStockRoutes(router: Router): void {
   route(router, {
     method: 'post',
     path: '/api/stock/moves',
-    access: RECEIVERS,
+    access: may.receiveStock,
     money: STOCK_MONEY,
     body: moveInput,
     handler: ({ body, user }) => service.move(user.id, body),
@@ -127,7 +123,7 @@ export function registerStockRoutes(router: Router): void {
   route(router, {
     method: 'post',
     path: '/api/stock/units/:id/scrap',
-    access: SCRAPPERS,
+    access: may.scrapUnits,
     money: STOCK_MONEY,
     params: idParams,
     body: scrapInput,
@@ -136,7 +132,7 @@ export function registerStockRoutes(router: Router): void {
   route(router, {
     method: 'post',
     path: '/api/stock/units/:id/measure',
-    access: MEASURERS,
+    access: may.measureUnits,
     money: STOCK_MONEY,
     params: idParams,
     body: measureInput,

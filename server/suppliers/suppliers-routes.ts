@@ -4,7 +4,6 @@ import type { Router } from 'express';
 import { z } from 'zod';
 import { route } from '../http/route';
 import { idField, pageQuery } from '../../shared/api/common';
-import type { Role } from '../../shared/session-types';
 import {
   ITEM_SORTS,
   SUPPLIER_SORTS,
@@ -14,9 +13,7 @@ import {
 } from '../../shared/api/suppliers';
 import { withHeavyListSlot } from '../http/heavy-gate';
 import * as service from './suppliers-service';
-
-export const SUPPLIER_EDITORS: Role[] = ['owner', 'buyer'];
-export const SUPPLIER_READERS: Role[] = ['owner', 'buyer', 'staff'];
+import { may } from '../../shared/access';
 
 const idParams = z.object({ id: idField });
 const itemParams = z.object({ id: idField, itemId: idField });
@@ -46,14 +43,14 @@ export function registerSuppliersRoutes(router: Router): void {
   route(router, {
     method: 'get',
     path: '/api/suppliers',
-    access: SUPPLIER_READERS,
+    access: may.readSuppliers,
     query: suppliersQuery,
     handler: ({ query }) => service.listSuppliers(query),
   });
   route(router, {
     method: 'post',
     path: '/api/suppliers',
-    access: SUPPLIER_EDITORS,
+    access: may.editSuppliers,
     body: supplierInput,
     status: 201,
     handler: ({ body, user }) => service.createSupplier(user.id, body),
@@ -61,14 +58,14 @@ export function registerSuppliersRoutes(router: Router): void {
   route(router, {
     method: 'get',
     path: '/api/suppliers/:id',
-    access: SUPPLIER_READERS,
+    access: may.readSuppliers,
     params: idParams,
     handler: ({ params }) => service.getSupplier(params.id),
   });
   route(router, {
     method: 'patch',
     path: '/api/suppliers/:id',
-    access: SUPPLIER_EDITORS,
+    access: may.editSuppliers,
     params: idParams,
     body: supplierPatch,
     handler: ({ params, body, user }) => service.updateSupplier(user.id, params.id, body),
@@ -76,7 +73,7 @@ export function registerSuppliersRoutes(router: Router): void {
   route(router, {
     method: 'get',
     path: '/api/suppliers/:id/items',
-    access: SUPPLIER_READERS,
+    access: may.readSuppliers,
     params: idParams,
     query: itemsQuery,
     handler: ({ params, query }) => withHeavyListSlot(() => service.listItems(params.id, query)),
@@ -84,7 +81,7 @@ export function registerSuppliersRoutes(router: Router): void {
   route(router, {
     method: 'get',
     path: '/api/suppliers/:id/items/:itemId/prices',
-    access: SUPPLIER_READERS,
+    access: may.readSuppliers,
     params: itemParams,
     query: historyQuery,
     handler: ({ params, query }) => service.priceHistory(params.id, params.itemId, query),
@@ -92,14 +89,14 @@ export function registerSuppliersRoutes(router: Router): void {
   route(router, {
     method: 'get',
     path: '/api/supplier-items/unmapped',
-    access: SUPPLIER_READERS,
+    access: may.readSuppliers,
     query: unmappedQuery,
     handler: ({ query }) => withHeavyListSlot(() => service.listUnmapped(query)),
   });
   route(router, {
     method: 'patch',
     path: '/api/supplier-items/:id',
-    access: SUPPLIER_EDITORS,
+    access: may.editSuppliers,
     params: idParams,
     body: itemMappingInput,
     handler: ({ params, body, user }) => service.mapItem(user.id, params.id, body.partId),

@@ -6,6 +6,7 @@ import { ROLES } from '../../shared/session-types';
 import { MIN_PASSWORD_LENGTH } from '../auth/passwords';
 import { emailAddress, singleLine } from '../../shared/text-rules';
 import { changeUser, createUser, getUsers } from './users-service';
+import { may } from '../../shared/access';
 
 const role = z.enum(ROLES as ['owner', 'buyer', 'machinist', 'staff']);
 const password = z
@@ -36,7 +37,7 @@ export function registerUsersRoutes(router: Router): void {
   route(router, {
     method: 'get',
     path: '/api/users',
-    access: ['owner'],
+    access: may.administer,
     query: pageQuery.extend({
       sort: z.enum(['name', 'email', 'role', 'createdAt', 'active']).optional(),
     }),
@@ -45,7 +46,7 @@ export function registerUsersRoutes(router: Router): void {
   route(router, {
     method: 'post',
     path: '/api/users',
-    access: ['owner'],
+    access: may.administer,
     body: newUser,
     status: 201,
     handler: ({ body, user }) => createUser(user.id, body),
@@ -53,7 +54,7 @@ export function registerUsersRoutes(router: Router): void {
   route(router, {
     method: 'patch',
     path: '/api/users/:id',
-    access: ['owner'],
+    access: may.administer,
     params: z.object({ id: idField }),
     body: userPatch,
     handler: ({ body, params, user }) => changeUser(user.id, params.id, body),

@@ -14,6 +14,7 @@ import {
   type UserRow,
 } from './users-repository';
 import { isUniqueViolation } from '../db/pg-errors';
+import { allows } from '../../shared/access';
 
 function auditView(u: UserRow) {
   return { email: u.email, name: u.name, role: u.role, active: u.active, unit: u.unit };
@@ -70,7 +71,12 @@ export async function changeUser(
   const result = await db.transaction(async (trx) => {
     const before = await findUserById(id, trx);
     if (!before) throw new NotFound('That user');
-    if (id === actorId && (patch.active === false || (patch.role && patch.role !== 'owner'))) {
+    // Whoever administers the shop may not take that away from themselves: the shop would be left
+    // with nobody to put it back.
+    if (
+      id === actorId &&
+      (patch.active === false || (patch.role && !allows(patch.role, 'administer')))
+    ) {
       throw new BadRequest('You cannot deactivate yourself or give up your own owner role.', [
         { field: patch.active === false ? 'active' : 'role', message: 'not allowed on yourself' },
       ]);

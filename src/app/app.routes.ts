@@ -2,10 +2,12 @@ import { Routes } from '@angular/router';
 
 import { roleGuard } from './core/role-guard';
 import { signedInGuard } from './core/signed-in-guard';
+import { may } from '../../shared/access';
 
 /**
  * Every page is lazy. Signed-in pages are children of the shell; a page limited to some roles
- * adds `canActivate: [roleGuard]` with `data: { roles: [...] }`, the same roles as its nav entry.
+ * adds `canActivate: [roleGuard]` with `data: { roles: may.<action> }` (shared/access.ts), the
+ * same action as its nav entry.
  */
 export const routes: Routes = [
   {
@@ -27,7 +29,7 @@ export const routes: Routes = [
       {
         path: 'admin',
         canActivate: [roleGuard],
-        data: { roles: ['owner'] },
+        data: { roles: may.administer },
         loadChildren: () => import('./admin/admin.routes').then((m) => m.adminRoutes),
       },
       {
@@ -49,19 +51,19 @@ export const routes: Routes = [
       {
         path: 'insights',
         canActivate: [roleGuard],
-        data: { roles: ['owner', 'buyer'] },
+        data: { roles: may.readStockFigures },
         loadChildren: () => import('./insights/insights.routes').then((m) => m.insightsRoutes),
       },
       {
         path: 'suppliers',
         canActivate: [roleGuard],
-        data: { roles: ['owner', 'buyer', 'staff'] },
+        data: { roles: may.readSuppliers },
         loadChildren: () => import('./suppliers/suppliers.routes').then((m) => m.suppliersRoutes),
       },
       {
         path: 'imports',
         canActivate: [roleGuard],
-        data: { roles: ['owner', 'buyer', 'staff'] },
+        data: { roles: may.importPriceLists },
         loadChildren: () => import('./imports/imports.routes').then((m) => m.importsRoutes),
       },
       {
@@ -72,7 +74,7 @@ export const routes: Routes = [
       {
         path: 'alerts',
         canActivate: [roleGuard],
-        data: { roles: ['owner', 'buyer'] },
+        data: { roles: may.handleAlerts },
         loadChildren: () => import('./alerts/alerts.routes').then((m) => m.alertsRoutes),
       },
       {

@@ -1,6 +1,7 @@
 import { Routes } from '@angular/router';
 
 import { roleGuard } from '../core/role-guard';
+import { may } from '../../../shared/access';
 
 /** Stock alerts for the people who reorder, and the owner's view of the local mailbox. */
 export const alertsRoutes: Routes = [
@@ -13,7 +14,7 @@ export const alertsRoutes: Routes = [
     path: 'mailbox',
     title: 'Mailbox',
     canActivate: [roleGuard],
-    data: { roles: ['owner'] },
+    data: { roles: may.administer },
     loadComponent: () => import('./mailbox-page').then((m) => m.MailboxPage),
   },
 ];

@@ -1,8 +1,7 @@
 import { Routes } from '@angular/router';
 
 import { roleGuard } from '../core/role-guard';
-
-const EDITORS = { roles: ['owner', 'buyer'] };
+import { may } from '../../../shared/access';
 
 /** Engine families, their step ladders and parts: everyone reads, owner and buyer edit. */
 export const catalogRoutes: Routes = [
@@ -16,14 +15,14 @@ export const catalogRoutes: Routes = [
     path: 'families/new',
     title: 'New engine family',
     canActivate: [roleGuard],
-    data: EDITORS,
+    data: { roles: may.editCatalog },
     loadComponent: () => import('./family-form').then((m) => m.FamilyForm),
   },
   {
     path: 'families/:id/edit',
     title: 'Edit engine family',
     canActivate: [roleGuard],
-    data: EDITORS,
+    data: { roles: may.editCatalog },
     loadComponent: () => import('./family-form').then((m) => m.FamilyForm),
   },
   {
@@ -40,7 +39,7 @@ export const catalogRoutes: Routes = [
     path: 'parts/new',
     title: 'New part',
     canActivate: [roleGuard],
-    data: EDITORS,
+    data: { roles: may.editCatalog },
     loadComponent: () => import('./part-form').then((m) => m.PartForm),
   },
   {

@@ -45,10 +45,7 @@ export class FamilyList {
 
   protected readonly columns = ['code', 'name', 'strokeType', 'standardBore', 'stock', 'actions'];
   protected readonly pageSizes = [25, 50, 100];
-  protected readonly canEdit = computed(() => {
-    const role = this.session.user()?.role;
-    return role === 'owner' || role === 'buyer';
-  });
+  protected readonly canEdit = computed(() => this.session.may('editCatalog'));
 
   protected readonly list = new PagedList<FamilyJson, (typeof SORTABLE)[number]>(
     SORTABLE,

@@ -88,14 +88,8 @@ export class PartForm {
   protected readonly kinds = PART_KINDS;
   protected readonly kindLabels = KIND_LABELS;
   protected readonly unit = this.session.unit;
-  protected readonly canEdit = computed(() => {
-    const role = this.session.user()?.role;
-    return role === 'owner' || role === 'buyer';
-  });
-  protected readonly canReceive = computed(() => {
-    const role = this.session.user()?.role;
-    return role === 'owner' || role === 'buyer' || role === 'staff';
-  });
+  protected readonly canEdit = computed(() => this.session.may('editCatalog'));
+  protected readonly canReceive = computed(() => this.session.may('receiveStock'));
 
   protected readonly form = this.fb.group({
     kind: this.fb.control<PartKind>('piston', Validators.required),

@@ -82,10 +82,7 @@ export class PartList {
   protected readonly kinds = PART_KINDS;
   protected readonly kindLabels = KIND_LABELS;
   protected readonly pageSizes = [25, 50, 100];
-  protected readonly canEdit = computed(() => {
-    const role = this.session.user()?.role;
-    return role === 'owner' || role === 'buyer';
-  });
+  protected readonly canEdit = computed(() => this.session.may('editCatalog'));
 
   protected readonly text = linkedSignal(() => this.q() ?? '');
   protected readonly family = linkedSignal(() => this.familyId() ?? '');

@@ -98,10 +98,7 @@ export class StepLadder {
 
   /** Starts in the person's own unit; the toggle switches this page only. */
   protected readonly unit = linkedSignal<LengthUnit>(() => this.session.unit());
-  protected readonly canReceive = computed(() => {
-    const role = this.session.user()?.role;
-    return role === 'owner' || role === 'buyer' || role === 'staff';
-  });
+  protected readonly canReceive = computed(() => this.session.may('receiveStock'));
 
   /** Steps opened in full: every piston on the shelf, loaded a page at a time. */
   private readonly opened = signal<Record<string, { units: LadderUnitJson[]; total: number }>>({});

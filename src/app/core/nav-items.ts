@@ -1,4 +1,5 @@
 import { ROLES, type Role } from '../../../shared/session-types';
+import { may } from '../../../shared/access';
 
 /** The named sections of the side navigation, in display order. */
 export const NAV_GROUPS = [
@@ -19,8 +20,8 @@ export interface NavItem {
   label: string;
   /** A Material Symbols Outlined ligature name, e.g. 'group'. */
   icon: string;
-  /** Who sees the entry; keep it equal to the `data.roles` of the route it opens. */
-  roles: Role[];
+  /** Who sees the entry: the `may` action (shared/access.ts) of the route it opens. */
+  roles: readonly Role[];
   /** One line on what a person does there (the link's description). */
   hint?: string;
 }
@@ -30,13 +31,13 @@ export interface NavItem {
  * appends its own entries here; the shell shows each person only the entries of their role.
  */
 export const NAV_ITEMS: NavItem[] = [
-  { path: '/', group: 'today', label: 'Home', icon: 'home', roles: [...ROLES] },
+  { path: '/', group: 'today', label: 'Home', icon: 'home', roles: ROLES },
   {
     path: '/admin/users',
     group: 'shop',
     label: 'Users',
     icon: 'group',
-    roles: ['owner'],
+    roles: may.administer,
     hint: 'Add people, set what each may do, reset a forgotten password.',
   },
   {
@@ -44,7 +45,7 @@ export const NAV_ITEMS: NavItem[] = [
     group: 'shop',
     label: 'Shop settings',
     icon: 'tune',
-    roles: ['owner'],
+    roles: may.administer,
     hint: 'Name and hours, hold expiry, cut per pass, and the costs behind reorder points.',
   },
   {
@@ -52,7 +53,7 @@ export const NAV_ITEMS: NavItem[] = [
     group: 'shop',
     label: 'Audit trail',
     icon: 'manage_history',
-    roles: ['owner'],
+    roles: may.administer,
     hint: 'Who changed stock, prices, reorder rules and users, and what it was before.',
   },
   {
@@ -60,7 +61,7 @@ export const NAV_ITEMS: NavItem[] = [
     group: 'stock',
     label: 'Engine families',
     icon: 'stairs',
-    roles: [...ROLES],
+    roles: ROLES,
     hint: "Each family's step ladder: every oversize with its measured pistons.",
   },
   {
@@ -68,7 +69,7 @@ export const NAV_ITEMS: NavItem[] = [
     group: 'stock',
     label: 'Parts',
     icon: 'inventory_2',
-    roles: [...ROLES],
+    roles: ROLES,
     hint: 'Pistons, ring sets, kits and small parts; scan a box to find it.',
   },
   {
@@ -76,7 +77,7 @@ export const NAV_ITEMS: NavItem[] = [
     group: 'stock',
     label: 'Receive',
     icon: 'move_to_inbox',
-    roles: ['owner', 'buyer', 'staff'],
+    roles: may.receiveStock,
     hint: 'Take a delivery in against its order, measure each piston, print its labels.',
   },
   {
@@ -84,7 +85,7 @@ export const NAV_ITEMS: NavItem[] = [
     group: 'stock',
     label: 'Pistons on the shelf',
     icon: 'straighten',
-    roles: [...ROLES],
+    roles: ROLES,
     hint: 'Every piston with its measured size, bin and status.',
   },
   {
@@ -92,7 +93,7 @@ export const NAV_ITEMS: NavItem[] = [
     group: 'stock',
     label: 'Empty steps',
     icon: 'report',
-    roles: [...ROLES],
+    roles: ROLES,
     hint: 'Steps with no free piston, the most asked-for first.',
   },
   {
@@ -100,7 +101,7 @@ export const NAV_ITEMS: NavItem[] = [
     group: 'stock',
     label: 'Bins',
     icon: 'shelves',
-    roles: ['owner', 'buyer', 'staff'],
+    roles: may.receiveStock,
     hint: 'Where things sit; print bin labels.',
   },
   {
@@ -108,7 +109,7 @@ export const NAV_ITEMS: NavItem[] = [
     group: 'stock',
     label: 'Stock movements',
     icon: 'receipt_long',
-    roles: [...ROLES],
+    roles: ROLES,
     hint: 'Every receipt, count, move and write-off, with who and why.',
   },
   {
@@ -116,7 +117,7 @@ export const NAV_ITEMS: NavItem[] = [
     group: 'today',
     label: 'Job bench',
     icon: 'view_kanban',
-    roles: [...ROLES],
+    roles: ROLES,
     hint: 'Every open job by stage, due date first, and which are waiting for parts.',
   },
   {
@@ -124,7 +125,7 @@ export const NAV_ITEMS: NavItem[] = [
     group: 'today',
     label: 'Take in a job',
     icon: 'add_box',
-    roles: ['owner', 'machinist', 'staff'],
+    roles: may.runCounter,
     hint: 'Book a cylinder in: customer, engine, cylinders, what they want and by when.',
   },
   {
@@ -132,7 +133,7 @@ export const NAV_ITEMS: NavItem[] = [
     group: 'today',
     label: 'Customers',
     icon: 'contacts',
-    roles: [...ROLES],
+    roles: ROLES,
     hint: 'Who brought what: contact details, their jobs, and every bore of each cylinder.',
   },
   {
@@ -140,7 +141,7 @@ export const NAV_ITEMS: NavItem[] = [
     group: 'figures',
     label: 'What sells',
     icon: 'trending_up',
-    roles: ['owner'],
+    roles: may.readSales,
     hint: 'Units, revenue and margin by family and step, month by month.',
   },
   {
@@ -148,7 +149,7 @@ export const NAV_ITEMS: NavItem[] = [
     group: 'figures',
     label: 'What sits',
     icon: 'inventory',
-    roles: ['owner', 'buyer'],
+    roles: may.readStockFigures,
     hint: 'Money on the shelf, turnover, and parts that have not moved.',
   },
   {
@@ -156,7 +157,7 @@ export const NAV_ITEMS: NavItem[] = [
     group: 'figures',
     label: 'ABC classes',
     icon: 'leaderboard',
-    roles: ['owner', 'buyer'],
+    roles: may.readStockFigures,
     hint: 'The few parts that carry most of the value, and the long tail.',
   },
   {
@@ -164,7 +165,7 @@ export const NAV_ITEMS: NavItem[] = [
     group: 'figures',
     label: 'Ran short',
     icon: 'hourglass_top',
-    roles: ['owner', 'buyer'],
+    roles: may.readStockFigures,
     hint: 'Steps asked for with nothing free, jobs that waited, suppliers that were late.',
   },
   {
@@ -172,7 +173,7 @@ export const NAV_ITEMS: NavItem[] = [
     group: 'figures',
     label: 'Near their last step',
     icon: 'vertical_align_top',
-    roles: ['owner'],
+    roles: may.readSales,
     hint: 'Cylinders with one step or none left: customers to tell, sleeves to expect.',
   },
   {
@@ -180,7 +181,7 @@ export const NAV_ITEMS: NavItem[] = [
     group: 'buying',
     label: 'Suppliers',
     icon: 'local_shipping',
-    roles: ['owner', 'buyer', 'staff'],
+    roles: may.readSuppliers,
     hint: 'Who sells what, at which price; every price a list has ever given.',
   },
   {
@@ -188,7 +189,7 @@ export const NAV_ITEMS: NavItem[] = [
     group: 'buying',
     label: 'Bring in a price list',
     icon: 'upload_file',
-    roles: ['owner', 'buyer', 'staff'],
+    roles: may.importPriceLists,
     hint: "Upload a supplier's CSV as they send it, check what changes, then apply it.",
   },
   {
@@ -196,7 +197,7 @@ export const NAV_ITEMS: NavItem[] = [
     group: 'buying',
     label: 'Price-list log',
     icon: 'history',
-    roles: ['owner', 'buyer', 'staff'],
+    roles: may.importPriceLists,
     hint: 'Every list brought in: who, when, and what it changed.',
   },
   {
@@ -204,7 +205,7 @@ export const NAV_ITEMS: NavItem[] = [
     group: 'buying',
     label: 'Items to map',
     icon: 'link',
-    roles: ['owner', 'buyer'],
+    roles: may.editSuppliers,
     hint: 'Supplier items not linked to our parts yet, with suggestions.',
   },
   {
@@ -212,7 +213,7 @@ export const NAV_ITEMS: NavItem[] = [
     group: 'buying',
     label: 'Stock alerts',
     icon: 'notifications',
-    roles: ['owner', 'buyer'],
+    roles: may.handleAlerts,
     hint: 'Parts that fell to their reorder point; mark each as seen.',
   },
   {
@@ -220,7 +221,7 @@ export const NAV_ITEMS: NavItem[] = [
     group: 'buying',
     label: 'Reorder',
     icon: 'production_quantity_limits',
-    roles: ['owner', 'buyer'],
+    roles: may.buy,
     hint: 'What is low, how much to order, and drafts at the best supplier.',
   },
   {
@@ -228,7 +229,7 @@ export const NAV_ITEMS: NavItem[] = [
     group: 'buying',
     label: 'Sourcing',
     icon: 'travel_explore',
-    roles: ['owner', 'buyer'],
+    roles: may.buy,
     hint: 'Who still has a step, at what landed cost, and by when.',
   },
   {
@@ -236,7 +237,7 @@ export const NAV_ITEMS: NavItem[] = [
     group: 'buying',
     label: 'Purchase orders',
     icon: 'receipt',
-    roles: [...ROLES],
+    roles: ROLES,
     hint: 'Orders drafted, sent out and coming in; jobs waiting on them.',
   },
   {
@@ -244,7 +245,7 @@ export const NAV_ITEMS: NavItem[] = [
     group: 'buying',
     label: 'Exchange rates',
     icon: 'currency_exchange',
-    roles: ['owner', 'buyer'],
+    roles: may.buy,
     hint: 'What each supplier currency is worth here, for landed costs.',
   },
   {
@@ -252,7 +253,7 @@ export const NAV_ITEMS: NavItem[] = [
     group: 'shop',
     label: 'Mailbox',
     icon: 'mail',
-    roles: ['owner'],
+    roles: may.administer,
     hint: 'Every e-mail Stepstock sent, while no outside mail server is set up.',
   },
   {
@@ -260,7 +261,7 @@ export const NAV_ITEMS: NavItem[] = [
     group: 'shop',
     label: 'My account',
     icon: 'manage_accounts',
-    roles: [...ROLES],
+    roles: ROLES,
     hint: 'Change your password and choose inches or millimetres.',
   },
 ];

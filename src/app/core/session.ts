@@ -5,6 +5,7 @@ import { catchError, firstValueFrom, map, Observable, of, tap, throwError } from
 import type { SessionResponse, SessionUser } from '../../../shared/session-types';
 import { HANDLES_OWN_401 } from './http-context';
 import { clearCachedAnswers, idbOfflineStorage } from './offline-store';
+import { allows, type Action } from '../../../shared/access';
 
 /**
  * Who was last signed in on this device, so a tablet that reloads with the network down can still
@@ -63,6 +64,11 @@ export class Session {
   /** The shop's home currency: stock is valued in it. */
   readonly currency = computed(() => this.current()?.shop?.currency || 'EUR');
   readonly unit = computed(() => this.user()?.unit ?? 'mm');
+
+  /** Whether the signed-in person's role may do the action (read inside `computed` to follow it). */
+  may(action: Action): boolean {
+    return allows(this.user()?.role, action);
+  }
   /** True when the server could not be reached at start-up and the last sign-in on this device stands in. */
   readonly offline = signal(false);
 

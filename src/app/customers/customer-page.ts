@@ -56,12 +56,8 @@ export class CustomerPage {
     const changed = this.changed();
     return changed && changed.id === loaded?.id ? changed : loaded;
   });
-  protected readonly role = computed(() => this.session.user()?.role ?? null);
-  protected readonly isOwner = computed(() => this.role() === 'owner');
-  protected readonly canEdit = computed(() => {
-    const role = this.role();
-    return role === 'owner' || role === 'machinist' || role === 'staff';
-  });
+  protected readonly canMerge = computed(() => this.session.may('mergeCustomers'));
+  protected readonly canEdit = computed(() => this.session.may('runCounter'));
   protected readonly busy = signal(false);
 
   protected exportUrl(format: 'json' | 'csv'): string {

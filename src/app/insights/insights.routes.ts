@@ -1,10 +1,8 @@
 import { Routes } from '@angular/router';
 
 import { roleGuard } from '../core/role-guard';
+import { may } from '../../../shared/access';
 import { provideInsightCharts } from './chart-setup';
-
-const OWNER = { roles: ['owner'] };
-const STOCK_SIDE = { roles: ['owner', 'buyer'] };
 
 /**
  * The owner's insights (what sells, what sits, ABC classes, where the shop ran short); the buyer
@@ -20,35 +18,35 @@ export const insightsRoutes: Routes = [
         path: 'sales',
         title: 'What sells',
         canActivate: [roleGuard],
-        data: OWNER,
+        data: { roles: may.readSales },
         loadComponent: () => import('./sales-page').then((m) => m.SalesPage),
       },
       {
         path: 'stock',
         title: 'What sits',
         canActivate: [roleGuard],
-        data: STOCK_SIDE,
+        data: { roles: may.readStockFigures },
         loadComponent: () => import('./stock-page').then((m) => m.StockPage),
       },
       {
         path: 'abc',
         title: 'ABC classes',
         canActivate: [roleGuard],
-        data: STOCK_SIDE,
+        data: { roles: may.readStockFigures },
         loadComponent: () => import('./abc-page').then((m) => m.AbcPage),
       },
       {
         path: 'cylinders',
         title: 'Near their last step',
         canActivate: [roleGuard],
-        data: OWNER,
+        data: { roles: may.readSales },
         loadComponent: () => import('./cylinders-page').then((m) => m.CylindersPage),
       },
       {
         path: 'exposure',
         title: 'Ran short',
         canActivate: [roleGuard],
-        data: STOCK_SIDE,
+        data: { roles: may.readStockFigures },
         loadComponent: () => import('./exposure-page').then((m) => m.ExposurePage),
       },
     ],

@@ -23,6 +23,7 @@ import { JobsApi, type CylinderChanges } from './jobs-api';
 import { ShopDatePipe } from '../core/shop-date-pipe';
 import { ListState } from '../ui/list-state';
 import { loadEach } from '../ui/load';
+import { allows } from '../../../shared/access';
 
 /**
  * The sheet that goes to the boring machine: every size worked out from the held piston, the
@@ -121,7 +122,7 @@ export class BoreSheetPage {
     const ownWindow =
       sheet.cutBy?.id === user.id && !!sheet.undoUntil && Date.now() <= Date.parse(sheet.undoUntil);
     if (ownWindow) return { reasonNeeded: false };
-    return user.role === 'owner' ? { reasonNeeded: true } : null;
+    return allows(user.role, 'undoAnyCut') ? { reasonNeeded: true } : null;
   });
 
   private ask(data: CutDialogData) {

@@ -60,10 +60,7 @@ export class JobBoard {
 
   protected readonly labels = JOB_STATE_LABELS;
   protected readonly hints = JOB_STATE_HINTS;
-  protected readonly canTakeIn = computed(() => {
-    const role = this.session.user()?.role;
-    return role === 'owner' || role === 'machinist' || role === 'staff';
-  });
+  protected readonly canTakeIn = computed(() => this.session.may('runCounter'));
 
   protected readonly text = signal('');
   protected readonly show = signal<'open' | 'closed'>('open');

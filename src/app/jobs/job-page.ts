@@ -63,11 +63,8 @@ export class JobPage {
   protected readonly waitingWords = waitingForWords;
   protected readonly photoTypes = PHOTO_TYPES.join(',');
 
-  private readonly role = computed(() => this.session.user()?.role);
-  protected readonly machine = computed(
-    () => this.role() === 'owner' || this.role() === 'machinist',
-  );
-  protected readonly counter = computed(() => this.machine() || this.role() === 'staff');
+  protected readonly machine = computed(() => this.session.may('machine'));
+  protected readonly counter = computed(() => this.session.may('runCounter'));
 
   /** The job on screen; an action's answer replaces it (`loaded.set`) without another request. */
   protected readonly loaded = loadById(this.id, (id) => this.api.get(id));

@@ -1,9 +1,7 @@
 import { Routes } from '@angular/router';
 
 import { roleGuard } from '../core/role-guard';
-
-const COUNTER = { roles: ['owner', 'machinist', 'staff'] };
-const MACHINE = { roles: ['owner', 'machinist'] };
+import { may } from '../../../shared/access';
 
 /**
  * Cylinder jobs: everyone reads the bench and a job; the counter and the workshop take jobs in;
@@ -20,7 +18,7 @@ export const jobsRoutes: Routes = [
     path: 'new',
     title: 'Take in a job',
     canActivate: [roleGuard],
-    data: COUNTER,
+    data: { roles: may.runCounter },
     loadComponent: () => import('./job-intake').then((m) => m.JobIntake),
   },
   {
@@ -32,14 +30,14 @@ export const jobsRoutes: Routes = [
     path: ':id/cylinders/:n',
     title: 'Measure and choose',
     canActivate: [roleGuard],
-    data: MACHINE,
+    data: { roles: may.machine },
     loadComponent: () => import('./cylinder-page').then((m) => m.CylinderPage),
   },
   {
     path: ':id/cylinders/:n/sheet',
     title: 'Bore sheet',
     canActivate: [roleGuard],
-    data: MACHINE,
+    data: { roles: may.machine },
     loadComponent: () => import('./bore-sheet-page').then((m) => m.BoreSheetPage),
   },
 ];

@@ -56,12 +56,8 @@ export class OrderList {
   protected readonly pageSizes = [25, 50, 100];
   protected readonly states = ORDER_STATES;
   protected readonly stateLabels = ORDER_STATE_LABELS;
-  protected readonly canOrder = computed(() =>
-    ['owner', 'buyer'].includes(this.session.user()?.role ?? ''),
-  );
-  protected readonly canReceive = computed(() =>
-    ['owner', 'buyer', 'staff'].includes(this.session.user()?.role ?? ''),
-  );
+  protected readonly canOrder = computed(() => this.session.may('buy'));
+  protected readonly canReceive = computed(() => this.session.may('receiveStock'));
 
   protected readonly text = signal('');
   protected readonly state = signal<OrderState | 'open' | ''>('');

@@ -60,12 +60,9 @@ export class OrderPage {
   protected readonly edits = signal<Record<string, LineEdit>>({});
   protected readonly candidates = signal<Record<string, WaitCandidateJson[]>>({});
 
-  private readonly role = computed(() => this.session.user()?.role ?? '');
-  protected readonly canOrder = computed(() => ['owner', 'buyer'].includes(this.role()));
-  protected readonly canReceive = computed(() => ['owner', 'buyer', 'staff'].includes(this.role()));
-  protected readonly canWait = computed(() =>
-    ['owner', 'buyer', 'machinist'].includes(this.role()),
-  );
+  protected readonly canOrder = computed(() => this.session.may('buy'));
+  protected readonly canReceive = computed(() => this.session.may('receiveStock'));
+  protected readonly canWait = computed(() => this.session.may('keepOrderWaits'));
   protected readonly drafting = computed(() => this.order()?.state === 'drafting');
   protected readonly open = computed(() =>
     ['sent_out', 'partly_in'].includes(this.order()?.state ?? ''),

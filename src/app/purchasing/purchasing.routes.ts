@@ -1,9 +1,7 @@
 import { Routes } from '@angular/router';
 
 import { roleGuard } from '../core/role-guard';
-
-const BUYERS = { roles: ['owner', 'buyer'] };
-const RECEIVERS = { roles: ['owner', 'buyer', 'staff'] };
+import { may } from '../../../shared/access';
 
 /** Reorder rules, sourcing, purchase orders and receiving against them. */
 export const purchasingRoutes: Routes = [
@@ -12,35 +10,35 @@ export const purchasingRoutes: Routes = [
     path: 'reorder',
     title: 'Reorder',
     canActivate: [roleGuard],
-    data: BUYERS,
+    data: { roles: may.buy },
     loadComponent: () => import('./reorder-list').then((m) => m.ReorderList),
   },
   {
     path: 'reorder-defaults',
     title: 'Reorder defaults',
     canActivate: [roleGuard],
-    data: BUYERS,
+    data: { roles: may.buy },
     loadComponent: () => import('./reorder-defaults-page').then((m) => m.ReorderDefaultsPage),
   },
   {
     path: 'reorder/:partId',
     title: 'Reorder rule',
     canActivate: [roleGuard],
-    data: BUYERS,
+    data: { roles: may.buy },
     loadComponent: () => import('./reorder-rule-page').then((m) => m.ReorderRulePage),
   },
   {
     path: 'sourcing',
     title: 'Sourcing',
     canActivate: [roleGuard],
-    data: BUYERS,
+    data: { roles: may.buy },
     loadComponent: () => import('./sourcing-page').then((m) => m.SourcingPage),
   },
   {
     path: 'rates',
     title: 'Exchange rates',
     canActivate: [roleGuard],
-    data: BUYERS,
+    data: { roles: may.buy },
     loadComponent: () => import('./rates-page').then((m) => m.RatesPage),
   },
   {
@@ -52,7 +50,7 @@ export const purchasingRoutes: Routes = [
     path: 'orders/new',
     title: 'New purchase order',
     canActivate: [roleGuard],
-    data: BUYERS,
+    data: { roles: may.buy },
     loadComponent: () => import('./order-form').then((m) => m.OrderForm),
   },
   {
@@ -64,7 +62,7 @@ export const purchasingRoutes: Routes = [
     path: 'orders/:id/receive',
     title: 'Receive against an order',
     canActivate: [roleGuard],
-    data: RECEIVERS,
+    data: { roles: may.receiveStock },
     loadComponent: () => import('./receive-order').then((m) => m.ReceiveOrder),
   },
   // Receiving has one page, under stock: it offers the part's open order lines first.

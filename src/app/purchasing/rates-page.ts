@@ -38,9 +38,11 @@ export class RatesPage {
   private readonly notifier = inject(Notifier);
   private readonly session = inject(Session);
 
-  protected readonly isOwner = computed(() => this.session.user()?.role === 'owner');
+  protected readonly canSetRates = computed(() => this.session.may('setRates'));
   protected readonly columns = computed(() =>
-    this.isOwner() ? ['currency', 'rate', 'updated', 'actions'] : ['currency', 'rate', 'updated'],
+    this.canSetRates()
+      ? ['currency', 'rate', 'updated', 'actions']
+      : ['currency', 'rate', 'updated'],
   );
   protected readonly rates = signal<ExchangeRateJson[]>([]);
   protected readonly home = signal('');

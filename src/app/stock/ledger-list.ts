@@ -88,9 +88,8 @@ export class LedgerList {
   protected readonly pageSize = signal(50);
   private readonly reloads = signal(0);
 
-  private readonly role = computed(() => this.session.user()?.role ?? '');
-  protected readonly canAdjust = computed(() => ['owner', 'buyer'].includes(this.role()));
-  protected readonly canMove = computed(() => ['owner', 'buyer', 'staff'].includes(this.role()));
+  protected readonly canAdjust = computed(() => this.session.may('adjustStock'));
+  protected readonly canMove = computed(() => this.session.may('receiveStock'));
 
   private readonly query = computed(() => ({
     partId: this.partFilter() || undefined,

@@ -1,8 +1,7 @@
 import { Routes } from '@angular/router';
 
 import { roleGuard } from '../core/role-guard';
-
-const RECEIVERS = { roles: ['owner', 'buyer', 'staff'] };
+import { may } from '../../../shared/access';
 
 /** Receiving, pistons on the shelf, labels, bins, movements and empty steps. */
 export const stockRoutes: Routes = [
@@ -11,7 +10,7 @@ export const stockRoutes: Routes = [
     path: 'receive',
     title: 'Receive',
     canActivate: [roleGuard],
-    data: RECEIVERS,
+    data: { roles: may.receiveStock },
     loadComponent: () => import('./receive-page').then((m) => m.ReceivePage),
   },
   {
@@ -28,14 +27,14 @@ export const stockRoutes: Routes = [
     path: 'bins',
     title: 'Bins',
     canActivate: [roleGuard],
-    data: RECEIVERS,
+    data: { roles: may.receiveStock },
     loadComponent: () => import('./bin-list').then((m) => m.BinList),
   },
   {
     path: 'bins/labels',
     title: 'Bin labels',
     canActivate: [roleGuard],
-    data: RECEIVERS,
+    data: { roles: may.receiveStock },
     loadComponent: () => import('./bin-labels').then((m) => m.BinLabels),
   },
   {

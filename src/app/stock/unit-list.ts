@@ -91,14 +91,9 @@ export class UnitList {
   protected readonly statuses: UnitStatus[] = ['free', 'held', 'issued', 'returned', 'scrapped'];
   protected readonly pageSizes = [25, 50, 100];
 
-  private readonly role = computed(() => this.session.user()?.role);
-  protected readonly canMove = computed(() =>
-    ['owner', 'buyer', 'staff'].includes(this.role() ?? ''),
-  );
-  protected readonly canScrap = computed(() =>
-    ['owner', 'buyer', 'staff'].includes(this.role() ?? ''),
-  );
-  protected readonly canMeasure = computed(() => Boolean(this.role()));
+  protected readonly canMove = computed(() => this.session.may('receiveStock'));
+  protected readonly canScrap = computed(() => this.session.may('scrapUnits'));
+  protected readonly canMeasure = computed(() => this.session.may('measureUnits'));
 
   protected readonly text = linkedSignal(() => this.q() ?? '');
   protected readonly statusFilter = linkedSignal<StatusFilter>(() => {

@@ -70,10 +70,7 @@ export class MappingQueue {
   /** A search to start with (from ?q=, e.g. a supplier SKU linked from Sourcing or Reorder). */
   readonly q = input<string>();
 
-  protected readonly canMap = computed(() => {
-    const role = this.session.user()?.role;
-    return role === 'owner' || role === 'buyer';
-  });
+  protected readonly canMap = computed(() => this.session.may('editSuppliers'));
   protected readonly text = linkedSignal(() => this.q() ?? '');
   protected readonly pageIndex = signal(0);
   protected readonly pageSize = signal(25);

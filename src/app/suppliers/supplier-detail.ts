@@ -87,10 +87,7 @@ export class SupplierDetail {
     'actions',
   ];
   protected readonly pageSizes = [25, 50, 100];
-  protected readonly canEdit = computed(() => {
-    const role = this.session.user()?.role;
-    return role === 'owner' || role === 'buyer';
-  });
+  protected readonly canEdit = computed(() => this.session.may('editSuppliers'));
 
   protected readonly supplier = signal<LoadedSupplier>({ state: 'loading' });
   protected readonly text = signal('');

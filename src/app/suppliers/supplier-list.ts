@@ -45,10 +45,7 @@ export class SupplierList {
 
   protected readonly columns = ['name', 'currency', 'leadDays', 'items', 'lastImport', 'actions'];
   protected readonly pageSizes = [25, 50, 100];
-  protected readonly canEdit = computed(() => {
-    const role = this.session.user()?.role;
-    return role === 'owner' || role === 'buyer';
-  });
+  protected readonly canEdit = computed(() => this.session.may('editSuppliers'));
 
   protected readonly list = new PagedList<SupplierJson, (typeof SORTABLE)[number]>(
     SORTABLE,

@@ -1,8 +1,7 @@
 import { Routes } from '@angular/router';
 
 import { roleGuard } from '../core/role-guard';
-
-const EDITORS = { roles: ['owner', 'buyer'] };
+import { may } from '../../../shared/access';
 
 /** Suppliers, their offers with price history, and the queue of items to map: buyer and owner keep them, staff read. */
 export const suppliersRoutes: Routes = [
@@ -15,7 +14,7 @@ export const suppliersRoutes: Routes = [
     path: 'new',
     title: 'New supplier',
     canActivate: [roleGuard],
-    data: EDITORS,
+    data: { roles: may.editSuppliers },
     loadComponent: () => import('./supplier-form').then((m) => m.SupplierForm),
   },
   {
@@ -32,7 +31,7 @@ export const suppliersRoutes: Routes = [
     path: ':id/edit',
     title: 'Edit supplier',
     canActivate: [roleGuard],
-    data: EDITORS,
+    data: { roles: may.editSuppliers },
     loadComponent: () => import('./supplier-form').then((m) => m.SupplierForm),
   },
 ];
