@@ -73,6 +73,9 @@ export function createApp(opts: { databaseUrl?: string; serveClient?: boolean } 
     }),
   );
   app.use(compression());
+  // The payment service's events are checked against their signature byte for byte: that route
+  // keeps its raw body, and the JSON parser below leaves an already-read body alone.
+  app.use('/api/payments/webhook', express.raw({ type: () => true, limit: '256kb' }));
   app.use('/api', express.json({ limit: '1mb', strict: true }));
   app.use('/api', (_req, res, next) => {
     res.setHeader('Cache-Control', 'no-store');

@@ -6,6 +6,7 @@ import { startDigestSweep } from './alerts/digest-sweep';
 import { startHoldSweep } from './jobs/hold-sweep';
 import { startRateLimitSweep } from './http/rate-limit-sweep';
 import { startPreviewSweep } from './imports/preview-sweep';
+import { startPaymentsBackground } from './payments/payments-background';
 
 export interface Background {
   stop(): Promise<void>;
@@ -19,6 +20,7 @@ const starters: Starter[] = [
   startHoldSweep,
   startRateLimitSweep,
   startPreviewSweep,
+  startPaymentsBackground,
 ];
 
 export async function startBackgroundWork(): Promise<Background> {

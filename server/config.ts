@@ -21,6 +21,13 @@ const schema = z.object({
   SMTP_URL: z.string().optional(),
   MAIL_FROM: z.string().default('Stepstock <no-reply@stepstock.test>'),
   APP_URL: z.string().optional(),
+  /**
+   * The hosted payment service's secret API key and the signing secret of Stepstock's webhook
+   * endpoint there: with both set the SDK talks to the real service; with neither, each server
+   * process starts a local stand-in on loopback.
+   */
+  PAYMENTS_SECRET_KEY: z.string().min(1).optional(),
+  PAYMENTS_WEBHOOK_SECRET: z.string().min(1).optional(),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
   PHOTO_DIR: z.string().optional(),
   DIST_DIR: z.string().optional(),
@@ -58,6 +65,11 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
   if (Boolean(c.TLS_CERT) !== Boolean(c.TLS_KEY)) {
     throw new Error(
       'Stepstock cannot start: bad configuration\n  TLS_CERT and TLS_KEY: give both (the certificate and its private key) or neither',
+    );
+  }
+  if (Boolean(c.PAYMENTS_SECRET_KEY) !== Boolean(c.PAYMENTS_WEBHOOK_SECRET)) {
+    throw new Error(
+      'Stepstock cannot start: bad configuration\n  PAYMENTS_SECRET_KEY and PAYMENTS_WEBHOOK_SECRET: give both (the API key and the webhook signing secret) or neither',
     );
   }
   const tls = Boolean(c.TLS_CERT && c.TLS_KEY);

@@ -63,6 +63,12 @@ export class TooManyRequests extends AppError {
     super(429, 'throttled', message);
   }
 }
+/** A service Stepstock relies on (the hosted payment service) refused or did not answer. */
+export class BadGateway extends AppError {
+  constructor(message: string, code = 'upstream_failed') {
+    super(502, code, message);
+  }
+}
 export class ServiceUnavailable extends AppError {
   constructor(
     message = 'The database cannot be reached just now. Try again in a moment.',

@@ -9,6 +9,7 @@ import { createApp } from './app';
 import { db } from './db/knex';
 import { startBackgroundWork } from './background';
 import { limitHeapGrowth } from './heap-growth';
+import { takeEventsAt } from './payments/payment-client';
 
 export interface RunningServer {
   server: Server;
@@ -68,11 +69,13 @@ export async function startServer(port = config.PORT, host = config.HOST): Promi
   const addr = server.address();
   const actualPort = typeof addr === 'object' && addr ? addr.port : port;
   const url = `${config.tls ? 'https' : 'http'}://${host}:${actualPort}`;
+  takeEventsAt(url);
   logger.info({ url }, 'Stepstock is listening');
   return {
     server,
     url,
     stop: async () => {
+      takeEventsAt(null);
       await background.stop();
       await new Promise<void>((resolve) => server.close(() => resolve()));
       server.closeAllConnections?.();

@@ -32,6 +32,7 @@ async function main() {
   const { startServer } = await import('./main');
   const running = await startServer();
   const { DEMO_USERS, DEMO_PASSWORD } = await import('../seeds/00_users');
+  const { realPaymentsConfigured } = await import('./payments/payment-client');
   say(`ready in ${((Date.now() - startedAt) / 1000).toFixed(1)} s`);
   process.stdout.write(
     [
@@ -42,6 +43,9 @@ async function main() {
       ...DEMO_USERS.map((u) => `    ${u.role.padEnd(10)} ${u.email}`),
       '',
       mail ? `  E-mail goes to a local test mailbox (owner: Mailbox page).` : '',
+      realPaymentsConfigured()
+        ? ''
+        : '  Online payments go to a local test payment service (nothing is charged).',
       '  Ctrl-C stops the server and the database.',
       '',
     ].join('\n') + '\n',
