@@ -20,6 +20,7 @@ import { registerAuditRoutes } from './audit/audit-routes';
 import { registerMoneyRoutes } from './money/money-routes';
 import { registerPublicRoutes } from './money/public-routes';
 import { registerInvoiceRoutes } from './money/invoice-routes';
+import { registerPaymentRoutes } from './money/payments-routes';
 import { registerCustomersRoutes } from './customers/customers-routes';
 import { registerHomeRoutes } from './home/home-routes';
 
@@ -43,6 +44,7 @@ export function registerAllRoutes(api: Router): void {
   registerMoneyRoutes(api);
   registerPublicRoutes(api);
   registerInvoiceRoutes(api);
+  registerPaymentRoutes(api);
   registerCustomersRoutes(api);
   registerHomeRoutes(api);
 }

@@ -28,6 +28,7 @@ import { releaseInTransaction } from './hold-release';
 import { whyNotReadyToCut } from './job-state';
 import { whyNotApproved } from '../money/approval-service';
 import { issueInvoice } from '../money/invoice-service';
+import { settleCalledOff } from '../money/refund-service';
 import {
   cylinderJson,
   eventJson,
@@ -359,7 +360,10 @@ export async function collectJob(
   return getJob(id, unit, k);
 }
 
-/** Calls the job off: every hold is released back to the shelf, then the job closes. */
+/**
+ * Calls the job off: every hold is released back to the shelf, paid deposits are refunded and unpaid
+ * payment links withdrawn, then the job closes.
+ */
 export async function cancelJob(
   actorId: string,
   id: string,
@@ -377,15 +381,18 @@ export async function cancelJob(
         ledgerReason: `job ${job.number} called off`,
       });
     }
+    const settled = await settleCalledOff(trx, actorId, job);
     await repo.setJobState(trx, id, 'called_off');
     await repo.insertEvent(trx, {
       jobId: id,
       userId: actorId,
       kind: 'state',
-      text:
+      text: [
         holds.length > 0
           ? `Called off. Released ${holds.length} hold${holds.length === 1 ? '' : 's'} back to the shelf.`
           : 'Called off.',
+        ...settled.map((t) => `${t}.`),
+      ].join(' '),
     });
     await recordAudit(trx, {
       userId: actorId,

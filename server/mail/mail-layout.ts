@@ -14,7 +14,7 @@ export interface MailLayout {
   heading: string;
   paragraphs: string[];
   facts?: Array<[label: string, value: string]>;
-  /** A path inside the app, e.g. '/alerts'. */
+  /** A path inside the app, e.g. '/alerts', or a whole https?:// address (a payment page). */
   link?: { label: string; path: string };
   /** A last line under the link (shop hours, why the reader receives this). */
   closing?: string;
@@ -30,6 +30,7 @@ export function escapeHtml(s: string): string {
 }
 
 export function appLink(appUrl: string, path: string): string {
+  if (/^https?:\/\//.test(path)) return path;
   return `${appUrl.replace(/\/+$/, '')}${path.startsWith('/') ? path : `/${path}`}`;
 }
 

@@ -87,3 +87,27 @@ export async function paidTotal(jobId: string, k: Knex = db): Promise<string> {
     .first(k.raw('coalesce(sum(amount), 0)::text as paid'));
   return (row?.paid as string | undefined) ?? '0';
 }
+
+export interface PayingJob {
+  id: string;
+  number: string;
+  state: string;
+}
+
+/** The job, locked the way closing it locks it, so no payment is asked for while it is called off. */
+export async function lockPayingJob(trx: Knex, jobId: string): Promise<PayingJob | undefined> {
+  return (await trx('jobs')
+    .where({ id: jobId })
+    .forNoKeyUpdate()
+    .first('id', 'number', 'state')) as PayingJob | undefined;
+}
+
+export async function findPayingJob(jobId: string, k: Knex = db): Promise<PayingJob | undefined> {
+  return (await k('jobs').where({ id: jobId }).first('id', 'number', 'state')) as
+    PayingJob | undefined;
+}
+
+/** Payment links nobody paid, withdrawn (a called-off job): nothing was taken, so nothing is kept. */
+export async function deleteOpenPayments(trx: Knex, ids: string[]): Promise<void> {
+  if (ids.length) await trx('payments').whereIn('id', ids).where({ state: 'open' }).delete();
+}

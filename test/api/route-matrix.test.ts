@@ -173,6 +173,12 @@ const EXPECTED: Record<string, Access> = {
   'GET /api/jobs/:id/invoice': ALL,
   'GET /api/jobs/:id/invoice.pdf': ALL,
   'POST /api/jobs/:id/invoice/credit-notes': ['owner', 'staff'],
+  'POST /api/jobs/:id/payment-requests': ['owner', 'staff'],
+  'GET /api/jobs/:id/payments': ALL,
+  'POST /api/jobs/:id/payments': ['owner', 'staff'],
+  'POST /api/jobs/:id/payments/:paymentId/refund': ['owner', 'staff'],
+  // The payment service's events: their signature is the credential.
+  'POST /api/payments/webhook': 'public',
   // The customer's page: the token in the link is the credential.
   'GET /api/public/jobs/:token': 'public',
   'POST /api/public/jobs/:token/approve': 'public',

@@ -1,0 +1,58 @@
+// Payment routes: payment links (deposit or what is left) and payments at the counter, refunds, and
+// the payment service's signed events. Everyone signed in reads a job's payments; staff and the
+// owner ask for and take money. The webhook has no session and no XSRF token: its signature is
+// the credential, checked on the raw body (app.ts keeps it raw).
+import type { Router } from 'express';
+import { z } from 'zod';
+import { route, uuidParam } from '../http/route';
+import { counterPaymentInput, paymentRequestInput, refundInput } from '../../shared/api/money';
+import * as payments from './payment-service';
+import * as refunds from './refund-service';
+import { receiveEvent } from './webhook-service';
+import { MONEY } from './money-routes';
+
+const idParams = z.object({ id: uuidParam });
+const paymentParams = z.object({ id: uuidParam, paymentId: uuidParam });
+
+export function registerPaymentRoutes(router: Router): void {
+  route(router, {
+    method: 'post',
+    path: '/api/jobs/:id/payment-requests',
+    access: MONEY,
+    params: idParams,
+    body: paymentRequestInput,
+    status: 201,
+    handler: ({ params, body, user }) => payments.requestPayment(user.id, params.id, body),
+  });
+  route(router, {
+    method: 'get',
+    path: '/api/jobs/:id/payments',
+    access: 'signed-in',
+    params: idParams,
+    handler: ({ params }) => payments.listPayments(params.id),
+  });
+  route(router, {
+    method: 'post',
+    path: '/api/jobs/:id/payments',
+    access: MONEY,
+    params: idParams,
+    body: counterPaymentInput,
+    status: 201,
+    handler: ({ params, body, user }) => payments.recordCounterPayment(user.id, params.id, body),
+  });
+  route(router, {
+    method: 'post',
+    path: '/api/jobs/:id/payments/:paymentId/refund',
+    access: MONEY,
+    params: paymentParams,
+    body: refundInput,
+    handler: ({ params, body, user }) =>
+      refunds.refundPayment(user.id, params.id, params.paymentId, body),
+  });
+  route(router, {
+    method: 'post',
+    path: '/api/payments/webhook',
+    access: 'public',
+    handler: ({ req }) => receiveEvent(req.body, req.get('stripe-signature')),
+  });
+}
