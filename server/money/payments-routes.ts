@@ -4,15 +4,16 @@
 // the credential, checked on the raw body (app.ts keeps it raw).
 import type { Router } from 'express';
 import { z } from 'zod';
-import { route, uuidParam } from '../http/route';
+import { route } from '../http/route';
+import { idField } from '../../shared/api/common';
 import { counterPaymentInput, paymentRequestInput, refundInput } from '../../shared/api/money';
 import * as payments from './payment-service';
 import * as refunds from './refund-service';
 import { receiveEvent } from './webhook-service';
 import { MONEY } from './money-routes';
 
-const idParams = z.object({ id: uuidParam });
-const paymentParams = z.object({ id: uuidParam, paymentId: uuidParam });
+const idParams = z.object({ id: idField });
+const paymentParams = z.object({ id: idField, paymentId: idField });
 
 export function registerPaymentRoutes(router: Router): void {
   route(router, {
