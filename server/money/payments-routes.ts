@@ -6,11 +6,11 @@ import type { Router } from 'express';
 import { z } from 'zod';
 import { route } from '../http/route';
 import { idField } from '../../shared/api/common';
+import { may } from '../../shared/access';
 import { counterPaymentInput, paymentRequestInput, refundInput } from '../../shared/api/money';
 import * as payments from './payment-service';
 import * as refunds from './refund-service';
 import { receiveEvent } from './webhook-service';
-import { MONEY } from './money-routes';
 
 const idParams = z.object({ id: idField });
 const paymentParams = z.object({ id: idField, paymentId: idField });
@@ -19,7 +19,7 @@ export function registerPaymentRoutes(router: Router): void {
   route(router, {
     method: 'post',
     path: '/api/jobs/:id/payment-requests',
-    access: MONEY,
+    access: may.takeMoney,
     params: idParams,
     body: paymentRequestInput,
     status: 201,
@@ -35,7 +35,7 @@ export function registerPaymentRoutes(router: Router): void {
   route(router, {
     method: 'post',
     path: '/api/jobs/:id/payments',
-    access: MONEY,
+    access: may.takeMoney,
     params: idParams,
     body: counterPaymentInput,
     status: 201,
@@ -44,7 +44,7 @@ export function registerPaymentRoutes(router: Router): void {
   route(router, {
     method: 'post',
     path: '/api/jobs/:id/payments/:paymentId/refund',
-    access: MONEY,
+    access: may.takeMoney,
     params: paymentParams,
     body: refundInput,
     handler: ({ params, body, user }) =>
