@@ -7,23 +7,12 @@
 // is valued at the part's average cost now, the best estimate left.
 import type { Knex } from 'knex';
 import { db } from '../db/knex';
+import { ISSUED_CTE, ISSUED_MARGIN, issuedBindings, type PeriodArgs } from './sales-sums';
 
-/** Units, revenue and margin of one issue row (aliases l = stock_ledger, p = parts). */
-const UNITS = `(-l.quantity)`;
-const REVENUE = `(-l.quantity * coalesce(l.sale_price, 0))`;
+export type { PeriodArgs } from './sales-sums';
+
+/** The cost of one issue row (aliases l = stock_ledger, p = parts). */
 const COST = `coalesce(l.unit_cost, p.average_cost)`;
-const MARGIN = `(-l.quantity * (coalesce(l.sale_price, 0) - ${COST}))`;
-
-/** Issue rows whose moment falls on the calendar days :fromDay … :toDay in the zone :tz. */
-const IN_PERIOD = `l.kind = 'issue'
-    AND l.at >= (:fromDay::date)::timestamp AT TIME ZONE :tz
-    AND l.at < (:toDay::date + 1)::timestamp AT TIME ZONE :tz`;
-
-export interface PeriodArgs {
-  fromDay: string;
-  toDay: string;
-  tz: string;
-}
 
 export interface SalesRowDb {
   family_id: string | null;
@@ -45,13 +34,12 @@ export async function salesBy(
 ): Promise<SalesRowDb[]> {
   const result = await k.raw<{ rows: SalesRowDb[] }>(
     `
-    WITH sold AS (
+    WITH ${ISSUED_CTE}, sold AS (
       SELECT CASE WHEN :byFamily THEN p.family_id END AS family_id,
              CASE WHEN :byStep THEN p.step_id END AS step_id,
-             ${UNITS} AS units, ${REVENUE} AS revenue, ${MARGIN} AS margin
-        FROM stock_ledger l
-        JOIN parts p ON p.id = l.part_id
-       WHERE ${IN_PERIOD}
+             i.units, i.revenue, ${ISSUED_MARGIN} AS margin
+        FROM issued i
+        JOIN parts p ON p.id = i.part_id
     ), grouped AS (
       SELECT family_id, step_id,
              (GROUPING(family_id, step_id) > 0)::int AS grand,
@@ -68,7 +56,7 @@ export async function salesBy(
       LEFT JOIN series_steps ss ON ss.id = g.step_id
      ORDER BY g.grand, g.revenue DESC, ef.code NULLS LAST, ss.position NULLS LAST
     `,
-    { ...args },
+    { ...issuedBindings(args), byFamily: args.byFamily, byStep: args.byStep },
   );
   return result.rows;
 }
@@ -88,12 +76,11 @@ export async function salesByMonth(args: PeriodArgs, k: Knex = db): Promise<Mont
       SELECT m::date AS month
         FROM generate_series(date_trunc('month', :fromDay::date),
                              date_trunc('month', :toDay::date), interval '1 month') AS m
-    ), sold AS (
-      SELECT date_trunc('month', l.at AT TIME ZONE :tz)::date AS month,
-             sum(${UNITS})::bigint AS units, sum(${REVENUE}) AS revenue, sum(${MARGIN}) AS margin
-        FROM stock_ledger l
-        JOIN parts p ON p.id = l.part_id
-       WHERE ${IN_PERIOD}
+    ), ${ISSUED_CTE}, sold AS (
+      SELECT i.month, sum(i.units)::bigint AS units, sum(i.revenue) AS revenue,
+             sum(${ISSUED_MARGIN}) AS margin
+        FROM issued i
+        JOIN parts p ON p.id = i.part_id
        GROUP BY 1
     )
     SELECT to_char(m.month, 'YYYY-MM') AS month,
@@ -104,7 +91,7 @@ export async function salesByMonth(args: PeriodArgs, k: Knex = db): Promise<Mont
       LEFT JOIN sold s ON s.month = m.month
      ORDER BY m.month
     `,
-    { ...args },
+    issuedBindings(args),
   );
   return result.rows;
 }
@@ -132,13 +119,12 @@ export async function topSellers(
   const order = RANK_COLUMNS[args.rank];
   const result = await k.raw<{ rows: TopSellerDb[] }>(
     `
-    WITH s AS (
-      SELECT l.part_id, sum(${UNITS})::bigint AS units,
-             sum(${REVENUE}) AS revenue, sum(${MARGIN}) AS margin
-        FROM stock_ledger l
-        JOIN parts p ON p.id = l.part_id
-       WHERE ${IN_PERIOD}
-       GROUP BY l.part_id
+    WITH ${ISSUED_CTE}, s AS (
+      SELECT i.part_id, sum(i.units)::bigint AS units,
+             sum(i.revenue) AS revenue, sum(${ISSUED_MARGIN}) AS margin
+        FROM issued i
+        JOIN parts p ON p.id = i.part_id
+       GROUP BY i.part_id
     )
     SELECT p.id AS part_id, p.sku, p.description, p.kind, p.family_id, ef.code AS family_code,
            p.step_id, ss.label AS step_label, s.units, s.revenue, s.margin
@@ -149,7 +135,7 @@ export async function topSellers(
      ORDER BY ${order} DESC, p.sku
      LIMIT :limit
     `,
-    { fromDay: args.fromDay, toDay: args.toDay, tz: args.tz, limit: args.limit },
+    { ...issuedBindings(args), limit: args.limit },
   );
   return result.rows;
 }

@@ -1,7 +1,9 @@
 // The bench's own invented shop, built in SQL with generate_series so it takes seconds, not hours:
 // 40 engine families with nine steps each, 800 parts, 100,000 measured piston units (6,000 of them
 // on one "hot" part), 1,000,000 stock-ledger rows over two years (receipts, sales, ring-set counts,
-// holds that came and went) that net exactly to the levels, 8,000 jobs, four users.
+// holds that came and went) that net exactly to the levels, 10,000 jobs, four users. At `--scale N`
+// the units, the ledger, the sales and the jobs are N times as many over the same two years and
+// the same 40 families, so each family's shelf is N times as deep too (a shop group's stock).
 import bcrypt from 'bcryptjs';
 import type pg from 'pg';
 
@@ -30,8 +32,12 @@ export interface BenchShop {
   units: number;
 }
 
-export async function generateShop(client: pg.Client): Promise<BenchShop> {
+export async function generateShop(client: pg.Client, scale = 1): Promise<BenchShop> {
   const q = async (sql: string, params: unknown[] = []) => (await client.query(sql, params)).rows;
+  const units = UNITS * scale;
+  const ledgerTarget = LEDGER_ROWS * scale;
+  const ringIssues = RING_ISSUES_PER_PART * scale;
+  const ringReceiptSize = RING_RECEIPT_SIZE * scale;
   await q('begin');
   const hash = bcrypt.hashSync(BENCH_PASSWORD, 10);
   const users = {} as BenchShop['users'];
@@ -110,7 +116,7 @@ export async function generateShop(client: pg.Client): Promise<BenchShop> {
             case when g % 100 < 37 then 'issued' else 'free' end,
             now() - interval '730 days' + (g % 700) * interval '1 day', now() - interval '10 days', 21.25
        from generate_series(1, $1::int) g join bench_piston_parts bp on bp.i = g % $2`,
-    [UNITS - HOT_UNITS, pistonParts],
+    [units - HOT_UNITS, pistonParts],
   );
   const [{ issued }] = await q(
     `select count(*)::int as issued from piston_units where status = 'issued'`,
@@ -128,17 +134,18 @@ export async function generateShop(client: pg.Client): Promise<BenchShop> {
     `insert into stock_ledger (at, part_id, kind, quantity, unit_cost, ref)
      select now() - interval '730 days' + g * interval '60 days', p.id, 'receipt', $1, 8.40, 'bench'
        from parts p cross join generate_series(1, $2::int) g where p.kind = 'rings' and p.sku like 'BF-%'`,
-    [RING_RECEIPT_SIZE, RING_RECEIPTS_PER_PART],
+    [ringReceiptSize, RING_RECEIPTS_PER_PART],
   );
   await q(
     `insert into stock_ledger (at, part_id, kind, quantity, unit_cost, sale_price, reason)
-     select now() - interval '720 days' + g * interval '1.4 days', p.id, 'issue', -1, 8.40, 19.80, 'sold'
+     select now() - interval '720 days' + g * ($2::float / $1) * interval '1 day', p.id, 'issue', -1,
+            8.40, 19.80, 'sold'
        from parts p cross join generate_series(1, $1::int) g where p.kind = 'rings' and p.sku like 'BF-%'`,
-    [RING_ISSUES_PER_PART],
+    [ringIssues, RING_ISSUES_PER_PART * 1.4],
   );
   // Holds that came and went: a reservation and its release, net zero, filling up to a million rows.
   const [{ n: sofar }] = await q(`select count(*)::int as n from stock_ledger`);
-  const pairs = Math.floor((LEDGER_ROWS - sofar) / 2);
+  const pairs = Math.floor((ledgerTarget - sofar) / 2);
   await q(
     `create temp table bench_units as select id, part_id, row_number() over (order by id) as rn from piston_units`,
   );
@@ -147,12 +154,12 @@ export async function generateShop(client: pg.Client): Promise<BenchShop> {
      select now() - interval '700 days' + (g % 690) * interval '1 day' + k.shift * interval '3 days',
             u.part_id, u.id, k.kind, 0, k.delta, 'bench hold'
        from generate_series(1, $1::int) g
-       join bench_units u on u.rn = 1 + g % ${UNITS}
+       join bench_units u on u.rn = 1 + g % ${units}
       cross join (values ('reservation', 1, 0), ('release', -1, 1)) k(kind, delta, shift)`,
     [pairs],
   );
   // An odd remainder: one more delivery of small parts makes the count exact.
-  const remainder = LEDGER_ROWS - sofar - 2 * pairs;
+  const remainder = ledgerTarget - sofar - 2 * pairs;
   if (remainder > 0) {
     await q(
       `insert into stock_ledger (part_id, kind, quantity, unit_cost, ref)
@@ -178,7 +185,7 @@ export async function generateShop(client: pg.Client): Promise<BenchShop> {
             now() - (g % 700) * interval '1 day', now() - (g % 700) * interval '1 day' + interval '5 days'
        from generate_series(1, $1::int) g
        join engine_families ef on ef.code = 'BF-' || lpad((1 + g % ${FAMILIES})::text, 3, '0')`,
-    [CLOSED_JOBS],
+    [CLOSED_JOBS * scale],
   );
   await q(
     `insert into jobs (customer_name, family_id, cylinders, state, created_at, due_date)
@@ -187,7 +194,7 @@ export async function generateShop(client: pg.Client): Promise<BenchShop> {
                  else (select id from engine_families where code = 'BF-' || lpad((1 + g % ${FAMILIES})::text, 3, '0')) end,
             8, 'booked_in', now() - (g % 30) * interval '1 day', current_date + (g % 40)
        from generate_series(1, $1::int) g`,
-    [OPEN_JOBS, HOT_OPEN_JOBS, hot.family_id],
+    [OPEN_JOBS * scale, HOT_OPEN_JOBS, hot.family_id],
   );
   await q(
     `insert into job_cylinders (job_id, n) select j.id, c from jobs j cross join generate_series(1, 8) c`,
@@ -199,8 +206,8 @@ export async function generateShop(client: pg.Client): Promise<BenchShop> {
   );
   await q('commit');
   await q('analyze');
-  if (issued < ISSUED_UNITS * 0.9)
-    throw new Error(`expected about ${ISSUED_UNITS} issued units, made ${issued}`);
+  if (issued < ISSUED_UNITS * scale * 0.9)
+    throw new Error(`expected about ${ISSUED_UNITS * scale} issued units, made ${issued}`);
   return {
     users,
     hotFamilyId: hot.family_id,
@@ -208,6 +215,6 @@ export async function generateShop(client: pg.Client): Promise<BenchShop> {
     typicalFamilyId: typical.id,
     supplierId: supplier.id,
     ledgerRows,
-    units: UNITS,
+    units,
   };
 }

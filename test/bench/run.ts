@@ -1,7 +1,9 @@
 // npm run bench: speed and memory figures as JSON lines, each beside its physical limit measured in
 // the same run. Everything happens on 127.0.0.1 in a throwaway PostgreSQL cluster with generated
 // data; the run stops by itself (a watchdog ends it after 45 minutes) and removes what it made.
-//   node --import tsx test/bench/run.ts [group…]   groups: lists holds import client start (default all)
+//   node --import tsx test/bench/run.ts [group…] [--scale N]
+//   groups: lists holds import client start (default all; with --scale above 1, default lists: the
+//   figures that depend on how much the shop holds)
 import { spawnSync } from 'node:child_process';
 import os from 'node:os';
 import { mkdtempSync, rmSync } from 'node:fs';
@@ -34,10 +36,10 @@ const WATCHDOG_MS = 45 * 60_000;
 
 async function main() {
   figuresOnlyOnStdout();
-  const asked = process.argv
-    .slice(2)
-    .filter((a): a is Group => (GROUPS as readonly string[]).includes(a));
-  const groups = new Set<Group>(asked.length ? asked : GROUPS);
+  const args = process.argv.slice(2);
+  const scale = scaleFrom(args);
+  const asked = args.filter((a): a is Group => (GROUPS as readonly string[]).includes(a));
+  const groups = new Set<Group>(asked.length ? asked : scale > 1 ? ['lists'] : GROUPS);
   const started = Date.now();
 
   let cluster: Cluster | null = null;
@@ -48,10 +50,12 @@ async function main() {
     if (cluster) stopCluster(cluster, 'fast');
     if (tmp) rmSync(tmp, { recursive: true, force: true });
   };
+  // A deeper shop takes longer to generate: five more minutes for each step of scale.
+  const watchdogMs = WATCHDOG_MS + (scale - 1) * 5 * 60_000;
   const watchdog = setTimeout(() => {
-    say(`still running after ${WATCHDOG_MS / 60_000} minutes: stopping`);
+    say(`still running after ${watchdogMs / 60_000} minutes: stopping`);
     void cleanup().finally(() => process.exit(2));
-  }, WATCHDOG_MS);
+  }, watchdogMs);
   process.once('SIGINT', () => void cleanup().finally(() => process.exit(130)));
 
   try {
@@ -80,11 +84,15 @@ async function main() {
       unit: 'load',
       cpus: os.cpus().length,
     });
-    say('generating the bench shop: 100,000 piston units, 1,000,000 ledger rows…');
+    figure({ name: 'bench.scale', value: scale, unit: '×' });
+    say(
+      `generating the bench shop: ${(100_000 * scale).toLocaleString('en')} piston units, ` +
+        `${(1_000_000 * scale).toLocaleString('en')} ledger rows…`,
+    );
     const client = new pg.Client({ connectionString: url });
     await client.connect();
     const genStart = Date.now();
-    const shop = await generateShop(client);
+    const shop = await generateShop(client, scale);
     await client.end();
     say(
       `generated ${shop.units} units and ${shop.ledgerRows} ledger rows in ${((Date.now() - genStart) / 1000).toFixed(1)} s`,
@@ -114,6 +122,17 @@ async function main() {
     clearTimeout(watchdog);
     await cleanup();
   }
+}
+
+/** `--scale N`: N times the bench shop's units, ledger and jobs (a whole number from 1 to 20). */
+function scaleFrom(args: string[]): number {
+  const at = args.indexOf('--scale');
+  if (at === -1) return 1;
+  const n = Number(args[at + 1]);
+  if (!Number.isInteger(n) || n < 1 || n > 20) {
+    throw new Error(`--scale wants a whole number from 1 to 20, not "${args[at + 1] ?? ''}"`);
+  }
+  return n;
 }
 
 main().catch((e: Error) => {
