@@ -1,9 +1,10 @@
 import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
-import { MatTableModule } from '@angular/material/table';
 import { Router } from '@angular/router';
 
 import type { AbcClass } from '../../../shared/api/insights';
+import { DataTable } from '../ui/data-table';
+import { TableColumn, titleOf } from '../ui/table-column';
 import { InsightChart } from './insight-chart';
 import { loadEach } from '../ui/load';
 import { InsightPanel } from './insight-panel';
@@ -21,7 +22,7 @@ const CLASS_MEANING: Record<AbcClass, string> = {
 /** ABC classes: parts ranked by the value that went out at cost, with the Pareto split 80/15/5. */
 @Component({
   selector: 'app-abc-page',
-  imports: [InsightChart, InsightPanel, MatButtonToggleModule, MatTableModule],
+  imports: [InsightChart, InsightPanel, MatButtonToggleModule, DataTable, TableColumn],
   templateUrl: './abc-page.html',
   styleUrl: './abc-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -49,6 +50,7 @@ export class AbcPage {
   protected readonly columns = ['class', 'part', 'value', 'share', 'cumulative', 'onHand'];
   protected readonly meaning = CLASS_MEANING;
   protected readonly count = formatCount;
+  protected readonly partTitle = titleOf('description');
   protected readonly share = formatShare;
   protected readonly csv = computed(() => this.api.csvUrl('abc', { months: this.window() }));
 

@@ -1,10 +1,11 @@
 import { ChangeDetectionStrategy, Component, computed, inject, input } from '@angular/core';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
-import { MatTableModule } from '@angular/material/table';
 import { Router, RouterLink } from '@angular/router';
 
 import { NEAR_LAST_STEP_MAX } from '../../../shared/api/customers';
 import { LengthPipe } from '../core/length-pipe';
+import { DataTable } from '../ui/data-table';
+import { TableColumn } from '../ui/table-column';
 import { InsightChart } from './insight-chart';
 import { loadEach } from '../ui/load';
 import { InsightPanel } from './insight-panel';
@@ -31,7 +32,8 @@ export function withinFrom(value: string | undefined): number {
     InsightPanel,
     LengthPipe,
     MatButtonToggleModule,
-    MatTableModule,
+    DataTable,
+    TableColumn,
     RouterLink,
   ],
   templateUrl: './cylinders-page.html',

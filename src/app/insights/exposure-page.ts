@@ -1,9 +1,11 @@
 import { ChangeDetectionStrategy, Component, computed, inject, input } from '@angular/core';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
-import { MatTableModule } from '@angular/material/table';
 import { Router } from '@angular/router';
 
+import type { ExposureItem } from '../../../shared/api/insights';
 import { waitingForWords, type NeededPart } from '../../../shared/part-needs';
+import { DataTable } from '../ui/data-table';
+import { TableColumn, titleOf } from '../ui/table-column';
 import { InsightChart } from './insight-chart';
 import { loadEach } from '../ui/load';
 import { InsightPanel } from './insight-panel';
@@ -18,7 +20,7 @@ import { MONTH_CHOICES, monthsFrom } from './stock-page';
  */
 @Component({
   selector: 'app-exposure-page',
-  imports: [InsightChart, InsightPanel, MatButtonToggleModule, MatTableModule],
+  imports: [InsightChart, InsightPanel, MatButtonToggleModule, DataTable, TableColumn],
   templateUrl: './exposure-page.html',
   styleUrl: './exposure-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -47,7 +49,6 @@ export class ExposurePage {
   }));
 
   protected readonly shortColumns = ['step', 'parts', 'times', 'jobs', 'days', 'waiting'];
-  protected readonly waitingWords = waitingForWords;
   protected readonly supplierColumns = [
     'supplier',
     'orders',
@@ -57,6 +58,9 @@ export class ExposurePage {
     'onTime',
   ];
   protected readonly count = formatCount;
+  protected readonly familyTitle = titleOf('familyName');
+  protected readonly waitingTitle = (i: ExposureItem): string | null =>
+    i.waitingFor.length ? 'Waiting for ' + waitingForWords(i.waitingFor) : null;
   protected readonly share = formatShare;
   protected readonly csv = computed(() => ({
     exposure: this.api.csvUrl('exposure', { months: this.window() }),

@@ -1,9 +1,10 @@
 import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
-import { MatTableModule } from '@angular/material/table';
 import { Router } from '@angular/router';
 
 import { defaultPeriod, type TopSellerRank } from '../../../shared/api/insights';
+import { DataTable } from '../ui/data-table';
+import { TableColumn, titleOf } from '../ui/table-column';
 import { InsightChart } from './insight-chart';
 import { loadEach } from '../ui/load';
 import { InsightPanel } from './insight-panel';
@@ -33,7 +34,8 @@ export function periodFrom(from: string | undefined, to: string | undefined): Da
     InsightChart,
     InsightPanel,
     MatButtonToggleModule,
-    MatTableModule,
+    DataTable,
+    TableColumn,
     PeriodPicker,
     ShopDatePipe,
   ],
@@ -97,6 +99,8 @@ export class SalesPage {
     return formatAmount(text, currency ?? 'EUR');
   }
   protected readonly count = formatCount;
+  protected readonly familyTitle = titleOf('familyName');
+  protected readonly partTitle = titleOf('description');
   protected readonly share = formatShare;
 
   protected setPeriod(period: DayRange): void {

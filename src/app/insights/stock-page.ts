@@ -1,8 +1,9 @@
 import { ChangeDetectionStrategy, Component, computed, inject, input } from '@angular/core';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
-import { MatTableModule } from '@angular/material/table';
 import { Router } from '@angular/router';
 
+import { DataTable } from '../ui/data-table';
+import { TableColumn } from '../ui/table-column';
 import { InsightChart } from './insight-chart';
 import { loadEach } from '../ui/load';
 import { InsightPanel } from './insight-panel';
@@ -22,7 +23,14 @@ export function monthsFrom(text: string | undefined, fallback = 12): number {
 /** What sits: stock at moving average cost, turnover per family, and parts that have not moved. */
 @Component({
   selector: 'app-stock-page',
-  imports: [ShopDatePipe, InsightChart, InsightPanel, MatButtonToggleModule, MatTableModule],
+  imports: [
+    ShopDatePipe,
+    InsightChart,
+    InsightPanel,
+    MatButtonToggleModule,
+    DataTable,
+    TableColumn,
+  ],
   templateUrl: './stock-page.html',
   styleUrl: './stock-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
