@@ -84,7 +84,7 @@ class FiguresHost {
 }
 
 function texts(root: HTMLElement, selector: string): string[] {
-  return [...root.querySelectorAll(selector)].map((e) => (e.textContent ?? '').trim());
+  return Array.from(root.querySelectorAll(selector)).map((e) => (e.textContent ?? '').trim());
 }
 
 describe('DataTable', () => {
