@@ -4,7 +4,13 @@
 import type { Router } from 'express';
 import type { ZodType } from 'zod';
 import type { Role } from '../../shared/session-types';
-import { monthlyQuery, monthsQuery, salesQuery, topSellersQuery } from '../../shared/api/insights';
+import {
+  emptyQuery,
+  monthlyQuery,
+  monthsQuery,
+  salesQuery,
+  topSellersQuery,
+} from '../../shared/api/insights';
 import { nearLastStepQuery } from '../../shared/api/customers';
 import { route } from '../http/route';
 import { nearLastStep } from '../customers/cylinders-service';
@@ -13,6 +19,8 @@ import * as service from './insights-service';
 import * as tables from './insights-tables';
 import { sendCsv, type CsvTable } from './insights-csv';
 import { may } from '../../shared/access';
+import * as money from './money-insights-service';
+import * as moneyTables from './money-insights-tables';
 
 /** Declares one figure twice: as JSON at `path` and as a CSV download at `path.csv`. */
 function figure<Q, A, R>(
@@ -105,5 +113,38 @@ export function registerInsightsRoutes(router: Router): void {
     nearLastStepQuery,
     (q) => nearLastStep(q.within),
     nearLastStepTable,
+  );
+  // The money side, with the sales: from invoices, estimates and payments.
+  figure(
+    router,
+    '/api/insights/revenue',
+    may.readSales,
+    monthlyQuery,
+    money.revenue,
+    moneyTables.revenueTable,
+  );
+  figure(
+    router,
+    '/api/insights/estimates',
+    may.readSales,
+    monthlyQuery,
+    money.estimates,
+    moneyTables.estimatesTable,
+  );
+  figure(
+    router,
+    '/api/insights/balances-owed',
+    may.readSales,
+    emptyQuery,
+    () => money.outstanding(),
+    moneyTables.outstandingTable,
+  );
+  figure(
+    router,
+    '/api/insights/deposits-held',
+    may.readSales,
+    emptyQuery,
+    () => money.depositsHeld(),
+    moneyTables.depositsHeldTable,
   );
 }

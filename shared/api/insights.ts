@@ -331,3 +331,88 @@ export interface SupplierReliabilityAnswer {
   message: string | null;
   months: number;
 }
+
+// ---- money (from invoices, estimates and payments) ----
+
+export interface RevenueMonth {
+  /** YYYY-MM in the shop's time zone. */
+  month: string;
+  invoices: number;
+  /** Line totals by kind, as invoiced (before tax when the shop's prices exclude it). */
+  labour: string;
+  parts: string;
+  /** Lines staff added by hand, discounts among them. */
+  other: string;
+  tax: string;
+  /** The invoices' totals. */
+  invoiced: string;
+  /** Credit notes issued in the month (a positive amount taken off). */
+  credited: string;
+}
+
+export interface RevenueAnswer {
+  months: RevenueMonth[];
+  totals: Omit<RevenueMonth, 'month'>;
+  period: Period;
+  currency: string;
+}
+
+export interface EstimateMonth {
+  /** YYYY-MM of the estimate's first sending, in the shop's time zone. */
+  month: string;
+  sent: number;
+  approved: number;
+  declined: number;
+  /** Sent and not answered yet (or changed since and waiting for a new answer). */
+  waiting: number;
+  /** approved ÷ sent, four decimals ("0.7500"); null when nothing was sent. */
+  approvalRate: string | null;
+  /** Median days from first sending to first approval, one decimal; null when none approved. */
+  medianDaysToApprove: string | null;
+}
+
+export interface EstimatesAnswer {
+  months: EstimateMonth[];
+  totals: Omit<EstimateMonth, 'month'> & {
+    /** Approved at the counter or by phone without being sent first, in the period. */
+    approvedWithoutSending: number;
+  };
+  period: Period;
+}
+
+export interface OutstandingItem {
+  jobId: string;
+  jobNumber: string;
+  customerName: string | null;
+  invoiceNumber: string;
+  issuedAt: string;
+  total: string;
+  credited: string;
+  paid: string;
+  balance: string;
+  /** Whole days since the invoice was issued. */
+  daysOwed: number;
+}
+
+export interface OutstandingAnswer {
+  items: OutstandingItem[];
+  totalBalance: string;
+  currency: string;
+}
+
+export interface DepositHeldItem {
+  jobId: string;
+  jobNumber: string;
+  customerName: string | null;
+  jobState: string;
+  amount: string;
+  paidAt: string | null;
+  /** The job was called off: the deposit is to be given back. */
+  toGiveBack: boolean;
+}
+
+export interface DepositsHeldAnswer {
+  items: DepositHeldItem[];
+  totalHeld: string;
+  currency: string;
+}

@@ -179,6 +179,15 @@ const EXPECTED: Record<string, Access> = {
   'POST /api/jobs/:id/payments/:paymentId/refund': ['owner', 'staff'],
   // The payment service's events: their signature is the credential.
   'POST /api/payments/webhook': 'public',
+  // The owner's money figures, each with its CSV.
+  'GET /api/insights/revenue': OWNER,
+  'GET /api/insights/revenue.csv': OWNER,
+  'GET /api/insights/estimates': OWNER,
+  'GET /api/insights/estimates.csv': OWNER,
+  'GET /api/insights/balances-owed': OWNER,
+  'GET /api/insights/balances-owed.csv': OWNER,
+  'GET /api/insights/deposits-held': OWNER,
+  'GET /api/insights/deposits-held.csv': OWNER,
   // The customer's page: the token in the link is the credential.
   'GET /api/public/jobs/:token': 'public',
   'POST /api/public/jobs/:token/approve': 'public',
