@@ -199,6 +199,7 @@ export function jobListItemJson(row: JobListRow): JobListItemJson {
     waitingFor: row.waiting_for,
     pistonsHeld: row.pistons_held,
     cylindersCut: row.cylinders_cut,
+    awaitingApproval: row.awaiting_approval,
     createdAt: row.created_at.toISOString(),
   };
 }

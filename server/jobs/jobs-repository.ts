@@ -77,6 +77,7 @@ export interface JobListRow {
   waiting_for: NeededPart[];
   pistons_held: number;
   cylinders_cut: number;
+  awaiting_approval: boolean;
   created_at: Date;
 }
 
@@ -257,6 +258,9 @@ export interface JobFilter {
 /** Waiting for parts has one definition, shared with every other count (stock/part-needs). */
 const WAITING_SQL = waitingSql('j');
 const WAITING_FOR_SQL = waitingForSql('j');
+/** The estimate is with the customer and unanswered (the same rule as home's list). */
+const AWAITING_APPROVAL_SQL = `EXISTS (SELECT 1 FROM estimates e WHERE e.job_id = j.id
+  AND e.state = 'sent') AS awaiting_approval`;
 
 export async function listJobs(
   f: JobFilter,
@@ -310,6 +314,7 @@ export async function listJobs(
         `(SELECT count(*) FROM job_cylinders c WHERE c.job_id = j.id AND c.cut_at IS NOT NULL)::int
           AS cylinders_cut`,
       ),
+      k.raw(AWAITING_APPROVAL_SQL),
       'j.created_at',
     )
     .orderByRaw(`${column} ${order} NULLS LAST, j.number ASC`)
@@ -336,6 +341,7 @@ export async function jobListRow(id: string, today: string, k: Knex = db): Promi
         `(SELECT count(*) FROM job_cylinders c WHERE c.job_id = j.id AND c.cut_at IS NOT NULL)::int
           AS cylinders_cut`,
       ),
+      k.raw(AWAITING_APPROVAL_SQL),
       'f.code as family_code',
       'f.name as family_name',
     )

@@ -190,6 +190,7 @@ export async function getJob(id: string, unit: LengthUnit, k: Conn = db): Promis
     waitingFor: flags.waiting_for,
     pistonsHeld: flags.pistons_held,
     cylindersCut: flags.cylinders_cut,
+    awaitingApproval: flags.awaiting_approval,
     notes: job.notes,
     notifyCustomer: job.notify_customer,
     createdBy: job.created_by_name,

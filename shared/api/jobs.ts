@@ -141,6 +141,8 @@ export interface JobListItemJson {
   waitingFor: NeededPart[];
   pistonsHeld: number;
   cylindersCut: number;
+  /** Its estimate was sent to the customer and they have not answered yet. */
+  awaitingApproval: boolean;
   createdAt: string;
 }
 

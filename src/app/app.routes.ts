@@ -16,6 +16,12 @@ export const routes: Routes = [
     loadComponent: () => import('./core/sign-in/sign-in').then((m) => m.SignIn),
   },
   {
+    // The customer's page from the e-mailed link: no sign-in, outside the shell, the token is the key.
+    path: 'c/:token',
+    title: 'Your job',
+    loadComponent: () => import('./money/public-job-page').then((m) => m.PublicJobPage),
+  },
+  {
     path: '',
     canActivate: [signedInGuard],
     loadComponent: () => import('./core/shell').then((m) => m.Shell),
@@ -31,6 +37,12 @@ export const routes: Routes = [
         canActivate: [roleGuard],
         data: { roles: may.administer },
         loadChildren: () => import('./admin/admin.routes').then((m) => m.adminRoutes),
+      },
+      {
+        path: 'money',
+        canActivate: [roleGuard],
+        data: { roles: ['owner'] },
+        loadChildren: () => import('./money/money.routes').then((m) => m.moneyRoutes),
       },
       {
         path: 'catalog',

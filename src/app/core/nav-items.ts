@@ -49,6 +49,14 @@ export const NAV_ITEMS: NavItem[] = [
     hint: 'Name and hours, hold expiry, cut per pass, and the costs behind reorder points.',
   },
   {
+    path: '/money/labour',
+    group: 'shop',
+    label: 'Labour prices',
+    icon: 'request_quote',
+    roles: ['owner'],
+    hint: 'What boring, honing and the other work cost, and which go on new estimates.',
+  },
+  {
     path: '/admin/audit',
     group: 'shop',
     label: 'Audit trail',

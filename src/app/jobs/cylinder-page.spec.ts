@@ -43,6 +43,7 @@ const JOB: JobJson = {
   waitingFor: [],
   pistonsHeld: 0,
   cylindersCut: 0,
+  awaitingApproval: false,
   notes: '',
   notifyCustomer: true,
   createdBy: null,

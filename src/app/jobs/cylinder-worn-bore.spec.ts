@@ -186,6 +186,7 @@ function job(c: Case, stepId: string | null): JobJson {
     waitingFor: [],
     pistonsHeld: 0,
     cylindersCut: 0,
+    awaitingApproval: false,
     notes: '',
     notifyCustomer: true,
     createdBy: null,

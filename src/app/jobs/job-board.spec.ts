@@ -28,6 +28,7 @@ function job(
     waitingFor: [],
     pistonsHeld: 0,
     cylindersCut: 0,
+    awaitingApproval: false,
     createdAt: '2026-12-01T09:00:00.000Z',
     ...extra,
   };

@@ -1,0 +1,42 @@
+import { ChangeDetectionStrategy, Component, input, output } from '@angular/core';
+import { MatButtonModule } from '@angular/material/button';
+import { MatIconModule } from '@angular/material/icon';
+import { MatTooltipModule } from '@angular/material/tooltip';
+
+import type { EstimateLineJson, InvoiceJson } from '../../../shared/api/money';
+import { formatAmount, LINE_KIND_LABELS } from './money-words';
+
+/** The figures an estimate and an invoice share: lines, totals, and the tax they were worked with. */
+export type PricedFigures = Pick<
+  InvoiceJson,
+  'subtotal' | 'tax' | 'total' | 'currency' | 'taxRate' | 'pricesIncludeTax'
+> & { lines: (InvoiceJson['lines'][number] & { id?: string })[] };
+
+/**
+ * An estimate's (or an invoice's) lines and totals, as staff and the customer both read them; with `canEdit` each
+ * line gets Change and Remove (a discount only Remove: it is given anew, never edited). Rows
+ * projected into it (the invoice's paid and owed) follow the total.
+ */
+@Component({
+  selector: 'app-estimate-table',
+  imports: [MatButtonModule, MatIconModule, MatTooltipModule],
+  templateUrl: './estimate-table.html',
+  styleUrl: './estimate-table.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class EstimateTable {
+  readonly estimate = input.required<PricedFigures>();
+  readonly canEdit = input(false);
+  readonly busy = input(false);
+  readonly editingId = input<string | null>(null);
+  readonly edit = output<EstimateLineJson>();
+  readonly remove = output<EstimateLineJson>();
+
+  protected readonly kindLabels = LINE_KIND_LABELS;
+  protected readonly money = formatAmount;
+
+  /** Lines with an id are the estimate's own, the only ones that can be changed. */
+  protected asLine(line: PricedFigures['lines'][number]): EstimateLineJson | null {
+    return line.id ? (line as EstimateLineJson) : null;
+  }
+}
