@@ -23,6 +23,8 @@ import { apiErrorMessage } from '../core/api-error';
 import { LengthPipe } from '../core/length-pipe';
 import { Notifier } from '../core/notifier';
 import { Session } from '../core/session';
+import { EstimatePanel } from '../money/estimate-panel';
+import { InvoicePanel } from '../money/invoice-panel';
 import { JobCloseDialog, type JobCloseData } from './job-close-dialog';
 import { JobsApi } from './jobs-api';
 import { makeThumbnail } from './make-thumbnail';
@@ -34,6 +36,8 @@ import { loadById } from '../ui/load';
 @Component({
   selector: 'app-job-page',
   imports: [
+    EstimatePanel,
+    InvoicePanel,
     ShopDatePipe,
     LengthPipe,
     ListState,

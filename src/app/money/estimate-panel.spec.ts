@@ -131,6 +131,7 @@ describe('EstimatePanel', () => {
       unitPrice: '8.35',
     });
     post.flush({}, { status: 201, statusText: 'Created' });
+    TestBed.tick();
     http.expectOne('/api/jobs/job-1/estimate').flush(estimate());
     await fixture.whenStable();
   });
@@ -192,6 +193,7 @@ describe('EstimatePanel', () => {
     const post = http.expectOne('/api/jobs/job-1/estimate/approval');
     expect(post.request.body).toEqual({ how: 'phone', note: 'agreed at 10:20' });
     post.flush({ state: 'approved' });
+    TestBed.tick();
     http.expectOne('/api/jobs/job-1/estimate').flush(estimate({ state: 'approved' }));
     await fixture.whenStable();
   });

@@ -1,13 +1,4 @@
-import {
-  ChangeDetectionStrategy,
-  Component,
-  computed,
-  effect,
-  inject,
-  input,
-  signal,
-  untracked,
-} from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
 import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
@@ -31,11 +22,14 @@ import { Notifier } from '../core/notifier';
 import { Session } from '../core/session';
 import { ShopDatePipe } from '../core/shop-date-pipe';
 import { EstimateTable } from './estimate-table';
+import { ListState } from '../ui/list-state';
+import { loadEach } from '../ui/load';
 import { MoneyApi } from './money-api';
 import {
   AMOUNT_PATTERN,
   formatAmount,
   mayHandleMoney,
+  sameJobVersion,
   type MoneyJob,
   QUANTITY_PATTERN,
   roundingRule,
@@ -50,6 +44,7 @@ import {
 @Component({
   selector: 'app-estimate-panel',
   imports: [
+    ListState,
     MatButtonModule,
     MatButtonToggleModule,
     MatFormFieldModule,
@@ -71,12 +66,15 @@ export class EstimatePanel {
 
   readonly job = input.required<MoneyJob>();
 
+  /** Read again whenever the job page has a newer job (a hold, a hand-back, a state). */
+  protected readonly loaded = loadEach(this.job, (job) => this.api.estimate(job.id), {
+    equal: sameJobVersion,
+  });
+  protected readonly estimate = this.loaded.value;
+
   protected readonly stateLabels = ESTIMATE_STATE_LABELS;
   protected readonly money = formatAmount;
 
-  protected readonly estimate = signal<EstimateJson | null>(null);
-  protected readonly loading = signal(true);
-  protected readonly loadError = signal('');
   protected readonly busy = signal(false);
   /** A refusal of Send or Approve (no e-mail, nothing to send), said beside the buttons. */
   protected readonly actionError = signal('');
@@ -147,32 +145,10 @@ export class EstimatePanel {
     note: new FormControl('', { nonNullable: true, validators: [Validators.maxLength(500)] }),
   });
 
-  constructor() {
-    effect(() => {
-      const job = this.job();
-      untracked(() => this.load(job.id));
-    });
-  }
-
   private date(at: string | null): string {
     return formatShopDate(at, 'datetime', {
       locale: this.session.locale(),
       timeZone: this.session.timeZone(),
-    });
-  }
-
-  protected load(jobId = this.job().id): void {
-    this.loading.set(true);
-    this.api.estimate(jobId).subscribe({
-      next: (e) => {
-        this.loading.set(false);
-        this.loadError.set('');
-        this.estimate.set(e);
-      },
-      error: (e: unknown) => {
-        this.loading.set(false);
-        this.loadError.set(apiErrorMessage(e));
-      },
     });
   }
 
@@ -289,7 +265,7 @@ export class EstimatePanel {
         this.busy.set(false);
         void this.notifier.success(success);
         after?.();
-        this.load();
+        this.loaded.reload();
       },
       error: (e: unknown) => {
         this.busy.set(false);

@@ -3,14 +3,14 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatTooltipModule } from '@angular/material/tooltip';
 
-import type { EstimateLineJson, InvoiceJson } from '../../../shared/api/money';
+import type { EstimateLineJson, InvoiceJson, InvoiceLineJson } from '../../../shared/api/money';
 import { formatAmount, LINE_KIND_LABELS } from './money-words';
 
 /** The figures an estimate and an invoice share: lines, totals, and the tax they were worked with. */
 export type PricedFigures = Pick<
   InvoiceJson,
   'subtotal' | 'tax' | 'total' | 'currency' | 'taxRate' | 'pricesIncludeTax'
-> & { lines: (InvoiceJson['lines'][number] & { id?: string })[] };
+> & { lines: (InvoiceLineJson | EstimateLineJson)[] };
 
 /**
  * An estimate's (or an invoice's) lines and totals, as staff and the customer both read them; with `canEdit` each
@@ -35,8 +35,13 @@ export class EstimateTable {
   protected readonly kindLabels = LINE_KIND_LABELS;
   protected readonly money = formatAmount;
 
+  /** An invoice line for a part issued that the agreed estimate did not have. */
+  protected addedSince(line: PricedFigures['lines'][number]): boolean {
+    return 'sinceEstimate' in line && line.sinceEstimate;
+  }
+
   /** Lines with an id are the estimate's own, the only ones that can be changed. */
   protected asLine(line: PricedFigures['lines'][number]): EstimateLineJson | null {
-    return line.id ? (line as EstimateLineJson) : null;
+    return 'id' in line ? line : null;
   }
 }

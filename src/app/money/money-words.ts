@@ -61,3 +61,8 @@ export function standingText(e: EstimateJson, date: (at: string | null) => strin
     }
   }
 }
+
+/** Two job values ask for the same money figures: the same job, unchanged since. */
+export function sameJobVersion(a: MoneyJob, b: MoneyJob): boolean {
+  return a.id === b.id && a.updatedAt === b.updatedAt && a.state === b.state;
+}

@@ -1,13 +1,4 @@
-import {
-  ChangeDetectionStrategy,
-  Component,
-  computed,
-  effect,
-  inject,
-  input,
-  signal,
-  untracked,
-} from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
 import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -32,8 +23,16 @@ import { controlError, placeApiErrors } from '../core/field-errors';
 import { Notifier } from '../core/notifier';
 import { Session } from '../core/session';
 import { ShopDatePipe } from '../core/shop-date-pipe';
+import { ListState } from '../ui/list-state';
+import { loadEach } from '../ui/load';
 import { MoneyApi } from './money-api';
-import { AMOUNT_PATTERN, formatAmount, mayHandleMoney, type MoneyJob } from './money-words';
+import {
+  AMOUNT_PATTERN,
+  formatAmount,
+  mayHandleMoney,
+  sameJobVersion,
+  type MoneyJob,
+} from './money-words';
 
 export const PAYMENT_STATE_WORDS = { open: 'Waiting', paid: 'Paid', refunded: 'Paid back' };
 export const PURPOSE_LABELS: Record<PaymentPurpose, string> = {
@@ -49,6 +48,7 @@ export const PURPOSE_LABELS: Record<PaymentPurpose, string> = {
 @Component({
   selector: 'app-payments-panel',
   imports: [
+    ListState,
     MatButtonModule,
     MatFormFieldModule,
     MatIconModule,
@@ -70,16 +70,19 @@ export class PaymentsPanel {
 
   readonly job = input.required<MoneyJob>();
 
+  /** Read again whenever the job page has a newer job (a hold, a hand-back, a state). */
+  protected readonly loaded = loadEach(this.job, (job) => this.api.payments(job.id), {
+    equal: sameJobVersion,
+  });
+  protected readonly payments = this.loaded.value;
+
   protected readonly methods = COUNTER_METHODS;
   protected readonly methodLabels = PAYMENT_METHOD_LABELS;
   protected readonly stateWords = PAYMENT_STATE_WORDS;
   protected readonly purposeLabels = PURPOSE_LABELS;
   protected readonly money = formatAmount;
 
-  protected readonly payments = signal<PaymentsJson | null>(null);
   protected readonly depositPercent = signal<string | null>(null);
-  protected readonly loading = signal(true);
-  protected readonly loadError = signal('');
   protected readonly busy = signal(false);
   protected readonly requestError = signal('');
   protected readonly counterError = signal('');
@@ -119,29 +122,10 @@ export class PaymentsPanel {
   });
 
   constructor() {
-    effect(() => {
-      const job = this.job();
-      untracked(() => this.load(job.id));
-    });
     this.settingsApi.get().subscribe({
       next: (s) => this.depositPercent.set(s.depositPercent),
       // The hint falls back to words without the figure; the server still applies the setting.
       error: () => this.depositPercent.set(null),
-    });
-  }
-
-  protected load(jobId = this.job().id): void {
-    this.loading.set(true);
-    this.api.payments(jobId).subscribe({
-      next: (p) => {
-        this.loading.set(false);
-        this.loadError.set('');
-        this.payments.set(p);
-      },
-      error: (e: unknown) => {
-        this.loading.set(false);
-        this.loadError.set(apiErrorMessage(e));
-      },
     });
   }
 
@@ -237,7 +221,7 @@ export class PaymentsPanel {
       next: (made) => {
         this.busy.set(false);
         void this.notifier.success(success(made));
-        this.load();
+        this.loaded.reload();
       },
       error: (e: unknown) => {
         this.busy.set(false);
