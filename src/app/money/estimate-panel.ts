@@ -5,14 +5,9 @@ import { MatButtonToggleModule } from '@angular/material/button-toggle';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
-import { MatProgressBarModule } from '@angular/material/progress-bar';
 import type { Observable } from 'rxjs';
 
-import {
-  ESTIMATE_STATE_LABELS,
-  type EstimateJson,
-  type EstimateLineJson,
-} from '../../../shared/api/money';
+import { ESTIMATE_STATE_LABELS, type EstimateLineJson } from '../../../shared/api/money';
 import { isOpenState } from '../../../shared/api/jobs';
 import { formatShopDate } from '../../../shared/dates';
 import { minusMoney } from '../../../shared/estimate-math';
@@ -50,7 +45,6 @@ import {
     MatFormFieldModule,
     MatIconModule,
     MatInputModule,
-    MatProgressBarModule,
     EstimateTable,
     ReactiveFormsModule,
     ShopDatePipe,

@@ -1,9 +1,7 @@
 import { ChangeDetectionStrategy, Component, inject, input } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
-import { MatProgressBarModule } from '@angular/material/progress-bar';
 
-import type { InvoiceJson } from '../../../shared/api/money';
 import { ShopDatePipe } from '../core/shop-date-pipe';
 import { EstimateTable } from './estimate-table';
 import { ListState } from '../ui/list-state';
@@ -17,14 +15,7 @@ import { formatAmount, sameJobVersion, type MoneyJob } from './money-words';
  */
 @Component({
   selector: 'app-invoice-panel',
-  imports: [
-    EstimateTable,
-    ListState,
-    MatButtonModule,
-    MatIconModule,
-    MatProgressBarModule,
-    ShopDatePipe,
-  ],
+  imports: [EstimateTable, ListState, MatButtonModule, MatIconModule, ShopDatePipe],
   templateUrl: './invoice-panel.html',
   styleUrl: './invoice-panel.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,

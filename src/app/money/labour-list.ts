@@ -1,11 +1,10 @@
-import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
 import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatCheckboxModule } from '@angular/material/checkbox';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
-import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { MatTableModule } from '@angular/material/table';
 import { MatTooltipModule } from '@angular/material/tooltip';
@@ -22,6 +21,8 @@ import { apiErrorMessage } from '../core/api-error';
 import { controlError, placeApiErrors } from '../core/field-errors';
 import { Notifier } from '../core/notifier';
 import { Session } from '../core/session';
+import { ListState } from '../ui/list-state';
+import { loadEach } from '../ui/load';
 import { MoneyApi } from './money-api';
 import { AMOUNT_PATTERN, formatAmount } from './money-words';
 
@@ -42,7 +43,7 @@ export const PER_LABELS: Record<LabourPer, string> = {
     MatFormFieldModule,
     MatIconModule,
     MatInputModule,
-    MatProgressBarModule,
+    ListState,
     MatSelectModule,
     MatTableModule,
     MatTooltipModule,
@@ -64,9 +65,11 @@ export class LabourList {
   protected readonly money = formatAmount;
   protected readonly columns = ['name', 'per', 'price', 'proposeFor', 'active', 'actions'];
 
-  protected readonly items = signal<LabourOperationJson[]>([]);
-  protected readonly loading = signal(true);
-  protected readonly loadError = signal('');
+  protected readonly loaded = loadEach(
+    () => 'all',
+    () => this.api.labour(),
+  );
+  protected readonly items = computed(() => this.loaded.value()?.items ?? []);
   protected readonly saving = signal(false);
   protected readonly formError = signal('');
   /** The operation being changed, or null while adding a new one. */
@@ -85,25 +88,6 @@ export class LabourList {
     proposeFor: new FormControl<ProposeFor>('never', { nonNullable: true }),
     active: new FormControl(true, { nonNullable: true }),
   });
-
-  constructor() {
-    this.load();
-  }
-
-  protected load(): void {
-    this.loading.set(true);
-    this.api.labour().subscribe({
-      next: (r) => {
-        this.loading.set(false);
-        this.loadError.set('');
-        this.items.set(r.items);
-      },
-      error: (e: unknown) => {
-        this.loading.set(false);
-        this.loadError.set(apiErrorMessage(e));
-      },
-    });
-  }
 
   protected perLabel(item: LabourOperationJson): string {
     return PER_LABELS[item.per];
@@ -156,7 +140,7 @@ export class LabourList {
           `${saved.name}: ${formatAmount(saved.price, this.currency())} ${PER_LABELS[saved.per].toLowerCase()} saved.`,
         );
         this.cancelEdit();
-        this.load();
+        this.loaded.reload();
       },
       error: (e: unknown) => {
         this.saving.set(false);
@@ -169,7 +153,7 @@ export class LabourList {
   protected setActive(item: LabourOperationJson, active: boolean): void {
     this.api.changeLabour(item.id, { active }).subscribe({
       next: (saved) => {
-        this.items.update((all) => all.map((i) => (i.id === saved.id ? saved : i)));
+        this.loaded.set({ items: this.items().map((i) => (i.id === saved.id ? saved : i)) });
         void this.notifier.success(
           active ? `${saved.name} is offered again.` : `${saved.name} is no longer offered.`,
         );

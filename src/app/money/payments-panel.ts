@@ -4,7 +4,6 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
-import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import type { Observable } from 'rxjs';
 
@@ -15,10 +14,8 @@ import {
   type CounterMethod,
   type PaymentJson,
   type PaymentPurpose,
-  type PaymentsJson,
 } from '../../../shared/api/money';
 import { SettingsApi } from '../admin/settings-api';
-import { apiErrorMessage } from '../core/api-error';
 import { controlError, placeApiErrors } from '../core/field-errors';
 import { Notifier } from '../core/notifier';
 import { Session } from '../core/session';
@@ -53,7 +50,6 @@ export const PURPOSE_LABELS: Record<PaymentPurpose, string> = {
     MatFormFieldModule,
     MatIconModule,
     MatInputModule,
-    MatProgressBarModule,
     MatSelectModule,
     ReactiveFormsModule,
     ShopDatePipe,
