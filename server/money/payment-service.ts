@@ -26,6 +26,8 @@ import { minorUnits, paymentJson, PURPOSE_WORDS } from './payments-json';
 import * as estimates from './estimate-repository';
 import { estimateJson } from './estimate-json';
 import { syncProposal } from './estimate-service';
+import { findInvoiceOfJob } from './invoice-repository';
+import { getInvoice } from './invoice-service';
 import { customerContact } from './customer-contact';
 import { paymentRequestMail } from './payment-mail';
 import { newPublicLink, publicPath } from './public-links';
@@ -45,10 +47,15 @@ async function lockedJob(trx: Conn, jobId: string): Promise<repo.PayingJob> {
 }
 
 /**
- * What the job costs: its estimate's total as the job page shows it (an open job's draft first
- * takes in what changed on the job, as reading the estimate does).
+ * What the job costs: once handed back, its invoice; before, its estimate's total as the job page
+ * shows it (an open job's draft first takes in what changed on the job, as reading it does).
  */
 async function jobTotal(trx: Conn, job: repo.PayingJob, settings: ShopSettings): Promise<string> {
+  if (await findInvoiceOfJob(job.id, trx)) {
+    // Handed back: what the invoice asks for, less what credit notes took off it.
+    const invoice = await getInvoice(job.id, trx);
+    return minusMoney(invoice.total, invoice.credited, invoice.currency);
+  }
   if (!isOpenState(job.state)) {
     const est = await estimates.findEstimate(job.id, trx);
     const lines = est ? await estimates.linesOf(job.id, trx) : [];

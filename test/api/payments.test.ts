@@ -7,6 +7,7 @@ import http from 'node:http';
 import type { AddressInfo } from 'node:net';
 import request from 'supertest';
 import Stripe from 'stripe';
+import Decimal from 'decimal.js';
 import { db } from '../../server/db/knex';
 import { createApp, type CreatedApp } from '../../server/app';
 import { startLocalSmtp, type LocalSmtp } from '../../server/mail/fake-smtp';
@@ -423,6 +424,31 @@ describe('the counter, the balance, refunds and calling the job off', () => {
     expect(event.text).toMatch(/withdrawn/);
     const after = await staff.post(`/api/jobs/${job.id}/payment-requests`, { purpose: 'deposit' });
     expect(after.status).toBe(409);
+  });
+});
+
+describe('after the hand-back', () => {
+  it('when the job is handed back, then its payments owe what the invoice says, and the balance can be paid at the counter', async () => {
+    const job = await pricedJob();
+    expect((await staff.get(`/api/jobs/${job.id}/estimate`)).body.total).toBe('547.20');
+    await staff.post(`/api/jobs/${job.id}/payments`, { method: 'card', amount: '200.00' });
+    expect((await staff.post(`/api/jobs/${job.id}/collect`)).status).toBe(200);
+    const invoice = (await staff.get(`/api/jobs/${job.id}/invoice`)).body;
+    const list = (await staff.get(`/api/jobs/${job.id}/payments`)).body;
+    expect(list).toMatchObject({ paid: '200.00', balance: invoice.balance });
+    const over = await staff.post(`/api/jobs/${job.id}/payments`, {
+      method: 'cash',
+      amount: new Decimal(invoice.balance).plus(1).toFixed(2),
+    });
+    expect(over.status).toBe(400);
+    const rest = await staff.post(`/api/jobs/${job.id}/payments`, {
+      method: 'cash',
+      amount: invoice.balance,
+    });
+    expect(rest.status).toBe(201);
+    expect(rest.body.purpose).toBe('balance');
+    expect((await staff.get(`/api/jobs/${job.id}/payments`)).body.balance).toBe('0.00');
+    expect((await staff.get(`/api/jobs/${job.id}/invoice`)).body.balance).toBe('0.00');
   });
 });
 
