@@ -287,20 +287,20 @@ export interface AbcDb {
 }
 
 /**
- * ABC classes by issue value at cost over the last :months months (Pareto convention 80/15/5), the
+ * ABC classes by issue value at cost over the period's days (Pareto convention 80/15/5), the
  * same rule as shared/abc.ts: largest value first (ties by id); a part is A while the cumulative
  * share before it is below 80 %, B while below 95 %, else C. Comparisons are exact (no division).
  * Parts on the shelf that did not move are listed too, as C with value 0.
  */
-export async function abc(months: number, k: Knex = db): Promise<AbcDb[]> {
+export async function abc(args: PeriodArgs, k: Knex = db): Promise<AbcDb[]> {
   const result = await k.raw<{ rows: AbcDb[] }>(
     `
-    WITH used AS (
-      SELECT l.part_id, greatest(sum(-l.quantity * ${COST}), 0) AS value
-        FROM stock_ledger l
-        JOIN parts p ON p.id = l.part_id
-       WHERE l.kind = 'issue' AND l.at >= now() - make_interval(months => :months)
-       GROUP BY l.part_id
+    WITH ${ISSUED_CTE}, used AS (
+      SELECT i.part_id,
+             greatest(sum(i.cost_known + i.units_cost_unknown * p.average_cost), 0) AS value
+        FROM issued i
+        JOIN parts p ON p.id = i.part_id
+       GROUP BY i.part_id
     ), items AS (
       SELECT p.id AS part_id, coalesce(u.value, 0) AS value, pl.on_hand
         FROM parts p
@@ -335,7 +335,7 @@ export async function abc(months: number, k: Knex = db): Promise<AbcDb[]> {
       LEFT JOIN series_steps ss ON ss.id = p.step_id
      ORDER BY c.value DESC, c.part_id
     `,
-    { months },
+    issuedBindings(args),
   );
   return result.rows;
 }

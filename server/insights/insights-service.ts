@@ -2,7 +2,7 @@
 // suppliers keep their word. PostgreSQL computes every figure (insights-repository.ts); this file
 // picks the period in the shop's time zone and shapes the answers.
 import type { Knex } from 'knex';
-import { IANAZone } from 'luxon';
+import { DateTime, IANAZone } from 'luxon';
 import { db } from '../db/knex';
 import { logger } from '../logger';
 import { getSettings } from '../settings/settings-service';
@@ -203,7 +203,17 @@ export async function deadStock(months: number, k: Knex = db): Promise<DeadStock
 }
 
 export async function abc(months: number, k: Knex = db): Promise<AbcAnswer> {
-  const [rows, { currency }] = await Promise.all([repo.abc(months, k), shopContext(k)]);
+  // The last `months` months as whole days in the shop's zone, today included.
+  const { timeZone, currency } = await shopContext(k);
+  const today = DateTime.now().setZone(timeZone);
+  const rows = await repo.abc(
+    {
+      fromDay: today.minus({ months }).plus({ days: 1 }).toISODate() as string,
+      toDay: today.toISODate() as string,
+      tz: timeZone,
+    },
+    k,
+  );
   const classes = (['A', 'B', 'C'] as AbcClass[]).map((cls) => {
     const first = rows.find((r) => r.class === cls);
     return {
