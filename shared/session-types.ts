@@ -1,5 +1,6 @@
 // Who is signed in, as the server answers GET /api/session and the client keeps it.
 // Pure types and one constant: shared by the Express server and the Angular client.
+import type { LabelStock } from './label-stock';
 import type { LengthUnit } from './lengths';
 
 export type { LengthUnit };
@@ -24,7 +25,13 @@ export interface SessionUser {
 /** Body of a 200 from GET /api/session and POST /api/session. */
 export interface SessionResponse {
   user: SessionUser;
-  shop?: { name: string; timeZone?: string; locale?: string; currency?: string };
+  shop?: {
+    name: string;
+    timeZone?: string;
+    locale?: string;
+    currency?: string;
+    labelStock?: LabelStock;
+  };
 }
 
 /** Shortest password a person may set; long passphrases beat clever symbols. */

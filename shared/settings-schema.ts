@@ -5,6 +5,7 @@ import { z } from 'zod';
 
 import { STEP_POLICIES, type StepPolicy } from './bore-choice';
 import { DEFAULT_LOCALE, isShopLocale } from './dates';
+import { LABEL_STOCKS } from './label-stock';
 import { parseLength } from './lengths';
 import { isCurrencyCode, parseMoney } from './money';
 import { BAR_RESOLUTIONS, type BarResolution } from './pass-plan';
@@ -89,6 +90,9 @@ export const shopSettingsSchema = z
     shippingAllocation: z.enum(SHIPPING_ALLOCATIONS, {
       error: 'must be value, quantity or none',
     }),
+    labelStock: z.enum(LABEL_STOCKS, {
+      error: 'must be sheet, roll-62x35, roll-62x29 or roll-50x25',
+    }),
   })
   .strict();
 
@@ -121,4 +125,5 @@ export const DEFAULT_SETTINGS: ShopSettings = {
   depositPercent: '30',
   cutOnlyAfterApproval: true,
   shippingAllocation: 'value',
+  labelStock: 'sheet',
 };

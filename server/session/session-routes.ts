@@ -27,6 +27,7 @@ async function sessionBody(user: SessionUser) {
       timeZone: settings.timeZone,
       locale: settings.locale,
       currency: settings.homeCurrency,
+      labelStock: settings.labelStock,
     },
   };
 }

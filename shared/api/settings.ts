@@ -1,6 +1,7 @@
 // The shop's settings as GET /api/settings answers them and PATCH /api/settings takes them (owner).
 import type { BarResolution } from '../pass-plan';
 import type { StepPolicy } from '../bore-choice';
+import type { LabelStock } from '../label-stock';
 
 export type ClearancePolicy = 'min' | 'mid' | 'max';
 
@@ -40,4 +41,6 @@ export interface ShopSettingsJson {
   cutOnlyAfterApproval: boolean;
   /** How an order's shipping joins the cost of what it brings in. */
   shippingAllocation: 'value' | 'quantity' | 'none';
+  /** What labels print on: sticker sheets, or one label per page on a label printer's roll. */
+  labelStock: LabelStock;
 }

@@ -122,7 +122,11 @@ export function takePageProblems(): PageProblem[] {
   return found;
 }
 
-export async function openBrowser(): Promise<Browser> {
+/**
+ * Debian's Chromium in a profile of its own. `extraArgs` is for a file that needs a browser set up
+ * differently (a fake camera fed from a file); every other file gets the same flags.
+ */
+export async function openBrowser(extraArgs: readonly string[] = []): Promise<Browser> {
   const userDataDir = mkdtempSync(path.join(os.tmpdir(), 'stepstock-chromium-'));
   const context = await chromium.launchPersistentContext(userDataDir, {
     executablePath: '/usr/bin/chromium',
@@ -141,6 +145,7 @@ export async function openBrowser(): Promise<Browser> {
       '--disable-component-update',
       '--disable-sync',
       '--disable-dev-shm-usage',
+      ...extraArgs,
     ],
   });
   // A test can never reach out: anything not on loopback is refused.

@@ -17,6 +17,7 @@ import { MatSelectModule } from '@angular/material/select';
 
 import type { ShopSettingsJson } from '../../../shared/api/settings';
 import { formatShopDate, SHOP_LOCALES } from '../../../shared/dates';
+import { LABEL_STOCK_NAMES, LABEL_STOCKS } from '../../../shared/label-stock';
 import { settingWarning } from '../../../shared/settings-ranges';
 import { shopSettingsSchema } from '../../../shared/settings-schema';
 import { apiErrorMessage, detailSentence } from '../core/api-error';
@@ -68,6 +69,11 @@ export class SettingsPage {
     sample: formatShopDate('2026-12-31T14:05:00Z', 'datetime', { locale: l.tag, timeZone: 'UTC' }),
   }));
 
+  protected readonly labelStocks = LABEL_STOCKS.map((value) => ({
+    value,
+    name: LABEL_STOCK_NAMES[value],
+  }));
+
   protected readonly loading = signal(true);
   protected readonly saving = signal(false);
   protected readonly loadError = signal('');
@@ -100,6 +106,7 @@ export class SettingsPage {
       'value' as ShopSettingsJson['shippingAllocation'],
       schemaRule('shippingAllocation'),
     ],
+    labelStock: ['sheet' as ShopSettingsJson['labelStock'], schemaRule('labelStock')],
   });
 
   private readonly values = toSignal(this.form.valueChanges, {

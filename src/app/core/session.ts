@@ -2,6 +2,7 @@ import { HttpClient, HttpContext, HttpErrorResponse } from '@angular/common/http
 import { computed, inject, Injectable, signal } from '@angular/core';
 import { catchError, firstValueFrom, map, Observable, of, tap, throwError } from 'rxjs';
 
+import type { LabelStock } from '../../../shared/label-stock';
 import type { SessionResponse, SessionUser } from '../../../shared/session-types';
 import { HANDLES_OWN_401 } from './http-context';
 import { clearCachedAnswers, idbOfflineStorage } from './offline-store';
@@ -64,6 +65,8 @@ export class Session {
   /** The shop's home currency: stock is valued in it. */
   readonly currency = computed(() => this.current()?.shop?.currency || 'EUR');
   readonly unit = computed(() => this.user()?.unit ?? 'mm');
+  /** What the shop prints labels on (shop settings): sheets, or a label printer's roll. */
+  readonly labelStock = computed<LabelStock>(() => this.current()?.shop?.labelStock ?? 'sheet');
 
   /** Whether the signed-in person's role may do the action (read inside `computed` to follow it). */
   may(action: Action): boolean {

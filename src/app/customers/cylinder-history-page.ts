@@ -10,6 +10,8 @@ import { JOB_STATE_LABELS } from '../../../shared/api/jobs';
 import { LengthPipe } from '../core/length-pipe';
 import { Session } from '../core/session';
 import { loadEach } from '../ui/load';
+import { labelPageCss, rollFor } from '../../../shared/label-stock';
+import { labelSizeWords } from '../ui/label-layout';
 import { printPageRule } from '../ui/print-page';
 import { boreChart } from './bore-chart';
 import { BoreChartView } from './bore-chart-view';
@@ -59,10 +61,12 @@ export class CylinderHistoryPage {
     return c && c.bores.length > 0 ? stepsLeftWarning(c.stepsLeft) : null;
   });
   protected readonly stateLabels = JOB_STATE_LABELS;
+  /** The tag prints alone, one label on one page: the shop's roll, or 62 × 35 mm with sheets. */
+  protected readonly tagStock = computed(() => rollFor(this.session.labelStock()));
+  protected readonly tagSize = computed(() => labelSizeWords(this.tagStock()));
 
   constructor() {
-    // One label on one page, the size of the label stock.
-    effect(() => this.setPage('size: 62mm 35mm; margin: 0'));
+    effect(() => this.setPage(labelPageCss(this.tagStock())));
   }
 
   protected print(): void {

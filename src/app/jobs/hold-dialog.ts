@@ -16,6 +16,7 @@ import { apiErrorBody, apiErrorMessage, apiFieldErrors } from '../core/api-error
 import { LengthPipe } from '../core/length-pipe';
 import { Session } from '../core/session';
 import { StockApi } from '../stock/stock-api';
+import { CameraScanButton } from '../ui/camera-scan';
 import { JobsApi } from './jobs-api';
 
 export interface HoldDialogData {
@@ -34,6 +35,7 @@ type Loaded = { ok: true; proposal: ProposalJson } | { ok: false; message: strin
 @Component({
   selector: 'app-hold-dialog',
   imports: [
+    CameraScanButton,
     LengthPipe,
     MatButtonModule,
     MatCheckboxModule,
@@ -138,6 +140,12 @@ export class HoldDialog {
   protected pick(unit: ProposedUnitJson): void {
     this.picked.set(unit);
     this.problem.set('');
+  }
+
+  /** A label read by the camera: found and checked as a typed one is. */
+  protected onScanned(label: string): void {
+    this.label.set(label);
+    this.findLabel();
   }
 
   /** A label from the scanner (it types the label and Enter) or the keyboard. */

@@ -9,26 +9,41 @@ import { catchError, map, of, startWith } from 'rxjs';
 import type { BinJson } from '../../../shared/api/stock';
 import { apiErrorMessage } from '../core/api-error';
 import { Barcode } from '../ui/barcode';
-import { printPageRule } from '../ui/print-page';
+import { labelLayout, LabelLayoutToggle } from '../ui/label-layout';
 import { StockApi } from './stock-api';
 
 type Loaded =
   { state: 'loading' } | { state: 'ok'; bins: BinJson[] } | { state: 'error'; message: string };
 
-/** Bin labels on the same sticker sheet as piston labels: the code large, and as Code 128. */
+/**
+ * Bin labels on the same sticker sheet as piston labels, or one per page on the shop's label roll:
+ * the code large, and as Code 128.
+ */
 @Component({
   selector: 'app-bin-labels',
-  imports: [Barcode, MatButtonModule, MatIconModule, MatProgressBarModule, RouterLink],
+  imports: [
+    Barcode,
+    LabelLayoutToggle,
+    MatButtonModule,
+    MatIconModule,
+    MatProgressBarModule,
+    RouterLink,
+  ],
   template: `
     <section class="page labels-page">
       <header class="page-header no-print">
         <h1>Bin labels</h1>
+        <app-label-layout-toggle [single]="single()" />
         <button mat-flat-button type="button" [disabled]="bins().length === 0" (click)="print()">
           <mat-icon>print</mat-icon>Print
         </button>
       </header>
       <p class="intro no-print">
-        62 × 35 mm stickers, three across and seven down, for A4 or Letter. Print at 100 %.
+        @if (single()) {
+          One {{ layoutNow.sizeWords() }} label per page, for a label printer.
+        } @else {
+          62 × 35 mm stickers, three across and seven down, for A4 or Letter. Print at 100 %.
+        }
       </p>
       @if (loaded().state === 'loading') {
         <mat-progress-bar mode="indeterminate" aria-label="Loading bins" />
@@ -42,7 +57,7 @@ type Loaded =
         <p class="empty">No bins to label. Add bins first.</p>
       }
       @for (sheet of sheets(); track $index) {
-        <div class="sheet">
+        <div class="sheet" [class]="'stock-' + layoutNow.stock()" [class.single]="single()">
           @for (b of sheet; track b.id) {
             <article class="label bin" [attr.aria-label]="'Label for bin ' + b.code">
               <p class="bin-code">{{ b.code }}</p>
@@ -61,8 +76,12 @@ type Loaded =
 export class BinLabels {
   private readonly api = inject(StockApi);
 
-  /** ?ids=a,b,c for chosen bins; all bins without it. */
+  /** ?ids=a,b,c for chosen bins; all bins without it. ?layout=sheet|single. */
   readonly ids = input<string>();
+  readonly layout = input<string>();
+
+  protected readonly layoutNow = labelLayout(this.layout);
+  protected readonly single = this.layoutNow.single;
 
   protected readonly loaded = toSignal(
     this.api.bins({ page: 1, pageSize: 500 }).pipe(
@@ -82,18 +101,15 @@ export class BinLabels {
   });
   protected readonly sheets = computed(() => {
     const bins = this.bins();
+    const size = this.single() ? 1 : 21;
     const sheets: BinJson[][] = [];
-    for (let i = 0; i < bins.length; i += 21) sheets.push(bins.slice(i, i + 21));
+    for (let i = 0; i < bins.length; i += size) sheets.push(bins.slice(i, i + size));
     return sheets;
   });
   protected readonly error = computed(() => {
     const loaded = this.loaded();
     return loaded.state === 'error' ? loaded.message : '';
   });
-
-  constructor() {
-    printPageRule()('margin: 10mm;');
-  }
 
   protected print(): void {
     window.print();

@@ -15,6 +15,7 @@ import { catchError, debounceTime, distinctUntilChanged, map, of, switchMap, tap
 import type { BinJson } from '../../../shared/api/stock';
 import { apiErrorBody, apiErrorMessage, apiFieldErrors } from '../core/api-error';
 import { Notifier } from '../core/notifier';
+import { CameraScanButton } from '../ui/camera-scan';
 import { StockApi } from './stock-api';
 import type { Page } from '../../../shared/api/common';
 
@@ -24,6 +25,7 @@ type Loaded = { ok: true; page: Page<BinJson> } | { ok: false; message: string }
 @Component({
   selector: 'app-bin-list',
   imports: [
+    CameraScanButton,
     MatButtonModule,
     MatCheckboxModule,
     MatFormFieldModule,

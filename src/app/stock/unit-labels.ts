@@ -1,17 +1,16 @@
-import { ChangeDetectionStrategy, Component, computed, effect, inject, input } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input } from '@angular/core';
 import { toObservable, toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
-import { MatButtonToggleModule } from '@angular/material/button-toggle';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
-import { Router, RouterLink } from '@angular/router';
+import { RouterLink } from '@angular/router';
 import { catchError, combineLatest, map, Observable, of, startWith, switchMap } from 'rxjs';
 
 import type { UnitJson } from '../../../shared/api/stock';
 import { apiErrorMessage } from '../core/api-error';
 import { LengthPipe } from '../core/length-pipe';
 import { Barcode } from '../ui/barcode';
-import { printPageRule } from '../ui/print-page';
+import { labelLayout, LabelLayoutToggle } from '../ui/label-layout';
 import { StockApi } from './stock-api';
 
 const LABELS_PER_SHEET = 21;
@@ -22,15 +21,15 @@ type Loaded =
 /**
  * Printable piston labels: family, step, the measured size in both units, the label code as a
  * Code 128 barcode and the bin. A sticker sheet of 3 × 7 labels (62 × 35 mm) that fits both A4 and
- * Letter inside 10 mm margins, or one label per page for a label printer.
+ * Letter inside 10 mm margins, or one label per page at the size of the shop's label roll.
  */
 @Component({
   selector: 'app-unit-labels',
   imports: [
     Barcode,
+    LabelLayoutToggle,
     LengthPipe,
     MatButtonModule,
-    MatButtonToggleModule,
     MatIconModule,
     MatProgressBarModule,
     RouterLink,
@@ -41,15 +40,14 @@ type Loaded =
 })
 export class UnitLabels {
   private readonly api = inject(StockApi);
-  private readonly router = inject(Router);
-  private readonly setPage = printPageRule();
 
   /** From the address: ?receipt=<receipt id> or ?unit=<unit id>, and ?layout=sheet|single. */
   readonly receipt = input<string>();
   readonly unit = input<string>();
   readonly layout = input<string>();
 
-  protected readonly single = computed(() => this.layout() === 'single');
+  protected readonly layoutNow = labelLayout(this.layout);
+  protected readonly single = this.layoutNow.single;
 
   private readonly loaded = toSignal(
     combineLatest([toObservable(this.receipt), toObservable(this.unit)]).pipe(
@@ -95,19 +93,6 @@ export class UnitLabels {
     const loaded = this.loaded();
     return loaded.state === 'error' ? loaded.message : '';
   });
-
-  constructor() {
-    effect(() => {
-      this.setPage(this.single() ? 'size: 62mm 35mm; margin: 0;' : 'margin: 10mm;');
-    });
-  }
-
-  protected setLayout(layout: unknown): void {
-    void this.router.navigate([], {
-      queryParams: { layout: layout === 'single' ? 'single' : null },
-      queryParamsHandling: 'merge',
-    });
-  }
 
   protected print(): void {
     window.print();

@@ -39,6 +39,7 @@ import { apiErrorMessage } from '../core/api-error';
 import { LengthPipe } from '../core/length-pipe';
 import { Notifier } from '../core/notifier';
 import { Session } from '../core/session';
+import { CameraScanButton } from '../ui/camera-scan';
 import { looksScanned } from '../ui/scan';
 import { MeasureDialog } from './measure-dialog';
 import { MoveDialog, type MoveTarget } from './move-dialog';
@@ -55,6 +56,7 @@ type StatusFilter = UnitStatus | 'on-shelf' | '';
 @Component({
   selector: 'app-unit-list',
   imports: [
+    CameraScanButton,
     MatTooltipModule,
     ShopDatePipe,
     LengthPipe,
@@ -163,6 +165,12 @@ export class UnitList {
   protected onSearch(value: string): void {
     this.text.set(value);
     this.pageIndex.set(0);
+  }
+
+  /** A label read by the camera: searched at once, as a wedge scanner's label and Enter are. */
+  protected onScanned(label: string): void {
+    this.onSearch(label);
+    this.onEnter();
   }
 
   protected onEnter(): void {

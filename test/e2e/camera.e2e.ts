@@ -1,0 +1,187 @@
+// Scanning labels with the camera, in the browser on the demo shop. The fake camera is Chromium's
+// own (`--use-file-for-fake-video-capture`) playing a YUV4MPEG2 file this test writes from one of
+// our printed piston labels. Without a camera the scan says so and the typed field still works.
+import { mkdirSync } from 'node:fs';
+import path from 'node:path';
+import pg from 'pg';
+import type { Page } from 'playwright-core';
+import { labelLuma, writeY4m } from './fake-camera';
+import {
+  ARTIFACTS,
+  DEMO,
+  e2eEnvironment,
+  failOnPageErrors,
+  openBrowser,
+  screenshot,
+  signIn,
+  type Browser,
+} from './support';
+
+failOnPageErrors();
+
+jest.setTimeout(180_000);
+
+let env: Awaited<ReturnType<typeof e2eEnvironment>>;
+let camera: Browser | null = null;
+const Y4M = path.join(ARTIFACTS, 'camera', 'piston-label.y4m');
+
+beforeAll(async () => {
+  env = await e2eEnvironment();
+});
+afterAll(async () => {
+  await camera?.close().catch(() => undefined);
+  await env?.close();
+});
+
+async function query<T>(sql: string, params: unknown[] = []): Promise<T[]> {
+  const client = new pg.Client({ connectionString: env.databaseUrl });
+  await client.connect();
+  try {
+    return (await client.query(sql, params)).rows as T[];
+  } finally {
+    await client.end();
+  }
+}
+
+/**
+ * An open job's cylinder with a step chosen and not cut, with a free measured piston of the job's
+ * family at that step: one with no piston held if the demo shop has one, else one whose held piston
+ * the test lets go first (`held`).
+ */
+async function cylinderForPiston(): Promise<{ job_id: string; n: number; held: string | null }> {
+  const rows = await query<{ job_id: string; n: number; held: string | null }>(
+    `SELECT c.job_id, c.n,
+            (SELECT u.label FROM holds h JOIN piston_units u ON u.id = h.unit_id
+              WHERE h.job_id = c.job_id AND h.cylinder = c.n AND h.released_at IS NULL
+              LIMIT 1) AS held
+       FROM job_cylinders c JOIN jobs j ON j.id = c.job_id
+      WHERE c.chosen_step_id IS NOT NULL AND c.cut_at IS NULL
+        AND j.state NOT IN ('handed_back', 'called_off')
+        AND EXISTS (SELECT 1 FROM piston_units u JOIN parts p ON p.id = u.part_id
+                     WHERE p.family_id = j.family_id AND p.step_id = c.chosen_step_id
+                       AND p.kind = 'piston' AND u.status = 'free' AND u.skirt_nm IS NOT NULL)
+      ORDER BY 3 NULLS FIRST, j.created_at, c.n LIMIT 1`,
+  );
+  if (!rows[0]) throw new Error('the demo shop has no cylinder a free piston fits');
+  return rows[0];
+}
+
+/** The search field on the pistons page, and the labels of the rows it shows. */
+async function shownLabels(page: Page): Promise<string[]> {
+  return page.locator('table tbody tr td.mat-column-label').allInnerTexts();
+}
+
+let target: { jobId: string; n: number; unitId: string; label: string } | null = null;
+
+describe('scanning a label with the camera', () => {
+  it('when there is no camera, then the scan says so and the typed label still finds the piston', async () => {
+    const page = env.page;
+    await signIn(page, env.baseUrl, DEMO.machinist);
+    const [unit] = await query<{ label: string }>(
+      `SELECT label FROM piston_units WHERE status = 'free' ORDER BY label LIMIT 1`,
+    );
+    await page.goto(`${env.baseUrl}/stock/units`);
+    await page.getByRole('button', { name: 'Scan with camera' }).click();
+    const dialog = page.getByRole('dialog');
+    // Chromium without a camera device answers NotFoundError.
+    await dialog
+      .getByRole('alert')
+      .getByText(/No camera was found/)
+      .waitFor();
+    await dialog.getByText(/Type the label into the field instead/).waitFor();
+    await screenshot(page, 'camera-none');
+    await dialog.getByRole('button', { name: 'Close' }).click();
+    await dialog.waitFor({ state: 'detached' });
+
+    await page.getByLabel('Find a piston').fill(unit.label);
+    await page.getByLabel('Find a piston').press('Enter');
+    await page.getByRole('cell', { name: unit.label, exact: true }).waitFor();
+  });
+
+  it('when a label is printed for a piston the cylinder can take, then the fake camera is made from it', async () => {
+    const page = env.page;
+    const cylinder = await cylinderForPiston();
+    await page.goto(`${env.baseUrl}/jobs/${cylinder.job_id}/cylinders/${cylinder.n}`);
+    if (cylinder.held) {
+      await page.getByRole('button', { name: `Release ${cylinder.held}` }).click();
+      await page.getByText(`${cylinder.held} is back on the shelf.`).waitFor();
+    }
+    await page.getByRole('button', { name: 'Set a piston aside' }).click();
+    const dialog = page.getByRole('dialog');
+    const hold = dialog.getByRole('button', { name: /^Hold PU-\d{6}/ });
+    await hold.waitFor();
+    const proposed = ((await hold.textContent()) ?? '').match(/PU-\d{6,}/)?.[0] ?? '';
+    // Another free piston of the step that cleans up, so the scan visibly changes the choice.
+    const others = await dialog.locator('ul li button').allInnerTexts();
+    const other = others.find((t) => !/does not clean up/.test(t))?.match(/PU-\d{6,}/)?.[0];
+    const label = other ?? proposed;
+    expect(label).toMatch(/^PU-\d{6,}$/);
+    await dialog.getByRole('button', { name: 'Cancel' }).click();
+    await dialog.waitFor({ state: 'detached' });
+
+    const [unit] = await query<{ id: string }>('SELECT id FROM piston_units WHERE label = $1', [
+      label,
+    ]);
+    target = { jobId: cylinder.job_id, n: cylinder.n, unitId: unit.id, label };
+    // The label exactly as the label page prints it.
+    await page.goto(`${env.baseUrl}/stock/labels?unit=${unit.id}&layout=single`);
+    await page.getByRole('article', { name: `Label ${label}` }).waitFor();
+    await page.locator('article.label app-barcode svg rect').first().waitFor();
+    mkdirSync(path.dirname(Y4M), { recursive: true });
+    writeY4m(Y4M, await labelLuma(page, 'article.label app-barcode svg'));
+  });
+
+  it('when the camera sees the label on the pistons page, then that piston is found', async () => {
+    expect(target).not.toBeNull();
+    const t = target as NonNullable<typeof target>;
+    camera = await openBrowser([
+      '--use-fake-ui-for-media-stream',
+      '--use-fake-device-for-media-stream',
+      `--use-file-for-fake-video-capture=${Y4M}`,
+    ]);
+    const page = camera.page;
+    await signIn(page, env.baseUrl, DEMO.machinist);
+    await page.goto(`${env.baseUrl}/stock/units`);
+    await page.getByRole('button', { name: 'Scan with camera' }).click();
+    const dialog = page.getByRole('dialog');
+    await dialog.getByLabel('Camera picture').waitFor();
+    await screenshot(page, 'camera-scanning');
+    // The read closes the dialog, which stops the camera, and searches for the label at once.
+    await dialog.waitFor({ state: 'detached' });
+    expect(await page.getByLabel('Find a piston').inputValue()).toBe(t.label);
+    await page.getByRole('cell', { name: t.label, exact: true }).waitFor();
+    expect(await shownLabels(page)).toEqual([t.label]);
+    expect(await page.locator('video').count()).toBe(0);
+    await screenshot(page, 'camera-found-piston');
+  });
+
+  it('when the camera sees the label in the hold dialog, then that piston is held for the cylinder', async () => {
+    const t = target as NonNullable<typeof target>;
+    const page = (camera as Browser).page;
+    await page.goto(`${env.baseUrl}/jobs/${t.jobId}/cylinders/${t.n}`);
+    await page.getByRole('button', { name: 'Set a piston aside' }).click();
+    const dialog = page.getByRole('dialog', { name: /Set a piston aside/ });
+    await dialog.getByRole('button', { name: /^Hold PU-\d{6}/ }).waitFor();
+    await dialog.getByRole('button', { name: 'Scan with camera' }).click();
+    await page.getByRole('dialog', { name: 'Scan a label with the camera' }).waitFor();
+    await page
+      .getByRole('dialog', { name: 'Scan a label with the camera' })
+      .waitFor({ state: 'detached' });
+    // The scanned piston is checked like a typed one, then held through the server's hold.
+    const hold = dialog.getByRole('button', { name: `Hold ${t.label}` });
+    await hold.waitFor();
+    await screenshot(page, 'camera-hold-picked');
+    await hold.click();
+    await dialog.waitFor({ state: 'detached' });
+    await page.locator('.held-piston', { hasText: t.label }).waitFor();
+    const units = await query<{ status: string }>('SELECT status FROM piston_units WHERE id = $1', [
+      t.unitId,
+    ]);
+    expect(units).toEqual([{ status: 'held' }]);
+    const holds = await query<{ job_id: string; cylinder: number }>(
+      'SELECT job_id, cylinder FROM holds WHERE unit_id = $1 AND released_at IS NULL',
+      [t.unitId],
+    );
+    expect(holds).toEqual([{ job_id: t.jobId, cylinder: t.n }]);
+  });
+});
