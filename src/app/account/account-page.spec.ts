@@ -1,17 +1,16 @@
-import { provideHttpClient, withInterceptors } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { HttpTestingController } from '@angular/common/http/testing';
 import { HarnessLoader } from '@angular/cdk/testing';
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import { ComponentFixture, TestBed } from '@angular/core/testing';
 import { MatButtonHarness } from '@angular/material/button/testing';
 import { MatInputHarness } from '@angular/material/input/testing';
 import { MatRadioGroupHarness } from '@angular/material/radio/testing';
-import { provideRouter, Router } from '@angular/router';
+import { Router } from '@angular/router';
 
 import type { SessionUser } from '../../../shared/session-types';
-import { Notifier } from '../core/notifier';
 import { Session } from '../core/session';
 import { unauthorizedInterceptor } from '../core/unauthorized-interceptor';
+import { setUpHttpTest, signIn, type NotifierMock } from '../testing/http-test';
 import { AccountPage } from './account-page';
 
 const ME: SessionUser = {
@@ -26,23 +25,12 @@ describe('AccountPage', () => {
   let http: HttpTestingController;
   let fixture: ComponentFixture<AccountPage>;
   let loader: HarnessLoader;
-  let notifier: { success: jest.Mock; error: jest.Mock };
+  let notifier: NotifierMock;
 
   beforeEach(async () => {
-    notifier = { success: jest.fn(), error: jest.fn() };
-    TestBed.configureTestingModule({
-      providers: [
-        provideRouter([]),
-        // The real interceptor: a wrong current password (401) must not sign the person out.
-        provideHttpClient(withInterceptors([unauthorizedInterceptor])),
-        provideHttpClientTesting(),
-        { provide: Notifier, useValue: notifier },
-      ],
-    });
-    http = TestBed.inject(HttpTestingController);
-    const loading = TestBed.inject(Session).load();
-    http.expectOne('/api/session').flush({ user: ME });
-    await loading;
+    // The real interceptor: a wrong current password (401) must not sign the person out.
+    ({ http, notifier } = setUpHttpTest({ interceptors: [unauthorizedInterceptor] }));
+    await signIn(http, ME);
     fixture = TestBed.createComponent(AccountPage);
     loader = TestbedHarnessEnvironment.loader(fixture);
     await fixture.whenStable();

@@ -1,9 +1,4 @@
-import { provideHttpClient } from '@angular/common/http';
-import {
-  HttpTestingController,
-  provideHttpClientTesting,
-  TestRequest,
-} from '@angular/common/http/testing';
+import { HttpTestingController, TestRequest } from '@angular/common/http/testing';
 import { HarnessLoader } from '@angular/cdk/testing';
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import { ComponentFixture, TestBed } from '@angular/core/testing';
@@ -11,10 +6,10 @@ import { MatButtonHarness } from '@angular/material/button/testing';
 import { MatSelectHarness } from '@angular/material/select/testing';
 import { MatSortHarness } from '@angular/material/sort/testing';
 import { MatTableHarness } from '@angular/material/table/testing';
-import { provideRouter } from '@angular/router';
 
 import type { AuditEventJson, AuditPageJson } from '../../../shared/api/audit';
 import { provideShopDateAdapter } from '../core/shop-date-adapter';
+import { setUpHttpTest } from '../testing/http-test';
 import { AuditLog } from './audit-log';
 import { fieldChanges } from './audit-words';
 
@@ -57,15 +52,7 @@ describe('AuditLog', () => {
   let loader: HarnessLoader;
 
   beforeEach(async () => {
-    TestBed.configureTestingModule({
-      providers: [
-        provideRouter([]),
-        provideHttpClient(),
-        provideHttpClientTesting(),
-        provideShopDateAdapter(),
-      ],
-    });
-    http = TestBed.inject(HttpTestingController);
+    ({ http } = setUpHttpTest({ providers: [provideShopDateAdapter()] }));
     fixture = TestBed.createComponent(AuditLog);
     loader = TestbedHarnessEnvironment.loader(fixture);
     await fixture.whenStable();
@@ -187,15 +174,7 @@ describe('AuditLog names the records a change is about', () => {
   };
 
   it('when the server names the ids, then the record and its fields read as job number, label and SKU, each linked to its page', async () => {
-    TestBed.configureTestingModule({
-      providers: [
-        provideRouter([]),
-        provideHttpClient(),
-        provideHttpClientTesting(),
-        provideShopDateAdapter(),
-      ],
-    });
-    const http = TestBed.inject(HttpTestingController);
+    const { http } = setUpHttpTest({ providers: [provideShopDateAdapter()] });
     const fixture = TestBed.createComponent(AuditLog);
     await fixture.whenStable();
     http
@@ -252,15 +231,7 @@ describe('AuditLog names the records a change is about', () => {
   });
 
   it('when a change holds a list of lines, then each line reads in words with its part by SKU', async () => {
-    TestBed.configureTestingModule({
-      providers: [
-        provideRouter([]),
-        provideHttpClient(),
-        provideHttpClientTesting(),
-        provideShopDateAdapter(),
-      ],
-    });
-    const http = TestBed.inject(HttpTestingController);
+    const { http } = setUpHttpTest({ providers: [provideShopDateAdapter()] });
     const fixture = TestBed.createComponent(AuditLog);
     await fixture.whenStable();
     const SUPPLIER = 'a0000000-0000-4000-8000-0000000000s1';

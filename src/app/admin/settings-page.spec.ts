@@ -1,5 +1,4 @@
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { HttpTestingController } from '@angular/common/http/testing';
 import { HarnessLoader } from '@angular/cdk/testing';
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import { ComponentFixture, TestBed } from '@angular/core/testing';
@@ -8,7 +7,7 @@ import { MatInputHarness } from '@angular/material/input/testing';
 
 import type { ShopSettingsJson } from '../../../shared/api/settings';
 import { DEFAULT_SETTINGS } from '../../../shared/settings-schema';
-import { Notifier } from '../core/notifier';
+import { setUpHttpTest, type NotifierMock } from '../testing/http-test';
 import { SettingsPage } from './settings-page';
 
 // The shop's defaults, under a shop name and hours of its own.
@@ -22,18 +21,10 @@ describe('SettingsPage', () => {
   let http: HttpTestingController;
   let fixture: ComponentFixture<SettingsPage>;
   let loader: HarnessLoader;
-  let notifier: { success: jest.Mock; error: jest.Mock };
+  let notifier: NotifierMock;
 
   beforeEach(async () => {
-    notifier = { success: jest.fn(), error: jest.fn() };
-    TestBed.configureTestingModule({
-      providers: [
-        provideHttpClient(),
-        provideHttpClientTesting(),
-        { provide: Notifier, useValue: notifier },
-      ],
-    });
-    http = TestBed.inject(HttpTestingController);
+    ({ http, notifier } = setUpHttpTest());
     fixture = TestBed.createComponent(SettingsPage);
     loader = TestbedHarnessEnvironment.loader(fixture);
     http.expectOne('/api/settings').flush(SETTINGS);

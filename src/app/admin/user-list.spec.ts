@@ -1,9 +1,4 @@
-import { provideHttpClient } from '@angular/common/http';
-import {
-  HttpTestingController,
-  provideHttpClientTesting,
-  TestRequest,
-} from '@angular/common/http/testing';
+import { HttpTestingController, TestRequest } from '@angular/common/http/testing';
 import { HarnessLoader } from '@angular/cdk/testing';
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import { ComponentFixture, TestBed } from '@angular/core/testing';
@@ -12,8 +7,7 @@ import { MatSelectHarness } from '@angular/material/select/testing';
 import { MatSortHarness } from '@angular/material/sort/testing';
 import { MatTableHarness } from '@angular/material/table/testing';
 
-import { Notifier } from '../core/notifier';
-import { Session } from '../core/session';
+import { setUpHttpTest, signIn, type NotifierMock } from '../testing/http-test';
 import { UserList } from './user-list';
 import type { UserRow } from './users-api';
 
@@ -38,21 +32,11 @@ describe('UserList', () => {
   let http: HttpTestingController;
   let fixture: ComponentFixture<UserList>;
   let loader: HarnessLoader;
-  let notifier: { success: jest.Mock; error: jest.Mock };
+  let notifier: NotifierMock;
 
   beforeEach(async () => {
-    notifier = { success: jest.fn(), error: jest.fn() };
-    TestBed.configureTestingModule({
-      providers: [
-        provideHttpClient(),
-        provideHttpClientTesting(),
-        { provide: Notifier, useValue: notifier },
-      ],
-    });
-    http = TestBed.inject(HttpTestingController);
-    const loading = TestBed.inject(Session).load();
-    http.expectOne('/api/session').flush({ user: { ...OWNER, unit: 'mm' } });
-    await loading;
+    ({ http, notifier } = setUpHttpTest());
+    await signIn(http, { ...OWNER, unit: 'mm' });
 
     fixture = TestBed.createComponent(UserList);
     loader = TestbedHarnessEnvironment.loader(fixture);

@@ -1,11 +1,10 @@
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { HttpTestingController } from '@angular/common/http/testing';
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import { ComponentFixture, TestBed } from '@angular/core/testing';
 import { MatButtonToggleHarness } from '@angular/material/button-toggle/testing';
-import { provideRouter } from '@angular/router';
 
 import type { AlertJson } from '../../../shared/api/alerts';
+import { setUpHttpTest } from '../testing/http-test';
 import { AlertList } from './alert-list';
 
 const ALERT: AlertJson = {
@@ -33,10 +32,7 @@ describe('AlertList', () => {
   let fixture: ComponentFixture<AlertList>;
 
   beforeEach(async () => {
-    TestBed.configureTestingModule({
-      providers: [provideRouter([]), provideHttpClient(), provideHttpClientTesting()],
-    });
-    http = TestBed.inject(HttpTestingController);
+    ({ http } = setUpHttpTest());
     fixture = TestBed.createComponent(AlertList);
     await fixture.whenStable();
     http.expectOne('/api/alerts/mail-mode').flush({ mailMode: 'instant', alertsByMail: true });

@@ -1,11 +1,8 @@
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { HttpTestingController } from '@angular/common/http/testing';
 import { ComponentFixture, TestBed } from '@angular/core/testing';
-import { provideRouter } from '@angular/router';
 
 import type { ImportJson, SupplierJson } from '../../../shared/api/suppliers';
-import { Notifier } from '../core/notifier';
-import { Session } from '../core/session';
+import { setUpHttpTest, signIn } from '../testing/http-test';
 import { ImportUpload } from './import-upload';
 
 const SUPPLIER: SupplierJson = {
@@ -90,26 +87,14 @@ describe('ImportUpload', () => {
   let element: HTMLElement;
 
   beforeEach(async () => {
-    TestBed.configureTestingModule({
-      providers: [
-        provideHttpClient(),
-        provideHttpClientTesting(),
-        provideRouter([]),
-        { provide: Notifier, useValue: { success: jest.fn(), error: jest.fn() } },
-      ],
+    ({ http } = setUpHttpTest());
+    await signIn(http, {
+      id: 'u1',
+      email: 'staff@demo.test',
+      name: 'Perrin Adeyemi',
+      role: 'staff',
+      unit: 'mm',
     });
-    http = TestBed.inject(HttpTestingController);
-    const loading = TestBed.inject(Session).load();
-    http.expectOne('/api/session').flush({
-      user: {
-        id: 'u1',
-        email: 'staff@demo.test',
-        name: 'Perrin Adeyemi',
-        role: 'staff',
-        unit: 'mm',
-      },
-    });
-    await loading;
 
     fixture = TestBed.createComponent(ImportUpload);
     fixture.componentRef.setInput('supplierId', 's1');

@@ -1,12 +1,9 @@
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
-import { provideRouter } from '@angular/router';
 
 import type { JobJson } from '../../../shared/api/jobs';
-import type { SessionResponse } from '../../../shared/session-types';
 import { Notifier } from '../core/notifier';
-import { Session } from '../core/session';
+import { setUpHttpTest, signIn } from '../testing/http-test';
 import { CylinderPage } from './cylinder-page';
 
 const JOB_ID = '0b6f7b52-4c1e-4d7e-9b0a-3f2d8c1e5a77';
@@ -81,16 +78,14 @@ describe('CylinderPage', () => {
   let http: HttpTestingController;
 
   async function render() {
-    TestBed.configureTestingModule({
-      providers: [provideRouter([]), provideHttpClient(), provideHttpClientTesting()],
+    ({ http } = setUpHttpTest());
+    await signIn(http, {
+      id: 'u1',
+      email: 'rafe@example.test',
+      name: 'Rafe',
+      role: 'machinist',
+      unit: 'in',
     });
-    http = TestBed.inject(HttpTestingController);
-    const session: SessionResponse = {
-      user: { id: 'u1', email: 'rafe@example.test', name: 'Rafe', role: 'machinist', unit: 'in' },
-    };
-    const loading = TestBed.inject(Session).load();
-    http.expectOne('/api/session').flush(session);
-    await loading;
     const fixture = TestBed.createComponent(CylinderPage);
     fixture.componentRef.setInput('id', JOB_ID);
     fixture.componentRef.setInput('n', '1');

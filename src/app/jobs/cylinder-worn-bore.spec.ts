@@ -1,7 +1,5 @@
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
-import { provideRouter } from '@angular/router';
 
 import type {
   CylinderJson,
@@ -10,8 +8,7 @@ import type {
   RecommendationJson,
 } from '../../../shared/api/jobs';
 import type { LengthJson, LengthUnit } from '../../../shared/lengths';
-import type { SessionResponse } from '../../../shared/session-types';
-import { Session } from '../core/session';
+import { setUpHttpTest, signIn } from '../testing/http-test';
 import { CylinderPage } from './cylinder-page';
 
 // A bore worn well past the first steps: every step below the one that cleans up has a negative
@@ -251,16 +248,14 @@ describe.each([INCH, MM])('CylinderPage on a worn bore: $title', (c) => {
   const url = `/api/jobs/${JOB_ID}/cylinders/1`;
 
   async function render() {
-    TestBed.configureTestingModule({
-      providers: [provideRouter([]), provideHttpClient(), provideHttpClientTesting()],
+    ({ http } = setUpHttpTest());
+    await signIn(http, {
+      id: 'u1',
+      email: 'ines@example.test',
+      name: 'Ines',
+      role: 'machinist',
+      unit: c.unit,
     });
-    http = TestBed.inject(HttpTestingController);
-    const session: SessionResponse = {
-      user: { id: 'u1', email: 'ines@example.test', name: 'Ines', role: 'machinist', unit: c.unit },
-    };
-    const loading = TestBed.inject(Session).load();
-    http.expectOne('/api/session').flush(session);
-    await loading;
     const fixture = TestBed.createComponent(CylinderPage);
     fixture.componentRef.setInput('id', JOB_ID);
     fixture.componentRef.setInput('n', '1');

@@ -1,11 +1,8 @@
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
-import { provideRouter } from '@angular/router';
 
 import type { JobListItemJson, JobState } from '../../../shared/api/jobs';
-import type { SessionResponse } from '../../../shared/session-types';
-import { Session } from '../core/session';
+import { setUpHttpTest, signIn } from '../testing/http-test';
 import { JobBoard } from './job-board';
 
 function job(
@@ -40,16 +37,14 @@ describe('JobBoard', () => {
   afterEach(() => http.verify());
 
   it('when open jobs load, then each sits in its stage column in the order given, waiting jobs marked', async () => {
-    TestBed.configureTestingModule({
-      providers: [provideRouter([]), provideHttpClient(), provideHttpClientTesting()],
+    ({ http } = setUpHttpTest());
+    await signIn(http, {
+      id: 'u1',
+      email: 'perrin@example.test',
+      name: 'Perrin',
+      role: 'staff',
+      unit: 'in',
     });
-    http = TestBed.inject(HttpTestingController);
-    const session: SessionResponse = {
-      user: { id: 'u1', email: 'perrin@example.test', name: 'Perrin', role: 'staff', unit: 'in' },
-    };
-    const loading = TestBed.inject(Session).load();
-    http.expectOne('/api/session').flush(session);
-    await loading;
     const fixture = TestBed.createComponent(JobBoard);
     await fixture.whenStable();
     const request = http.expectOne((r) => r.url === '/api/jobs');
@@ -96,15 +91,14 @@ describe('JobBoard', () => {
   });
 
   it('when the bench opens, then every stage sits in one sideways strip, with a button and count per stage that brings its column into view', async () => {
-    TestBed.configureTestingModule({
-      providers: [provideRouter([]), provideHttpClient(), provideHttpClientTesting()],
+    ({ http } = setUpHttpTest());
+    await signIn(http, {
+      id: 'u2',
+      email: 'ansel@example.test',
+      name: 'Ansel',
+      role: 'machinist',
+      unit: 'mm',
     });
-    http = TestBed.inject(HttpTestingController);
-    const loading = TestBed.inject(Session).load();
-    http.expectOne('/api/session').flush({
-      user: { id: 'u2', email: 'ansel@example.test', name: 'Ansel', role: 'machinist', unit: 'mm' },
-    });
-    await loading;
     const fixture = TestBed.createComponent(JobBoard);
     await fixture.whenStable();
     http

@@ -1,11 +1,8 @@
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { HttpTestingController } from '@angular/common/http/testing';
 import { ComponentFixture, TestBed } from '@angular/core/testing';
-import { provideRouter } from '@angular/router';
 
-import type { SessionResponse } from '../../../shared/session-types';
-import { Session } from '../core/session';
 import { provideShopDateAdapter } from '../core/shop-date-adapter';
+import { setUpHttpTest, signIn } from '../testing/http-test';
 import { JobIntake } from './job-intake';
 
 describe('JobIntake', () => {
@@ -13,22 +10,12 @@ describe('JobIntake', () => {
   let fixture: ComponentFixture<JobIntake>;
 
   beforeEach(async () => {
-    TestBed.configureTestingModule({
-      providers: [
-        provideRouter([]),
-        provideHttpClient(),
-        provideHttpClientTesting(),
-        provideShopDateAdapter(),
-      ],
-    });
-    http = TestBed.inject(HttpTestingController);
-    const session: SessionResponse = {
-      user: { id: 'u1', email: 'perrin@example.test', name: 'Perrin', role: 'staff', unit: 'in' },
-      shop: { name: 'Invented Bore Works', timeZone: 'UTC', locale: 'en-US' },
-    };
-    const loading = TestBed.inject(Session).load();
-    http.expectOne('/api/session').flush(session);
-    await loading;
+    ({ http } = setUpHttpTest({ providers: [provideShopDateAdapter()] }));
+    await signIn(
+      http,
+      { id: 'u1', email: 'perrin@example.test', name: 'Perrin', role: 'staff', unit: 'in' },
+      { name: 'Invented Bore Works', timeZone: 'UTC', locale: 'en-US' },
+    );
     fixture = TestBed.createComponent(JobIntake);
     await fixture.whenStable();
     http.expectOne((r) => r.url === '/api/engine-families').flush({ items: [], total: 0 });

@@ -1,12 +1,10 @@
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { HttpTestingController } from '@angular/common/http/testing';
 import { ComponentFixture, TestBed } from '@angular/core/testing';
-import { provideRouter } from '@angular/router';
 
 import { toLengthJson } from '../../../shared/lengths';
 import type { OrderJson, OrderLineJson } from '../../../shared/api/purchasing';
 import type { SessionUser } from '../../../shared/session-types';
-import { Session } from '../core/session';
+import { setUpHttpTest, signIn } from '../testing/http-test';
 import { ReceiveOrder } from './receive-order';
 
 const STAFF: SessionUser = {
@@ -89,13 +87,8 @@ describe('ReceiveOrder', () => {
   let fixture: ComponentFixture<ReceiveOrder>;
 
   beforeEach(async () => {
-    TestBed.configureTestingModule({
-      providers: [provideRouter([]), provideHttpClient(), provideHttpClientTesting()],
-    });
-    http = TestBed.inject(HttpTestingController);
-    const loading = TestBed.inject(Session).load();
-    http.expectOne('/api/session').flush({ user: STAFF });
-    await loading;
+    ({ http } = setUpHttpTest());
+    await signIn(http, STAFF);
     fixture = TestBed.createComponent(ReceiveOrder);
     fixture.componentRef.setInput('id', 'o1');
     await fixture.whenStable();

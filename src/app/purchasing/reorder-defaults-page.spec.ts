@@ -1,12 +1,11 @@
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { HttpTestingController } from '@angular/common/http/testing';
 import { HarnessLoader } from '@angular/cdk/testing';
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import { ComponentFixture, TestBed } from '@angular/core/testing';
 import { MatButtonHarness } from '@angular/material/button/testing';
 import { MatInputHarness } from '@angular/material/input/testing';
 
-import { Notifier } from '../core/notifier';
+import { setUpHttpTest, type NotifierMock } from '../testing/http-test';
 import { ReorderDefaultsPage } from './reorder-defaults-page';
 
 const FAMILY = { id: 'f1', code: 'QX-90', name: 'Invented twin' };
@@ -25,18 +24,10 @@ describe('ReorderDefaultsPage', () => {
   let http: HttpTestingController;
   let fixture: ComponentFixture<ReorderDefaultsPage>;
   let loader: HarnessLoader;
-  let notifier: { success: jest.Mock; error: jest.Mock };
+  let notifier: NotifierMock;
 
   beforeEach(async () => {
-    notifier = { success: jest.fn(), error: jest.fn() };
-    TestBed.configureTestingModule({
-      providers: [
-        provideHttpClient(),
-        provideHttpClientTesting(),
-        { provide: Notifier, useValue: notifier },
-      ],
-    });
-    http = TestBed.inject(HttpTestingController);
+    ({ http, notifier } = setUpHttpTest());
     fixture = TestBed.createComponent(ReorderDefaultsPage);
     loader = TestbedHarnessEnvironment.loader(fixture);
     http.expectOne((r) => r.url === '/api/engine-families').flush({ items: [FAMILY], total: 1 });

@@ -1,5 +1,4 @@
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { HttpTestingController } from '@angular/common/http/testing';
 import { HarnessLoader } from '@angular/cdk/testing';
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import { ComponentFixture, TestBed } from '@angular/core/testing';
@@ -8,13 +7,11 @@ import { MatCheckboxHarness } from '@angular/material/checkbox/testing';
 import { MatInputHarness } from '@angular/material/input/testing';
 import { MatRadioButtonHarness } from '@angular/material/radio/testing';
 import { MatSelectHarness } from '@angular/material/select/testing';
-import { provideRouter } from '@angular/router';
 
 import type { PartDetailJson } from '../../../shared/api/catalog';
 import { toLengthJson } from '../../../shared/lengths';
 import type { SessionUser } from '../../../shared/session-types';
-import { Notifier } from '../core/notifier';
-import { Session } from '../core/session';
+import { setUpHttpTest, signIn } from '../testing/http-test';
 import { ReceivePage } from './receive-page';
 
 const STAFF: SessionUser = {
@@ -67,20 +64,8 @@ describe('ReceivePage', () => {
   let loader: HarnessLoader;
 
   beforeEach(async () => {
-    TestBed.configureTestingModule({
-      providers: [
-        provideRouter([]),
-        provideHttpClient(),
-        provideHttpClientTesting(),
-        { provide: Notifier, useValue: { success: jest.fn(), error: jest.fn() } },
-      ],
-    });
-    http = TestBed.inject(HttpTestingController);
-    const loading = TestBed.inject(Session).load();
-    http
-      .expectOne('/api/session')
-      .flush({ user: STAFF, shop: { name: 'Invented Bore Works', currency: 'GBP' } });
-    await loading;
+    ({ http } = setUpHttpTest());
+    await signIn(http, STAFF, { name: 'Invented Bore Works', currency: 'GBP' });
     fixture = TestBed.createComponent(ReceivePage);
     loader = TestbedHarnessEnvironment.loader(fixture);
     fixture.componentRef.setInput('partId', 'p1');
