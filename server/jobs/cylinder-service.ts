@@ -32,6 +32,7 @@ import {
   readingJson,
 } from './jobs-json';
 import { clearanceRangeFor } from '../../shared/finish-checks';
+import { refuseStaleFinish } from './cylinder-stale';
 import { checkLink, ladderOf, lastBoreBefore } from '../customers/cylinders-service';
 import { lastBoreConstraint, stepsLeftAfter, stepsLeftWarning } from '../../shared/bore-history';
 
@@ -269,6 +270,7 @@ export async function patchCylinder(
     requireCylinder(job, n);
     const cylinder = await repo.lockCylinder(trx, jobId, n);
     if (!cylinder) throw new NotFound(`Cylinder ${n} of job ${job.number}`);
+    refuseStaleFinish(job.number, cylinder, patch);
     const family = await repo.findFamily(job.family_id, trx);
     if (!family) throw new NotFound("That job's engine family");
     const show = (nm: Nm) => formatLength(nm, unit);

@@ -126,6 +126,15 @@ export const readingsInput = z
 export type ReadingsInput = z.output<typeof readingsInput>;
 
 const smallLength = optionalLengthField({ allowZero: true, max: 10_000_000 });
+/** A size as the API answered it ({ mm, in }), or null: none was recorded. */
+const seenLength = z
+  .object(
+    { mm: z.string().max(20), in: z.string().max(20) },
+    { error: 'must be { mm, in } or null' },
+  )
+  .strict()
+  .nullable()
+  .optional();
 
 export const cylinderPatch = z
   .object({
@@ -135,10 +144,19 @@ export const cylinderPatch = z
     clearance: smallLength,
     measuredAfterHone: optionalLengthField({ max: 500_000_000 }),
     ringGap: smallLength,
+    /**
+     * The after-honing sizes as the client last read them for this cylinder. When one sent is
+     * stored differently now, and not as it was based on, the answer is 409 `stale_cylinder` with
+     * both, and nothing changes. Left out: no check, as before.
+     */
+    basedOn: z.object({ measuredAfterHone: seenLength, ringGap: seenLength }).strict(),
   })
   .partial()
   .strict()
-  .refine((p) => Object.values(p).some((v) => v !== undefined), 'nothing to change');
+  .refine(
+    ({ basedOn: _seen, ...changes }) => Object.values(changes).some((v) => v !== undefined),
+    'nothing to change',
+  );
 export type CylinderPatch = z.output<typeof cylinderPatch>;
 
 /** Marking a cylinder cut; the reason is needed only when the held piston's bore does not clean up. */
