@@ -3,7 +3,7 @@
 // network cut (context.setOffline), marked as copies, and nothing of the machinist's left after
 // sign-out.
 import pg from 'pg';
-import type { Page } from 'playwright-core';
+import type { Locator, Page } from 'playwright-core';
 import {
   DEMO,
   allowPageErrors,
@@ -115,7 +115,7 @@ async function offlineMark(page: Page): Promise<string> {
 }
 
 /** Both tablet orientations, as the machinist holds it in its stand. */
-async function tabletShots(page: Page, name: string): Promise<void> {
+async function tabletShots(page: Page, name: string, show?: Locator): Promise<void> {
   const before = page.viewportSize();
   for (const [w, h] of [
     [800, 1280],
@@ -123,9 +123,61 @@ async function tabletShots(page: Page, name: string): Promise<void> {
   ]) {
     await page.setViewportSize({ width: w, height: h });
     await page.waitForTimeout(150);
+    await show?.scrollIntoViewIfNeeded();
     await screenshot(page, `${name}-${w}x${h}`);
   }
   if (before) await page.setViewportSize(before);
+}
+
+/** Types the top reading along the pin on the cylinder page shown and saves the readings. */
+async function typeTopPin(page: Page, value: string): Promise<void> {
+  const cell = page.getByLabel('Top of ring travel, along the pin', { exact: true });
+  await cell.waitFor();
+  await cell.fill(value);
+  await page.getByRole('button', { name: 'Save readings' }).click();
+}
+
+async function topPinNm(): Promise<number> {
+  const [row] = await query<{ diameter_nm: string | number }>(
+    `SELECT diameter_nm FROM bore_readings WHERE job_id = $1 AND n = $2 AND depth = 'top' AND axis = 'pin'`,
+    [ready.job_id, ready.n],
+  );
+  return Number(row.diameter_nm);
+}
+
+/** Another session (the desk) corrects the top reading along the pin, keeping the other five. */
+async function changeTopPinThroughApi(value: string): Promise<void> {
+  const api = env.page.request;
+  const token =
+    (await env.browser.context.cookies()).find((c) => c.name === 'XSRF-TOKEN')?.value ?? '';
+  const job = (await (await api.get(`${env.baseUrl}/api/jobs/${ready.job_id}`)).json()) as {
+    cylinderDetails: {
+      n: number;
+      readings: {
+        depth: string;
+        axis: string;
+        diameter: { mm: string; in: string };
+        unit: string;
+      }[];
+    }[];
+  };
+  const readings = job.cylinderDetails
+    .find((c) => c.n === ready.n)!
+    .readings.map((r) => ({
+      depth: r.depth,
+      axis: r.axis,
+      diameter:
+        r.depth === 'top' && r.axis === 'pin'
+          ? value
+          : r.unit === 'in'
+            ? `${r.diameter.in} in`
+            : `${r.diameter.mm} mm`,
+    }));
+  const res = await api.put(
+    `${env.baseUrl}/api/jobs/${ready.job_id}/cylinders/${ready.n}/readings`,
+    { data: { readings }, headers: { 'X-XSRF-TOKEN': token } },
+  );
+  expect(res.status()).toBe(200);
 }
 
 describe('installable: the production build serves a service worker and a manifest', () => {
@@ -225,6 +277,86 @@ describe('opens offline', () => {
     await pages[0].sees.waitFor();
     await page.waitForTimeout(500);
     expect(await page.getByText(OFFLINE_MARK).count()).toBe(0);
+  });
+
+  it('when a reading is typed offline, then it waits on the tablet, is sent when the network is back, and the server holds it', async () => {
+    const page = env.page;
+    const cylinderUrl = `${env.baseUrl}/jobs/${ready.job_id}/cylinders/${ready.n}`;
+    allowPageErrors(
+      /status of 504/,
+      'with the network cut, answers the worker has no copy of are 504',
+    );
+    await env.browser.context.setOffline(true);
+    try {
+      await page.goto(cylinderUrl);
+      await typeTopPin(page, '2.9535 in');
+      const waiting = page.getByText(/Bore readings for cylinder \d+ of .+: waiting to send/);
+      await waiting.waitFor();
+      await tabletShots(page, 'offline-reading-waiting', waiting);
+      // Offline, the cut says it needs the server instead of failing.
+      await page.goto(`${cylinderUrl}/sheet`);
+      await page.getByText(/Marking the cut or taking it back needs the connection/).waitFor();
+      expect(
+        await page
+          .getByRole('button', { name: new RegExp(`Mark cylinder ${ready.n} as cut`) })
+          .isDisabled(),
+      ).toBe(true);
+      await page.goto(cylinderUrl);
+      await page.getByText(/waiting to send/).waitFor();
+    } finally {
+      await env.browser.context.setOffline(false);
+    }
+    allowPageErrors(
+      /net::ERR_FAILED/,
+      "Playwright gives the page its network back a moment before the service worker's; a send " +
+        'tried in that moment fails and is tried again',
+      /\/readings$/,
+    );
+    // Back online: sent by itself, and the page reads the cylinder again.
+    await page.getByText(/waiting to send/).waitFor({ state: 'detached', timeout: 30_000 });
+    // 2.9535 in = 29 535 × 2540 nm (0.0001 in = 2540 nm exactly).
+    expect(await topPinNm()).toBe(29_535 * 2540);
+  });
+
+  it('when a reading typed offline was changed meanwhile by another session, then the conflict shows both values and "Keep mine" stores it', async () => {
+    const page = env.page;
+    allowPageErrors(
+      /status of 504/,
+      'with the network cut, answers the worker has no copy of are 504',
+    );
+    allowPageErrors(
+      /status of 409/,
+      'the stale reading is refused on purpose; the page shows the conflict',
+    );
+    await env.browser.context.setOffline(true);
+    try {
+      await page.goto(`${env.baseUrl}/jobs/${ready.job_id}/cylinders/${ready.n}`);
+      await typeTopPin(page, '2.9545 in');
+      await page.getByText(/waiting to send/).waitFor();
+      // Meanwhile, at the desk (another session, online), the same reading is corrected.
+      await changeTopPinThroughApi('2.9540 in');
+    } finally {
+      await env.browser.context.setOffline(false);
+    }
+    allowPageErrors(
+      /net::ERR_FAILED/,
+      "Playwright gives the page its network back a moment before the service worker's; a send " +
+        'tried in that moment fails and is tried again',
+      /\/readings$/,
+    );
+    const conflict = page.getByRole('alert').filter({ hasText: 'not saved' });
+    await conflict.waitFor({ timeout: 30_000 });
+    const text = (await conflict.textContent()) ?? '';
+    expect(text).toContain('Top of ring travel, along the pin: 2.9545 in');
+    expect(text).toContain('On the server now');
+    expect(text).toContain('Top of ring travel, along the pin: 2.9540 in');
+    // Nothing was overwritten: the server still holds the desk's value.
+    expect(await topPinNm()).toBe(29_540 * 2540);
+    await tabletShots(page, 'offline-reading-conflict', conflict);
+
+    await conflict.getByRole('button', { name: 'Keep mine' }).click();
+    await conflict.waitFor({ state: 'detached', timeout: 30_000 });
+    expect(await topPinNm()).toBe(29_545 * 2540);
   });
 
   it('when the machinist signs out, then the worker keeps no copy of their pages and the tablet opens none offline', async () => {

@@ -13,7 +13,7 @@ export const offlineInterceptor: HttpInterceptorFn = (request, next) => {
   const status = inject(OfflineStatus);
   return next(request).pipe(
     tap((event) => {
-      if (event instanceof HttpResponse) status.noteAnswer(event.headers.get('Date'));
+      if (event instanceof HttpResponse) status.noteAnswer(request.urlWithParams, event.headers.get('Date'));
     }),
   );
 };

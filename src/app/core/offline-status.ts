@@ -25,6 +25,8 @@ export class OfflineStatus {
 
   /** The least gap between a live answer's `Date` and this device's clock, in this visit. */
   private skew: number | null = null;
+  /** When each copy on the page shown was written, by the address it answered. */
+  private readonly copies = new Map<string, number>();
 
   constructor() {
     const goOnline = () => this.online.set(true);
@@ -39,23 +41,27 @@ export class OfflineStatus {
     // Each page starts live; only its own answers can mark it as a cached copy.
     const navigations = inject(Router)
       .events.pipe(filter((event) => event instanceof NavigationStart))
-      .subscribe(() => this.shownAsOf.set(null));
+      .subscribe(() => {
+        this.copies.clear();
+        this.shownAsOf.set(null);
+      });
     destroyRef.onDestroy(() => navigations.unsubscribe());
   }
 
-  /** Called with each API answer's `Date` header as it arrives. */
-  noteAnswer(dateHeader: string | null, now = Date.now()): void {
+  /** Called with each API answer's address and `Date` header as it arrives. */
+  noteAnswer(url: string, dateHeader: string | null, now = Date.now()): void {
     const written = dateHeader ? Date.parse(dateHeader) : NaN;
     if (!Number.isFinite(written)) return;
     const gap = now - written;
     const cached =
       !this.online() ||
       (this.skew === null ? gap > STALE_UNKNOWN_CLOCK_MS : gap - this.skew > STALE_AFTER_MS);
-    if (cached) {
-      const shown = this.shownAsOf();
-      if (!shown || written < shown.getTime()) this.shownAsOf.set(new Date(written));
-      return;
-    }
+    if (cached) this.copies.set(url, written);
+    else this.copies.delete(url);
+    // A page read again live (the network is back) stops saying it is a copy.
+    const oldest = Math.min(...this.copies.values());
+    this.shownAsOf.set(Number.isFinite(oldest) ? new Date(oldest) : null);
+    if (cached) return;
     // A live answer: its gap is the clock offset plus the time on the wire, so the least is best.
     if (this.skew === null || gap < this.skew) this.skew = gap;
   }

@@ -1,3 +1,4 @@
+import { InjectionToken } from '@angular/core';
 import { createStore, del, delMany, entries, set, type UseStore } from 'idb-keyval';
 
 /**
@@ -39,6 +40,12 @@ export const idbOfflineStorage: OfflineStorage = {
     );
   },
 };
+
+/** Where the bench keeps what waits to be sent; a spec may hand in its own. */
+export const OFFLINE_STORAGE = new InjectionToken<OfflineStorage>('OFFLINE_STORAGE', {
+  providedIn: 'root',
+  factory: () => idbOfflineStorage,
+});
 
 /**
  * Empties the service worker's copies of API answers (its data groups, ngsw-config.json), so the

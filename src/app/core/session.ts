@@ -5,7 +5,7 @@ import { catchError, firstValueFrom, map, Observable, of, tap, throwError } from
 import type { LabelStock } from '../../../shared/label-stock';
 import type { SessionResponse, SessionUser } from '../../../shared/session-types';
 import { HANDLES_OWN_401 } from './http-context';
-import { clearCachedAnswers, idbOfflineStorage } from './offline-store';
+import { clearCachedAnswers, OFFLINE_STORAGE, type OfflineStorage } from './offline-store';
 import { allows, type Action } from '../../../shared/access';
 
 /**
@@ -51,10 +51,18 @@ function remember(response: SessionResponse | null): void {
 @Injectable({ providedIn: 'root' })
 export class Session {
   private readonly http = inject(HttpClient);
+  private readonly storage = inject(OFFLINE_STORAGE);
 
   private readonly current = signal<SessionResponse | null>(null);
   private inFlight: Promise<SessionUser | null> | null = null;
   private loaded = false;
+
+  constructor() {
+    // Opened offline on the last sign-in: once the network is back the server says who it is.
+    addEventListener('online', () => {
+      if (this.offline()) this.load().catch(() => undefined);
+    });
+  }
 
   /** The signed-in user, or null when nobody is (or the session has not been asked yet). */
   readonly user = computed(() => this.current()?.user ?? null);
@@ -134,7 +142,7 @@ export class Session {
         ),
         tap(() => {
           // Finished in the background, so the sign-in page shows at once while the copies go.
-          void forgetDevice(userId);
+          void forgetDevice(this.storage, userId);
           this.clear();
         }),
       );
@@ -168,9 +176,9 @@ export class Session {
 }
 
 /** Forgets what one person left on this device; a failure here must not keep them signed in. */
-async function forgetDevice(userId: string | null): Promise<void> {
+async function forgetDevice(storage: OfflineStorage, userId: string | null): Promise<void> {
   await Promise.all([
     clearCachedAnswers().catch(() => undefined),
-    userId ? idbOfflineStorage.removeUser(userId).catch(() => undefined) : undefined,
+    userId ? storage.removeUser(userId).catch(() => undefined) : undefined,
   ]);
 }

@@ -106,9 +106,10 @@ export class Shell {
    */
   protected readonly offlineNote = computed(() => {
     const asOf = this.offline.shownAsOf();
-    const online = this.offline.online() && !this.session.offline();
     if (asOf) return `Offline — shown as of ${this.timeOf(asOf)}`;
-    return online ? '' : 'Offline — what you type waits here and is sent when the network is back';
+    return this.offline.online()
+      ? ''
+      : 'Offline — what you type waits here and is sent when the network is back';
   });
 
   /** "14:05" today, with the day before it when the copy is older. */

@@ -17,9 +17,12 @@ import { formatIn, formatMm, parseLength, type LengthUnit, type Nm } from '../..
 import { apiErrorMessage, apiFieldErrors } from '../core/api-error';
 import { LengthPipe } from '../core/length-pipe';
 import { Notifier } from '../core/notifier';
+import { OfflineStatus } from '../core/offline-status';
 import { Session } from '../core/session';
 import { CutDialog, type CutDialogData, type CutDialogResult } from './cut-dialog';
+import { BenchQueue, serverUnreachable, type FinishChanges } from './bench-queue';
 import { JobsApi, type CylinderChanges } from './jobs-api';
+import { WaitingEntries } from './waiting-entries';
 import { ShopDatePipe } from '../core/shop-date-pipe';
 import { ListState } from '../ui/list-state';
 import { loadEach } from '../ui/load';
@@ -40,6 +43,7 @@ import { allows } from '../../../shared/access';
     MatIconModule,
     MatInputModule,
     RouterLink,
+    WaitingEntries,
   ],
   templateUrl: './bore-sheet-page.html',
   styleUrl: './bore-sheet-page.scss',
@@ -50,6 +54,9 @@ export class BoreSheetPage {
   private readonly notifier = inject(Notifier);
   private readonly session = inject(Session);
   private readonly dialog = inject(MatDialog);
+  private readonly queue = inject(BenchQueue);
+  /** Offline, sizes after honing wait on the tablet; the cut needs the server. */
+  protected readonly online = inject(OfflineStatus).online;
 
   readonly id = input.required<string>();
   readonly n = input.required<string>();
@@ -210,20 +217,58 @@ export class BoreSheetPage {
     }
     this.afterHoneErrors.set({});
     if (Object.keys(changes).length === 0) return;
+    const typed = changes as FinishChanges;
+    if (!this.online()) {
+      this.keepForLater(typed);
+      return;
+    }
     this.stateWhenRecorded.set(this.sheet()?.job.state ?? null);
     this.save(
       changes,
       'Sizes after honing recorded.',
-      () => {
-        this.honedText.set('');
-        this.gapText.set('');
-      },
+      () => this.clearAfterHone(),
       (error) => {
+        if (serverUnreachable(error)) {
+          this.keepForLater(typed);
+          return;
+        }
         const fields = apiFieldErrors(error);
         const placed = fields['measuredAfterHone'] || fields['ringGap'];
         this.afterHoneErrors.set(placed ? fields : { measuredAfterHone: apiErrorMessage(error) });
       },
     );
+  }
+
+  private clearAfterHone(): void {
+    this.honedText.set('');
+    this.gapText.set('');
+  }
+
+  /** The server cannot be reached: the sizes wait on this tablet, based on what the sheet showed. */
+  private keepForLater(changes: FinishChanges): void {
+    const sheet = this.sheet();
+    if (!sheet) return;
+    const basedOn = {
+      ...(changes.measuredAfterHone !== undefined && {
+        measuredAfterHone: sheet.measuredAfterHone,
+      }),
+      ...(changes.ringGap !== undefined && { ringGap: sheet.ringGapMeasured }),
+    };
+    void this.queue
+      .addFinish({
+        jobId: sheet.job.id,
+        jobNumber: sheet.job.number,
+        cylinder: sheet.cylinder,
+        changes,
+        basedOn,
+      })
+      .then(
+        () => {
+          this.clearAfterHone();
+          this.notifier.success('Sizes after honing kept on this tablet until sent.');
+        },
+        (error: unknown) => this.afterHoneErrors.set({ measuredAfterHone: apiErrorMessage(error) }),
+      );
   }
 
   /** Each reason under the field it is about, said once, instead of a passing snack bar. */

@@ -37,11 +37,14 @@ import {
 import { apiErrorMessage, apiFieldErrors, apiUnplacedMessage } from '../core/api-error';
 import { LengthPipe } from '../core/length-pipe';
 import { Notifier } from '../core/notifier';
+import { OfflineStatus } from '../core/offline-status';
 import { Session } from '../core/session';
 import { ShopDatePipe } from '../core/shop-date-pipe';
 import { HoldDialog, type HoldDialogData } from './hold-dialog';
 import { CylinderPast } from './cylinder-past';
+import { BenchQueue, serverUnreachable } from './bench-queue';
 import { JobsApi, type ReadingBody } from './jobs-api';
+import { WaitingEntries } from './waiting-entries';
 import { ListState } from '../ui/list-state';
 import { loadById, loadEach } from '../ui/load';
 
@@ -88,6 +91,7 @@ interface Preview {
     MatInputModule,
     RouterLink,
     ShopDatePipe,
+    WaitingEntries,
   ],
   templateUrl: './cylinder-page.html',
   styleUrl: './cylinder-page.scss',
@@ -98,6 +102,9 @@ export class CylinderPage {
   private readonly dialog = inject(MatDialog);
   private readonly notifier = inject(Notifier);
   private readonly session = inject(Session);
+  private readonly queue = inject(BenchQueue);
+  /** Offline, readings wait on the tablet; holding a piston needs the server. */
+  protected readonly online = inject(OfflineStatus).online;
 
   /** From the route: /jobs/:id/cylinders/:n. */
   readonly id = input.required<string>();
@@ -254,9 +261,13 @@ export class CylinderPage {
       body.push({ depth: cell.depth, axis: cell.axis, diameter });
       sent.push(cell.key);
     }
-    this.busy.set(true);
     this.serverCellErrors.set({});
     this.readingsProblem.set('');
+    if (!this.online()) {
+      this.keepForLater(body);
+      return;
+    }
+    this.busy.set(true);
     this.api.saveReadings(job.id, this.cylinderNo(), body).subscribe({
       next: () => {
         this.busy.set(false);
@@ -265,9 +276,32 @@ export class CylinderPage {
       },
       error: (error: unknown) => {
         this.busy.set(false);
-        this.placeReadingErrors(error, sent);
+        if (serverUnreachable(error)) {
+          this.keepForLater(body);
+        } else {
+          this.placeReadingErrors(error, sent);
+        }
       },
     });
+  }
+
+  /** The server cannot be reached: the readings wait on this tablet, based on what it showed. */
+  private keepForLater(readings: ReadingBody[]): void {
+    const job = this.job();
+    if (!job) return;
+    const n = this.cylinderNo();
+    void this.queue
+      .addReadings({
+        jobId: job.id,
+        jobNumber: job.number,
+        cylinder: n,
+        readings,
+        basedOn: this.cylinder()?.measuredAt ?? null,
+      })
+      .then(
+        () => this.notifier.success(`Readings for cylinder ${n} kept on this tablet until sent.`),
+        (error: unknown) => this.readingsProblem.set(apiErrorMessage(error)),
+      );
   }
 
   protected chooseStep(stepId: string, label: string): void {
@@ -341,7 +375,7 @@ export class CylinderPage {
   }
 
   /** After a change here both the job and the step choice may read differently. */
-  private reloadBoth(): void {
+  protected reloadBoth(): void {
     this.loaded.reload();
     this.rec.reload();
   }

@@ -19,6 +19,7 @@ import type {
 } from '../../../shared/api/jobs';
 import type { UnitJson } from '../../../shared/api/stock';
 import type { Page } from '../../../shared/api/common';
+import type { LengthJson } from '../../../shared/lengths';
 
 export interface JobListQuery {
   /** 'open', 'closed', 'all' or one state. */
@@ -65,6 +66,12 @@ export interface ReadingBody {
   diameter: string;
 }
 
+/** The after-honing sizes as last read; the server refuses a change made against older ones. */
+export interface FinishBasedOn {
+  measuredAfterHone?: LengthJson | null;
+  ringGap?: LengthJson | null;
+}
+
 export interface CylinderChanges {
   /** The customer's marked cylinder this job cylinder is (null: unlink). */
   cylinderId?: string | null;
@@ -72,6 +79,7 @@ export interface CylinderChanges {
   clearance?: string | null;
   measuredAfterHone?: string | null;
   ringGap?: string | null;
+  basedOn?: FinishBasedOn;
 }
 
 export type HoldBody =
@@ -118,8 +126,18 @@ export class JobsApi {
     return this.http.post<JobJson>(`/api/jobs/${encodeURIComponent(id)}/cancel`, {});
   }
 
-  saveReadings(id: string, n: number, readings: ReadingBody[]): Observable<ReadingsResultJson> {
-    return this.http.put<ReadingsResultJson>(`${this.cylinder(id, n)}/readings`, { readings });
+  /**
+   * With `basedOn` (the cylinder's measuredAt when the readings were typed; null: it had none)
+   * the server refuses readings typed against older ones (409 stale_readings).
+   */
+  saveReadings(
+    id: string,
+    n: number,
+    readings: ReadingBody[],
+    basedOn?: string | null,
+  ): Observable<ReadingsResultJson> {
+    const body = basedOn === undefined ? { readings } : { readings, basedOn };
+    return this.http.put<ReadingsResultJson>(`${this.cylinder(id, n)}/readings`, body);
   }
 
   updateCylinder(id: string, n: number, changes: CylinderChanges): Observable<CylinderJson> {
