@@ -354,9 +354,11 @@ describe('opens offline', () => {
     expect(await topPinNm()).toBe(29_540 * 2540);
     await tabletShots(page, 'offline-reading-conflict', conflict);
 
+    // Kept, it waits again briefly, now based on the desk's version, and is sent over it.
     await conflict.getByRole('button', { name: 'Keep mine' }).click();
     await conflict.waitFor({ state: 'detached', timeout: 30_000 });
-    expect(await topPinNm()).toBe(29_545 * 2540);
+    await until(async () => (await topPinNm()) === 29_545 * 2540, 'mine is stored', 30_000);
+    await page.getByText(/waiting to send/).waitFor({ state: 'detached', timeout: 30_000 });
   });
 
   it('when the machinist signs out, then the worker keeps no copy of their pages and the tablet opens none offline', async () => {
