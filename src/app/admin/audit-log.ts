@@ -6,22 +6,18 @@ import {
   inject,
   input,
   linkedSignal,
-  signal,
 } from '@angular/core';
-import { toObservable, toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDatepickerModule } from '@angular/material/datepicker';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
-import { MatPaginatorModule, PageEvent } from '@angular/material/paginator';
-import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatPaginatorModule } from '@angular/material/paginator';
 import { MatSelectModule } from '@angular/material/select';
-import { MatSortModule, Sort } from '@angular/material/sort';
+import { MatSortModule } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
 import { RouterLink } from '@angular/router';
 import type { DateTime } from 'luxon';
-import { catchError, map, of, switchMap, tap } from 'rxjs';
 
 import {
   AUDIT_ID_FIELDS,
@@ -30,13 +26,12 @@ import {
   type AuditPageJson,
   type AuditRefJson,
 } from '../../../shared/api/audit';
-import { apiErrorMessage } from '../core/api-error';
 import { dayOf } from '../core/shop-date-adapter';
-import { AuditApi, type AuditListQuery } from './audit-api';
+import { AuditApi } from './audit-api';
 import { actionWords, entityWords, fieldChanges, type FieldChange } from './audit-words';
 import { ShopDatePipe } from '../core/shop-date-pipe';
-
-type Loaded = { ok: true; page: AuditPageJson } | { ok: false; message: string };
+import { PagedList } from '../ui/paged-list';
+import { ListState } from '../ui/list-state';
 
 /** "jobId" reads "job", "toBinId" "to bin", "unitPrice" "unit price". */
 function idFieldName(field: string): string {
@@ -55,10 +50,19 @@ interface ShownChange extends FieldChange {
 
 const DAY = /^\d{4}-\d{2}-\d{2}$/;
 
+type AuditFilters = {
+  entity: string;
+  entityId: string;
+  user: string;
+  from: string;
+  to: string;
+};
+
 /** The owner's view of every recorded change: who, when, what it was before and after. */
 @Component({
   selector: 'app-audit-log',
   imports: [
+    ListState,
     NgTemplateOutlet,
     ShopDatePipe,
     MatButtonModule,
@@ -67,7 +71,6 @@ const DAY = /^\d{4}-\d{2}-\d{2}$/;
     MatIconModule,
     MatInputModule,
     MatPaginatorModule,
-    MatProgressBarModule,
     MatSelectModule,
     MatSortModule,
     MatTableModule,
@@ -88,72 +91,34 @@ export class AuditLog {
   protected readonly pageSizes = [25, 50, 100];
   protected readonly entityWords = entityWords;
 
-  protected readonly entityFilter = linkedSignal(() => this.entity() ?? '');
-  protected readonly recordFilter = linkedSignal(() => this.entityId() ?? '');
-  protected readonly userFilter = signal('');
-  protected readonly from = signal('');
-  protected readonly to = signal('');
-  protected readonly sort = signal<Sort>({ active: 'at', direction: 'desc' });
-  protected readonly pageIndex = signal(0);
-  protected readonly pageSize = signal(50);
-  private readonly reloads = signal(0);
-
-  /** Filters, sort and page feed one request at a time; a newer one cancels an older one. */
-  private readonly query = computed<AuditListQuery & { reload: number }>(() => ({
-    entity: this.entityFilter() || undefined,
-    entityId: this.recordFilter() || undefined,
-    user: this.userFilter() || undefined,
-    from: DAY.test(this.from()) ? this.from() : undefined,
-    to: DAY.test(this.to()) ? this.to() : undefined,
-    dir: this.sort().direction === 'asc' ? 'asc' : 'desc',
-    page: this.pageIndex() + 1,
-    pageSize: this.pageSize(),
-    reload: this.reloads(),
-  }));
-
-  protected readonly loading = signal(true);
-  private readonly loaded = toSignal(
-    toObservable(this.query).pipe(
-      tap(() => this.loading.set(true)),
-      switchMap(({ reload: _reload, ...query }) =>
-        this.api.page(query).pipe(
-          map((page): Loaded => ({ ok: true, page })),
-          catchError((error: unknown) =>
-            of<Loaded>({ ok: false, message: apiErrorMessage(error) }),
-          ),
-        ),
-      ),
-      tap(() => this.loading.set(false)),
-    ),
-  );
-
-  protected readonly rows = computed(() => {
-    const loaded = this.loaded();
-    return loaded?.ok ? loaded.page.items : [];
+  /** Newest first by default; the server sorts by time only, so the list sends the direction. */
+  protected readonly list = new PagedList<AuditEventJson, 'at', AuditFilters, AuditPageJson>({
+    sortable: ['at'],
+    dir: 'desc',
+    pageSize: 50,
+    filters: () => ({
+      entity: this.entity() ?? '',
+      entityId: this.entityId() ?? '',
+      user: '',
+      from: '',
+      to: '',
+    }),
+    // A day still being typed is no filter yet.
+    load: ({ sort: _sort, from, to, ...request }) =>
+      this.api.page({
+        ...request,
+        from: from && DAY.test(from) ? from : undefined,
+        to: to && DAY.test(to) ? to : undefined,
+      }),
   });
-  protected readonly total = computed(() => {
-    const loaded = this.loaded();
-    return loaded?.ok ? loaded.page.total : 0;
-  });
-  protected readonly loadError = computed(() => {
-    const loaded = this.loaded();
-    return loaded && !loaded.ok ? loaded.message : '';
-  });
+
   /** The filter choices stay while a new page loads. */
-  protected readonly facets = linkedSignal<Loaded | undefined, AuditPageJson['facets']>({
-    source: this.loaded,
-    computation: (loaded, previous) =>
-      loaded?.ok ? loaded.page.facets : (previous?.value ?? { entities: [], users: [] }),
+  protected readonly facets = linkedSignal<AuditPageJson | null, AuditPageJson['facets']>({
+    source: this.list.value,
+    computation: (page, previous) => page?.facets ?? previous?.value ?? { entities: [], users: [] },
   });
-  protected readonly filtered = computed(
-    () =>
-      !!(
-        this.entityFilter() ||
-        this.recordFilter() ||
-        this.userFilter() ||
-        this.from() ||
-        this.to()
-      ),
+  protected readonly filtered = computed(() =>
+    Object.values(this.list.filters()).some((value) => value !== ''),
   );
 
   protected actionText(row: AuditEventJson): string {
@@ -162,7 +127,8 @@ export class AuditLog {
 
   /** The one record the trail is narrowed to, by its label once the server has named it. */
   protected filteredLabel(): string {
-    return this.ref(this.entityFilter(), this.recordFilter())?.label ?? this.recordFilter();
+    const { entity, entityId } = this.list.filters();
+    return this.ref(entity, entityId)?.label ?? entityId;
   }
 
   /** The record changed, by its number, SKU, label or name, when the server could name it. */
@@ -207,50 +173,18 @@ export class AuditLog {
   }
 
   private ref(kind: string, id: string): AuditRefJson | null {
-    const loaded = this.loaded();
-    return (loaded?.ok ? loaded.page.refs?.[auditRefKey(kind, id)] : undefined) ?? null;
+    return this.list.value()?.refs?.[auditRefKey(kind, id)] ?? null;
   }
 
   protected onEntity(entity: string): void {
-    this.entityFilter.set(entity);
-    this.recordFilter.set('');
-    this.pageIndex.set(0);
-  }
-
-  protected onUser(user: string): void {
-    this.userFilter.set(user);
-    this.pageIndex.set(0);
+    this.list.setFilters({ entity, entityId: '' });
   }
 
   protected day(value: DateTime | null): string {
     return dayOf(value) ?? '';
   }
 
-  protected onDay(which: 'from' | 'to', value: string): void {
-    (which === 'from' ? this.from : this.to).set(value);
-    this.pageIndex.set(0);
-  }
-
-  protected onSort(sort: Sort): void {
-    this.sort.set(sort);
-    this.pageIndex.set(0);
-  }
-
-  protected onPage(event: PageEvent): void {
-    this.pageSize.set(event.pageSize);
-    this.pageIndex.set(event.pageIndex);
-  }
-
   protected clearFilters(): void {
-    this.entityFilter.set('');
-    this.recordFilter.set('');
-    this.userFilter.set('');
-    this.from.set('');
-    this.to.set('');
-    this.pageIndex.set(0);
-  }
-
-  protected reload(): void {
-    this.reloads.update((n) => n + 1);
+    this.list.filters.set({ entity: '', entityId: '', user: '', from: '', to: '' });
   }
 }

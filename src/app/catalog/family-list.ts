@@ -4,7 +4,6 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatPaginatorModule } from '@angular/material/paginator';
-import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSortModule } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
 import { MatTooltipModule } from '@angular/material/tooltip';
@@ -15,6 +14,7 @@ import { LengthPipe } from '../core/length-pipe';
 import { Session } from '../core/session';
 import { PagedList } from '../ui/paged-list';
 import { CatalogApi } from './catalog-api';
+import { ListState } from '../ui/list-state';
 
 const SORTABLE = ['code', 'name', 'standardBore', 'strokeType'] as const;
 
@@ -22,6 +22,7 @@ const SORTABLE = ['code', 'name', 'standardBore', 'strokeType'] as const;
 @Component({
   selector: 'app-family-list',
   imports: [
+    ListState,
     MatTooltipModule,
     LengthPipe,
     MatButtonModule,
@@ -29,7 +30,6 @@ const SORTABLE = ['code', 'name', 'standardBore', 'strokeType'] as const;
     MatIconModule,
     MatInputModule,
     MatPaginatorModule,
-    MatProgressBarModule,
     MatSortModule,
     MatTableModule,
     RouterLink,
@@ -47,11 +47,10 @@ export class FamilyList {
   protected readonly pageSizes = [25, 50, 100];
   protected readonly canEdit = computed(() => this.session.may('editCatalog'));
 
-  protected readonly list = new PagedList<FamilyJson, (typeof SORTABLE)[number]>(
-    SORTABLE,
-    'code',
-    (request) => this.api.families(request),
-  );
+  protected readonly list = new PagedList<FamilyJson, (typeof SORTABLE)[number]>({
+    sortable: SORTABLE,
+    load: (request) => this.api.families(request),
+  });
 
   protected open(family: FamilyJson): void {
     void this.router.navigate(['/catalog/families', family.id, 'ladder']);

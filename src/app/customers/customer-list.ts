@@ -4,13 +4,13 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatPaginatorModule } from '@angular/material/paginator';
-import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatTableModule } from '@angular/material/table';
 import { Router, RouterLink } from '@angular/router';
 
 import type { CustomerListItemJson } from '../../../shared/api/customers';
 import { PagedList } from '../ui/paged-list';
 import { CustomersApi } from './customers-api';
+import { ListState } from '../ui/list-state';
 
 /** The search decides the order (names that start with the text, then recent customers). */
 const SORTABLE = ['relevance'] as const;
@@ -19,12 +19,12 @@ const SORTABLE = ['relevance'] as const;
 @Component({
   selector: 'app-customer-list',
   imports: [
+    ListState,
     MatButtonModule,
     MatFormFieldModule,
     MatIconModule,
     MatInputModule,
     MatPaginatorModule,
-    MatProgressBarModule,
     MatTableModule,
     RouterLink,
   ],
@@ -39,11 +39,10 @@ export class CustomerList {
   protected readonly columns = ['name', 'phone', 'email'];
   protected readonly pageSizes = [25, 50, 100];
 
-  protected readonly list = new PagedList<CustomerListItemJson, (typeof SORTABLE)[number]>(
-    SORTABLE,
-    'relevance',
-    (request) => this.api.search(request.q ?? '', request.page, request.pageSize),
-  );
+  protected readonly list = new PagedList<CustomerListItemJson, (typeof SORTABLE)[number]>({
+    sortable: SORTABLE,
+    load: (request) => this.api.search(request.q ?? '', request.page, request.pageSize),
+  });
 
   protected open(customer: CustomerListItemJson): void {
     void this.router.navigate(['/customers', customer.id]);

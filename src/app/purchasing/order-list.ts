@@ -1,16 +1,13 @@
-import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
-import { toObservable, toSignal } from '@angular/core/rxjs-interop';
+import { ChangeDetectionStrategy, Component, computed, inject } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
-import { MatPaginatorModule, PageEvent } from '@angular/material/paginator';
-import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatPaginatorModule } from '@angular/material/paginator';
 import { MatSelectModule } from '@angular/material/select';
-import { MatSortModule, Sort } from '@angular/material/sort';
+import { MatSortModule } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
 import { Router, RouterLink } from '@angular/router';
-import { catchError, debounceTime, distinctUntilChanged, map, of, switchMap, tap } from 'rxjs';
 
 import {
   ORDER_STATE_LABELS,
@@ -18,26 +15,26 @@ import {
   type OrderListItemJson,
   type OrderState,
 } from '../../../shared/api/purchasing';
-import { apiErrorMessage } from '../core/api-error';
 import { Session } from '../core/session';
 import { PurchasingApi } from './purchasing-api';
 import { ShopDatePipe } from '../core/shop-date-pipe';
-import type { Page } from '../../../shared/api/common';
+import { PagedList } from '../ui/paged-list';
+import { ListState } from '../ui/list-state';
 
-type Loaded = { ok: true; page: Page<OrderListItemJson> } | { ok: false; message: string };
+type OrderFilters = { state: OrderState | 'open' | '' };
 const SORTABLE = ['number', 'createdAt', 'expectedOn', 'supplier', 'state'] as const;
 
 /** Every purchase order with where it stands; open ones (sent out, partly in) first by default. */
 @Component({
   selector: 'app-order-list',
   imports: [
+    ListState,
     ShopDatePipe,
     MatButtonModule,
     MatFormFieldModule,
     MatIconModule,
     MatInputModule,
     MatPaginatorModule,
-    MatProgressBarModule,
     MatSelectModule,
     MatSortModule,
     MatTableModule,
@@ -59,81 +56,17 @@ export class OrderList {
   protected readonly canOrder = computed(() => this.session.may('buy'));
   protected readonly canReceive = computed(() => this.session.may('receiveStock'));
 
-  protected readonly text = signal('');
-  protected readonly state = signal<OrderState | 'open' | ''>('');
-  protected readonly sort = signal<Sort>({ active: 'createdAt', direction: 'desc' });
-  protected readonly pageIndex = signal(0);
-  protected readonly pageSize = signal(25);
-  private readonly reloads = signal(0);
-
-  private readonly q = toSignal(
-    toObservable(this.text).pipe(debounceTime(250), distinctUntilChanged()),
-    { initialValue: '' },
-  );
-  private readonly query = computed(() => {
-    const sort = this.sort();
-    return {
-      q: this.q().trim() || undefined,
-      state: this.state() || undefined,
-      sort: SORTABLE.find((s) => s === sort.active) ?? 'createdAt',
-      dir: sort.direction === 'asc' ? 'asc' : 'desc',
-      page: this.pageIndex() + 1,
-      pageSize: this.pageSize(),
-      reload: this.reloads(),
-    };
+  protected readonly list = new PagedList<
+    OrderListItemJson,
+    (typeof SORTABLE)[number],
+    OrderFilters
+  >({
+    sortable: SORTABLE,
+    sort: 'createdAt',
+    dir: 'desc',
+    filters: { state: '' },
+    load: (request) => this.api.orders(request),
   });
-
-  protected readonly loading = signal(true);
-  private readonly loaded = toSignal(
-    toObservable(this.query).pipe(
-      tap(() => this.loading.set(true)),
-      switchMap(({ reload: _reload, ...query }) =>
-        this.api.orders(query).pipe(
-          map((page): Loaded => ({ ok: true, page })),
-          catchError((error: unknown) =>
-            of<Loaded>({ ok: false, message: apiErrorMessage(error) }),
-          ),
-        ),
-      ),
-      tap(() => this.loading.set(false)),
-    ),
-  );
-  protected readonly rows = computed(() => {
-    const loaded = this.loaded();
-    return loaded?.ok ? loaded.page.items : [];
-  });
-  protected readonly total = computed(() => {
-    const loaded = this.loaded();
-    return loaded?.ok ? loaded.page.total : 0;
-  });
-  protected readonly loadError = computed(() => {
-    const loaded = this.loaded();
-    return loaded && !loaded.ok ? loaded.message : '';
-  });
-
-  protected onSearch(value: string): void {
-    this.text.set(value);
-    this.pageIndex.set(0);
-  }
-
-  protected onState(value: OrderState | 'open' | ''): void {
-    this.state.set(value);
-    this.pageIndex.set(0);
-  }
-
-  protected onSort(sort: Sort): void {
-    this.sort.set(sort);
-    this.pageIndex.set(0);
-  }
-
-  protected onPage(event: PageEvent): void {
-    this.pageSize.set(event.pageSize);
-    this.pageIndex.set(event.pageIndex);
-  }
-
-  protected reload(): void {
-    this.reloads.update((n) => n + 1);
-  }
 
   protected open(order: OrderListItemJson): void {
     void this.router.navigate(['/purchasing/orders', order.id]);

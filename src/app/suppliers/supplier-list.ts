@@ -4,7 +4,6 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatPaginatorModule } from '@angular/material/paginator';
-import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSortModule } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
 import { MatTooltipModule } from '@angular/material/tooltip';
@@ -15,6 +14,7 @@ import { Session } from '../core/session';
 import { PagedList } from '../ui/paged-list';
 import { SuppliersApi } from './suppliers-api';
 import { ShopDatePipe } from '../core/shop-date-pipe';
+import { ListState } from '../ui/list-state';
 
 const SORTABLE = ['name', 'currency', 'leadDays', 'items', 'lastImport'] as const;
 
@@ -22,6 +22,7 @@ const SORTABLE = ['name', 'currency', 'leadDays', 'items', 'lastImport'] as cons
 @Component({
   selector: 'app-supplier-list',
   imports: [
+    ListState,
     MatTooltipModule,
     ShopDatePipe,
     MatButtonModule,
@@ -29,7 +30,6 @@ const SORTABLE = ['name', 'currency', 'leadDays', 'items', 'lastImport'] as cons
     MatIconModule,
     MatInputModule,
     MatPaginatorModule,
-    MatProgressBarModule,
     MatSortModule,
     MatTableModule,
     RouterLink,
@@ -47,11 +47,10 @@ export class SupplierList {
   protected readonly pageSizes = [25, 50, 100];
   protected readonly canEdit = computed(() => this.session.may('editSuppliers'));
 
-  protected readonly list = new PagedList<SupplierJson, (typeof SORTABLE)[number]>(
-    SORTABLE,
-    'name',
-    (request) => this.api.suppliers(request),
-  );
+  protected readonly list = new PagedList<SupplierJson, (typeof SORTABLE)[number]>({
+    sortable: SORTABLE,
+    load: (request) => this.api.suppliers(request),
+  });
 
   protected open(supplier: SupplierJson): void {
     void this.router.navigate(['/suppliers', supplier.id]);
