@@ -1,25 +1,15 @@
-import {
-  ChangeDetectionStrategy,
-  Component,
-  computed,
-  effect,
-  inject,
-  input,
-  linkedSignal,
-  signal,
-} from '@angular/core';
-import { toObservable, toSignal } from '@angular/core/rxjs-interop';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, input } from '@angular/core';
+import { toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
-import { MatPaginatorModule, PageEvent } from '@angular/material/paginator';
-import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatPaginatorModule } from '@angular/material/paginator';
 import { MatSelectModule } from '@angular/material/select';
-import { MatSortModule, Sort } from '@angular/material/sort';
+import { MatSortModule } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
 import { Router, RouterLink } from '@angular/router';
-import { catchError, debounce, distinctUntilChanged, map, of, switchMap, tap, timer } from 'rxjs';
+import { catchError, map, of } from 'rxjs';
 
 import {
   PART_KINDS,
@@ -28,14 +18,18 @@ import {
   type PartKind,
   type StepSeriesJson,
 } from '../../../shared/api/catalog';
-import { apiErrorMessage } from '../core/api-error';
+import type { Page } from '../../../shared/api/common';
 import { Session } from '../core/session';
-import { CatalogApi, type PartQuery } from './catalog-api';
+import { CatalogApi } from './catalog-api';
 import { looksScanned } from '../ui/scan';
 import { KIND_LABELS } from './part-words';
-import type { Page } from '../../../shared/api/common';
+import { PagedList } from '../ui/paged-list';
+import { ListState } from '../ui/list-state';
 
-type Loaded = { ok: true; page: Page<PartJson>; q: string } | { ok: false; message: string };
+const PART_SORT = ['sku', 'description', 'kind', 'family', 'onHand', 'free', 'salePrice'] as const;
+type PartSort = (typeof PART_SORT)[number];
+type PartFilters = { familyId: string; stepId: string; kind: PartKind | '' };
+type ScannedPage = Page<PartJson> & { q: string };
 
 /**
  * Every part, paged and sorted on the server. The search takes a part number, words of the
@@ -45,12 +39,12 @@ type Loaded = { ok: true; page: Page<PartJson>; q: string } | { ok: false; messa
 @Component({
   selector: 'app-part-list',
   imports: [
+    ListState,
     MatButtonModule,
     MatFormFieldModule,
     MatIconModule,
     MatInputModule,
     MatPaginatorModule,
-    MatProgressBarModule,
     MatSelectModule,
     MatSortModule,
     MatTableModule,
@@ -84,16 +78,14 @@ export class PartList {
   protected readonly pageSizes = [25, 50, 100];
   protected readonly canEdit = computed(() => this.session.may('editCatalog'));
 
-  protected readonly text = linkedSignal(() => this.q() ?? '');
-  protected readonly family = linkedSignal(() => this.familyId() ?? '');
-  protected readonly step = signal('');
-  protected readonly kind = signal<PartKind | ''>('');
-  protected readonly sort = signal<Sort>({ active: 'sku', direction: 'asc' });
-  protected readonly pageIndex = signal(0);
-  protected readonly pageSize = signal(25);
-  private readonly reloads = signal(0);
-  /** Set when Enter is pressed in the search: search now, and open a single match. */
-  private readonly enterPressed = signal(0);
+  protected readonly list = new PagedList<PartJson, PartSort, PartFilters, ScannedPage>({
+    sortable: PART_SORT,
+    text: () => this.q() ?? '',
+    filters: () => ({ familyId: this.familyId() ?? '', stepId: '', kind: '' }),
+    // The answer remembers the search it is for, so a scan opens its part only once it is in.
+    load: (request) =>
+      this.api.parts(request).pipe(map((page) => ({ ...page, q: request.q ?? '' }))),
+  });
 
   protected readonly families = toSignal(
     this.api.families({ page: 1, pageSize: 500 }).pipe(
@@ -110,60 +102,8 @@ export class PartList {
     { initialValue: [] as StepSeriesJson[] },
   );
   protected readonly steps = computed(() => {
-    const family = this.families().find((f) => f.id === this.family());
+    const family = this.families().find((f) => f.id === this.list.filters().familyId);
     return family ? (this.series().find((s) => s.id === family.stepSeriesId)?.steps ?? []) : [];
-  });
-
-  private readonly searchText = toSignal(
-    toObservable(computed(() => ({ text: this.text(), enter: this.enterPressed() }))).pipe(
-      debounce((v) => (v.enter > 0 && looksScanned(v.text) ? timer(0) : timer(250))),
-      map((v) => v.text.trim()),
-      distinctUntilChanged(),
-    ),
-    { initialValue: '' },
-  );
-
-  private readonly query = computed(() => {
-    const sort = this.sort();
-    return {
-      q: this.searchText() || undefined,
-      familyId: this.family() || undefined,
-      stepId: this.step() || undefined,
-      kind: this.kind() || undefined,
-      sort: sort.active,
-      dir: sort.direction === 'desc' ? 'desc' : 'asc',
-      page: this.pageIndex() + 1,
-      pageSize: this.pageSize(),
-      reload: this.reloads(),
-    } satisfies PartQuery & { reload: number };
-  });
-
-  protected readonly loading = signal(true);
-  private readonly loaded = toSignal(
-    toObservable(this.query).pipe(
-      tap(() => this.loading.set(true)),
-      switchMap(({ reload: _reload, ...query }) =>
-        this.api.parts(query).pipe(
-          map((page): Loaded => ({ ok: true, page, q: query.q ?? '' })),
-          catchError((error: unknown) =>
-            of<Loaded>({ ok: false, message: apiErrorMessage(error) }),
-          ),
-        ),
-      ),
-      tap(() => this.loading.set(false)),
-    ),
-  );
-  protected readonly rows = computed(() => {
-    const loaded = this.loaded();
-    return loaded?.ok ? loaded.page.items : [];
-  });
-  protected readonly total = computed(() => {
-    const loaded = this.loaded();
-    return loaded?.ok ? loaded.page.total : 0;
-  });
-  protected readonly loadError = computed(() => {
-    const loaded = this.loaded();
-    return loaded && !loaded.ok ? loaded.message : '';
   });
 
   private scanned = '';
@@ -171,11 +111,11 @@ export class PartList {
   constructor() {
     // A scan that finds exactly one part opens it: the person's hands stay on the scanner.
     effect(() => {
-      const loaded = this.loaded();
-      if (!loaded?.ok || !this.scanned || loaded.q !== this.scanned) return;
+      const page = this.list.value();
+      if (!page || !this.scanned || page.q !== this.scanned) return;
       this.scanned = '';
-      if (loaded.page.total === 1) {
-        void this.router.navigate(['/catalog/parts', loaded.page.items[0].id]);
+      if (page.total === 1) {
+        void this.router.navigate(['/catalog/parts', page.items[0].id]);
       }
     });
   }
@@ -184,51 +124,16 @@ export class PartList {
     return KIND_LABELS[part.kind];
   }
 
-  protected onSearch(value: string): void {
-    this.text.set(value);
-    this.pageIndex.set(0);
-  }
-
   protected onEnter(): void {
-    const text = this.text().trim();
+    const text = this.list.text().trim();
     if (looksScanned(text)) this.scanned = text;
-    this.enterPressed.update((n) => n + 1);
+    this.list.onEnter();
     // Enter on the same text again: the list is already showing it; open the single match now.
-    const loaded = this.loaded();
-    if (this.scanned && loaded?.ok && loaded.q === text && loaded.page.total === 1) {
+    const page = this.list.value();
+    if (this.scanned && page?.q === text && page.total === 1) {
       this.scanned = '';
-      void this.router.navigate(['/catalog/parts', loaded.page.items[0].id]);
+      void this.router.navigate(['/catalog/parts', page.items[0].id]);
     }
-  }
-
-  protected onFamily(id: string): void {
-    this.family.set(id);
-    this.step.set('');
-    this.pageIndex.set(0);
-  }
-
-  protected onStep(id: string): void {
-    this.step.set(id);
-    this.pageIndex.set(0);
-  }
-
-  protected onKind(kind: PartKind | ''): void {
-    this.kind.set(kind);
-    this.pageIndex.set(0);
-  }
-
-  protected onSort(sort: Sort): void {
-    this.sort.set(sort);
-    this.pageIndex.set(0);
-  }
-
-  protected onPage(event: PageEvent): void {
-    this.pageSize.set(event.pageSize);
-    this.pageIndex.set(event.pageIndex);
-  }
-
-  protected reload(): void {
-    this.reloads.update((n) => n + 1);
   }
 
   protected open(part: PartJson): void {

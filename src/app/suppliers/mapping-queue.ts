@@ -1,33 +1,12 @@
-import {
-  ChangeDetectionStrategy,
-  Component,
-  computed,
-  inject,
-  input,
-  linkedSignal,
-  signal,
-} from '@angular/core';
-import { toObservable, toSignal } from '@angular/core/rxjs-interop';
+import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
 import { MatAutocompleteModule } from '@angular/material/autocomplete';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
-import { MatPaginatorModule, PageEvent } from '@angular/material/paginator';
-import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatPaginatorModule } from '@angular/material/paginator';
 import { RouterLink } from '@angular/router';
-import {
-  catchError,
-  combineLatest,
-  debounceTime,
-  distinctUntilChanged,
-  map,
-  of,
-  switchMap,
-  tap,
-} from 'rxjs';
 
-import type { PartJson } from '../../../shared/api/catalog';
 import { formatMoney } from '../../../shared/money';
 import type { SuggestionJson, UnmappedItemJson } from '../../../shared/api/suppliers';
 import { apiErrorMessage } from '../core/api-error';
@@ -35,9 +14,9 @@ import { LengthPipe } from '../core/length-pipe';
 import { Notifier } from '../core/notifier';
 import { Session } from '../core/session';
 import { SuppliersApi } from './suppliers-api';
-import type { Page } from '../../../shared/api/common';
-
-type Loaded = { ok: true; page: Page<UnmappedItemJson> } | { ok: false; message: string };
+import { PagedList } from '../ui/paged-list';
+import { debounced, loadEach } from '../ui/load';
+import { ListState } from '../ui/list-state';
 
 /**
  * Supplier items no catalog part is linked to yet. The buyer links each to our part, helped by
@@ -46,6 +25,7 @@ type Loaded = { ok: true; page: Page<UnmappedItemJson> } | { ok: false; message:
 @Component({
   selector: 'app-mapping-queue',
   imports: [
+    ListState,
     LengthPipe,
     MatAutocompleteModule,
     MatButtonModule,
@@ -53,7 +33,6 @@ type Loaded = { ok: true; page: Page<UnmappedItemJson> } | { ok: false; message:
     MatIconModule,
     MatInputModule,
     MatPaginatorModule,
-    MatProgressBarModule,
     RouterLink,
   ],
   templateUrl: './mapping-queue.html',
@@ -71,87 +50,27 @@ export class MappingQueue {
   readonly q = input<string>();
 
   protected readonly canMap = computed(() => this.session.may('editSuppliers'));
-  protected readonly text = linkedSignal(() => this.q() ?? '');
-  protected readonly pageIndex = signal(0);
-  protected readonly pageSize = signal(25);
-  private readonly reloads = signal(0);
+  protected readonly list = new PagedList<UnmappedItemJson, never, { supplierId: string }>({
+    text: () => this.q() ?? '',
+    filters: () => ({ supplierId: this.supplierId() ?? '' }),
+    load: (request) => this.api.unmapped(request),
+  });
+
   protected readonly busyItem = signal<string | null>(null);
   /** The item whose "another part" search is open. */
   protected readonly searching = signal<string | null>(null);
   protected readonly partText = signal('');
 
-  private readonly typed = toSignal(
-    toObservable(this.text).pipe(debounceTime(250), distinctUntilChanged()),
-    { initialValue: '' },
+  /** Parts matching what is typed in the open "another part" search, from two characters on. */
+  private readonly partQuery = debounced(this.partText, 200);
+  private readonly partsFound = loadEach(
+    () => (this.searching() && this.partQuery().length >= 2 ? this.partQuery() : null),
+    (text) => this.api.findParts(text),
   );
-
-  private readonly query = computed(() => ({
-    supplierId: this.supplierId() || undefined,
-    q: this.typed().trim() || undefined,
-    page: this.pageIndex() + 1,
-    pageSize: this.pageSize(),
-    reload: this.reloads(),
-  }));
-
-  protected readonly loading = signal(true);
-  private readonly loaded = toSignal(
-    toObservable(this.query).pipe(
-      tap(() => this.loading.set(true)),
-      switchMap(({ reload: _reload, ...query }) =>
-        this.api.unmapped(query).pipe(
-          map((page): Loaded => ({ ok: true, page })),
-          catchError((error: unknown) =>
-            of<Loaded>({ ok: false, message: apiErrorMessage(error) }),
-          ),
-        ),
-      ),
-      tap(() => this.loading.set(false)),
-    ),
-  );
-  protected readonly rows = computed(() => {
-    const loaded = this.loaded();
-    return loaded?.ok ? loaded.page.items : [];
-  });
-  protected readonly total = computed(() => {
-    const loaded = this.loaded();
-    return loaded?.ok ? loaded.page.total : 0;
-  });
-  protected readonly loadError = computed(() => {
-    const loaded = this.loaded();
-    return loaded && !loaded.ok ? loaded.message : '';
-  });
-
-  protected readonly partOptions = toSignal(
-    combineLatest([toObservable(this.partText), toObservable(this.searching)]).pipe(
-      debounceTime(200),
-      switchMap(([text, item]) =>
-        item && text.trim().length >= 2
-          ? this.api.findParts(text.trim()).pipe(
-              map((page) => page.items),
-              catchError(() => of<PartJson[]>([])),
-            )
-          : of<PartJson[]>([]),
-      ),
-    ),
-    { initialValue: [] as PartJson[] },
-  );
+  protected readonly partOptions = computed(() => this.partsFound.value()?.items ?? []);
 
   protected money(price: string, currency: string): string {
     return formatMoney(price, currency);
-  }
-
-  protected onSearch(value: string): void {
-    this.text.set(value);
-    this.pageIndex.set(0);
-  }
-
-  protected onPage(event: PageEvent): void {
-    this.pageSize.set(event.pageSize);
-    this.pageIndex.set(event.pageIndex);
-  }
-
-  protected reload(): void {
-    this.reloads.update((n) => n + 1);
   }
 
   protected searchFor(itemId: string | null): void {
@@ -171,7 +90,7 @@ export class MappingQueue {
         this.busyItem.set(null);
         this.searching.set(null);
         this.notifier.success(`${item.sku} of ${item.supplierName} is now ${part.sku}.`);
-        this.reload();
+        this.list.reload();
       },
       error: (error: unknown) => {
         this.busyItem.set(null);
