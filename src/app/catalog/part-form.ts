@@ -6,8 +6,9 @@ import {
   inject,
   input,
   signal,
+  untracked,
 } from '@angular/core';
-import { toObservable, toSignal } from '@angular/core/rxjs-interop';
+import { toSignal } from '@angular/core/rxjs-interop';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatAutocompleteModule } from '@angular/material/autocomplete';
 import { MatButtonModule } from '@angular/material/button';
@@ -15,11 +16,10 @@ import { MatCheckboxModule } from '@angular/material/checkbox';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
-import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { MatTooltipModule } from '@angular/material/tooltip';
 import { Router, RouterLink } from '@angular/router';
-import { catchError, debounceTime, distinctUntilChanged, map, of, switchMap } from 'rxjs';
+import { catchError, map, of } from 'rxjs';
 
 import {
   PART_KINDS,
@@ -30,7 +30,7 @@ import {
   type StepSeriesJson,
 } from '../../../shared/api/catalog';
 import { gtinProblem } from '../../../shared/gtin';
-import { apiErrorMessage, apiFieldErrors } from '../core/api-error';
+import { apiFieldErrors } from '../core/api-error';
 import { placeApiErrors } from '../core/field-errors';
 import { LengthPipe } from '../core/length-pipe';
 import { Notifier } from '../core/notifier';
@@ -38,6 +38,8 @@ import { Session } from '../core/session';
 import { lengthForField, lengthText, lengthValidator, otherUnitHint } from '../ui/length-input';
 import { CatalogApi, type PartBody } from './catalog-api';
 import { KIND_LABELS } from './part-words';
+import { debounced, loadById, loadEach } from '../ui/load';
+import { ListState } from '../ui/list-state';
 
 interface Component_ {
   partId: string;
@@ -46,11 +48,6 @@ interface Component_ {
   quantity: number;
 }
 
-type Loaded =
-  | { state: 'loading' }
-  | { state: 'ok'; part: PartDetailJson | null }
-  | { state: 'error'; message: string };
-
 /**
  * One part: owner and buyer add and edit it (kind, sizes, barcode, price, reorder rule, a kit's
  * contents); everyone else reads it, with its stock and where to find its movements.
@@ -58,6 +55,7 @@ type Loaded =
 @Component({
   selector: 'app-part-form',
   imports: [
+    ListState,
     MatTooltipModule,
     LengthPipe,
     MatAutocompleteModule,
@@ -66,7 +64,6 @@ type Loaded =
     MatFormFieldModule,
     MatIconModule,
     MatInputModule,
-    MatProgressBarModule,
     MatSelectModule,
     ReactiveFormsModule,
     RouterLink,
@@ -148,49 +145,37 @@ export class PartForm {
 
   /** Part search for a kit's contents. */
   protected readonly componentSearch = signal('');
-  protected readonly componentOptions = toSignal(
-    toObservable(this.componentSearch).pipe(
-      debounceTime(200),
-      distinctUntilChanged(),
-      switchMap((q) =>
-        q.trim().length < 2
-          ? of<PartJson[]>([])
-          : this.api.parts({ q, page: 1, pageSize: 10 }).pipe(
-              map((page) => page.items.filter((p) => p.kind !== 'kit' && p.id !== this.id())),
-              catchError(() => of<PartJson[]>([])),
-            ),
-      ),
+  private readonly componentQuery = debounced(this.componentSearch, 200);
+  private readonly componentsFound = loadEach(
+    () => (this.componentQuery().length >= 2 ? this.componentQuery() : null),
+    (q) => this.api.parts({ q, page: 1, pageSize: 10 }),
+  );
+  /** A kit holds counted parts, never another kit or itself. */
+  protected readonly componentOptions = computed(() =>
+    (this.componentsFound.value()?.items ?? []).filter(
+      (p) => p.kind !== 'kit' && p.id !== this.id(),
     ),
-    { initialValue: [] as PartJson[] },
   );
 
-  protected readonly loaded = signal<Loaded>({ state: 'loading' });
-  protected readonly part = computed(() => {
-    const loaded = this.loaded();
-    return loaded.state === 'ok' ? loaded.part : null;
-  });
+  /** No id: a new part, nothing to load. A save answers with the part, which replaces it here. */
+  protected readonly loaded = loadById(
+    () => this.id() || null,
+    (id) => this.api.part(id),
+  );
+  protected readonly part = this.loaded.value;
   protected readonly busy = signal(false);
   protected readonly problem = signal('');
   protected readonly serverErrors = signal<Record<string, string>>({});
 
   constructor() {
     effect(() => {
-      const id = this.id();
       if (!this.canEdit()) this.form.disable();
-      if (!id) {
-        this.loaded.set({ state: 'ok', part: null });
-        return;
-      }
-      this.form.controls.kind.disable();
-      this.loaded.set({ state: 'loading' });
-      this.api.part(id).subscribe({
-        next: (part) => {
-          this.fill(part);
-          this.loaded.set({ state: 'ok', part });
-        },
-        error: (error: unknown) =>
-          this.loaded.set({ state: 'error', message: apiErrorMessage(error) }),
-      });
+      if (this.id()) this.form.controls.kind.disable();
+    });
+    // The part fills the form when it arrives, and again when a save answers with it.
+    effect(() => {
+      const part = this.part();
+      if (part) untracked(() => this.fill(part));
     });
   }
 
@@ -256,8 +241,7 @@ export class PartForm {
         this.busy.set(false);
         this.notifier.success(id ? `${part.sku} saved.` : `${part.sku} added.`);
         if (id) {
-          this.fill(part);
-          this.loaded.set({ state: 'ok', part });
+          this.loaded.set(part);
         } else {
           void this.router.navigate(['/catalog/parts', part.id]);
         }

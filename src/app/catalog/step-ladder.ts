@@ -7,28 +7,24 @@ import {
   linkedSignal,
   signal,
 } from '@angular/core';
-import { toObservable, toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
 import { MatIconModule } from '@angular/material/icon';
-import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatTooltipModule } from '@angular/material/tooltip';
 import { RouterLink } from '@angular/router';
-import { catchError, combineLatest, map, of, startWith, switchMap } from 'rxjs';
 
-import type { LadderJson, LadderStepJson, LadderUnitJson } from '../../../shared/api/catalog';
+import type { LadderStepJson, LadderUnitJson } from '../../../shared/api/catalog';
 import type { LengthUnit } from '../../../shared/lengths';
 import { emptyStepWords, type NeededPart } from '../../../shared/part-needs';
 import { apiErrorMessage } from '../core/api-error';
 import { LengthPipe } from '../core/length-pipe';
 import { Session } from '../core/session';
 import { CatalogApi } from './catalog-api';
+import { loadById } from '../ui/load';
+import { ListState } from '../ui/list-state';
 
 /** Pistons per page when a step is opened in full. */
 const SHELF_PAGE = 100;
-
-type Loaded =
-  { state: 'loading' } | { state: 'ok'; ladder: LadderJson } | { state: 'error'; message: string };
 
 /**
  * One engine family, every step as a row: what is on the shelf, what is held for jobs, what is
@@ -38,11 +34,11 @@ type Loaded =
 @Component({
   selector: 'app-step-ladder',
   imports: [
+    ListState,
     LengthPipe,
     MatButtonModule,
     MatButtonToggleModule,
     MatIconModule,
-    MatProgressBarModule,
     MatTooltipModule,
     RouterLink,
   ],
@@ -57,31 +53,8 @@ export class StepLadder {
   /** The family id, from the route. */
   readonly id = input.required<string>();
 
-  private readonly reloads = signal(0);
-  private readonly loaded = toSignal(
-    combineLatest([toObservable(this.id), toObservable(this.reloads)]).pipe(
-      switchMap(([id]) =>
-        this.api.ladder(id).pipe(
-          map((ladder): Loaded => ({ state: 'ok', ladder })),
-          catchError((error: unknown) =>
-            of<Loaded>({ state: 'error', message: apiErrorMessage(error) }),
-          ),
-          startWith<Loaded>({ state: 'loading' }),
-        ),
-      ),
-    ),
-    { initialValue: { state: 'loading' } as Loaded },
-  );
-
-  protected readonly loading = computed(() => this.loaded().state === 'loading');
-  protected readonly error = computed(() => {
-    const loaded = this.loaded();
-    return loaded.state === 'error' ? loaded.message : '';
-  });
-  protected readonly ladder = computed(() => {
-    const loaded = this.loaded();
-    return loaded.state === 'ok' ? loaded.ladder : null;
-  });
+  protected readonly loaded = loadById(this.id, (id) => this.api.ladder(id));
+  protected readonly ladder = this.loaded.value;
   protected readonly emptySteps = computed(
     () => this.ladder()?.steps.filter((step) => step.nothingFree).length ?? 0,
   );
@@ -141,8 +114,9 @@ export class StepLadder {
     if (value === 'mm' || value === 'in') this.unit.set(value);
   }
 
+  /** Asking again also folds the opened steps back: their pages belong to the old answer. */
   protected reload(): void {
     this.opened.set({});
-    this.reloads.update((n) => n + 1);
+    this.loaded.reload();
   }
 }

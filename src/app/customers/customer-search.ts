@@ -1,16 +1,23 @@
-import { ChangeDetectionStrategy, Component, inject, input, output, signal } from '@angular/core';
-import { toObservable, toSignal } from '@angular/core/rxjs-interop';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  computed,
+  inject,
+  input,
+  output,
+  signal,
+} from '@angular/core';
 import { MatAutocompleteModule } from '@angular/material/autocomplete';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
-import { catchError, debounceTime, map, Observable, of, switchMap } from 'rxjs';
+import { map } from 'rxjs';
 
 import type { CustomerListItemJson } from '../../../shared/api/customers';
-import { apiErrorMessage } from '../core/api-error';
 import { CustomersApi } from './customers-api';
+import { debounced, loadEach } from '../ui/load';
 
-type Found = { items: CustomerListItemJson[]; message: string; text: string };
+type Found = { items: CustomerListItemJson[]; message: string };
 
 /** Fewest characters searched: two keystrokes find a returning customer. */
 export const SEARCH_MIN = 2;
@@ -80,24 +87,19 @@ export class CustomerSearch {
   /** The field empties once a customer is picked: the pick shows beside it. */
   protected readonly blank = (): string => '';
 
-  private readonly found = toSignal(
-    toObservable(this.text).pipe(
-      debounceTime(150),
-      switchMap((text): Observable<Found> => {
-        const q = text.trim();
-        if (q.length < SEARCH_MIN) return of({ items: [], message: '', text });
-        return this.api.search(q).pipe(
-          map((page) => ({
-            items: page.items,
-            message: page.items.length === 0 ? `No customer found for “${q}”.` : '',
-            text,
-          })),
-          catchError((error: unknown) => of({ items: [], message: apiErrorMessage(error), text })),
-        );
-      }),
-    ),
-    { initialValue: { items: [], message: '', text: '' } as Found },
+  private readonly q = debounced(this.text, 150);
+  private readonly results = loadEach(
+    () => (this.q().length >= SEARCH_MIN ? this.q() : null),
+    // The answer keeps the text it is for, so its "nothing found" names what was searched.
+    (q) => this.api.search(q).pipe(map((page) => ({ items: page.items, q }))),
   );
+  private readonly found = computed((): Found => {
+    const error = this.results.error();
+    const answer = this.results.value();
+    if (error || !answer) return { items: [], message: error };
+    const { items, q } = answer;
+    return { items, message: items.length === 0 ? `No customer found for “${q}”.` : '' };
+  });
 
   protected shown(): Found {
     const f = this.found();

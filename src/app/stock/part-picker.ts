@@ -1,14 +1,22 @@
-import { ChangeDetectionStrategy, Component, inject, input, output, signal } from '@angular/core';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  computed,
+  inject,
+  input,
+  output,
+  signal,
+} from '@angular/core';
 import { toObservable, toSignal } from '@angular/core/rxjs-interop';
 import { MatAutocompleteModule } from '@angular/material/autocomplete';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
-import { catchError, debounce, map, Observable, of, switchMap, timer } from 'rxjs';
+import { debounce, map, timer } from 'rxjs';
 
 import type { PartJson } from '../../../shared/api/catalog';
-import { apiErrorMessage } from '../core/api-error';
 import { StockApi } from './stock-api';
+import { loadEach } from '../ui/load';
 
 type Found = { parts: PartJson[]; message: string; text: string; scan: boolean };
 
@@ -70,32 +78,33 @@ export class PartPicker {
   protected readonly text = signal('');
   private readonly search = signal({ text: '', scan: false });
 
-  protected readonly found = toSignal(
-    toObservable(this.search).pipe(
-      debounce((s) => timer(s.scan ? 0 : 200)),
-      switchMap((s): Observable<Found> =>
-        s.text.trim().length < 2
-          ? of({ parts: [], message: '', text: s.text, scan: s.scan })
-          : this.api.findParts(s.text.trim()).pipe(
-              map((page) => {
-                const parts = this.countedOnly()
-                  ? page.items.filter((p) => p.kind !== 'kit')
-                  : page.items;
-                return {
-                  parts,
-                  message: parts.length === 0 ? `Nothing found for “${s.text.trim()}”.` : '',
-                  text: s.text,
-                  scan: s.scan,
-                };
-              }),
-              catchError((error: unknown) =>
-                of({ parts: [], message: apiErrorMessage(error), text: s.text, scan: s.scan }),
-              ),
-            ),
-      ),
-    ),
-    { initialValue: { parts: [], message: '', text: '', scan: false } as Found },
+  /** What to look up: at once after a scanner's Enter, else once typing pauses. */
+  private readonly asked = toSignal(
+    toObservable(this.search).pipe(debounce((s) => timer(s.scan ? 0 : 200))),
+    { initialValue: { text: '', scan: false } },
   );
+  private readonly results = loadEach(
+    () => {
+      const asked = this.asked();
+      return asked.text.trim().length >= 2 ? asked : null;
+    },
+    (asked) =>
+      this.api.findParts(asked.text.trim()).pipe(
+        map((page): Found => {
+          const parts = this.countedOnly()
+            ? page.items.filter((p) => p.kind !== 'kit')
+            : page.items;
+          const message = parts.length === 0 ? `Nothing found for “${asked.text.trim()}”.` : '';
+          return { ...asked, parts, message };
+        }),
+      ),
+  );
+  protected readonly found = computed((): Found => {
+    const { text, scan } = this.asked();
+    const error = this.results.error();
+    if (error) return { parts: [], message: error, text, scan };
+    return this.results.value() ?? { parts: [], message: '', text, scan };
+  });
 
   constructor() {
     // A scan that finds one part picks it: no mouse needed at the receiving bench.
