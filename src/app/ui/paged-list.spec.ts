@@ -1,7 +1,7 @@
 import { TestBed } from '@angular/core/testing';
 import { Subject, type Observable } from 'rxjs';
 
-import type { Page } from '../../../shared/api/catalog';
+import type { Page } from '../../../shared/api/common';
 import { PagedList, type ListRequest } from './paged-list';
 
 type Filters = { state: 'open' | 'closed' | ''; low: boolean };
