@@ -26,10 +26,11 @@ function unreachable(error: unknown): boolean {
 
 function remembered(): SessionResponse | null {
   try {
-    const stored: unknown = JSON.parse(localStorage.getItem(LAST_SESSION_KEY) ?? 'null');
-    return stored && typeof stored === 'object' && 'user' in stored
-      ? (stored as SessionResponse)
-      : null;
+    const stored = JSON.parse(localStorage.getItem(LAST_SESSION_KEY) ?? 'null') as {
+      user?: { id?: unknown } | null;
+    } | null;
+    // Only a whole remembered session counts: a left-over "nobody signed in" is no one.
+    return typeof stored?.user?.id === 'string' ? (stored as SessionResponse) : null;
   } catch {
     return null;
   }
@@ -166,7 +167,7 @@ export class Session {
   private accept(response: SessionResponse, how = { offline: false }): SessionUser {
     const before = remembered();
     // Someone else on this tablet: the last person's cached pages are not theirs to read.
-    if (!how.offline && before && before.user.id !== response.user.id) void clearCachedAnswers();
+    if (!how.offline && before && before.user.id !== response.user?.id) void clearCachedAnswers();
     this.current.set(response);
     this.offline.set(how.offline);
     this.loaded = true;
