@@ -5,13 +5,14 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
-import { MatTableModule } from '@angular/material/table';
-import { MatTooltipModule } from '@angular/material/tooltip';
 
 import type { ExchangeRateJson } from '../../../shared/api/purchasing';
 import { apiErrorMessage, apiFieldErrors } from '../core/api-error';
 import { Notifier } from '../core/notifier';
 import { Session } from '../core/session';
+import { DataTable } from '../ui/data-table';
+import { RowActions } from '../ui/row-actions';
+import { TableColumn, TableEmpty } from '../ui/table-column';
 import { PurchasingApi } from './purchasing-api';
 import { ShopDatePipe } from '../core/shop-date-pipe';
 
@@ -19,14 +20,16 @@ import { ShopDatePipe } from '../core/shop-date-pipe';
 @Component({
   selector: 'app-rates-page',
   imports: [
-    MatTooltipModule,
     ShopDatePipe,
     MatButtonModule,
     MatFormFieldModule,
     MatIconModule,
     MatInputModule,
     MatProgressBarModule,
-    MatTableModule,
+    DataTable,
+    RowActions,
+    TableColumn,
+    TableEmpty,
     ReactiveFormsModule,
   ],
   templateUrl: './rates-page.html',

@@ -6,13 +6,14 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
-import { MatTableModule } from '@angular/material/table';
-import { MatTooltipModule } from '@angular/material/tooltip';
 
 import type { FamilyJson, LadderStepJson } from '../../../shared/api/catalog';
 import type { ReorderDefaultJson } from '../../../shared/api/purchasing';
 import { apiErrorMessage, apiFieldErrors } from '../core/api-error';
 import { Notifier } from '../core/notifier';
+import { DataTable } from '../ui/data-table';
+import { RowActions } from '../ui/row-actions';
+import { TableColumn, TableEmpty } from '../ui/table-column';
 import { PurchasingApi } from './purchasing-api';
 
 /**
@@ -22,14 +23,16 @@ import { PurchasingApi } from './purchasing-api';
 @Component({
   selector: 'app-reorder-defaults-page',
   imports: [
-    MatTooltipModule,
     MatButtonModule,
     MatFormFieldModule,
     MatIconModule,
     MatInputModule,
     MatProgressBarModule,
     MatSelectModule,
-    MatTableModule,
+    DataTable,
+    RowActions,
+    TableColumn,
+    TableEmpty,
     ReactiveFormsModule,
   ],
   templateUrl: './reorder-defaults-page.html',
