@@ -227,6 +227,38 @@ describe('insights for the owner', () => {
     await shot(page, 'insights-ran-short');
     expect(await seriousA11yViolations(page)).toEqual([]);
   });
+
+  it('when the owner opens Invoiced and owed, then the invoiced months, estimates, balances and deposits show', async () => {
+    const page = env.page;
+    await page
+      .getByRole('navigation', { name: /main/i })
+      .getByRole('link', { name: 'Invoiced and owed' })
+      .click();
+    await page.getByRole('heading', { name: 'Invoiced and owed', level: 1 }).waitFor();
+    await settled(page);
+    // The demo hands jobs back when it is seeded, so this month has invoices and a chart.
+    await chartsDrawn(page, 1);
+    const invoiced = page.getByRole('region', { name: 'Invoiced by month' }).getByRole('table');
+    await invoiced.getByRole('row', { name: /^Total/ }).waitFor();
+    expect(await invoiced.getByRole('columnheader').allTextContents()).toEqual([
+      'Month',
+      'Invoices',
+      'Labour',
+      'Parts',
+      'Other lines',
+      'Tax',
+      'Invoiced',
+      'Credit notes',
+    ]);
+    for (const heading of ['Estimates sent and approved', 'Still owed', 'Deposits held']) {
+      const panel = page.getByRole('region', { name: heading, exact: true });
+      await panel.getByRole('row').nth(1).or(panel.locator('.empty-state')).first().waitFor();
+    }
+    const csv = await downloadCsv(page, /Download invoiced by month as CSV/);
+    expect(csv.replace(/^\uFEFF/, '').split('\r\n')[0]).toMatch(/^Month,Invoices,Labour \(/);
+    await shot(page, 'insights-invoiced-and-owed');
+    expect(await seriousA11yViolations(page)).toEqual([]);
+  });
 });
 
 describe('the insights pages', () => {

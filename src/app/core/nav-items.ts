@@ -153,6 +153,14 @@ export const NAV_ITEMS: NavItem[] = [
     hint: 'Units, revenue and margin by family and step, month by month.',
   },
   {
+    path: '/insights/money',
+    group: 'figures',
+    label: 'Invoiced and owed',
+    icon: 'payments',
+    roles: may.readSales,
+    hint: 'Labour and parts invoiced by month, estimates approved, balances owed, deposits held.',
+  },
+  {
     path: '/insights/stock',
     group: 'figures',
     label: 'What sits',

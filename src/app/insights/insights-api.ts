@@ -5,8 +5,12 @@ import type { Observable } from 'rxjs';
 import type {
   AbcAnswer,
   DeadStockAnswer,
+  DepositsHeldAnswer,
+  EstimatesAnswer,
   ExposureAnswer,
   MonthlyAnswer,
+  OutstandingAnswer,
+  RevenueAnswer,
   SalesAnswer,
   SalesGroup,
   StockValueAnswer,
@@ -63,6 +67,22 @@ export class InsightsApi {
 
   nearLastStep(within: number): Observable<NearLastStepAnswer> {
     return this.get('cylinders-near-last-step', { within });
+  }
+
+  revenue(period: DayRange): Observable<RevenueAnswer> {
+    return this.get('revenue', { ...period });
+  }
+
+  estimates(period: DayRange): Observable<EstimatesAnswer> {
+    return this.get('estimates', { ...period });
+  }
+
+  balancesOwed(): Observable<OutstandingAnswer> {
+    return this.get('balances-owed', {});
+  }
+
+  depositsHeld(): Observable<DepositsHeldAnswer> {
+    return this.get('deposits-held', {});
   }
 
   /** Where the same table downloads as CSV (a plain link: the browser saves the file). */

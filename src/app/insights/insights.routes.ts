@@ -22,6 +22,13 @@ export const insightsRoutes: Routes = [
         loadComponent: () => import('./sales-page').then((m) => m.SalesPage),
       },
       {
+        path: 'money',
+        title: 'Invoiced and owed',
+        canActivate: [roleGuard],
+        data: { roles: may.readSales },
+        loadComponent: () => import('./money-page').then((m) => m.MoneyPage),
+      },
+      {
         path: 'stock',
         title: 'What sits',
         canActivate: [roleGuard],
