@@ -51,6 +51,7 @@ const PAGES: Record<DemoRole, string[]> = {
     '/imports',
     '/purchasing/rates',
     '/insights/sales',
+    '/insights/money',
     '/insights/stock',
     '/insights/abc',
     '/insights/exposure',
