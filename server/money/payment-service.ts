@@ -4,6 +4,7 @@
 // (webhook-service.ts). Amounts are exact decimals in the shop's currency.
 import type { Knex } from 'knex';
 import { db } from '../db/knex';
+import { faultPoint } from '../testing-faults';
 import { config } from '../config';
 import { recordAudit } from '../audit/audit';
 import { BadRequest, Conflict, NotFound } from '../errors';
@@ -141,6 +142,28 @@ export async function requestPayment(
   input: PaymentRequestInput,
   k: Conn = db,
 ): Promise<PaymentJson> {
+  let opened: string | null = null;
+  try {
+    return await askFor(k, jobId, actorId, input, (id) => (opened = id));
+  } catch (e) {
+    // The link was opened but nothing here was kept: end it, so it cannot be paid.
+    const checkout = opened as string | null;
+    if (checkout) {
+      await callPayments('end a payment link', (sdk) =>
+        sdk.checkout.sessions.expire(checkout),
+      ).catch(() => undefined);
+    }
+    throw e;
+  }
+}
+
+async function askFor(
+  k: Conn,
+  jobId: string,
+  actorId: string,
+  input: PaymentRequestInput,
+  opened: (checkoutId: string) => void,
+): Promise<PaymentJson> {
   return payingJob(k, jobId, async ({ trx, job, settings, currency, s, money }) => {
     if (compareMoney(s.total, '0') <= 0) {
       throw new Conflict(
@@ -196,6 +219,8 @@ export async function requestPayment(
         ],
       }),
     );
+    opened(session.id);
+    faultPoint('payments.request.after-checkout');
     if (!session.url) {
       throw new Conflict('The payment service opened no payment page.', 'payment_service');
     }

@@ -121,6 +121,8 @@ export async function settleCalledOff(
       const locked = (await repo.lockPayment(trx, job.id, p.id)) as repo.PaymentRow;
       done.push(await refundRow(trx, actorId, locked, `job ${job.number} was called off`));
     } else if (p.state === 'open' && p.checkout_id) {
+      // Locked first: the service's "ended" event for this link waits for this transaction.
+      await repo.lockPayment(trx, job.id, p.id);
       const checkout = p.checkout_id;
       const session = await callPayments('end an unpaid payment link', (sdk) =>
         sdk.checkout.sessions.retrieve(checkout),

@@ -3,6 +3,7 @@
 // the same transaction that marks the payment paid, and a second delivery (or the same event at a
 // second server process) finds it recorded and changes nothing.
 import type Stripe from 'stripe';
+import type { Knex } from 'knex';
 import { db } from '../db/knex';
 import { logger } from '../logger';
 import { recordAudit } from '../audit/audit';
@@ -12,10 +13,32 @@ import { readEvent } from '../payments/payment-client';
 import * as repo from './payments-repository';
 import { minorUnits, PURPOSE_WORDS } from './payments-json';
 
+const ENDED = 'checkout.session.expired';
 const PAID_EVENTS = new Set([
   'checkout.session.completed',
   'checkout.session.async_payment_succeeded',
 ]);
+
+/**
+ * The service ends a checkout nobody paid (after a day, or when asked to): nothing was taken, so
+ * the link is withdrawn and staff ask again if the customer still means to pay online.
+ */
+async function endedUnpaid(trx: Knex, p: repo.PaymentRow): Promise<void> {
+  await repo.deleteOpenPayments(trx, [p.id]);
+  await insertEvent(trx, {
+    jobId: p.job_id,
+    userId: null,
+    kind: 'system',
+    text: `The payment link for ${formatMoney(p.amount, p.currency)} ended unpaid at the payment service; ask again to send a new one.`,
+  });
+  await recordAudit(trx, {
+    userId: null,
+    action: 'payment.ended',
+    entity: 'job',
+    entityId: p.job_id,
+    before: { paymentId: p.id, amount: p.amount, state: 'open' },
+  });
+}
 
 export async function receiveEvent(
   raw: unknown,
@@ -23,9 +46,10 @@ export async function receiveEvent(
 ): Promise<{ received: true; duplicate: boolean }> {
   const event = readEvent(raw, signature);
   const duplicate = await db.transaction(async (trx) => {
-    const session = PAID_EVENTS.has(event.type)
-      ? (event.data.object as Stripe.Checkout.Session)
-      : null;
+    const session =
+      PAID_EVENTS.has(event.type) || event.type === ENDED
+        ? (event.data.object as Stripe.Checkout.Session)
+        : null;
     const p = session?.id ? await repo.lockByCheckout(trx, session.id) : undefined;
     const fresh = await repo.recordEvent(trx, {
       id: event.id,
@@ -34,6 +58,10 @@ export async function receiveEvent(
     });
     if (!fresh) return true;
     if (!session || !p || p.state !== 'open') return false;
+    if (event.type === ENDED) {
+      await endedUnpaid(trx, p);
+      return false;
+    }
     if (session.payment_status !== 'paid') return false;
     if (
       session.amount_total !== minorUnits(p.amount, p.currency) ||

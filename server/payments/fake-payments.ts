@@ -227,6 +227,8 @@ export async function startFakePayments(
     const earlier = memo ? remembered.get(memo) : undefined;
     if (earlier) return sendJson(res, earlier.status, earlier.body);
     let answer: unknown;
+    // An event this call causes, sent once the call is answered (as the real service does).
+    let after: (() => void) | null = null;
     const m = /^\/v1\/checkout\/sessions\/([A-Za-z0-9_]+)(\/expire)?$/.exec(path);
     if (req.method === 'POST' && path === '/v1/checkout/sessions') {
       answer = publicSession(createSession(body));
@@ -248,6 +250,7 @@ export async function startFakePayments(
       }
       s.status = 'expired';
       answer = publicSession(s);
+      after = () => void events.send('checkout.session.expired', publicSession(s));
     } else if (req.method === 'POST' && path === '/v1/refunds') {
       answer = refund(body);
     } else {
@@ -255,6 +258,7 @@ export async function startFakePayments(
     }
     if (memo) remembered.set(memo, { status: 200, body: answer });
     sendJson(res, 200, answer);
+    after?.();
   }
 
   async function payPageRoute(

@@ -15,6 +15,7 @@ import { createMailWorker } from '../../server/mail/mail-worker';
 import { startFakePayments, type FakePayments } from '../../server/payments/fake-payments';
 import { takeEventsAt, useLocalPayments } from '../../server/payments/payment-client';
 import { saveSettings } from '../../server/settings/settings-service';
+import { armFault, disarmFaults } from '../../server/testing-faults';
 import { closeTestApp, signedIn, testApp, uniq, type Client } from '../support/api';
 import { makeLabour, makePricedJob, type PricedJob } from '../support/money-fixtures';
 
@@ -87,6 +88,16 @@ const counts = async (jobId: string) => ({
   sessions: fake.sessions.size,
   events: Number((await db('payment_events').count('* as n'))[0].n),
 });
+
+/** Waits (up to 5 s) for something the stand-in does after answering. */
+async function eventually<T>(probe: () => T | undefined | Promise<T | undefined>): Promise<T> {
+  for (let i = 0; i < 100; i++) {
+    const value = await probe();
+    if (value) return value;
+    await new Promise((r) => setTimeout(r, 50));
+  }
+  throw new Error('it did not happen within 5 s');
+}
 
 // The job of money-fixtures: labour 2 × 55.00 + 2 × 25.00 + 2 × 18.50 + 12.00 = 209.00, parts
 // 2 × 89.00 + 2 × 34.50 = 247.00; subtotal 456.00, tax 20 % 91.20, total 547.20 (worked by hand).
@@ -317,6 +328,26 @@ describe('amounts refused', () => {
     },
   );
 
+  it('when the request fails after the link was opened, then 500, nothing is written and the link is ended', async () => {
+    const before = await counts(job.id);
+    armFault('payments.request.after-checkout');
+    try {
+      const res = await staff.post(`/api/jobs/${job.id}/payment-requests`, { purpose: 'deposit' });
+      expect(res.status).toBe(500);
+    } finally {
+      disarmFaults();
+    }
+    expect(await db('payments').where({ job_id: job.id })).toHaveLength(before.payments);
+    const opened = [...fake.sessions.values()].at(-1)!;
+    expect(opened.metadata.jobId).toBe(job.id);
+    expect(opened.status).toBe('expired');
+    // Its "ended" event reaches the app and finds nothing to withdraw.
+    await eventually(
+      () =>
+        fake.sent.find((e) => e.payload.includes(opened.id) && e.answers.length > 0) ?? undefined,
+    );
+  });
+
   it('when the payment service cannot be reached, then 502 without its key, and nothing is written', async () => {
     const gone = await startFakePayments();
     await gone.stop();
@@ -422,8 +453,45 @@ describe('the counter, the balance, refunds and calling the job off', () => {
       .first();
     expect(event.text).toMatch(/refunded through the payment service/);
     expect(event.text).toMatch(/withdrawn/);
+    // The service tells of the ended link afterwards; the link is already gone, so nothing changes.
+    const ended = await eventually(() =>
+      fake.sent.find((e) => e.type === 'checkout.session.expired' && e.payload.includes(open)),
+    );
+    await eventually(() => ended.answers.length > 0 || undefined);
+    expect(ended.answers).toEqual([200]);
+    expect(
+      await db('job_events').where({ job_id: job.id }).where('text', 'like', '%ended unpaid%'),
+    ).toHaveLength(0);
     const after = await staff.post(`/api/jobs/${job.id}/payment-requests`, { purpose: 'deposit' });
     expect(after.status).toBe(409);
+  });
+});
+
+describe('a link that ends unpaid at the service', () => {
+  it('when the service ends an unpaid link, then its event withdraws it and the job says so', async () => {
+    const job = await pricedJob();
+    const res = await staff.post(`/api/jobs/${job.id}/payment-requests`, {
+      purpose: 'deposit',
+      amount: '30.00',
+    });
+    expect(res.status).toBe(201);
+    const row = await db('payments').where({ id: res.body.id }).first();
+    const sdk = new Stripe(fake.secretKey, {
+      host: '127.0.0.1',
+      port: fake.port,
+      protocol: 'http',
+    });
+    await sdk.checkout.sessions.expire(row.checkout_id);
+    await eventually(
+      async () => !(await db('payments').where({ id: row.id }).first()) || undefined,
+    );
+    const history = await db('job_events')
+      .where({ job_id: job.id })
+      .where('text', 'like', '%ended unpaid%');
+    expect(history).toHaveLength(1);
+    expect(history[0].text).toContain('30.00 EUR');
+    const list = (await staff.get(`/api/jobs/${job.id}/payments`)).body;
+    expect(list.items).toEqual([]);
   });
 });
 
