@@ -7,10 +7,7 @@ import { startHoldSweep } from './jobs/hold-sweep';
 import { startRateLimitSweep } from './http/rate-limit-sweep';
 import { startPreviewSweep } from './imports/preview-sweep';
 import { startPaymentsBackground } from './payments/payments-background';
-
-export interface Background {
-  stop(): Promise<void>;
-}
+import type { Background } from './background-work';
 
 type Starter = () => Promise<Background> | Background;
 

@@ -3,7 +3,7 @@
 // with a row in alert_digest_runs, so two server processes never both send it.
 import type { Knex } from 'knex';
 import { DateTime } from 'luxon';
-import type { Background } from '../background';
+import type { Background } from '../background-work';
 import { db as defaultDb } from '../db/knex';
 import { logger } from '../logger';
 import { enqueueMail } from '../mail/outbox';

@@ -1,7 +1,7 @@
 // Every few minutes, forget rate-limit counters whose window has ended, so the table stays as small
 // as the number of addresses and accounts seen in the last quarter hour. Idempotent: several server
 // processes may run it side by side.
-import type { Background } from '../background';
+import type { Background } from '../background-work';
 import { logger } from '../logger';
 import { pruneRateLimits } from './rate-limit';
 

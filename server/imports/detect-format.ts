@@ -6,11 +6,10 @@ import iconv from 'iconv-lite';
 import FileType from 'file-type';
 import { BadRequest, UnsupportedMediaType } from '../errors';
 import { splitRecords, type HeadRecord } from './head-records';
-import { looksLikeNumber, numberEvidence } from './number-text';
+import { looksLikeNumber, numberEvidence, type DecimalMark } from './number-text';
 
 export type TextEncoding = 'utf-8' | 'utf-8-bom' | 'windows-1252';
 export type Delimiter = ',' | ';' | '\t';
-export type DecimalMark = '.' | ',';
 
 export interface DetectedFormat {
   encoding: TextEncoding;

@@ -24,10 +24,10 @@ import type {
   RowIssueJson,
   SampleRowJson,
 } from '../../shared/api/suppliers';
-import * as suppliers from '../suppliers/suppliers-repository';
+import * as suppliers from '../suppliers/suppliers-service';
 import { detectFileFormat } from './detect-format';
 import { readPriceListBatches, type ParseCounts } from './parse-price-list';
-import { proposeMapping, resolveMapping, type ColumnMapping } from './propose-mapping';
+import { proposeMapping, resolveMapping } from './propose-mapping';
 import * as repo from './imports-repository';
 import * as previews from './previews-repository';
 import type { Page } from '../../shared/api/common';
@@ -52,7 +52,7 @@ export async function sha256File(path: string): Promise<string> {
 }
 
 /** A confirmed mapping names columns; it fits a file when every column it names is on the header. */
-function fits(mapping: ColumnMapping, headers: string[]): boolean {
+function fits(mapping: MappingJson, headers: string[]): boolean {
   return Object.entries(mapping).every(
     ([field, column]) =>
       field === 'sizeUnit' || column === null || headers.includes(column as string),
@@ -88,7 +88,7 @@ export interface PreviewInput {
   user: SessionUser;
   supplierId: string;
   file: UploadedFile;
-  mapping?: ColumnMapping;
+  mapping?: MappingJson;
   progressToken?: string;
 }
 
@@ -102,8 +102,7 @@ export async function previewPriceList(
   k: Knex = db,
 ): Promise<ImportJson | DuplicateJson> {
   const { user, supplierId, file, progressToken } = input;
-  const supplier = await suppliers.findSupplier(supplierId, k);
-  if (!supplier) throw new NotFound('That supplier');
+  const supplier = await suppliers.getSupplier(supplierId, k);
 
   const sha256 = await sha256File(file.path);
   const earlier = await repo.findCommittedBySha(supplierId, sha256, k);
@@ -111,8 +110,8 @@ export async function previewPriceList(
 
   const { format, rows: sampleRows } = await detectFileFormat(file.path);
   const remembered = await repo.rememberedMapping(supplierId, k);
-  const rememberedMapping = remembered?.mapping as ColumnMapping | undefined;
-  const mapping: ColumnMapping =
+  const rememberedMapping = remembered?.mapping as MappingJson | undefined;
+  const mapping: MappingJson =
     input.mapping ??
     (rememberedMapping && fits(rememberedMapping, format.headers)
       ? rememberedMapping
@@ -217,7 +216,7 @@ export async function previewPriceList(
 }
 
 /** Two mappings say the same when they name the same columns (key order aside). */
-function sameMapping(a: Record<string, unknown>, b: ColumnMapping): boolean {
+function sameMapping(a: Record<string, unknown>, b: MappingJson): boolean {
   const canonical = (m: Record<string, unknown>) =>
     JSON.stringify(
       Object.keys(m)

@@ -2,7 +2,8 @@
 // "2.5000\"". This file splits such a cell into the number and the text around it, and tells from the
 // numbers of a list whether it writes a decimal comma or a decimal point. Amounts themselves are read by
 // shared/money; lengths by shared/lengths.
-import type { DecimalMark } from './detect-format';
+/** The mark a list writes between whole units and decimals. */
+export type DecimalMark = '.' | ',';
 
 export interface NumberCell {
   /** The number as written, without sign or surrounding text ("1.234,50"). */

@@ -1,7 +1,7 @@
 // Every hour, delete price-list previews nobody committed within PRICE_LIST_PREVIEW_HOURS, so
 // uploads that are looked at and left cannot fill the disk with staged rows. Several server
 // processes may run it side by side: the sweep takes an advisory lock, and one of them does it.
-import type { Background } from '../background';
+import type { Background } from '../background-work';
 import { config } from '../config';
 import { logger } from '../logger';
 import { deleteExpiredPreviews } from './previews-repository';

@@ -1,6 +1,6 @@
 // The daily sweep that releases expired holds, started in every server process. The sweep itself
 // takes an advisory lock, so when several processes run it at once only one does the work.
-import type { Background } from '../background';
+import type { Background } from '../background-work';
 import { logger } from '../logger';
 import { sweepExpiredHolds } from './hold-expiry';
 

@@ -1,7 +1,7 @@
 // The outbox worker, started in every server process. Without SMTP_URL (and when `npm start` has
 // not already started one) the process runs its own local mailbox on loopback, so e-mail is never
 // stuck: the owner reads it on the Mailbox page.
-import type { Background } from '../background';
+import type { Background } from '../background-work';
 import { logger } from '../logger';
 import { startLocalSmtp, type LocalSmtp } from './fake-smtp';
 import { createMailWorker } from './mail-worker';

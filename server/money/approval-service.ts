@@ -8,7 +8,7 @@ import { Conflict } from '../errors';
 import { enqueueMail } from '../mail/outbox';
 import { formatMoney } from '../../shared/money';
 import type { ApprovalInput, EstimateJson } from '../../shared/api/money';
-import { getSettings, type ShopSettings } from '../settings/settings-service';
+import { getSettings } from '../settings/settings-service';
 import { insertEvent } from '../jobs/jobs-repository';
 import * as repo from './estimate-repository';
 import { estimateJson, snapshotOf } from './estimate-json';
@@ -16,6 +16,7 @@ import { requirePricedJob, syncProposal } from './estimate-service';
 import { customerContact } from './customer-contact';
 import { estimateMail } from './estimate-mail';
 import { newPublicLink, publicPath } from './public-links';
+import type { ShopSettings } from '../../shared/settings-schema';
 
 type Conn = Knex;
 

@@ -2,8 +2,8 @@
 // preview and the stored figures are the same sums).
 import type { EstimateJson, EstimateLineJson } from '../../shared/api/money';
 import { estimateTotals, fixedMoney, type TaxRule } from '../../shared/estimate-math';
-import type { ShopSettings } from '../settings/settings-service';
 import type { ApprovedSnapshot, EstimateRow, LineRow } from './estimate-repository';
+import type { ShopSettings } from '../../shared/settings-schema';
 
 export function taxRule(settings: ShopSettings): TaxRule {
   return {

@@ -15,10 +15,11 @@ import type {
 import { compareMoney, fixedMoney } from '../../shared/estimate-math';
 import { proposeLines } from '../../shared/estimate-proposal';
 import { isOpenState } from '../../shared/api/jobs';
-import { getSettings, type ShopSettings } from '../settings/settings-service';
+import { getSettings } from '../settings/settings-service';
 import * as labourRepo from './labour-repository';
 import * as repo from './estimate-repository';
 import { estimateJson, lineJson } from './estimate-json';
+import type { ShopSettings } from '../../shared/settings-schema';
 
 type Conn = Knex;
 

@@ -9,7 +9,7 @@ import { recordAudit } from '../audit/audit';
 import { AppError, BadRequest, NotFound } from '../errors';
 import { faultPoint } from '../testing-faults';
 import { enqueueMail } from '../mail/outbox';
-import { getSettings, type ShopSettings } from '../settings/settings-service';
+import { getSettings } from '../settings/settings-service';
 import { insertEvent } from '../jobs/job-records-repository';
 import { formatMoney } from '../../shared/money';
 import { compareMoney, estimateTotals, fixedMoney, minusMoney } from '../../shared/estimate-math';
@@ -23,6 +23,7 @@ import { taxRule } from './estimate-json';
 import { customerContact } from './customer-contact';
 import { creditNoteMail, invoiceMail } from './invoice-mail';
 import { invoicePdf } from './invoice-pdf';
+import type { ShopSettings } from '../../shared/settings-schema';
 
 type Conn = Knex;
 

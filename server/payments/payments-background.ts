@@ -1,7 +1,7 @@
 // Each server process without real payment keys starts the local payment stand-in on a free
 // loopback port (like the local mailbox), so asking for a deposit works in the demo and the tests;
 // the stand-in sends its events back to this process once it listens (main.ts says where).
-import type { Background } from '../background';
+import type { Background } from '../background-work';
 import { logger } from '../logger';
 import { startFakePayments } from './fake-payments';
 import { localPayments, realPaymentsConfigured, useLocalPayments } from './payment-client';

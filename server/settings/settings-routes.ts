@@ -1,7 +1,8 @@
 import type { Router } from 'express';
 import { route } from '../http/route';
-import { getSettings, saveSettings, shopSettingsSchema } from './settings-service';
+import { getSettings, saveSettings } from './settings-service';
 import { may } from '../../shared/access';
+import { shopSettingsSchema } from '../../shared/settings-schema';
 
 export function registerSettingsRoutes(router: Router): void {
   route(router, {

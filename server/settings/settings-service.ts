@@ -4,6 +4,7 @@
 import type { Knex } from 'knex';
 import { db } from '../db/knex';
 import { recordAudit } from '../audit/audit';
+import * as repo from './settings-repository';
 import {
   DEFAULT_SETTINGS,
   shopSettingsSchema,
@@ -11,15 +12,10 @@ import {
 } from '../../shared/settings-schema';
 
 // The schema and defaults live in shared/ so the settings form checks each field as it is typed.
-export {
-  DEFAULT_SETTINGS,
-  shopSettingsSchema,
-  type ShopSettings,
-} from '../../shared/settings-schema';
 
 export async function getSettings(q: Knex = db): Promise<ShopSettings> {
-  const row = await q('settings').where({ key: 'shop' }).first();
-  return { ...DEFAULT_SETTINGS, ...((row?.value as Partial<ShopSettings>) ?? {}) };
+  const stored = (await repo.readShopSettings(q)) as Partial<ShopSettings> | null;
+  return { ...DEFAULT_SETTINGS, ...(stored ?? {}) };
 }
 
 export async function saveSettings(
@@ -30,10 +26,7 @@ export async function saveSettings(
   return q.transaction(async (trx) => {
     const before = await getSettings(trx);
     const after = shopSettingsSchema.parse({ ...before, ...patch });
-    await trx('settings')
-      .insert({ key: 'shop', value: JSON.stringify(after), updated_at: trx.fn.now() })
-      .onConflict('key')
-      .merge();
+    await repo.writeShopSettings(trx, after);
     await recordAudit(trx, {
       userId: actorId,
       action: 'settings.update',

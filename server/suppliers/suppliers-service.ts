@@ -104,6 +104,14 @@ export async function getSupplier(id: string, k: Conn = db): Promise<SupplierJso
   return supplierJson(row);
 }
 
+/**
+ * Holds the supplier's row until the transaction ends, so two price lists of one supplier commit
+ * one after the other (the second sees what the first wrote).
+ */
+export async function lockSupplier(trx: Knex, id: string): Promise<void> {
+  await repo.lockSupplier(trx, id);
+}
+
 export async function createSupplier(
   actorId: string | null,
   input: SupplierData,

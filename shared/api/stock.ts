@@ -5,7 +5,7 @@ import { atMost, singleLine } from '../text-rules';
 import type { UnitStatus } from './catalog';
 import { idField, lengthField, moneyText } from './common';
 import type { LengthJson } from '../lengths';
-import type { OrderState } from './purchasing';
+import type { OrderState } from './order-states';
 
 export const UNIT_STATUSES = ['free', 'held', 'issued', 'returned', 'scrapped'] as const;
 export const LEDGER_KINDS = [
