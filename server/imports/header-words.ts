@@ -1,10 +1,10 @@
+import type { MappingFieldName } from '../../shared/api/suppliers';
 // Header words per field, as they look after normalizeHeader() (lower case, accents and punctuation
 // removed, "ß" → "ss", "ø" → "dia"): English plus a few common European header words. A header equal
 // to a phrase is a strong match; a header containing one as whole words is a weaker one.
-import type { MappingField } from './propose-mapping';
 
 // prettier-ignore
-export const PHRASES: Record<MappingField, string[]> = {
+export const PHRASES: Record<MappingFieldName, string[]> = {
   sku: ['sku', 'supplier sku', 'part no', 'part number', 'part', 'part nr', 'item', 'item no',
     'item number', 'item code', 'article', 'article no', 'art nr', 'art no', 'artikel',
     'artikelnummer', 'artikel nr', 'ref', 'reference', 'code', 'product code', 'catalog no',
@@ -32,7 +32,7 @@ export const PHRASES: Record<MappingField, string[]> = {
 };
 
 /** Header words that rule a column out for a field ("min qty" is not the quantity available). */
-export const EXCLUDE: Partial<Record<MappingField, string[]>> = {
+export const EXCLUDE: Partial<Record<MappingFieldName, string[]>> = {
   available: ['min', 'minimum', 'moq', 'pack', 'order'],
   price: ['old', 'previous', 'alt', 'uvp', 'rrp', 'msrp'],
   description: ['size', 'price'],

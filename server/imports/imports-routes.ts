@@ -9,8 +9,12 @@ import { z } from 'zod';
 import { route, zodDetails } from '../http/route';
 import { idField, pageQuery } from '../../shared/api/common';
 import { BadRequest, UnsupportedMediaType } from '../errors';
-import { IMPORT_STATUSES, commitInput, mappingInput } from '../../shared/api/suppliers';
-import type { ColumnMapping } from './propose-mapping';
+import {
+  commitInput,
+  IMPORT_STATUSES,
+  mappingInput,
+  type MappingJson,
+} from '../../shared/api/suppliers';
 import { refuseLargerThan } from '../http/upload-limits';
 import * as service from './imports-service';
 import { withImportSlot } from './import-slots';
@@ -75,7 +79,7 @@ function cleanName(name: string): string {
   return cleaned || 'price-list.csv';
 }
 
-function mappingField(raw: unknown): ColumnMapping | undefined {
+function mappingField(raw: unknown): MappingJson | undefined {
   if (raw === undefined || raw === '') return undefined;
   if (typeof raw !== 'string')
     throw new BadRequest('mapping: send the column mapping once, as JSON.');

@@ -7,8 +7,9 @@ import iconv from 'iconv-lite';
 import { parse, type CsvError, type InfoRecord, type Options } from 'csv-parse';
 import { BadRequest } from '../errors';
 import type { DetectedFormat } from './detect-format';
-import { resolveMapping, type ColumnMapping } from './propose-mapping';
+import { resolveMapping } from './propose-mapping';
 import { validateRow, type PriceListRow, type RowIssue, type RowContext } from './validate-row';
+import type { MappingJson } from '../../shared/api/suppliers';
 
 export type { PriceListRow, RowIssue } from './validate-row';
 
@@ -22,7 +23,7 @@ export type PriceListItem =
 
 export interface ReadOptions {
   format: DetectedFormat;
-  mapping: ColumnMapping;
+  mapping: MappingJson;
   /** Currency of prices that name none (the supplier's currency). */
   defaultCurrency: string;
   /** Longest row accepted, in bytes. */

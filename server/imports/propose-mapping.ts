@@ -1,42 +1,17 @@
 // Proposes which column of a supplier's list holds which of our fields, from the words on the header
 // line (English plus a few common European header words) and the units written in the values. The user
 // confirms or corrects the proposal once; it is then remembered per supplier.
-import { z } from 'zod';
 import { BadRequest } from '../errors';
 import type { LengthUnit } from '../../shared/lengths';
+import {
+  MAPPING_FIELD_NAMES,
+  REQUIRED_MAPPING_FIELDS,
+  type MappingFieldName,
+  type MappingJson,
+} from '../../shared/api/suppliers';
 import { EXCLUDE, PHRASES } from './header-words';
 
-export const MAPPING_FIELDS = [
-  'sku',
-  'description',
-  'size',
-  'oversize',
-  'price',
-  'available',
-  'leadDays',
-  'gtin',
-  'currency',
-] as const;
-export type MappingField = (typeof MAPPING_FIELDS)[number];
-export const REQUIRED_FIELDS: readonly MappingField[] = ['sku', 'price'];
-
-/** Field → the header text of the column that holds it (null when the list has no such column). */
-export type ColumnMapping = Record<MappingField, string | null> & { sizeUnit: LengthUnit };
-
-export const columnMappingSchema = z.strictObject({
-  sku: z.string().max(200).nullable(),
-  description: z.string().max(200).nullable().default(null),
-  size: z.string().max(200).nullable().default(null),
-  oversize: z.string().max(200).nullable().default(null),
-  price: z.string().max(200).nullable(),
-  available: z.string().max(200).nullable().default(null),
-  leadDays: z.string().max(200).nullable().default(null),
-  gtin: z.string().max(200).nullable().default(null),
-  currency: z.string().max(200).nullable().default(null),
-  sizeUnit: z.enum(['mm', 'in']),
-});
-
-export const FIELD_LABELS: Record<MappingField, string> = {
+export const FIELD_LABELS: Record<MappingFieldName, string> = {
   sku: 'SKU',
   description: 'description',
   size: 'size',
@@ -59,7 +34,7 @@ export function normalizeHeader(header: string): string {
     .trim();
 }
 
-function matchScore(header: string, field: MappingField): number {
+function matchScore(header: string, field: MappingFieldName): number {
   const norm = normalizeHeader(header);
   if (norm === '') return 0;
   const words = ` ${norm} `;
@@ -81,23 +56,23 @@ function matchScore(header: string, field: MappingField): number {
  * Proposes a mapping for the given header line. Each field takes at most one column and each column at
  * most one field; the strongest matches are placed first. `sample` rows help to find the size unit.
  */
-export function proposeMapping(headers: string[], sample: string[][]): ColumnMapping {
-  const candidates: { field: MappingField; column: number; score: number }[] = [];
+export function proposeMapping(headers: string[], sample: string[][]): MappingJson {
+  const candidates: { field: MappingFieldName; column: number; score: number }[] = [];
   headers.forEach((header, column) => {
-    for (const field of MAPPING_FIELDS) {
+    for (const field of MAPPING_FIELD_NAMES) {
       const score = matchScore(header, field);
       if (score > 0) candidates.push({ field, column, score });
     }
   });
-  // Stronger first; among equals, the field listed first in MAPPING_FIELDS and the leftmost column.
+  // Stronger first; among equals, the field listed first in MAPPING_FIELD_NAMES and the leftmost column.
   candidates.sort(
     (a, b) =>
       b.score - a.score ||
-      MAPPING_FIELDS.indexOf(a.field) - MAPPING_FIELDS.indexOf(b.field) ||
+      MAPPING_FIELD_NAMES.indexOf(a.field) - MAPPING_FIELD_NAMES.indexOf(b.field) ||
       a.column - b.column,
   );
-  const mapping = Object.fromEntries(MAPPING_FIELDS.map((f) => [f, null])) as Record<
-    MappingField,
+  const mapping = Object.fromEntries(MAPPING_FIELD_NAMES.map((f) => [f, null])) as Record<
+    MappingFieldName,
     string | null
   >;
   const usedColumns = new Set<number>();
@@ -118,7 +93,7 @@ export function proposeMapping(headers: string[], sample: string[][]): ColumnMap
 function proposeSizeUnit(
   headers: string[],
   sample: string[][],
-  mapping: Record<MappingField, string | null>,
+  mapping: Record<MappingFieldName, string | null>,
 ): LengthUnit {
   const columns = (['size', 'oversize'] as const)
     .map((f) => (mapping[f] === null ? -1 : headers.indexOf(mapping[f] as string)))
@@ -153,17 +128,17 @@ function proposeSizeUnit(
 
 /** Column indexes of a confirmed mapping; refuses missing required fields and unknown column names. */
 export function resolveMapping(
-  mapping: ColumnMapping,
+  mapping: MappingJson,
   headers: string[],
-): Record<MappingField, number | null> {
+): Record<MappingFieldName, number | null> {
   const details: { field: string; message: string }[] = [];
-  const resolved = {} as Record<MappingField, number | null>;
-  const used = new Map<number, MappingField>();
-  for (const field of MAPPING_FIELDS) {
+  const resolved = {} as Record<MappingFieldName, number | null>;
+  const used = new Map<number, MappingFieldName>();
+  for (const field of MAPPING_FIELD_NAMES) {
     const name = mapping[field];
     if (name === null || name === undefined) {
       resolved[field] = null;
-      if (REQUIRED_FIELDS.includes(field)) {
+      if (REQUIRED_MAPPING_FIELDS.includes(field)) {
         details.push({
           field,
           message: `No column holds the ${FIELD_LABELS[field]}; the list needs one (columns found: ${headers.filter((h) => h).join(', ')}).`,
@@ -190,7 +165,7 @@ export function resolveMapping(
   if (details.length > 0) {
     const missing = details
       .filter((d) => d.message.startsWith('No column'))
-      .map((d) => FIELD_LABELS[d.field as MappingField]);
+      .map((d) => FIELD_LABELS[d.field as MappingFieldName]);
     throw new BadRequest(
       missing.length > 0
         ? `Missing required column: ${missing.join(' and ')}. ${details[0].message}`

@@ -3,7 +3,6 @@
 import { type Nm } from '../../shared/lengths';
 import { isCurrencyCode } from '../../shared/money';
 import type { DetectedFormat } from './detect-format';
-import type { ColumnMapping, MappingField } from './propose-mapping';
 import {
   readAvailable,
   readGtin,
@@ -12,6 +11,7 @@ import {
   readPrice,
   readSize,
 } from './row-cells';
+import type { MappingFieldName, MappingJson } from '../../shared/api/suppliers';
 
 export interface PriceListRow {
   line: number;
@@ -36,8 +36,8 @@ export interface RowIssue {
 
 export interface RowContext {
   format: DetectedFormat;
-  mapping: ColumnMapping;
-  columns: Record<MappingField, number | null>;
+  mapping: MappingJson;
+  columns: Record<MappingFieldName, number | null>;
   defaultCurrency: string;
 }
 
@@ -56,7 +56,7 @@ export function validateRow(record: string[], line: number, ctx: RowContext): Ro
   const errors: RowIssue[] = [];
   const warnings: RowIssue[] = [];
   const { columns, format } = ctx;
-  const cell = (field: MappingField): string => {
+  const cell = (field: MappingFieldName): string => {
     const index = columns[field];
     return index === null ? '' : (record[index] ?? '');
   };

@@ -49,6 +49,14 @@ const bore = lengthField({ max: 500_000_000 });
 const smallLength = lengthField({ allowZero: true, max: 10_000_000 });
 const optionalSmallLength = optionalLengthField({ allowZero: true, max: 10_000_000 });
 
+/** A whole number of pieces between two bounds, refused in words the form can show as they are. */
+const count = (min: number, max: number) =>
+  z
+    .number({ error: 'must be a whole number' })
+    .int('must be a whole number')
+    .min(min, `must be ${min} or more`)
+    .max(max, `at most ${max}`);
+
 const ringGapFactor = z
   .string({ error: 'must be a decimal such as 0.004' })
   .trim()
@@ -123,12 +131,12 @@ const partFields = {
   stepId: idField.nullable().optional(),
   description: singleLine(300).pipe(z.string().min(1, 'enter a description')),
   material: z.enum(PISTON_MATERIALS, { error: 'must be cast or forged' }).nullable().optional(),
-  ringCount: z.number().int().min(1).max(6).nullable().optional(),
+  ringCount: count(1, 6).nullable().optional(),
   pinDiameter: optionalLengthField({ max: 100_000_000 }).optional(),
   gtin: gtinField.optional(),
   salePrice: moneyText.optional(),
-  reorderPoint: z.number().int().min(0).max(1_000_000).nullable().optional(),
-  orderUpTo: z.number().int().min(0).max(1_000_000).nullable().optional(),
+  reorderPoint: count(0, 1_000_000).nullable().optional(),
+  orderUpTo: count(0, 1_000_000).nullable().optional(),
   components: z
     .array(z.object({ partId: idField, quantity: z.number().int().min(1).max(1000) }).strict())
     .max(20)

@@ -6,22 +6,12 @@ import { skirtField, MAX_PISTONS_PER_RECEIPT } from './stock';
 import { type WaitingItemJson } from './suppliers';
 import { calendarDay, idField, moneyText, pageNumber, pageSizeField, sortDir } from './common';
 import type { LengthJson } from '../lengths';
+import { ORDER_STATES, type OrderState } from './order-states';
 
 export * from './reorder';
+export * from './order-states';
 
 // ---- Purchase orders -------------------------------------------------------------------------
-
-/** Our own names for where an order stands. */
-export const ORDER_STATES = ['drafting', 'sent_out', 'partly_in', 'all_in', 'called_off'] as const;
-export type OrderState = (typeof ORDER_STATES)[number];
-export const ORDER_STATE_LABELS: Record<OrderState, string> = {
-  drafting: 'Drafting',
-  sent_out: 'Sent out',
-  partly_in: 'Partly in',
-  all_in: 'All in',
-  called_off: 'Called off',
-};
-export const OPEN_ORDER_STATES: OrderState[] = ['sent_out', 'partly_in'];
 
 export const MAX_ORDER_LINES = 200;
 
@@ -38,7 +28,7 @@ const unitPriceField = z.union([
     .pipe(moneyText),
 ]);
 
-const orderLineInput = z
+export const orderLineInput = z
   .object({
     partId: idField,
     quantity: z

@@ -139,6 +139,8 @@ export const MAPPING_FIELD_NAMES = [
   'currency',
 ] as const;
 export type MappingFieldName = (typeof MAPPING_FIELD_NAMES)[number];
+/** A price list cannot be read without these two columns. */
+export const REQUIRED_MAPPING_FIELDS: readonly MappingFieldName[] = ['sku', 'price'];
 
 export type MappingJson = Record<MappingFieldName, string | null> & { sizeUnit: 'mm' | 'in' };
 

@@ -4,17 +4,18 @@ import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { detectFileFormat, type DetectedFormat } from '../../server/imports/detect-format';
-import { proposeMapping, type ColumnMapping } from '../../server/imports/propose-mapping';
+import { proposeMapping } from '../../server/imports/propose-mapping';
 import {
   readPriceList,
   type ParseCounts,
   type PriceListRow,
   type RowIssue,
 } from '../../server/imports/parse-price-list';
+import type { MappingJson } from '../../shared/api/suppliers';
 
 export interface ParsedList {
   format: DetectedFormat;
-  mapping: ColumnMapping;
+  mapping: MappingJson;
   rows: PriceListRow[];
   errors: RowIssue[];
   warnings: RowIssue[];
@@ -33,7 +34,7 @@ export function writeList(content: string | Buffer, name = `list-${++n}.csv`): s
 
 export async function parseFile(
   path: string,
-  opts: { mapping?: Partial<ColumnMapping>; currency?: string } = {},
+  opts: { mapping?: Partial<MappingJson>; currency?: string } = {},
 ): Promise<ParsedList> {
   const sample = await detectFileFormat(path);
   const mapping = { ...proposeMapping(sample.format.headers, sample.rows), ...opts.mapping };
@@ -58,7 +59,7 @@ export async function parseFile(
 
 export function parseText(
   content: string | Buffer,
-  opts: { mapping?: Partial<ColumnMapping>; currency?: string } = {},
+  opts: { mapping?: Partial<MappingJson>; currency?: string } = {},
 ): Promise<ParsedList> {
   return parseFile(writeList(content), opts);
 }
@@ -66,7 +67,7 @@ export function parseText(
 /** The error a whole file is refused with: its HTTP status, code, message and details. */
 export async function refusal(
   content: string | Buffer,
-  opts: { mapping?: Partial<ColumnMapping> } = {},
+  opts: { mapping?: Partial<MappingJson> } = {},
 ): Promise<{ status: number; code: string; message: string; details: unknown[] }> {
   try {
     await parseText(content, opts);

@@ -1,8 +1,9 @@
-import { HttpClient, HttpParams } from '@angular/common/http';
+import { HttpClient } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
 import { Observable } from 'rxjs';
 
 import type { AuditPageJson } from '../../../shared/api/audit';
+import { queryParams } from '../core/query-params';
 
 export interface AuditListQuery {
   entity?: string;
@@ -23,10 +24,6 @@ export class AuditApi {
   private readonly http = inject(HttpClient);
 
   page(query: AuditListQuery): Observable<AuditPageJson> {
-    let params = new HttpParams();
-    for (const [key, value] of Object.entries(query)) {
-      if (value !== undefined && value !== '') params = params.set(key, String(value));
-    }
-    return this.http.get<AuditPageJson>('/api/audit', { params });
+    return this.http.get<AuditPageJson>('/api/audit', { params: queryParams(query) });
   }
 }

@@ -1,20 +1,12 @@
-import { HttpClient, HttpParams } from '@angular/common/http';
+import { HttpClient } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
 import { Observable } from 'rxjs';
 
 import type { AlertJson, AlertsPageJson, AlertState } from '../../../shared/api/alerts';
 import type { MailboxPageJson } from '../../../shared/api/mail';
+import { queryParams } from '../core/query-params';
 
 export type MailMode = 'instant' | 'digest' | 'none';
-
-function params(query: object): HttpParams {
-  let result = new HttpParams();
-  for (const [key, value] of Object.entries(query)) {
-    if (value !== undefined && value !== null && value !== '')
-      result = result.set(key, String(value));
-  }
-  return result;
-}
 
 /** The alerts feature's one door to the server: stock alerts and the local mailbox. */
 @Injectable({ providedIn: 'root' })
@@ -22,7 +14,7 @@ export class AlertsApi {
   private readonly http = inject(HttpClient);
 
   alerts(query: { state: AlertState; page: number; pageSize: number }): Observable<AlertsPageJson> {
-    return this.http.get<AlertsPageJson>('/api/alerts', { params: params(query) });
+    return this.http.get<AlertsPageJson>('/api/alerts', { params: queryParams(query) });
   }
 
   acknowledge(alertId: string): Observable<AlertJson> {
@@ -40,6 +32,6 @@ export class AlertsApi {
   }
 
   mailbox(query: { q?: string; page: number; pageSize: number }): Observable<MailboxPageJson> {
-    return this.http.get<MailboxPageJson>('/api/mailbox', { params: params(query) });
+    return this.http.get<MailboxPageJson>('/api/mailbox', { params: queryParams(query) });
   }
 }

@@ -1,17 +1,30 @@
-import { HttpClient, HttpParams } from '@angular/common/http';
+import { HttpClient } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
 import { Observable } from 'rxjs';
 
 import type {
+  familyInput,
   FamilyJson,
+  familyPatch,
   LadderJson,
   LadderUnitJson,
   PartDetailJson,
   PartJson,
   PartKind,
+  partInput,
+  partPatch,
   StepSeriesJson,
 } from '../../../shared/api/catalog';
 import type { Page } from '../../../shared/api/common';
+import { queryParams } from '../core/query-params';
+import type { z } from 'zod';
+
+/** A family as the form sends it: lengths as typed, each with its unit. */
+export type FamilyBody = z.input<typeof familyInput>;
+/** The changed fields of a family (and whether it is still in use). */
+export type FamilyChanges = z.input<typeof familyPatch>;
+/** A part's fields as the form sends them: all of them for a new part, the changed ones after. */
+export type PartBody = z.input<typeof partPatch> & Pick<Partial<z.input<typeof partInput>>, 'kind'>;
 
 export interface FamilyQuery {
   q?: string;
@@ -33,68 +46,13 @@ export interface PartQuery {
   pageSize: number;
 }
 
-/** A family as the form sends it: lengths as typed, each with its unit. */
-export interface FamilyBody {
-  code: string;
-  name: string;
-  strokeType: 'two' | 'four';
-  cylinders: number;
-  cooling: 'air' | 'liquid';
-  standardBore: string;
-  stroke: string;
-  clearanceMin: string;
-  clearanceMax: string;
-  honeAllowance: string;
-  cleanup: string;
-  maxOversize: string;
-  stepSeriesId: string;
-  maxTaper?: string | null;
-  maxOutOfRound?: string | null;
-  ringGapMin?: string | null;
-  ringGapMax?: string | null;
-  forgedClearanceMin?: string | null;
-  forgedClearanceMax?: string | null;
-  ringGapPerBore?: string;
-  honeCrosshatch?: number;
-  honeGrits?: string;
-  notes?: string;
-  active?: boolean;
-}
-
-export interface PartBody {
-  kind?: PartKind;
-  sku?: string;
-  familyId?: string | null;
-  stepId?: string | null;
-  description?: string;
-  material?: 'cast' | 'forged' | null;
-  ringCount?: number | null;
-  pinDiameter?: string | null;
-  gtin?: string | null;
-  salePrice?: string;
-  reorderPoint?: number | null;
-  orderUpTo?: number | null;
-  components?: { partId: string; quantity: number }[];
-  active?: boolean;
-}
-
-function params(query: object): HttpParams {
-  let result = new HttpParams();
-  for (const [key, value] of Object.entries(query)) {
-    if (value !== undefined && value !== null && value !== '') {
-      result = result.set(key, String(value));
-    }
-  }
-  return result;
-}
-
 /** The catalog's one door to the server: engine families, step series, the ladder and parts. */
 @Injectable({ providedIn: 'root' })
 export class CatalogApi {
   private readonly http = inject(HttpClient);
 
   families(query: FamilyQuery): Observable<Page<FamilyJson>> {
-    return this.http.get<Page<FamilyJson>>('/api/engine-families', { params: params(query) });
+    return this.http.get<Page<FamilyJson>>('/api/engine-families', { params: queryParams(query) });
   }
 
   family(id: string): Observable<FamilyJson> {
@@ -105,7 +63,7 @@ export class CatalogApi {
     return this.http.post<FamilyJson>('/api/engine-families', body);
   }
 
-  updateFamily(id: string, body: Partial<FamilyBody>): Observable<FamilyJson> {
+  updateFamily(id: string, body: FamilyChanges): Observable<FamilyJson> {
     return this.http.patch<FamilyJson>(`/api/engine-families/${encodeURIComponent(id)}`, body);
   }
 
@@ -122,7 +80,7 @@ export class CatalogApi {
   ): Observable<Page<LadderUnitJson>> {
     return this.http.get<Page<LadderUnitJson>>(
       `/api/engine-families/${encodeURIComponent(familyId)}/ladder/steps/${encodeURIComponent(stepId)}/units`,
-      { params: params({ page, pageSize }) },
+      { params: queryParams({ page, pageSize }) },
     );
   }
 
@@ -140,7 +98,7 @@ export class CatalogApi {
   }
 
   parts(query: PartQuery): Observable<Page<PartJson>> {
-    return this.http.get<Page<PartJson>>('/api/parts', { params: params(query) });
+    return this.http.get<Page<PartJson>>('/api/parts', { params: queryParams(query) });
   }
 
   part(id: string): Observable<PartDetailJson> {

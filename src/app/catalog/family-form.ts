@@ -26,14 +26,15 @@ import { MatSelectModule } from '@angular/material/select';
 import { Router, RouterLink } from '@angular/router';
 import { catchError, map, of, startWith, Subject, switchMap } from 'rxjs';
 
-import type { FamilyJson, StepSeriesJson } from '../../../shared/api/catalog';
+import { familyInput, type FamilyJson, type StepSeriesJson } from '../../../shared/api/catalog';
 import { familyWarning } from '../../../shared/settings-ranges';
 import { apiErrorBody, apiErrorMessage, apiFieldErrors } from '../core/api-error';
 import { Notifier } from '../core/notifier';
 import { Session } from '../core/session';
 import { lengthForField, lengthText, lengthValidator, otherUnitHint } from '../ui/length-input';
-import { CatalogApi, type FamilyBody } from './catalog-api';
+import { CatalogApi, type FamilyBody, type FamilyChanges } from './catalog-api';
 import { StepSeriesDialog } from './step-series-dialog';
+import { schemaValidator } from '../core/field-errors';
 
 /** The length fields, in form order, with what each one means at the bench. */
 const LENGTHS = [
@@ -113,6 +114,11 @@ type Loaded =
   | { state: 'ok'; family: FamilyJson | null }
   | { state: 'error'; message: string };
 
+/** The server's own rule for one family field (the lengths have theirs, in the length input). */
+function rule(field: keyof typeof familyInput.shape) {
+  return schemaValidator(familyInput.shape[field]);
+}
+
 /** Adds or edits an engine family: its sizes, the maker's limits and the step series it uses. */
 @Component({
   selector: 'app-family-form',
@@ -147,23 +153,16 @@ export class FamilyForm {
   protected readonly unit = this.session.unit;
 
   protected readonly form = this.fb.group({
-    code: ['', [Validators.required, Validators.maxLength(24)]],
-    name: ['', [Validators.required, Validators.maxLength(120)]],
+    code: ['', [Validators.required, rule('code')]],
+    name: ['', [Validators.required, rule('name')]],
     strokeType: this.fb.control<'two' | 'four'>('two'),
-    cylinders: this.fb.control(1, [Validators.required, Validators.min(1), Validators.max(24)]),
+    cylinders: this.fb.control(1, [Validators.required, rule('cylinders')]),
     cooling: this.fb.control<'air' | 'liquid'>('air'),
     stepSeriesId: ['', Validators.required],
-    notes: ['', Validators.maxLength(2000)],
-    ringGapPerBore: [
-      '0.004',
-      [Validators.required, Validators.pattern(/^0?\.\d{1,5}$/), Validators.max(0.0199)],
-    ],
-    honeCrosshatch: this.fb.control(45, [
-      Validators.required,
-      Validators.min(10),
-      Validators.max(90),
-    ]),
-    honeGrits: ['', Validators.maxLength(120)],
+    notes: ['', rule('notes')],
+    ringGapPerBore: ['0.004', [Validators.required, rule('ringGapPerBore')]],
+    honeCrosshatch: this.fb.control(45, [Validators.required, rule('honeCrosshatch')]),
+    honeGrits: ['', rule('honeGrits')],
     active: [true],
     lengths: this.fb.group(
       Object.fromEntries(
@@ -296,11 +295,15 @@ export class FamilyForm {
   }
 
   /** A new family sends everything; an edit sends only what was changed, so nothing drifts. */
-  private body(): Partial<FamilyBody> {
+  private body(): FamilyChanges {
     const editing = this.editing();
     const v = this.form.getRawValue();
-    const body: Partial<FamilyBody> = {};
-    const take = <K extends keyof FamilyBody>(key: K, dirty: boolean, value: FamilyBody[K]) => {
+    const body: FamilyChanges = {};
+    const take = <K extends keyof FamilyChanges>(
+      key: K,
+      dirty: boolean,
+      value: FamilyChanges[K],
+    ) => {
       if (!editing || dirty) body[key] = value;
     };
     const c = this.form.controls;

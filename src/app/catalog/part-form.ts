@@ -23,15 +23,15 @@ import { catchError, map, of } from 'rxjs';
 
 import {
   PART_KINDS,
+  partInput,
   type FamilyJson,
   type PartDetailJson,
   type PartJson,
   type PartKind,
   type StepSeriesJson,
 } from '../../../shared/api/catalog';
-import { gtinProblem } from '../../../shared/gtin';
 import { apiFieldErrors } from '../core/api-error';
-import { placeApiErrors } from '../core/field-errors';
+import { placeApiErrors, schemaValidator } from '../core/field-errors';
 import { LengthPipe } from '../core/length-pipe';
 import { Notifier } from '../core/notifier';
 import { Session } from '../core/session';
@@ -90,28 +90,20 @@ export class PartForm {
 
   protected readonly form = this.fb.group({
     kind: this.fb.control<PartKind>('piston', Validators.required),
-    sku: [
-      '',
-      [
-        Validators.required,
-        Validators.maxLength(40),
-        Validators.pattern(/^[A-Za-z0-9][A-Za-z0-9._/+-]*$/),
-      ],
-    ],
-    description: ['', [Validators.required, Validators.maxLength(300)]],
+    sku: ['', [Validators.required, schemaValidator(partInput.shape.sku)]],
+    description: ['', [Validators.required, schemaValidator(partInput.shape.description)]],
     familyId: [''],
     stepId: [''],
     material: this.fb.control<'cast' | 'forged' | ''>(''),
-    ringCount: this.fb.control<number | null>(null, [Validators.min(1), Validators.max(6)]),
+    ringCount: this.fb.control<number | null>(null, schemaValidator(partInput.shape.ringCount)),
     pinDiameter: ['', lengthValidator(() => this.unit())],
-    gtin: [
-      '',
-      (c: { value: string }) =>
-        c.value.trim() && gtinProblem(c.value) ? { gtin: gtinProblem(c.value) } : null,
-    ],
-    salePrice: ['0.00', [Validators.required, Validators.pattern(/^\d{1,10}(\.\d{1,4})?$/)]],
-    reorderPoint: this.fb.control<number | null>(null, [Validators.min(0)]),
-    orderUpTo: this.fb.control<number | null>(null, [Validators.min(0)]),
+    gtin: ['', schemaValidator(partInput.shape.gtin)],
+    salePrice: ['0.00', [Validators.required, schemaValidator(partInput.shape.salePrice)]],
+    reorderPoint: this.fb.control<number | null>(
+      null,
+      schemaValidator(partInput.shape.reorderPoint),
+    ),
+    orderUpTo: this.fb.control<number | null>(null, schemaValidator(partInput.shape.orderUpTo)),
     active: [true],
   });
   protected readonly components = signal<Component_[]>([]);
@@ -215,10 +207,7 @@ export class PartForm {
     const control = this.form.get(field);
     if (!control) return '';
     if (control.hasError('required')) return 'This is needed.';
-    if (control.hasError('pattern') && field === 'sku')
-      return 'Letters, digits and . _ / + - only.';
-    if (control.hasError('pattern')) return 'An amount like 12.50.';
-    if (control.hasError('gtin')) return String(control.getError('gtin'));
+    if (control.hasError('schema')) return String(control.getError('schema'));
     if (control.hasError('length')) return String(control.getError('length'));
     if (control.hasError('min') || control.hasError('max')) return 'Out of range.';
     return this.serverErrors()[field] ?? '';

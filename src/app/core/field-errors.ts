@@ -1,6 +1,7 @@
-import type { AbstractControl } from '@angular/forms';
+import type { AbstractControl, ValidationErrors, ValidatorFn } from '@angular/forms';
+import type { ZodType } from 'zod';
 
-import { apiErrorBody, apiFieldErrors, apiUnplacedMessage } from './api-error';
+import { apiErrorBody, apiFieldErrors, apiUnplacedMessage, detailSentence } from './api-error';
 
 /**
  * Puts each field error of a failed request under its own control (found by the detail's path,
@@ -40,4 +41,17 @@ export function controlError(control: AbstractControl | null, what = 'a value'):
   if (errors['email']) return 'That is not an e-mail address.';
   if (errors['pattern']) return 'Not in the expected form.';
   return '';
+}
+
+/**
+ * Checks a control with the server's own zod rule for that field, at every keystroke, so the form
+ * refuses what the server would and says it in the same words (as `schema`, a sentence).
+ */
+export function schemaValidator(rule: ZodType): ValidatorFn {
+  return (control: AbstractControl): ValidationErrors | null => {
+    const checked = rule.safeParse(control.value);
+    if (checked.success) return null;
+    const message = checked.error.issues[0]?.message ?? 'not valid';
+    return { schema: detailSentence({ message }).replace(/^./, (c) => c.toUpperCase()) };
+  };
 }

@@ -1,4 +1,4 @@
-import { HttpClient, HttpParams } from '@angular/common/http';
+import { HttpClient } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
 import { map, Observable } from 'rxjs';
 
@@ -6,17 +6,15 @@ import type {
   CustomerCylinderJson,
   CustomerJson,
   CustomerListItemJson,
+  customerPatch,
   CylinderDetailJson,
 } from '../../../shared/api/customers';
 import type { Page } from '../../../shared/api/common';
+import type { z } from 'zod';
+import { queryParams } from '../core/query-params';
 
-export interface CustomerBody {
-  name?: string;
-  phone?: string | null;
-  email?: string | null;
-  acceptsEmail?: boolean;
-  notes?: string;
-}
+/** A customer's fields as a form sends them (the changed ones when editing). */
+export type CustomerBody = z.input<typeof customerPatch>;
 
 /** The customers API as the pages use it: search, the record, merge, export, erase, cylinders. */
 @Injectable({ providedIn: 'root' })
@@ -24,11 +22,9 @@ export class CustomersApi {
   private readonly http = inject(HttpClient);
 
   search(q: string, page = 1, pageSize = 8): Observable<Page<CustomerListItemJson>> {
-    const params = new HttpParams()
-      .set('q', q)
-      .set('page', String(page))
-      .set('pageSize', String(pageSize));
-    return this.http.get<Page<CustomerListItemJson>>('/api/customers', { params });
+    return this.http.get<Page<CustomerListItemJson>>('/api/customers', {
+      params: queryParams({ q, page, pageSize }),
+    });
   }
 
   get(id: string): Observable<CustomerJson> {

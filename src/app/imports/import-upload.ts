@@ -30,6 +30,7 @@ import {
 
 import {
   MAPPING_FIELD_NAMES,
+  REQUIRED_MAPPING_FIELDS,
   type CommitJson,
   type DuplicateJson,
   type ImportJson,
@@ -46,7 +47,6 @@ import { ImportsApi } from './imports-api';
 import { FIELD_NAMES } from './import-words';
 
 const MAX_BYTES = 50 * 1024 * 1024;
-const REQUIRED: MappingFieldName[] = ['sku', 'price'];
 
 interface Problem {
   message: string;
@@ -83,7 +83,7 @@ export class ImportUpload {
 
   protected readonly fields = MAPPING_FIELD_NAMES;
   protected readonly fieldNames = FIELD_NAMES;
-  protected readonly required = REQUIRED;
+  protected readonly required = REQUIRED_MAPPING_FIELDS;
 
   protected readonly suppliers = toSignal(
     this.api.suppliers().pipe(
@@ -116,7 +116,7 @@ export class ImportUpload {
   );
   protected readonly missingRequired = computed(() => {
     const m = this.mapping();
-    return m ? REQUIRED.filter((f) => !m[f]) : [];
+    return m ? REQUIRED_MAPPING_FIELDS.filter((f) => !m[f]) : [];
   });
 
   constructor() {

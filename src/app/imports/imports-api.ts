@@ -1,4 +1,4 @@
-import { HttpClient, HttpEvent, HttpParams } from '@angular/common/http';
+import { HttpClient, HttpEvent } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
 import { Observable } from 'rxjs';
 
@@ -12,16 +12,7 @@ import type {
   SupplierJson,
 } from '../../../shared/api/suppliers';
 import type { Page } from '../../../shared/api/common';
-
-function params(query: object): HttpParams {
-  let result = new HttpParams();
-  for (const [key, value] of Object.entries(query)) {
-    if (value !== undefined && value !== null && value !== '') {
-      result = result.set(key, String(value));
-    }
-  }
-  return result;
-}
+import { queryParams } from '../core/query-params';
 
 const id = encodeURIComponent;
 
@@ -33,7 +24,7 @@ export class ImportsApi {
   /** Suppliers to bring a list in for (all of them, by name). */
   suppliers(): Observable<Page<SupplierJson>> {
     return this.http.get<Page<SupplierJson>>('/api/suppliers', {
-      params: params({ sort: 'name', page: 1, pageSize: 500 }),
+      params: queryParams({ sort: 'name', page: 1, pageSize: 500 }),
     });
   }
 
@@ -53,7 +44,7 @@ export class ImportsApi {
     return this.http.post<ImportJson | DuplicateJson>(
       `/api/suppliers/${id(supplierId)}/price-lists`,
       form,
-      { params: params({ progress: progressToken }), reportProgress: true, observe: 'events' },
+      { params: queryParams({ progress: progressToken }), reportProgress: true, observe: 'events' },
     );
   }
 
@@ -65,7 +56,7 @@ export class ImportsApi {
     return this.http.post<CommitJson | DuplicateJson>(
       `/api/price-list-imports/${id(importId)}/commit`,
       { dropMissing },
-      { params: params({ progress: progressToken }) },
+      { params: queryParams({ progress: progressToken }) },
     );
   }
 
@@ -86,7 +77,7 @@ export class ImportsApi {
     pageSize: number;
   }): Observable<Page<ImportLogEntryJson>> {
     return this.http.get<Page<ImportLogEntryJson>>('/api/price-list-imports', {
-      params: params(query),
+      params: queryParams(query),
     });
   }
 }

@@ -1,4 +1,4 @@
-import { HttpClient, HttpParams } from '@angular/common/http';
+import { HttpClient } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
 import { map, Observable } from 'rxjs';
 
@@ -6,12 +6,16 @@ import type { CutUndoJson } from '../../../shared/cut-undo';
 import type { FamilyJson } from '../../../shared/api/catalog';
 import type {
   BoreSheetJson,
+  cylinderPatch,
+  holdInput,
+  jobInput,
+  jobPatch,
+  readingsInput,
   CylinderJson,
   HoldJson,
   JobJson,
   JobListItemJson,
   JobState,
-  OpenState,
   PhotoJson,
   ProposalJson,
   ReadingsResultJson,
@@ -19,7 +23,8 @@ import type {
 } from '../../../shared/api/jobs';
 import type { UnitJson } from '../../../shared/api/stock';
 import type { Page } from '../../../shared/api/common';
-import type { LengthJson } from '../../../shared/lengths';
+import type { z } from 'zod';
+import { queryParams } from '../core/query-params';
 
 export interface JobListQuery {
   /** 'open', 'closed', 'all' or one state. */
@@ -33,57 +38,14 @@ export interface JobListQuery {
 }
 
 /** A new job as the intake form sends it: the customer's record, or typed details. */
-export interface NewJob {
-  customerId?: string;
-  /** The customer's cylinder for each job cylinder, in order (null: not marked). */
-  cylinderIds?: (string | null)[];
-  customerName?: string;
-  customerPhone?: string | null;
-  customerEmail?: string | null;
-  familyId: string;
-  cylinders: number;
-  askedFor?: string;
-  dueDate?: string | null;
-  notes?: string;
-  notifyCustomer?: boolean;
-}
-
-export interface JobChanges {
-  customerName?: string;
-  customerPhone?: string | null;
-  customerEmail?: string | null;
-  askedFor?: string;
-  dueDate?: string | null;
-  notes?: string;
-  notifyCustomer?: boolean;
-  state?: OpenState;
-}
-
+export type NewJob = z.input<typeof jobInput>;
+export type JobChanges = z.input<typeof jobPatch>;
 /** One bore-gauge reading, the diameter as typed with its unit ("2.5260 in"). */
-export interface ReadingBody {
-  depth: 'top' | 'middle' | 'bottom';
-  axis: 'pin' | 'thrust';
-  diameter: string;
-}
-
+export type ReadingBody = z.input<typeof readingsInput>['readings'][number];
+export type CylinderChanges = z.input<typeof cylinderPatch>;
 /** The after-honing sizes as last read; the server refuses a change made against older ones. */
-export interface FinishBasedOn {
-  measuredAfterHone?: LengthJson | null;
-  ringGap?: LengthJson | null;
-}
-
-export interface CylinderChanges {
-  /** The customer's marked cylinder this job cylinder is (null: unlink). */
-  cylinderId?: string | null;
-  stepId?: string | null;
-  clearance?: string | null;
-  measuredAfterHone?: string | null;
-  ringGap?: string | null;
-  basedOn?: FinishBasedOn;
-}
-
-export type HoldBody =
-  { cylinder: number; unitId: string } | { cylinder: number; partId: string; quantity: number };
+export type FinishBasedOn = NonNullable<CylinderChanges['basedOn']>;
+export type HoldBody = z.input<typeof holdInput>;
 
 /** The jobs feature's one door to the server. */
 @Injectable({ providedIn: 'root' })
@@ -91,14 +53,8 @@ export class JobsApi {
   private readonly http = inject(HttpClient);
 
   list(query: JobListQuery): Observable<Page<JobListItemJson>> {
-    let params = new HttpParams()
-      .set('state', query.state)
-      .set('page', query.page)
-      .set('pageSize', query.pageSize);
-    if (query.q) params = params.set('q', query.q);
-    if (query.waiting) params = params.set('waiting', 'true');
-    if (query.sort) params = params.set('sort', query.sort);
-    if (query.dir) params = params.set('dir', query.dir);
+    // The server reads any `waiting` as a filter: send it only when it is on.
+    const params = queryParams({ ...query, waiting: query.waiting ? 'true' : undefined });
     return this.http.get<Page<JobListItemJson>>('/api/jobs', { params });
   }
 
@@ -187,7 +143,7 @@ export class JobsApi {
 
   /** Engine families a job can be taken in for. */
   families(): Observable<FamilyJson[]> {
-    const params = new HttpParams().set('active', 'true').set('pageSize', 500).set('sort', 'code');
+    const params = queryParams({ active: 'true', pageSize: 500, sort: 'code' });
     return this.http
       .get<Page<FamilyJson>>('/api/engine-families', { params })
       .pipe(map((page) => page.items));

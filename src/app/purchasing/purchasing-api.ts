@@ -1,10 +1,15 @@
-import { HttpClient, HttpParams } from '@angular/common/http';
+import { HttpClient } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
 import { Observable } from 'rxjs';
 
 import type { FamilyJson, LadderJson, PartJson } from '../../../shared/api/catalog';
 import type {
+  draftsInput,
   DraftsJson,
+  orderInput,
+  orderLineInput,
+  orderPatch,
+  receiptLinesInput,
   ExchangeRateJson,
   OrderJson,
   OrderListItemJson,
@@ -21,28 +26,13 @@ import type {
 } from '../../../shared/api/purchasing';
 import type { SupplierJson } from '../../../shared/api/suppliers';
 import type { Page } from '../../../shared/api/common';
-
-function params(query: object): HttpParams {
-  let result = new HttpParams();
-  for (const [key, value] of Object.entries(query)) {
-    if (value !== undefined && value !== null && value !== '')
-      result = result.set(key, String(value));
-  }
-  return result;
-}
+import { queryParams } from '../core/query-params';
+import type { z } from 'zod';
 
 const id = encodeURIComponent;
 
-export interface OrderLineBody {
-  partId: string;
-  quantity: number;
-  unitPrice: string;
-}
-
-export interface ReceiptBody {
-  lines: { lineId: string; quantity: number; units?: { skirt?: string | null }[] }[];
-  note?: string;
-}
+export type OrderLineBody = z.input<typeof orderLineInput>;
+export type ReceiptBody = z.input<typeof receiptLinesInput>;
 
 /** The purchasing feature's one door to the server. */
 @Injectable({ providedIn: 'root' })
@@ -52,7 +42,7 @@ export class PurchasingApi {
   // ---- Reorder ----
   reorder(query: { q?: string; familyId?: string; low: boolean; page: number; pageSize: number }) {
     return this.http.get<Page<ReorderLineJson>>('/api/reorder', {
-      params: params({ ...query, low: String(query.low) }),
+      params: queryParams({ ...query, low: String(query.low) }),
     });
   }
 
@@ -69,7 +59,7 @@ export class PurchasingApi {
     query: { windowDays: number; leadDays?: number; serviceLevel?: number },
   ) {
     return this.http.get<ReorderSuggestionJson>(`/api/parts/${id(partId)}/reorder-suggestion`, {
-      params: params(query),
+      params: queryParams(query),
     });
   }
 
@@ -78,12 +68,14 @@ export class PurchasingApi {
   }
 
   findParts(q: string): Observable<Page<PartJson>> {
-    return this.http.get<Page<PartJson>>('/api/parts', { params: params({ q, pageSize: 20 }) });
+    return this.http.get<Page<PartJson>>('/api/parts', {
+      params: queryParams({ q, pageSize: 20 }),
+    });
   }
 
   defaults(familyId?: string) {
     return this.http.get<{ items: ReorderDefaultJson[]; total: number }>('/api/reorder-defaults', {
-      params: params({ familyId }),
+      params: queryParams({ familyId }),
     });
   }
 
@@ -97,7 +89,7 @@ export class PurchasingApi {
 
   families(): Observable<Page<FamilyJson>> {
     return this.http.get<Page<FamilyJson>>('/api/engine-families', {
-      params: params({ pageSize: 500 }),
+      params: queryParams({ pageSize: 500 }),
     });
   }
 
@@ -113,7 +105,7 @@ export class PurchasingApi {
     neededBy?: string;
     quantity?: number;
   }) {
-    return this.http.get<SourcingJson>('/api/sourcing', { params: params(query) });
+    return this.http.get<SourcingJson>('/api/sourcing', { params: queryParams(query) });
   }
 
   rates() {
@@ -132,7 +124,7 @@ export class PurchasingApi {
 
   suppliers(): Observable<Page<SupplierJson>> {
     return this.http.get<Page<SupplierJson>>('/api/suppliers', {
-      params: params({ pageSize: 500 }),
+      params: queryParams({ pageSize: 500 }),
     });
   }
 
@@ -146,7 +138,7 @@ export class PurchasingApi {
     pageSize: number;
   }) {
     return this.http.get<Page<OrderListItemJson>>('/api/purchase-orders', {
-      params: params(query),
+      params: queryParams(query),
     });
   }
 
@@ -154,24 +146,15 @@ export class PurchasingApi {
     return this.http.get<OrderJson>(`/api/purchase-orders/${id(orderId)}`);
   }
 
-  createOrder(body: {
-    supplierId: string;
-    lines: OrderLineBody[];
-    expectedOn?: string | null;
-    notes?: string;
-    shipping?: string;
-  }) {
+  createOrder(body: z.input<typeof orderInput>) {
     return this.http.post<OrderJson>('/api/purchase-orders', body);
   }
 
-  updateOrder(
-    orderId: string,
-    body: { lines?: OrderLineBody[]; expectedOn?: string | null; notes?: string },
-  ) {
+  updateOrder(orderId: string, body: z.input<typeof orderPatch>) {
     return this.http.patch<OrderJson>(`/api/purchase-orders/${id(orderId)}`, body);
   }
 
-  draftFromSuggestions(body: { partIds?: string[]; familyId?: string }): Observable<DraftsJson> {
+  draftFromSuggestions(body: z.input<typeof draftsInput>): Observable<DraftsJson> {
     return this.http.post<DraftsJson>('/api/purchase-orders/drafts', body);
   }
 

@@ -1,4 +1,4 @@
-import { HttpClient, HttpParams } from '@angular/common/http';
+import { HttpClient } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
 import { Observable } from 'rxjs';
 
@@ -12,12 +12,18 @@ import type {
   BinJson,
   LedgerJson,
   LedgerKind,
+  deskReceiptInput,
   DeskReceiptJson,
   StockChangeJson,
   UnitJson,
 } from '../../../shared/api/stock';
 import type { OpenLineJson } from '../../../shared/api/purchasing';
 import type { Page } from '../../../shared/api/common';
+import { queryParams } from '../core/query-params';
+import type { z } from 'zod';
+
+/** A delivery as the receive page sends it; skirts typed with their unit, null for "to measure". */
+export type ReceiptBody = z.input<typeof deskReceiptInput>;
 
 export interface UnitQuery {
   q?: string;
@@ -40,29 +46,6 @@ export interface LedgerQuery {
   pageSize: number;
 }
 
-/** A delivery as the receive page sends it; skirts typed with their unit, null for "to measure". */
-export interface ReceiptBody {
-  partId: string;
-  quantity: number;
-  binId: string;
-  /** Paid per piece; left out when received against an order line (the order's price counts). */
-  unitCost?: string;
-  /** The open order line this delivery came on, if any. */
-  orderLineId?: string;
-  note?: string;
-  units?: { skirt: string | null }[];
-}
-
-function params(query: object): HttpParams {
-  let result = new HttpParams();
-  for (const [key, value] of Object.entries(query)) {
-    if (value !== undefined && value !== null && value !== '') {
-      result = result.set(key, String(value));
-    }
-  }
-  return result;
-}
-
 /** Stock's one door to the server: bins, receipts, units, movements and the exposure list. */
 @Injectable({ providedIn: 'root' })
 export class StockApi {
@@ -71,7 +54,7 @@ export class StockApi {
   /** Part search for receiving and counting (the catalog's list, filtered by text). */
   findParts(q: string, pageSize = 10): Observable<Page<PartJson>> {
     return this.http.get<Page<PartJson>>('/api/parts', {
-      params: params({ q, active: 'true', page: 1, pageSize }),
+      params: queryParams({ q, active: 'true', page: 1, pageSize }),
     });
   }
 
@@ -80,7 +63,7 @@ export class StockApi {
   }
 
   bins(query: { q?: string; page: number; pageSize: number }): Observable<Page<BinJson>> {
-    return this.http.get<Page<BinJson>>('/api/bins', { params: params(query) });
+    return this.http.get<Page<BinJson>>('/api/bins', { params: queryParams(query) });
   }
 
   createBin(body: { code: string; name?: string }): Observable<BinJson> {
@@ -95,7 +78,7 @@ export class StockApi {
   openLinesForPart(partId: string): Observable<{ items: OpenLineJson[]; total: number }> {
     return this.http.get<{ items: OpenLineJson[]; total: number }>(
       '/api/purchase-orders/open-lines',
-      { params: params({ partId }) },
+      { params: queryParams({ partId }) },
     );
   }
 
@@ -121,7 +104,7 @@ export class StockApi {
   }
 
   units(query: UnitQuery): Observable<Page<UnitJson>> {
-    return this.http.get<Page<UnitJson>>('/api/stock/units', { params: params(query) });
+    return this.http.get<Page<UnitJson>>('/api/stock/units', { params: queryParams(query) });
   }
 
   unit(id: string): Observable<UnitJson> {
@@ -133,7 +116,7 @@ export class StockApi {
   }
 
   ledger(query: LedgerQuery): Observable<Page<LedgerJson>> {
-    return this.http.get<Page<LedgerJson>>('/api/stock/ledger', { params: params(query) });
+    return this.http.get<Page<LedgerJson>>('/api/stock/ledger', { params: queryParams(query) });
   }
 
   exposure(query: {
@@ -141,6 +124,6 @@ export class StockApi {
     page: number;
     pageSize: number;
   }): Observable<Page<ExposureItemJson>> {
-    return this.http.get<Page<ExposureItemJson>>('/api/exposure', { params: params(query) });
+    return this.http.get<Page<ExposureItemJson>>('/api/exposure', { params: queryParams(query) });
   }
 }

@@ -8,11 +8,9 @@ import {
   signal,
 } from '@angular/core';
 import {
-  AbstractControl,
   FormControl,
   NonNullableFormBuilder,
   ReactiveFormsModule,
-  ValidationErrors,
   Validators,
 } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
@@ -23,23 +21,20 @@ import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { Router, RouterLink } from '@angular/router';
 
-import { isCurrencyCode } from '../../../shared/money';
-import type { SupplierJson } from '../../../shared/api/suppliers';
+import { supplierInput, type SupplierJson } from '../../../shared/api/suppliers';
 import { apiErrorBody, apiErrorMessage, apiFieldErrors } from '../core/api-error';
 import { Notifier } from '../core/notifier';
 import { SuppliersApi, type SupplierBody } from './suppliers-api';
+import { schemaValidator } from '../core/field-errors';
 
 type Loaded =
   | { state: 'loading' }
   | { state: 'ok'; supplier: SupplierJson | null }
   | { state: 'error'; message: string };
 
-const AMOUNT = /^\d{1,10}(\.\d{1,4})?$/;
-
-/** The same ISO 4217 check the server makes, so the form refuses what the server would. */
-function currencyValidator(control: AbstractControl<string>): ValidationErrors | null {
-  const code = control.value.trim().toUpperCase();
-  return code === '' || isCurrencyCode(code) ? null : { currency: true };
+/** The server's own rule for one supplier field. */
+function rule(field: keyof typeof supplierInput.shape) {
+  return schemaValidator(supplierInput.shape[field]);
 }
 
 /** A supplier's details: who they are, where orders go, their currency, lead time and terms. */
@@ -69,14 +64,14 @@ export class SupplierForm {
   readonly id = input<string>();
 
   protected readonly form = this.fb.group({
-    name: ['', [Validators.required, Validators.maxLength(120)]],
-    email: ['', [Validators.email, Validators.maxLength(200)]],
-    currency: ['EUR', [Validators.required, currencyValidator]],
-    leadDays: this.fb.control(14, [Validators.required, Validators.min(0), Validators.max(365)]),
-    contacts: ['', Validators.maxLength(2000)],
-    minOrder: ['0', [Validators.required, Validators.pattern(AMOUNT)]],
-    shippingCost: ['0', [Validators.required, Validators.pattern(AMOUNT)]],
-    notes: ['', Validators.maxLength(4000)],
+    name: ['', [Validators.required, rule('name')]],
+    email: ['', rule('email')],
+    currency: ['EUR', [Validators.required, rule('currency')]],
+    leadDays: this.fb.control(14, [Validators.required, rule('leadDays')]),
+    contacts: ['', rule('contacts')],
+    minOrder: ['0', [Validators.required, rule('minOrder')]],
+    shippingCost: ['0', [Validators.required, rule('shippingCost')]],
+    notes: ['', rule('notes')],
     active: [true],
   });
 

@@ -1,4 +1,4 @@
-import { HttpClient, HttpParams } from '@angular/common/http';
+import { HttpClient } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
 import { Observable } from 'rxjs';
 
@@ -6,10 +6,16 @@ import type { PartJson } from '../../../shared/api/catalog';
 import type {
   PriceHistoryJson,
   SupplierItemJson,
+  supplierInput,
   SupplierJson,
   UnmappedItemJson,
 } from '../../../shared/api/suppliers';
 import type { Page } from '../../../shared/api/common';
+import { queryParams } from '../core/query-params';
+import type { z } from 'zod';
+
+/** A supplier as the form sends it. */
+export type SupplierBody = z.input<typeof supplierInput>;
 
 export interface SupplierQuery {
   q?: string;
@@ -29,29 +35,6 @@ export interface ItemQuery {
   pageSize: number;
 }
 
-/** A supplier as the form sends it. */
-export interface SupplierBody {
-  name: string;
-  email: string | null;
-  currency: string;
-  leadDays: number;
-  contacts: string;
-  minOrder: string;
-  shippingCost: string;
-  notes: string;
-  active?: boolean;
-}
-
-function params(query: object): HttpParams {
-  let result = new HttpParams();
-  for (const [key, value] of Object.entries(query)) {
-    if (value !== undefined && value !== null && value !== '') {
-      result = result.set(key, String(value));
-    }
-  }
-  return result;
-}
-
 const id = encodeURIComponent;
 
 /** The suppliers feature's one door to the server: suppliers, their items and price history, mapping. */
@@ -60,7 +43,7 @@ export class SuppliersApi {
   private readonly http = inject(HttpClient);
 
   suppliers(query: SupplierQuery): Observable<Page<SupplierJson>> {
-    return this.http.get<Page<SupplierJson>>('/api/suppliers', { params: params(query) });
+    return this.http.get<Page<SupplierJson>>('/api/suppliers', { params: queryParams(query) });
   }
 
   supplier(supplierId: string): Observable<SupplierJson> {
@@ -77,7 +60,7 @@ export class SuppliersApi {
 
   items(supplierId: string, query: ItemQuery): Observable<Page<SupplierItemJson>> {
     return this.http.get<Page<SupplierItemJson>>(`/api/suppliers/${id(supplierId)}/items`, {
-      params: params(query),
+      params: queryParams(query),
     });
   }
 
@@ -87,7 +70,7 @@ export class SuppliersApi {
   ): Observable<Page<PriceHistoryJson> & { item: SupplierItemJson }> {
     return this.http.get<Page<PriceHistoryJson> & { item: SupplierItemJson }>(
       `/api/suppliers/${id(supplierId)}/items/${id(itemId)}/prices`,
-      { params: params({ page: 1, pageSize: 100 }) },
+      { params: queryParams({ page: 1, pageSize: 100 }) },
     );
   }
 
@@ -98,7 +81,7 @@ export class SuppliersApi {
     pageSize: number;
   }): Observable<Page<UnmappedItemJson>> {
     return this.http.get<Page<UnmappedItemJson>>('/api/supplier-items/unmapped', {
-      params: params(query),
+      params: queryParams(query),
     });
   }
 
@@ -109,7 +92,7 @@ export class SuppliersApi {
   /** Catalog parts by SKU, description or family code, to map an item the suggestions missed. */
   findParts(q: string): Observable<Page<PartJson>> {
     return this.http.get<Page<PartJson>>('/api/parts', {
-      params: params({ q, active: 'true', page: 1, pageSize: 10 }),
+      params: queryParams({ q, active: 'true', page: 1, pageSize: 10 }),
     });
   }
 }
