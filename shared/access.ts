@@ -23,7 +23,7 @@ export const may = {
   machine: ['owner', 'machinist'],
   /** Move a job from one workshop state to the next. */
   moveJobs: ['owner', 'machinist'],
-  /** Estimates (lines, discount, sending, approval) and invoices' credit notes. */
+  /** Estimates (lines, discount, sending, approval), payments and refunds, invoices' credit notes. */
   takeMoney: ['owner', 'staff'],
   /** Engine families, step series, parts and their prices. */
   editCatalog: ['owner', 'buyer'],

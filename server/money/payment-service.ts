@@ -19,7 +19,7 @@ import type {
   PaymentRequestInput,
   PaymentsJson,
 } from '../../shared/api/money';
-import { getSettings, type ShopSettings } from '../settings/settings-service';
+import { getSettings } from '../settings/settings-service';
 import { isOpenState } from '../../shared/api/jobs';
 import { callPayments } from '../payments/payment-client';
 import * as repo from './payments-repository';
@@ -32,6 +32,7 @@ import { getInvoice } from './invoice-service';
 import { customerContact } from './customer-contact';
 import { paymentRequestMail } from './payment-mail';
 import { newPublicLink, publicPath } from './public-links';
+import type { ShopSettings } from '../../shared/settings-schema';
 
 type Conn = Knex;
 

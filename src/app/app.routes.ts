@@ -41,7 +41,7 @@ export const routes: Routes = [
       {
         path: 'money',
         canActivate: [roleGuard],
-        data: { roles: ['owner'] },
+        data: { roles: may.setRates },
         loadChildren: () => import('./money/money.routes').then((m) => m.moneyRoutes),
       },
       {

@@ -53,7 +53,7 @@ export const NAV_ITEMS: NavItem[] = [
     group: 'shop',
     label: 'Labour prices',
     icon: 'request_quote',
-    roles: ['owner'],
+    roles: may.setRates,
     hint: 'What boring, honing and the other work cost, and which go on new estimates.',
   },
   {

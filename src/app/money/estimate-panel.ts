@@ -23,7 +23,6 @@ import { MoneyApi } from './money-api';
 import {
   AMOUNT_PATTERN,
   formatAmount,
-  mayHandleMoney,
   sameJobVersion,
   type MoneyJob,
   QUANTITY_PATTERN,
@@ -81,7 +80,7 @@ export class EstimatePanel {
 
   /** Staff and the owner change the estimate while the job is open; everyone else reads it. */
   protected readonly canEdit = computed(
-    () => mayHandleMoney(this.session.user()?.role) && isOpenState(this.job().state),
+    () => this.session.may('takeMoney') && isOpenState(this.job().state),
   );
   protected readonly rule = computed(() => {
     const e = this.estimate();

@@ -2,7 +2,6 @@
 // owner price, send and take payments; machinists and the buyer read).
 import type { EstimateJson } from '../../../shared/api/money';
 import type { JobState } from '../../../shared/api/jobs';
-import type { Role } from '../../../shared/session-types';
 import { formatAmount } from '../insights/insights-format';
 
 export { formatAmount };
@@ -17,10 +16,6 @@ export function roundingRule(pricesIncludeTax: boolean, taxRate: string): string
 
 /** A line's kind in words (the API keeps labour, part, other). */
 export const LINE_KIND_LABELS = { labour: 'Labour', part: 'Part', other: 'Other' } as const;
-
-export function mayHandleMoney(role: Role | undefined): boolean {
-  return role === 'owner' || role === 'staff';
-}
 
 /** "1.5" and "2" as typed; a quantity more than 0 with at most 3 decimals (the server's rule). */
 export const QUANTITY_PATTERN = /^\d{1,5}(\.\d{1,3})?$/;

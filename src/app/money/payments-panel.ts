@@ -23,13 +23,7 @@ import { ShopDatePipe } from '../core/shop-date-pipe';
 import { ListState } from '../ui/list-state';
 import { loadEach } from '../ui/load';
 import { MoneyApi } from './money-api';
-import {
-  AMOUNT_PATTERN,
-  formatAmount,
-  mayHandleMoney,
-  sameJobVersion,
-  type MoneyJob,
-} from './money-words';
+import { AMOUNT_PATTERN, formatAmount, sameJobVersion, type MoneyJob } from './money-words';
 
 export const PAYMENT_STATE_WORDS = { open: 'Waiting', paid: 'Paid', refunded: 'Paid back' };
 export const PURPOSE_LABELS: Record<PaymentPurpose, string> = {
@@ -90,11 +84,11 @@ export class PaymentsPanel {
 
   /** Payments are taken while the job is open, and at hand-back for what is still owed. */
   protected readonly canTake = computed(
-    () => mayHandleMoney(this.session.user()?.role) && this.job().state !== 'called_off',
+    () => this.session.may('takeMoney') && this.job().state !== 'called_off',
   );
   protected readonly canAsk = computed(() => this.canTake() && isOpenState(this.job().state));
   /** A refund is for staff and the owner, of money that came in. */
-  protected readonly canRefund = computed(() => mayHandleMoney(this.session.user()?.role));
+  protected readonly canRefund = computed(() => this.session.may('takeMoney'));
 
   protected readonly requestForm = new FormGroup({
     purpose: new FormControl<PaymentPurpose>('deposit', { nonNullable: true }),
