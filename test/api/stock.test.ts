@@ -23,6 +23,11 @@ beforeAll(async () => {
 afterEach(disarmFaults);
 afterAll(closeTestApp);
 
+/** A receipt into the fixture's bin at a unit cost; `more` adds fields (units, a note). */
+function receipt(partId: string, quantity: number, unitCost: string, more: object = {}) {
+  return { partId, quantity, binId: fx.binId, unitCost, ...more };
+}
+
 async function levels(partId: string) {
   return db('part_levels').where({ part_id: partId }).first();
 }
@@ -82,14 +87,13 @@ async function holdUnit(unitId: string): Promise<boolean> {
 describe('POST /api/stock/receipts', () => {
   it('when staff receives measured pistons, then 201 answers the ledger rows and the units, exactly', async () => {
     const piston = await makePart(owner, fx, 'piston', 1);
-    const res = await staff.post('/api/stock/receipts', {
-      partId: piston.id,
-      quantity: 3,
-      binId: fx.binId,
-      unitCost: '12.50',
-      note: 'Delivery 4471',
-      units: [{ skirt: '2.5555 in' }, { skirt: '64.91 mm' }, {}],
-    });
+    const res = await staff.post(
+      '/api/stock/receipts',
+      receipt(piston.id, 3, '12.50', {
+        note: 'Delivery 4471',
+        units: [{ skirt: '2.5555 in' }, { skirt: '64.91 mm' }, {}],
+      }),
+    );
     expect(res.status).toBe(201);
     expect(res.body.ledger).toHaveLength(3);
     expect(res.body.ledger[0]).toMatchObject({
@@ -137,13 +141,12 @@ describe('POST /api/stock/receipts', () => {
   it('when a fault strikes right after the ledger insert, then nothing of the receipt remains', async () => {
     const piston = await makePart(owner, fx, 'piston', 2);
     armFault('stock.receipt.afterLedger');
-    const res = await staff.post('/api/stock/receipts', {
-      partId: piston.id,
-      quantity: 2,
-      binId: fx.binId,
-      unitCost: '30.00',
-      units: [{ skirt: '2.5180 in' }, { skirt: '2.5182 in' }],
-    });
+    const res = await staff.post(
+      '/api/stock/receipts',
+      receipt(piston.id, 2, '30.00', {
+        units: [{ skirt: '2.5180 in' }, { skirt: '2.5182 in' }],
+      }),
+    );
     expect(res.status).toBe(500);
     expect(res.body.error.message).not.toMatch(/Injected|stock_ledger|insert/i);
     expect(await db('stock_ledger').where({ part_id: piston.id })).toHaveLength(0);
@@ -163,18 +166,8 @@ describe('POST /api/stock/receipts', () => {
     // Weighted-average cost formula (IAS 2 Inventories, paragraph 27; perpetual moving average):
     // (10 × 10.00 + 30 × 14.00) / 40 = 520 / 40 = 13.00.
     const rings = await makePart(owner, fx, 'rings', 1);
-    await staff.post('/api/stock/receipts', {
-      partId: rings.id,
-      quantity: 10,
-      binId: fx.binId,
-      unitCost: '10.00',
-    });
-    const res = await staff.post('/api/stock/receipts', {
-      partId: rings.id,
-      quantity: 30,
-      binId: fx.binId,
-      unitCost: '14.00',
-    });
+    await staff.post('/api/stock/receipts', receipt(rings.id, 10, '10.00'));
+    const res = await staff.post('/api/stock/receipts', receipt(rings.id, 30, '14.00'));
     expect(res.status).toBe(201);
     // Staff receive without seeing costs; the owner reads the average.
     expect(res.body.levels).toEqual({ onHand: 40, held: 0, free: 40 });
@@ -187,13 +180,12 @@ describe('POST /api/stock/receipts', () => {
     'when a skirt is "%s", then 400 names units.1.skirt and nothing is written',
     async (bad) => {
       const piston = await makePart(owner, fx, 'piston', 3);
-      const res = await staff.post('/api/stock/receipts', {
-        partId: piston.id,
-        quantity: 2,
-        binId: fx.binId,
-        unitCost: '12.50',
-        units: [{ skirt: '2.5283 in' }, { skirt: bad }],
-      });
+      const res = await staff.post(
+        '/api/stock/receipts',
+        receipt(piston.id, 2, '12.50', {
+          units: [{ skirt: '2.5283 in' }, { skirt: bad }],
+        }),
+      );
       expect(res.status).toBe(400);
       expect(res.body.error.details.map((d: { field: string }) => d.field)).toEqual([
         'units.1.skirt',
@@ -206,13 +198,12 @@ describe('POST /api/stock/receipts', () => {
 
   it('when a skirt is typed in the wrong unit, then 400 says it is far from the nominal bore', async () => {
     const piston = await makePart(owner, fx, 'piston', 0);
-    const res = await staff.post('/api/stock/receipts', {
-      partId: piston.id,
-      quantity: 1,
-      binId: fx.binId,
-      unitCost: '12.50',
-      units: [{ skirt: '2.4985 mm' }],
-    });
+    const res = await staff.post(
+      '/api/stock/receipts',
+      receipt(piston.id, 1, '12.50', {
+        units: [{ skirt: '2.4985 mm' }],
+      }),
+    );
     expect(res.status).toBe(400);
     expect(res.body.error.details[0]).toMatchObject({ field: 'units.0.skirt' });
     expect(res.body.error.details[0].message).toMatch(/far from this step's nominal bore/);
@@ -230,13 +221,12 @@ describe('POST /api/stock/receipts', () => {
     [{ binId: '00000000-0000-4000-8000-000000000001' }, 'binId'],
   ])('when the receipt has %j, then 400 names %s', async (change, field) => {
     const rings = await makePart(owner, fx, 'rings', 2);
-    const res = await staff.post('/api/stock/receipts', {
-      partId: rings.id,
-      quantity: 2,
-      binId: fx.binId,
-      unitCost: '9.00',
-      ...change,
-    });
+    const res = await staff.post(
+      '/api/stock/receipts',
+      receipt(rings.id, 2, '9.00', {
+        ...change,
+      }),
+    );
     expect(res.status).toBe(400);
     expect(res.body.error.details[0].field).toBe(field);
     expect(await db('stock_ledger').where({ part_id: rings.id })).toHaveLength(0);
@@ -244,13 +234,12 @@ describe('POST /api/stock/receipts', () => {
 
   it('when pistons come without one entry per piston, then 400 names units', async () => {
     const piston = await makePart(owner, fx, 'piston', 4);
-    const res = await staff.post('/api/stock/receipts', {
-      partId: piston.id,
-      quantity: 3,
-      binId: fx.binId,
-      unitCost: '12.50',
-      units: [{ skirt: '2.5383 in' }],
-    });
+    const res = await staff.post(
+      '/api/stock/receipts',
+      receipt(piston.id, 3, '12.50', {
+        units: [{ skirt: '2.5383 in' }],
+      }),
+    );
     expect(res.status).toBe(400);
     expect(res.body.error.details[0].field).toBe('units');
   });
@@ -264,12 +253,7 @@ describe('POST /api/stock/receipts', () => {
 describe('POST /api/stock/adjustments', () => {
   it('when an adjustment would take on-hand below what is held, then 409 not_available and nothing changes', async () => {
     const rings = await makePart(owner, fx, 'rings', 3);
-    await staff.post('/api/stock/receipts', {
-      partId: rings.id,
-      quantity: 5,
-      binId: fx.binId,
-      unitCost: '8.00',
-    });
+    await staff.post('/api/stock/receipts', receipt(rings.id, 5, '8.00'));
     // Three ring sets held for jobs, written as the jobs feature will write them.
     await db.transaction(async (trx) => {
       await trx('part_levels').increment('held', 3).where({ part_id: rings.id });
@@ -308,12 +292,7 @@ describe('POST /api/stock/adjustments', () => {
 
   it('when 20 adjustments of -1 race for 10 on hand, then 10 succeed and the ledger sum equals on-hand', async () => {
     const clip = await makePart(owner, fx, 'other');
-    await staff.post('/api/stock/receipts', {
-      partId: clip.id,
-      quantity: 10,
-      binId: fx.binId,
-      unitCost: '0.40',
-    });
+    await staff.post('/api/stock/receipts', receipt(clip.id, 10, '0.40'));
     const results = await Promise.all(
       Array.from({ length: 20 }, (_, i) =>
         owner.post('/api/stock/adjustments', {
@@ -334,12 +313,7 @@ describe('POST /api/stock/adjustments', () => {
 
   it('when 20 mixed adjustments run at once, then the ledger sum still equals on-hand', async () => {
     const clip = await makePart(owner, fx, 'other');
-    await staff.post('/api/stock/receipts', {
-      partId: clip.id,
-      quantity: 50,
-      binId: fx.binId,
-      unitCost: '0.40',
-    });
+    await staff.post('/api/stock/receipts', receipt(clip.id, 50, '0.40'));
     const changes = Array.from({ length: 20 }, (_, i) => (i % 3 === 0 ? 4 : -3));
     const results = await Promise.all(
       changes.map((q) =>
@@ -380,13 +354,12 @@ describe('POST /api/stock/adjustments', () => {
 describe('piston units: hold, move, scrap, measure', () => {
   async function receiveOne(skirt?: string) {
     const piston = await makePart(owner, fx, 'piston', 2);
-    const res = await staff.post('/api/stock/receipts', {
-      partId: piston.id,
-      quantity: 1,
-      binId: fx.binId,
-      unitCost: '25.00',
-      units: [skirt ? { skirt } : {}],
-    });
+    const res = await staff.post(
+      '/api/stock/receipts',
+      receipt(piston.id, 1, '25.00', {
+        units: [skirt ? { skirt } : {}],
+      }),
+    );
     expect(res.status).toBe(201);
     return { partId: piston.id, unit: res.body.units[0] as { id: string; label: string } };
   }
@@ -419,12 +392,7 @@ describe('piston units: hold, move, scrap, measure', () => {
 
   it('when a counted part moves, then its bin changes; without unitId or partId, 400', async () => {
     const rings = await makePart(owner, fx, 'rings', 4);
-    await staff.post('/api/stock/receipts', {
-      partId: rings.id,
-      quantity: 2,
-      binId: fx.binId,
-      unitCost: '5.00',
-    });
+    await staff.post('/api/stock/receipts', receipt(rings.id, 2, '5.00'));
     const bin = await makeBin(staff);
     const res = await buyer.post('/api/stock/moves', { partId: rings.id, toBinId: bin.id });
     expect(res.status).toBe(200);
@@ -485,13 +453,12 @@ describe('piston units: hold, move, scrap, measure', () => {
 describe('reading units, the ledger and bins', () => {
   it('when a label is scanned, then by-label finds the unit whatever the case; an unknown one is 404', async () => {
     const piston = await makePart(owner, fx, 'piston', 1);
-    const r = await staff.post('/api/stock/receipts', {
-      partId: piston.id,
-      quantity: 2,
-      binId: fx.binId,
-      unitCost: '20.00',
-      units: [{ skirt: '2.5083 in' }, { skirt: '2.5081 in' }],
-    });
+    const r = await staff.post(
+      '/api/stock/receipts',
+      receipt(piston.id, 2, '20.00', {
+        units: [{ skirt: '2.5083 in' }, { skirt: '2.5081 in' }],
+      }),
+    );
     const label: string = r.body.units[0].label;
     const res = await machinist.get(`/api/stock/units/by-label/${label.toLowerCase()}`);
     expect(res.status).toBe(200);
@@ -517,12 +484,7 @@ describe('reading units, the ledger and bins', () => {
 
   it('when the ledger is read for a part, then it lists its movements newest first', async () => {
     const rings = await makePart(owner, fx, 'rings', 0);
-    await staff.post('/api/stock/receipts', {
-      partId: rings.id,
-      quantity: 4,
-      binId: fx.binId,
-      unitCost: '6.00',
-    });
+    await staff.post('/api/stock/receipts', receipt(rings.id, 4, '6.00'));
     await owner.post('/api/stock/adjustments', {
       partId: rings.id,
       quantity: -1,
