@@ -656,6 +656,8 @@ describe('exposure', () => {
     });
     // An unmeasured piston does not count as free: it cannot be matched to a bore yet.
     await db('piston_units').insert({ part_id: shortPiston, skirt_nm: null, status: 'free' });
+    // Each piston on the shelf counted on hand too, as receiving through the stock door keeps it.
+    await db('part_levels').whereIn('part_id', [shortPiston, stockedPiston]).update({ on_hand: 1 });
     // Ring sets are free at both steps, so only the piston can be short here.
     for (const index of [1, 3]) {
       const rings = (await makePart(owner, family, 'rings', index)).id;
