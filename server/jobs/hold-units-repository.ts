@@ -83,7 +83,8 @@ export async function holdUnit(
   return (await q.first()) as HoldUnitRow | undefined;
 }
 
-export async function holdPart(id: string, k: Knex = db): Promise<HoldPartRow | undefined> {
+/** The part columns a hold reads, with its step's label. */
+function holdParts(k: Knex) {
   return k('parts as p')
     .leftJoin('series_steps as s', 's.id', 'p.step_id')
     .select(
@@ -98,29 +99,16 @@ export async function holdPart(id: string, k: Knex = db): Promise<HoldPartRow | 
       'p.sale_price',
       'p.average_cost',
       'p.material',
-    )
-    .where('p.id', id)
-    .first();
+    );
+}
+
+export async function holdPart(id: string, k: Knex = db): Promise<HoldPartRow | undefined> {
+  return holdParts(k).where('p.id', id).first();
 }
 
 export function partsByIds(ids: string[], k: Knex = db): Promise<HoldPartRow[]> {
   if (ids.length === 0) return Promise.resolve([]);
-  return k('parts as p')
-    .leftJoin('series_steps as s', 's.id', 'p.step_id')
-    .select(
-      'p.id',
-      'p.kind',
-      'p.sku',
-      'p.description',
-      'p.active',
-      'p.family_id',
-      'p.step_id',
-      's.label as step_label',
-      'p.sale_price',
-      'p.average_cost',
-      'p.material',
-    )
-    .whereIn('p.id', ids);
+  return holdParts(k).whereIn('p.id', ids);
 }
 
 /**
