@@ -25,6 +25,7 @@ import { Notifier } from '../core/notifier';
 import { Session } from '../core/session';
 import { EstimatePanel } from '../money/estimate-panel';
 import { InvoicePanel } from '../money/invoice-panel';
+import { PaymentsPanel } from '../money/payments-panel';
 import { JobCloseDialog, type JobCloseData } from './job-close-dialog';
 import { JobsApi } from './jobs-api';
 import { makeThumbnail } from './make-thumbnail';
@@ -38,6 +39,7 @@ import { loadById } from '../ui/load';
   imports: [
     EstimatePanel,
     InvoicePanel,
+    PaymentsPanel,
     ShopDatePipe,
     LengthPipe,
     ListState,

@@ -1,5 +1,4 @@
-// How money reads on the money pages, and who may change it (the Contract's roles: staff and the
-// owner price, send and take payments; machinists and the buyer read).
+// How money reads on the money pages: amounts, the estimate's rule and where it stands, in words.
 import type { EstimateJson } from '../../../shared/api/money';
 import type { JobState } from '../../../shared/api/jobs';
 import { formatAmount } from '../insights/insights-format';
