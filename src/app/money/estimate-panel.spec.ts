@@ -100,12 +100,12 @@ describe('EstimatePanel', () => {
     const { element } = await render('staff', estimate());
     const rows = Array.from(element.querySelectorAll('tbody tr')).map((r) =>
       Array.from(r.querySelectorAll('td'))
-        .slice(0, 5)
-        .map((c) => c.textContent?.trim()),
+        .slice(0, 4)
+        .map((c) => c.textContent?.replace(/\s+/g, ' ').trim()),
     );
     expect(rows).toEqual([
-      ['Labour', 'Bore one cylinder', '2', '€55.00', '€110.00'],
-      ['Other', 'Clean and inspect', '1', '€12.00', '€12.00'],
+      ['Bore one cylinder Labour', '2', '€55.00', '€110.00'],
+      ['Clean and inspect Other', '1', '€12.00', '€12.00'],
     ]);
     expect(element.querySelector('[data-figure="total"]')?.textContent?.trim()).toBe('€146.40');
     expect(element.querySelector('.badge')?.textContent?.trim()).toBe('Being priced');

@@ -40,8 +40,8 @@ export class EstimateTable {
     return 'sinceEstimate' in line && line.sinceEstimate;
   }
 
-  /** Lines with an id are the estimate's own, the only ones that can be changed. */
+  /** The estimate's own lines (they say whether they came from the job) can be changed. */
   protected asLine(line: PricedFigures['lines'][number]): EstimateLineJson | null {
-    return 'id' in line ? line : null;
+    return 'fromJob' in line ? line : null;
   }
 }
