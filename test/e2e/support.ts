@@ -124,14 +124,19 @@ export function takePageProblems(): PageProblem[] {
 
 /**
  * Debian's Chromium in a profile of its own. `extraArgs` is for a file that needs a browser set up
- * differently (a fake camera fed from a file); every other file gets the same flags.
+ * differently (a fake camera fed from a file), `device` for one that plays a tablet (touch, its
+ * screen); every other file gets the same desk browser.
  */
-export async function openBrowser(extraArgs: readonly string[] = []): Promise<Browser> {
+export async function openBrowser(
+  extraArgs: readonly string[] = [],
+  device: { hasTouch?: boolean; viewport?: { width: number; height: number } } = {},
+): Promise<Browser> {
   const userDataDir = mkdtempSync(path.join(os.tmpdir(), 'stepstock-chromium-'));
   const context = await chromium.launchPersistentContext(userDataDir, {
     executablePath: '/usr/bin/chromium',
     headless: true,
-    viewport: { width: 1280, height: 860 },
+    viewport: device.viewport ?? { width: 1280, height: 860 },
+    hasTouch: device.hasTouch ?? false,
     acceptDownloads: true,
     // Only so the accessibility checker can be injected; the app itself runs under its CSP.
     bypassCSP: true,

@@ -40,11 +40,14 @@ import { Notifier } from '../core/notifier';
 import { OfflineStatus } from '../core/offline-status';
 import { Session } from '../core/session';
 import { ShopDatePipe } from '../core/shop-date-pipe';
+import { BenchCard } from './bench-card';
+import { CylinderStepper } from './cylinder-stepper';
 import { HoldDialog, type HoldDialogData } from './hold-dialog';
 import { CylinderPast } from './cylinder-past';
 import { BenchQueue, serverUnreachable } from './bench-queue';
 import { JobsApi, type ReadingBody } from './jobs-api';
 import { WaitingEntries } from './waiting-entries';
+import { BenchMode, BenchModeToggle } from '../ui/bench-mode';
 import { ListState } from '../ui/list-state';
 import { loadById, loadEach } from '../ui/load';
 
@@ -82,7 +85,10 @@ interface Preview {
 @Component({
   selector: 'app-cylinder-page',
   imports: [
+    BenchCard,
+    BenchModeToggle,
     CylinderPast,
+    CylinderStepper,
     LengthPipe,
     ListState,
     MatButtonModule,
@@ -105,6 +111,7 @@ export class CylinderPage {
   private readonly queue = inject(BenchQueue);
   /** Offline, readings wait on the tablet; holding a piston needs the server. */
   protected readonly online = inject(OfflineStatus).online;
+  protected readonly bench = inject(BenchMode);
 
   /** From the route: /jobs/:id/cylinders/:n. */
   readonly id = input.required<string>();

@@ -26,6 +26,7 @@ import { waitingForWords } from '../../../shared/part-needs';
 import { Session } from '../core/session';
 import { JobsApi, type JobListQuery } from './jobs-api';
 import { ShopDatePipe } from '../core/shop-date-pipe';
+import { BenchMode, BenchModeToggle } from '../ui/bench-mode';
 import { ListState } from '../ui/list-state';
 import { debounced, loadEach } from '../ui/load';
 
@@ -39,6 +40,7 @@ const BOARD_SIZE = 300;
 @Component({
   selector: 'app-job-board',
   imports: [
+    BenchModeToggle,
     ShopDatePipe,
     ListState,
     MatButtonModule,
@@ -57,6 +59,7 @@ const BOARD_SIZE = 300;
 export class JobBoard {
   private readonly api = inject(JobsApi);
   private readonly session = inject(Session);
+  protected readonly bench = inject(BenchMode);
 
   protected readonly labels = JOB_STATE_LABELS;
   protected readonly hints = JOB_STATE_HINTS;
