@@ -3,7 +3,6 @@
 // our printed piston labels. Without a camera the scan says so and the typed field still works.
 import { mkdirSync } from 'node:fs';
 import path from 'node:path';
-import pg from 'pg';
 import type { Page } from 'playwright-core';
 import { labelLuma, writeY4m } from './fake-camera';
 import {
@@ -15,6 +14,7 @@ import {
   screenshot,
   signIn,
   type Browser,
+  queryDatabase,
 } from './support';
 
 failOnPageErrors();
@@ -33,15 +33,8 @@ afterAll(async () => {
   await env?.close();
 });
 
-async function query<T>(sql: string, params: unknown[] = []): Promise<T[]> {
-  const client = new pg.Client({ connectionString: env.databaseUrl });
-  await client.connect();
-  try {
-    return (await client.query(sql, params)).rows as T[];
-  } finally {
-    await client.end();
-  }
-}
+const query = <T>(sql: string, params: unknown[] = []) =>
+  queryDatabase<T>(env.databaseUrl, sql, params);
 
 /**
  * An open job's cylinder with a step chosen and not cut, with a free measured piston of the job's

@@ -3,9 +3,16 @@
 // label per page at the roll's size, with the barcode and the readable text inside the label.
 import { mkdirSync, writeFileSync } from 'node:fs';
 import path from 'node:path';
-import pg from 'pg';
 import type { Page } from 'playwright-core';
-import { ARTIFACTS, DEMO, e2eEnvironment, failOnPageErrors, screenshot, signIn } from './support';
+import {
+  ARTIFACTS,
+  DEMO,
+  e2eEnvironment,
+  failOnPageErrors,
+  screenshot,
+  signIn,
+  queryDatabase,
+} from './support';
 
 failOnPageErrors();
 
@@ -20,15 +27,8 @@ afterAll(async () => {
   await env?.close();
 });
 
-async function query<T>(sql: string, params: unknown[] = []): Promise<T[]> {
-  const client = new pg.Client({ connectionString: env.databaseUrl });
-  await client.connect();
-  try {
-    return (await client.query(sql, params)).rows as T[];
-  } finally {
-    await client.end();
-  }
-}
+const query = <T>(sql: string, params: unknown[] = []) =>
+  queryDatabase<T>(env.databaseUrl, sql, params);
 
 /** A write through the API the pages use, with the session's XSRF token like Angular sends it. */
 async function write<T>(

@@ -284,6 +284,21 @@ async function scanOnce(page: Page): Promise<AxeViolation[]> {
   return result.filter((v) => v.impact === 'serious' || v.impact === 'critical');
 }
 
+/** Reads a test's own database directly, to check what the pages wrote or to find demo rows. */
+export async function queryDatabase<T>(
+  url: string,
+  sql: string,
+  params: unknown[] = [],
+): Promise<T[]> {
+  const client = new pg.Client({ connectionString: url });
+  await client.connect();
+  try {
+    return (await client.query(sql, params)).rows as T[];
+  } finally {
+    await client.end();
+  }
+}
+
 /** Starts a demo database, the server and a browser for one test file. */
 export async function e2eEnvironment(extraEnv: NodeJS.ProcessEnv = {}) {
   const database = await demoDatabase();

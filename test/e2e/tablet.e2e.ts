@@ -4,7 +4,6 @@
 // accessibility guidance; WCAG 2.2's 2.5.8 asks for 24 CSS px at the least), the readings open the
 // number pad, the bore-to size is large, the cautions stay in view, and next/previous walks the
 // job's cylinders. The desk browser keeps the desk layout.
-import pg from 'pg';
 import type { Page } from 'playwright-core';
 import {
   DEMO,
@@ -15,6 +14,7 @@ import {
   seriousA11yViolations,
   signIn,
   type Browser,
+  queryDatabase,
 } from './support';
 
 failOnPageErrors();
@@ -39,26 +39,22 @@ afterAll(async () => {
   await env?.close();
 });
 
-async function query<T>(sql: string, params: unknown[] = []): Promise<T[]> {
-  const client = new pg.Client({ connectionString: env.databaseUrl });
-  await client.connect();
-  try {
-    return (await client.query(sql, params)).rows as T[];
-  } finally {
-    await client.end();
-  }
-}
+const query = <T>(sql: string, params: unknown[] = []) =>
+  queryDatabase<T>(env.databaseUrl, sql, params);
 
-/** Cylinder 1 of an open job of two or more cylinders, with its piston held and not cut yet. */
-async function heldCylinder(): Promise<{ job_id: string; cylinders: number }> {
-  const [row] = await query<{ job_id: string; cylinders: number }>(
-    `SELECT j.id AS job_id, j.cylinders FROM jobs j JOIN job_cylinders c ON c.job_id = j.id AND c.n = 1
+/**
+ * A cylinder of an open job of two or more cylinders with its piston held and not cut yet (the
+ * demo shop's two-cylinder job with one bore cut and the other waiting has one).
+ */
+async function heldCylinder(): Promise<{ job_id: string; n: number; cylinders: number }> {
+  const [row] = await query<{ job_id: string; n: number; cylinders: number }>(
+    `SELECT j.id AS job_id, c.n, j.cylinders FROM jobs j JOIN job_cylinders c ON c.job_id = j.id
       WHERE j.cylinders >= 2 AND c.cut_at IS NULL AND j.state NOT IN ('handed_back', 'called_off')
-        AND EXISTS (SELECT 1 FROM holds h WHERE h.job_id = j.id AND h.cylinder = 1
+        AND EXISTS (SELECT 1 FROM holds h WHERE h.job_id = j.id AND h.cylinder = c.n
                       AND h.unit_id IS NOT NULL AND h.released_at IS NULL)
-      ORDER BY j.created_at LIMIT 1`,
+      ORDER BY j.created_at, c.n LIMIT 1`,
   );
-  if (!row) throw new Error('the demo shop has no open job with a held piston on cylinder 1');
+  if (!row) throw new Error('the demo shop has no open job of two cylinders with a piston held');
   return row;
 }
 
@@ -122,7 +118,7 @@ describe('the bench on a tablet', () => {
       const page = tablet.page;
       await page.setViewportSize({ width: view.width, height: view.height });
       const job = await heldCylinder();
-      await page.goto(`${env.baseUrl}/jobs/${job.job_id}/cylinders/1`);
+      await page.goto(`${env.baseUrl}/jobs/${job.job_id}/cylinders/${job.n}`);
       await benchOn(page, 'app-cylinder-page section.page');
       const boreTo = page.locator('[data-figure="bore-to"]');
       await boreTo.waitFor();
@@ -168,13 +164,20 @@ describe('the bench on a tablet', () => {
         await page.getByText(`Pass 1 of ${total}`).first().waitFor();
       }
 
-      await page.getByRole('link', { name: 'Next cylinder' }).click();
-      await page.waitForURL(new RegExp(`/jobs/${job.job_id}/cylinders/2$`));
-      await page.getByRole('heading', { name: /^Cylinder 2 of/, level: 1 }).waitFor();
-      await page.getByText(`Cylinder 2 of ${job.cylinders}`, { exact: true }).waitFor();
-      await page.getByRole('link', { name: 'Previous cylinder' }).click();
-      await page.waitForURL(new RegExp(`/jobs/${job.job_id}/cylinders/1$`));
-      await page.getByRole('heading', { name: /^Cylinder 1 of/, level: 1 }).waitFor();
+      // To the neighbouring cylinder and back: previous from the last one, next from the others.
+      const there = job.n > 1 ? job.n - 1 : job.n + 1;
+      const [away, back] = job.n > 1 ? ['Previous', 'Next'] : ['Next', 'Previous'];
+      await page.getByRole('link', { name: `${away} cylinder` }).click();
+      await page.waitForURL(new RegExp(`/jobs/${job.job_id}/cylinders/${there}$`));
+      await page
+        .getByRole('heading', { name: new RegExp(`^Cylinder ${there} of`), level: 1 })
+        .waitFor();
+      await page.getByText(`Cylinder ${there} of ${job.cylinders}`, { exact: true }).waitFor();
+      await page.getByRole('link', { name: `${back} cylinder` }).click();
+      await page.waitForURL(new RegExp(`/jobs/${job.job_id}/cylinders/${job.n}$`));
+      await page
+        .getByRole('heading', { name: new RegExp(`^Cylinder ${job.n} of`), level: 1 })
+        .waitFor();
     });
   }
 
@@ -182,8 +185,10 @@ describe('the bench on a tablet', () => {
     const page = env.page;
     const job = await heldCylinder();
     await signIn(page, env.baseUrl, DEMO.machinist);
-    await page.goto(`${env.baseUrl}/jobs/${job.job_id}/cylinders/1`);
-    await page.getByRole('heading', { name: /^Cylinder 1 of/, level: 1 }).waitFor();
+    await page.goto(`${env.baseUrl}/jobs/${job.job_id}/cylinders/${job.n}`);
+    await page
+      .getByRole('heading', { name: new RegExp(`^Cylinder ${job.n} of`), level: 1 })
+      .waitFor();
     await page.locator('.held-piston').waitFor();
     expect(await page.locator('app-cylinder-page section.page.bench').count()).toBe(0);
     expect(await page.getByRole('link', { name: 'Next cylinder' }).count()).toBe(0);
