@@ -4,7 +4,7 @@
 // holds, the last row says how many lines are left out and where to read them.
 import PDFDocument from 'pdfkit';
 import type { InvoiceJson } from '../../shared/api/money';
-import { formatMoney } from '../../shared/money';
+import { currencyDecimals, formatMoney } from '../../shared/money';
 import { formatShopDate, type DateContext } from '../../shared/dates';
 
 const PAGE = { width: 595.28, height: 841.89, margin: 48 };
@@ -40,7 +40,8 @@ export function roundingRule(invoice: InvoiceJson): string {
   const tax = invoice.pricesIncludeTax
     ? `Prices include tax at ${invoice.taxRate} %; the tax shown is the part of the subtotal that is tax, worked out once on the subtotal.`
     : `Tax at ${invoice.taxRate} % is worked out once, on the subtotal.`;
-  return `Each line is quantity × unit price, rounded half-up to the cent; the subtotal is the sum of the rounded lines. ${tax} Tax is rounded half-up to the cent.`;
+  const unit = currencyDecimals(invoice.currency) === 0 ? 'a whole unit' : 'the cent';
+  return `Each line is quantity × unit price, rounded half-up to ${unit}; the subtotal is the sum of the rounded lines. ${tax} Tax is rounded half-up to ${unit}.`;
 }
 
 export function invoicePdf(input: InvoicePdfInput): Promise<Buffer> {
