@@ -3,9 +3,6 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
-import { MatPaginatorModule } from '@angular/material/paginator';
-import { MatSortModule } from '@angular/material/sort';
-import { MatTableModule } from '@angular/material/table';
 import { MatTooltipModule } from '@angular/material/tooltip';
 import { Router, RouterLink } from '@angular/router';
 
@@ -13,6 +10,8 @@ import type { FamilyJson } from '../../../shared/api/catalog';
 import { LengthPipe } from '../core/length-pipe';
 import { Session } from '../core/session';
 import { PagedList } from '../ui/paged-list';
+import { DataTable } from '../ui/data-table';
+import { TableColumn, TableEmpty } from '../ui/table-column';
 import { CatalogApi } from './catalog-api';
 import { ListState } from '../ui/list-state';
 
@@ -29,9 +28,9 @@ const SORTABLE = ['code', 'name', 'standardBore', 'strokeType'] as const;
     MatFormFieldModule,
     MatIconModule,
     MatInputModule,
-    MatPaginatorModule,
-    MatSortModule,
-    MatTableModule,
+    DataTable,
+    TableColumn,
+    TableEmpty,
     RouterLink,
   ],
   templateUrl: './family-list.html',
@@ -44,7 +43,6 @@ export class FamilyList {
   private readonly session = inject(Session);
 
   protected readonly columns = ['code', 'name', 'strokeType', 'standardBore', 'stock', 'actions'];
-  protected readonly pageSizes = [25, 50, 100];
   protected readonly canEdit = computed(() => this.session.may('editCatalog'));
 
   protected readonly list = new PagedList<FamilyJson, (typeof SORTABLE)[number]>({

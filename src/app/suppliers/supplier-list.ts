@@ -3,15 +3,14 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
-import { MatPaginatorModule } from '@angular/material/paginator';
-import { MatSortModule } from '@angular/material/sort';
-import { MatTableModule } from '@angular/material/table';
 import { MatTooltipModule } from '@angular/material/tooltip';
 import { Router, RouterLink } from '@angular/router';
 
 import type { SupplierJson } from '../../../shared/api/suppliers';
 import { Session } from '../core/session';
 import { PagedList } from '../ui/paged-list';
+import { DataTable } from '../ui/data-table';
+import { TableColumn, TableEmpty } from '../ui/table-column';
 import { SuppliersApi } from './suppliers-api';
 import { ShopDatePipe } from '../core/shop-date-pipe';
 import { ListState } from '../ui/list-state';
@@ -29,9 +28,9 @@ const SORTABLE = ['name', 'currency', 'leadDays', 'items', 'lastImport'] as cons
     MatFormFieldModule,
     MatIconModule,
     MatInputModule,
-    MatPaginatorModule,
-    MatSortModule,
-    MatTableModule,
+    DataTable,
+    TableColumn,
+    TableEmpty,
     RouterLink,
   ],
   templateUrl: './supplier-list.html',
@@ -44,7 +43,6 @@ export class SupplierList {
   private readonly session = inject(Session);
 
   protected readonly columns = ['name', 'currency', 'leadDays', 'items', 'lastImport', 'actions'];
-  protected readonly pageSizes = [25, 50, 100];
   protected readonly canEdit = computed(() => this.session.may('editSuppliers'));
 
   protected readonly list = new PagedList<SupplierJson, (typeof SORTABLE)[number]>({

@@ -24,6 +24,9 @@ export interface TablePages<Row = unknown> {
   pageIndex(): number;
   pageSize(): number;
   onPage(event: PageEvent): void;
+  /** While it loads (or after it failed) the empty row says so instead of the page's words. */
+  loading?(): boolean;
+  error?(): string;
 }
 
 /** Rows may be any record; each page's cell templates know its own. */
