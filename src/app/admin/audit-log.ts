@@ -12,10 +12,7 @@ import { MatDatepickerModule } from '@angular/material/datepicker';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
-import { MatPaginatorModule } from '@angular/material/paginator';
 import { MatSelectModule } from '@angular/material/select';
-import { MatSortModule } from '@angular/material/sort';
-import { MatTableModule } from '@angular/material/table';
 import { RouterLink } from '@angular/router';
 import type { DateTime } from 'luxon';
 
@@ -27,6 +24,8 @@ import {
   type AuditRefJson,
 } from '../../../shared/api/audit';
 import { dayOf } from '../core/shop-date-adapter';
+import { DataTable } from '../ui/data-table';
+import { TableColumn, TableEmpty } from '../ui/table-column';
 import { AuditApi } from './audit-api';
 import { actionWords, entityWords, fieldChanges, type FieldChange } from './audit-words';
 import { ShopDatePipe } from '../core/shop-date-pipe';
@@ -70,10 +69,10 @@ type AuditFilters = {
     MatFormFieldModule,
     MatIconModule,
     MatInputModule,
-    MatPaginatorModule,
     MatSelectModule,
-    MatSortModule,
-    MatTableModule,
+    DataTable,
+    TableColumn,
+    TableEmpty,
     RouterLink,
   ],
   templateUrl: './audit-log.html',
@@ -88,7 +87,6 @@ export class AuditLog {
   readonly entityId = input<string>();
 
   protected readonly columns = ['at', 'user', 'action', 'record', 'changes'];
-  protected readonly pageSizes = [25, 50, 100];
   protected readonly entityWords = entityWords;
 
   /** Newest first by default; the server sorts by time only, so the list sends the direction. */

@@ -2,14 +2,14 @@ import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/cor
 import { MatButtonModule } from '@angular/material/button';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
 import { MatIconModule } from '@angular/material/icon';
-import { MatPaginatorModule } from '@angular/material/paginator';
-import { MatTableModule } from '@angular/material/table';
 import { MatTooltipModule } from '@angular/material/tooltip';
 import { RouterLink } from '@angular/router';
 
 import type { AlertJson, AlertsPageJson, AlertState } from '../../../shared/api/alerts';
 import { apiErrorMessage } from '../core/api-error';
 import { Notifier } from '../core/notifier';
+import { DataTable } from '../ui/data-table';
+import { TableColumn, TableEmpty } from '../ui/table-column';
 import { AlertsApi, type MailMode } from './alerts-api';
 import { ShopDatePipe } from '../core/shop-date-pipe';
 import { PagedList } from '../ui/paged-list';
@@ -25,8 +25,9 @@ import { ListState } from '../ui/list-state';
     MatButtonModule,
     MatButtonToggleModule,
     MatIconModule,
-    MatPaginatorModule,
-    MatTableModule,
+    DataTable,
+    TableColumn,
+    TableEmpty,
     RouterLink,
   ],
   templateUrl: './alert-list.html',
@@ -38,7 +39,6 @@ export class AlertList {
   private readonly notifier = inject(Notifier);
 
   protected readonly columns = ['raisedAt', 'part', 'point', 'now', 'actions'];
-  protected readonly pageSizes = [25, 50, 100];
   protected readonly busy = signal<string | null>(null);
   protected readonly mailMode = signal<MailMode | null>(null);
   protected readonly alertsByMail = signal(false);

@@ -63,6 +63,8 @@ export class DataTable {
   readonly rowClass = input<((row: Row) => string) | null>(null);
   /** What the paginator is called for screen readers, e.g. "Pages of suppliers". */
   readonly pagesLabel = input('');
+  /** What the empty row says when the list failed to load. */
+  readonly failedText = input('The list could not be loaded.');
 
   readonly open = output<Row>();
   readonly sortChange = output<Sort>();
