@@ -1,12 +1,4 @@
-import {
-  ChangeDetectionStrategy,
-  Component,
-  computed,
-  effect,
-  inject,
-  input,
-  signal,
-} from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
 import {
   FormControl,
@@ -21,7 +13,6 @@ import { MatDialog } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
-import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { Router, RouterLink } from '@angular/router';
 import { catchError, map, of, startWith, Subject, switchMap } from 'rxjs';
@@ -35,6 +26,8 @@ import { lengthForField, lengthText, lengthValidator, otherUnitHint } from '../u
 import { CatalogApi, type FamilyBody, type FamilyChanges } from './catalog-api';
 import { StepSeriesDialog } from './step-series-dialog';
 import { schemaValidator } from '../core/field-errors';
+import { loadIntoForm } from '../ui/load';
+import { ListState } from '../ui/list-state';
 
 /** The length fields, in form order, with what each one means at the bench. */
 const LENGTHS = [
@@ -109,11 +102,6 @@ const LENGTHS = [
 ] as const;
 type LengthKey = (typeof LENGTHS)[number]['key'];
 
-type Loaded =
-  | { state: 'loading' }
-  | { state: 'ok'; family: FamilyJson | null }
-  | { state: 'error'; message: string };
-
 /** The server's own rule for one family field (the lengths have theirs, in the length input). */
 function rule(field: keyof typeof familyInput.shape) {
   return schemaValidator(familyInput.shape[field]);
@@ -123,13 +111,13 @@ function rule(field: keyof typeof familyInput.shape) {
 @Component({
   selector: 'app-family-form',
   imports: [
+    ListState,
     MatButtonModule,
     MatButtonToggleModule,
     MatCheckboxModule,
     MatFormFieldModule,
     MatIconModule,
     MatInputModule,
-    MatProgressBarModule,
     MatSelectModule,
     ReactiveFormsModule,
     RouterLink,
@@ -196,30 +184,15 @@ export class FamilyForm {
     { initialValue: [] as StepSeriesJson[] },
   );
 
-  protected readonly loaded = signal<Loaded>({ state: 'loading' });
+  protected readonly loaded = loadIntoForm(
+    () => this.id() || null,
+    (id) => this.api.family(id),
+    (family) => this.fill(family),
+  );
   protected readonly busy = signal(false);
   protected readonly problem = signal('');
   protected readonly serverErrors = signal<Record<string, string>>({});
   protected readonly editing = computed(() => Boolean(this.id()));
-
-  constructor() {
-    effect(() => {
-      const id = this.id();
-      if (!id) {
-        this.loaded.set({ state: 'ok', family: null });
-        return;
-      }
-      this.loaded.set({ state: 'loading' });
-      this.api.family(id).subscribe({
-        next: (family) => {
-          this.fill(family);
-          this.loaded.set({ state: 'ok', family });
-        },
-        error: (error: unknown) =>
-          this.loaded.set({ state: 'error', message: apiErrorMessage(error) }),
-      });
-    });
-  }
 
   /** A caution (not a refusal) for a figure far outside what shops usually meet. */
   protected warning(key: LengthKey): string | null {

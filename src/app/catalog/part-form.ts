@@ -6,7 +6,6 @@ import {
   inject,
   input,
   signal,
-  untracked,
 } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
@@ -38,7 +37,7 @@ import { Session } from '../core/session';
 import { lengthForField, lengthText, lengthValidator, otherUnitHint } from '../ui/length-input';
 import { CatalogApi, type PartBody } from './catalog-api';
 import { KIND_LABELS } from './part-words';
-import { debounced, loadById, loadEach } from '../ui/load';
+import { debounced, loadEach, loadIntoForm } from '../ui/load';
 import { ListState } from '../ui/list-state';
 
 interface Component_ {
@@ -150,9 +149,10 @@ export class PartForm {
   );
 
   /** No id: a new part, nothing to load. A save answers with the part, which replaces it here. */
-  protected readonly loaded = loadById(
+  protected readonly loaded = loadIntoForm(
     () => this.id() || null,
     (id) => this.api.part(id),
+    (part) => this.fill(part),
   );
   protected readonly part = this.loaded.value;
   protected readonly busy = signal(false);
@@ -163,11 +163,6 @@ export class PartForm {
     effect(() => {
       if (!this.canEdit()) this.form.disable();
       if (this.id()) this.form.controls.kind.disable();
-    });
-    // The part fills the form when it arrives, and again when a save answers with it.
-    effect(() => {
-      const part = this.part();
-      if (part) untracked(() => this.fill(part));
     });
   }
 

@@ -1,12 +1,4 @@
-import {
-  ChangeDetectionStrategy,
-  Component,
-  computed,
-  effect,
-  inject,
-  input,
-  signal,
-} from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
 import {
   FormControl,
   NonNullableFormBuilder,
@@ -18,19 +10,15 @@ import { MatCheckboxModule } from '@angular/material/checkbox';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
-import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { Router, RouterLink } from '@angular/router';
 
-import { supplierInput, type SupplierJson } from '../../../shared/api/suppliers';
+import { supplierInput } from '../../../shared/api/suppliers';
 import { apiErrorBody, apiErrorMessage, apiFieldErrors } from '../core/api-error';
 import { Notifier } from '../core/notifier';
 import { SuppliersApi, type SupplierBody } from './suppliers-api';
 import { schemaValidator } from '../core/field-errors';
-
-type Loaded =
-  | { state: 'loading' }
-  | { state: 'ok'; supplier: SupplierJson | null }
-  | { state: 'error'; message: string };
+import { loadIntoForm } from '../ui/load';
+import { ListState } from '../ui/list-state';
 
 /** The server's own rule for one supplier field. */
 function rule(field: keyof typeof supplierInput.shape) {
@@ -41,12 +29,12 @@ function rule(field: keyof typeof supplierInput.shape) {
 @Component({
   selector: 'app-supplier-form',
   imports: [
+    ListState,
     MatButtonModule,
     MatCheckboxModule,
     MatFormFieldModule,
     MatIconModule,
     MatInputModule,
-    MatProgressBarModule,
     ReactiveFormsModule,
     RouterLink,
   ],
@@ -75,40 +63,26 @@ export class SupplierForm {
     active: [true],
   });
 
-  protected readonly loaded = signal<Loaded>({ state: 'loading' });
+  protected readonly loaded = loadIntoForm(
+    () => this.id() || null,
+    (id) => this.api.supplier(id),
+    (supplier) =>
+      this.form.reset({
+        name: supplier.name,
+        email: supplier.email ?? '',
+        currency: supplier.currency,
+        leadDays: supplier.leadDays,
+        contacts: supplier.contacts,
+        minOrder: supplier.minOrder,
+        shippingCost: supplier.shippingCost,
+        notes: supplier.notes,
+        active: supplier.active,
+      }),
+  );
   protected readonly busy = signal(false);
   protected readonly problem = signal('');
   protected readonly serverErrors = signal<Record<string, string>>({});
   protected readonly editing = computed(() => Boolean(this.id()));
-
-  constructor() {
-    effect(() => {
-      const id = this.id();
-      if (!id) {
-        this.loaded.set({ state: 'ok', supplier: null });
-        return;
-      }
-      this.loaded.set({ state: 'loading' });
-      this.api.supplier(id).subscribe({
-        next: (supplier) => {
-          this.form.reset({
-            name: supplier.name,
-            email: supplier.email ?? '',
-            currency: supplier.currency,
-            leadDays: supplier.leadDays,
-            contacts: supplier.contacts,
-            minOrder: supplier.minOrder,
-            shippingCost: supplier.shippingCost,
-            notes: supplier.notes,
-            active: supplier.active,
-          });
-          this.loaded.set({ state: 'ok', supplier });
-        },
-        error: (error: unknown) =>
-          this.loaded.set({ state: 'error', message: apiErrorMessage(error) }),
-      });
-    });
-  }
 
   protected submit(): void {
     if (this.busy()) return;

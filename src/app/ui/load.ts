@@ -1,4 +1,4 @@
-import { computed, linkedSignal, signal, type Signal } from '@angular/core';
+import { computed, effect, linkedSignal, signal, untracked, type Signal } from '@angular/core';
 import { toObservable, toSignal } from '@angular/core/rxjs-interop';
 import {
   catchError,
@@ -117,6 +117,24 @@ export function loadById<T>(
   fetch: (id: string) => Observable<T>,
 ): Loaded<T> {
   return loadEach(id, fetch);
+}
+
+/**
+ * An edit form's record: loadById, and `fill` puts each record that arrives (or that a save sets)
+ * into the form. No id: a new record, nothing to load and nothing to fill.
+ */
+export function loadIntoForm<T>(
+  id: () => string | null | undefined,
+  fetch: (id: string) => Observable<T>,
+  fill: (record: T) => void,
+): Loaded<T> {
+  const loaded = loadById(id, fetch);
+  effect(() => {
+    const record = loaded.value();
+    // The form is not the loader's business: reading it must not make this effect rerun.
+    if (record) untracked(() => fill(record));
+  });
+  return loaded;
 }
 
 /**
