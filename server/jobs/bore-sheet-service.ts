@@ -179,6 +179,7 @@ export async function boreSheet(
       cutUnworn: toLengthJson(p.cutUnwornNm),
       cutWorn: toLengthJson(p.cutWornNm),
     })),
+    passesDone: cylinder.passes_done,
     passesNote: sheet.error ?? null,
     passesNotes: sheet.notes,
     cleanup: {

@@ -21,6 +21,7 @@ export interface CylinderRow {
   cut_at: Date | null;
   measured_after_hone_nm: number | null;
   ring_gap_nm: number | null;
+  passes_done: number;
   cleanup_override_reason: string | null;
 }
 
@@ -73,6 +74,7 @@ export function cylindersOf(jobId: string, k: Knex = db): Promise<CylinderRow[]>
       'c.measured_after_hone_nm',
       'c.ring_gap_nm',
       'c.cleanup_override_reason',
+      'c.passes_done',
     )
     .where('c.job_id', jobId)
     .orderBy('c.n');

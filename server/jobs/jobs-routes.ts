@@ -19,6 +19,7 @@ import {
   MAX_PHOTO_BYTES,
   noteInput,
   OPEN_STATES,
+  passesDoneInput,
   readingsInput,
   type JobState,
 } from '../../shared/api/jobs';
@@ -31,6 +32,7 @@ import { moveHold } from './hold-move';
 import { sweepExpiredHolds } from './hold-expiry';
 import * as proposals from './proposal-service';
 import * as photos from './photos-service';
+import { putPassesDone } from './passes-service';
 import { undoCutInput } from '../../shared/cut-undo';
 import { undoCut } from './cut-undo-service';
 import { may } from '../../shared/access';
@@ -156,6 +158,14 @@ export function registerJobsRoutes(router: Router): void {
     body: readingsInput,
     handler: ({ params, body, user }) =>
       cylinders.putReadings(user.id, params.id, params.n, body, user.unit),
+  });
+  route(router, {
+    method: 'put',
+    path: '/api/jobs/:id/cylinders/:n/passes-done',
+    access: may.machine,
+    params: cylinderParams,
+    body: passesDoneInput,
+    handler: ({ params, body, user }) => putPassesDone(user.id, params.id, params.n, body),
   });
   route(router, {
     method: 'patch',

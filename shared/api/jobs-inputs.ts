@@ -159,6 +159,19 @@ export const cylinderPatch = z
   );
 export type CylinderPatch = z.output<typeof cylinderPatch>;
 
+/** Passes are ticked in order: `done` is how many of the sheet's passes are done now. */
+export const passesDoneInput = z
+  .object({
+    done: z.number({ error: 'must be a whole number of passes' }).int().min(0).max(100),
+    /**
+     * How many were done when this tick was made. When the stored count has changed since (someone
+     * else ticked), 409 `stale_passes` with both, and nothing changes. Left out: no check.
+     */
+    basedOn: z.number().int().min(0).max(100).optional(),
+  })
+  .strict();
+export type PassesDoneInput = z.output<typeof passesDoneInput>;
+
 /** Marking a cylinder cut; the reason is needed only when the held piston's bore does not clean up. */
 export const cutInput = z
   .object({

@@ -277,6 +277,8 @@ export interface BoreSheetJson {
   /** One step of the boring bar's dial; every size to set is on it. */
   barResolution: BarResolution;
   passes: BorePassJson[];
+  /** How many of the passes are ticked done, in order. */
+  passesDone: number;
   /** Why no passes are listed (the bore is already past the bore-to size, …). */
   passesNote: string | null;
   /** A truing or finish pass left out, and why. */

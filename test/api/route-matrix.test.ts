@@ -62,6 +62,7 @@ const EXPECTED: Record<string, Access> = {
   'POST /api/jobs/:id/collect': ['owner', 'machinist', 'staff'],
   'POST /api/jobs/:id/cancel': ['owner', 'machinist', 'staff'],
   'PUT /api/jobs/:id/cylinders/:n/readings': ['owner', 'machinist'],
+  'PUT /api/jobs/:id/cylinders/:n/passes-done': ['owner', 'machinist'],
   'PATCH /api/jobs/:id/cylinders/:n': ['owner', 'machinist'],
   'GET /api/jobs/:id/cylinders/:n/recommendation': ALL,
   'GET /api/jobs/:id/cylinders/:n/proposal': ['owner', 'machinist'],
