@@ -192,6 +192,41 @@ describe('BenchQueue', () => {
     expect(queue.entries()).toEqual([]);
   });
 
+  it('when passes are ticked offline, then each tick goes in order on the count before it; a tick refused as stale shows both counts', async () => {
+    const tick = (done: number, basedOn: number) =>
+      queue.addPasses({ jobId: 'j1', jobNumber: 'CY-1', cylinder: 1, done, basedOn });
+    await tick(1, 0);
+    await tick(2, 1);
+    await backOnline();
+    const first = http.expectOne('/api/jobs/j1/cylinders/1/passes-done');
+    expect(first.request.body).toEqual({ done: 1, basedOn: 0 });
+    first.flush(
+      {
+        error: {
+          code: 'stale_passes',
+          message:
+            'The passes done on cylinder 1 of job CY-1 were changed to 3 since this tick was made.',
+          details: [],
+          stored: { passesDone: 3 },
+          yours: { basedOn: 0, passesDone: 1 },
+        },
+      },
+      { status: 409, statusText: 'Conflict' },
+    );
+    await settle();
+    const second = http.expectOne('/api/jobs/j1/cylinders/1/passes-done');
+    expect(second.request.body).toEqual({ done: 2, basedOn: 1 });
+    second.flush({ passesDone: 2 });
+    await settle();
+    const [refused] = queue.entries();
+    expect(refused.refusal).toMatchObject({
+      code: 'stale_passes',
+      theirs: ['Passes done: 3'],
+      yours: ['Passes done: 1'],
+      rebase: 3,
+    });
+  });
+
   it('when the machinist signs out, then their waiting entries are gone from the device and from the page', async () => {
     await typeOffline();
     await storage.put('someone-else:000000000000001-0000', { kept: true });

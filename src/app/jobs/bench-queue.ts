@@ -37,7 +37,14 @@ export interface FinishEntry extends EntryBase {
   changes: FinishChanges;
   basedOn: FinishBasedOn;
 }
-export type WaitingEntry = ReadingsEntry | FinishEntry;
+export interface PassesEntry extends EntryBase {
+  kind: 'passes';
+  /** How many passes are done with this tick. */
+  done: number;
+  /** How many were done when it was ticked. */
+  basedOn: number;
+}
+export type WaitingEntry = ReadingsEntry | FinishEntry | PassesEntry;
 
 export interface Refusal {
   status: number;
@@ -48,7 +55,7 @@ export interface Refusal {
   /** What this entry would have stored. */
   yours: string[];
   /** For a stale entry: what to base it on to send it again over theirs ("Keep mine"). */
-  rebase?: string | null | FinishBasedOn;
+  rebase?: string | null | FinishBasedOn | number;
 }
 
 /** While an entry waits, the server is asked again this often (and at once when the network is back). */
@@ -105,6 +112,10 @@ export class BenchQueue {
 
   addFinish(entry: Omit<FinishEntry, 'key' | 'kind' | 'typedAt'>): Promise<void> {
     return this.add({ ...entry, kind: 'finish' });
+  }
+
+  addPasses(entry: Omit<PassesEntry, 'key' | 'kind' | 'typedAt'>): Promise<void> {
+    return this.add({ ...entry, kind: 'passes' });
   }
 
   forCylinder(jobId: string, cylinder: number): WaitingEntry[] {
@@ -191,12 +202,17 @@ export class BenchQueue {
   }
 
   private send(entry: WaitingEntry): Observable<unknown> {
-    return entry.kind === 'readings'
-      ? this.api.saveReadings(entry.jobId, entry.cylinder, entry.readings, entry.basedOn)
-      : this.api.updateCylinder(entry.jobId, entry.cylinder, {
+    switch (entry.kind) {
+      case 'readings':
+        return this.api.saveReadings(entry.jobId, entry.cylinder, entry.readings, entry.basedOn);
+      case 'passes':
+        return this.api.passesDone(entry.jobId, entry.cylinder, entry.done, entry.basedOn);
+      case 'finish':
+        return this.api.updateCylinder(entry.jobId, entry.cylinder, {
           ...entry.changes,
           basedOn: entry.basedOn,
         });
+    }
   }
 
   private scheduleRetry(ms = RETRY_MS): void {
@@ -229,6 +245,7 @@ function lengthIn(value: LengthJson | null | undefined, typed: string | undefine
 }
 
 function yoursOf(entry: WaitingEntry): string[] {
+  if (entry.kind === 'passes') return [`Passes done: ${entry.done}`];
   if (entry.kind === 'readings') {
     return entry.readings.map((r) => `${readingLine(r.depth, r.axis)}: ${r.diameter}`);
   }
@@ -261,6 +278,11 @@ export function refusalOf(entry: WaitingEntry, error: unknown): Refusal {
         )
       : ['No readings'];
     refusal.rebase = (stored['measuredAt'] as string | null | undefined) ?? null;
+  }
+  if (entry.kind === 'passes' && code === 'stale_passes' && stored) {
+    const count = Number(stored['passesDone']);
+    refusal.theirs = [`Passes done: ${count}`];
+    refusal.rebase = count;
   }
   if (entry.kind === 'finish' && code === 'stale_cylinder' && stored) {
     const keys = (Object.keys(FINISH_LABELS) as (keyof FinishChanges)[]).filter(

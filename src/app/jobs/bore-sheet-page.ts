@@ -75,6 +75,52 @@ export class BoreSheetPage {
     return sheet ? isOpenState(sheet.job.state) : false;
   });
 
+  /** Passes done: the server's count, or the last tick still waiting on this tablet. */
+  protected readonly ticked = computed(() => {
+    const sheet = this.sheet();
+    if (!sheet) return 0;
+    const waiting = this.queue
+      .forCylinder(sheet.job.id, sheet.cylinder)
+      .filter((e) => e.kind === 'passes' && !e.refusal);
+    const last = waiting.at(-1);
+    return last?.kind === 'passes' ? last.done : sheet.passesDone;
+  });
+
+  /** Ticking a pass marks every pass before it done too; unticking it takes it and the later back. */
+  protected tickPass(index: number): void {
+    const sheet = this.sheet();
+    if (!sheet || this.busy()) return;
+    const basedOn = this.ticked();
+    const done = index < basedOn ? index : index + 1;
+    const keep = () =>
+      void this.queue
+        .addPasses({
+          jobId: sheet.job.id,
+          jobNumber: sheet.job.number,
+          cylinder: sheet.cylinder,
+          done,
+          basedOn,
+        })
+        .catch((error: unknown) => this.notifier.error(apiErrorMessage(error)));
+    if (!this.online() || this.queue.forCylinder(sheet.job.id, sheet.cylinder).length > 0) {
+      // Offline, or earlier entries still waiting: this one goes after them, in order.
+      keep();
+      return;
+    }
+    this.busy.set(true);
+    this.api.passesDone(sheet.job.id, sheet.cylinder, done, basedOn).subscribe({
+      next: () => {
+        this.busy.set(false);
+        this.loaded.reload();
+      },
+      error: (error: unknown) => {
+        this.busy.set(false);
+        if (serverUnreachable(error)) keep();
+        else this.notifier.error(apiErrorMessage(error));
+      },
+    });
+  }
+
   protected readonly passKinds: Record<string, string> = {
     truing: 'Truing',
     roughing: 'Cut',

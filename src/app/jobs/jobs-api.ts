@@ -96,6 +96,17 @@ export class JobsApi {
     return this.http.put<ReadingsResultJson>(`${this.cylinder(id, n)}/readings`, body);
   }
 
+  /** Passes ticked done, in order; with `basedOn` (the count last seen) a stale tick is a 409. */
+  passesDone(
+    id: string,
+    n: number,
+    done: number,
+    basedOn?: number,
+  ): Observable<{ passesDone: number }> {
+    const body = basedOn === undefined ? { done } : { done, basedOn };
+    return this.http.put<{ passesDone: number }>(`${this.cylinder(id, n)}/passes-done`, body);
+  }
+
   updateCylinder(id: string, n: number, changes: CylinderChanges): Observable<CylinderJson> {
     return this.http.patch<CylinderJson>(this.cylinder(id, n), changes);
   }

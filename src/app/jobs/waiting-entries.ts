@@ -155,7 +155,11 @@ export class WaitingEntries {
   }
 
   protected title(entry: WaitingEntry): string {
-    const what = entry.kind === 'readings' ? 'Bore readings' : 'Sizes after honing';
+    const what = {
+      readings: 'Bore readings',
+      finish: 'Sizes after honing',
+      passes: 'Passes done',
+    }[entry.kind];
     return `${what} for cylinder ${entry.cylinder} of ${entry.jobNumber}`;
   }
 
