@@ -8,7 +8,6 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
-import { MatTableModule } from '@angular/material/table';
 import { Router, RouterLink } from '@angular/router';
 import type { DateTime } from 'luxon';
 import { catchError, map, of } from 'rxjs';
@@ -17,6 +16,8 @@ import type { LadderStepJson } from '../../../shared/api/catalog';
 import type { SourcingJson } from '../../../shared/api/purchasing';
 import { apiErrorMessage } from '../core/api-error';
 import { dayOf } from '../core/shop-date-adapter';
+import { DataTable } from '../ui/data-table';
+import { TableColumn, TableEmpty } from '../ui/table-column';
 import { PurchasingApi } from './purchasing-api';
 import { ShopDatePipe } from '../core/shop-date-pipe';
 
@@ -37,7 +38,9 @@ import { ShopDatePipe } from '../core/shop-date-pipe';
     MatInputModule,
     MatProgressBarModule,
     MatSelectModule,
-    MatTableModule,
+    DataTable,
+    TableColumn,
+    TableEmpty,
     RouterLink,
   ],
   templateUrl: './sourcing-page.html',
