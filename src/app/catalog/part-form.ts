@@ -18,16 +18,14 @@ import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
 import { MatTooltipModule } from '@angular/material/tooltip';
 import { Router, RouterLink } from '@angular/router';
-import { catchError, map, of } from 'rxjs';
+import { map, of } from 'rxjs';
 
 import {
   PART_KINDS,
   partInput,
-  type FamilyJson,
   type PartDetailJson,
   type PartJson,
   type PartKind,
-  type StepSeriesJson,
 } from '../../../shared/api/catalog';
 import { apiFieldErrors } from '../core/api-error';
 import { placeApiErrors, schemaValidator } from '../core/field-errors';
@@ -39,6 +37,7 @@ import { CatalogApi, type PartBody } from './catalog-api';
 import { KIND_LABELS } from './part-words';
 import { debounced, loadEach, loadIntoForm } from '../ui/load';
 import { ListState } from '../ui/list-state';
+import { familySteps } from './family-steps';
 
 interface Component_ {
   partId: string;
@@ -115,24 +114,9 @@ export class PartForm {
   );
   protected readonly kind = computed(() => this.formValue().kind ?? 'piston');
 
-  protected readonly families = toSignal(
-    this.api.families({ page: 1, pageSize: 500 }).pipe(
-      map((page) => page.items),
-      catchError(() => of<FamilyJson[]>([])),
-    ),
-    { initialValue: [] as FamilyJson[] },
-  );
-  private readonly series = toSignal(
-    this.api.stepSeries().pipe(
-      map((page) => page.items),
-      catchError(() => of<StepSeriesJson[]>([])),
-    ),
-    { initialValue: [] as StepSeriesJson[] },
-  );
-  protected readonly steps = computed(() => {
-    const family = this.families().find((f) => f.id === this.formValue().familyId);
-    return family ? (this.series().find((s) => s.id === family.stepSeriesId)?.steps ?? []) : [];
-  });
+  private readonly choices = familySteps(this.api, () => this.formValue().familyId);
+  protected readonly families = this.choices.families;
+  protected readonly steps = this.choices.steps;
 
   /** Part search for a kit's contents. */
   protected readonly componentSearch = signal('');

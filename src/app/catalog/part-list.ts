@@ -1,5 +1,4 @@
 import { ChangeDetectionStrategy, Component, computed, effect, inject, input } from '@angular/core';
-import { toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
@@ -9,15 +8,9 @@ import { MatSelectModule } from '@angular/material/select';
 import { MatSortModule } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
 import { Router, RouterLink } from '@angular/router';
-import { catchError, map, of } from 'rxjs';
+import { map, of } from 'rxjs';
 
-import {
-  PART_KINDS,
-  type FamilyJson,
-  type PartJson,
-  type PartKind,
-  type StepSeriesJson,
-} from '../../../shared/api/catalog';
+import { PART_KINDS, type PartJson, type PartKind } from '../../../shared/api/catalog';
 import type { Page } from '../../../shared/api/common';
 import { Session } from '../core/session';
 import { CatalogApi } from './catalog-api';
@@ -25,6 +18,7 @@ import { looksScanned } from '../ui/scan';
 import { KIND_LABELS } from './part-words';
 import { PagedList } from '../ui/paged-list';
 import { ListState } from '../ui/list-state';
+import { familySteps } from './family-steps';
 
 const PART_SORT = ['sku', 'description', 'kind', 'family', 'onHand', 'free', 'salePrice'] as const;
 type PartSort = (typeof PART_SORT)[number];
@@ -87,24 +81,9 @@ export class PartList {
       this.api.parts(request).pipe(map((page) => ({ ...page, q: request.q ?? '' }))),
   });
 
-  protected readonly families = toSignal(
-    this.api.families({ page: 1, pageSize: 500 }).pipe(
-      map((page) => page.items),
-      catchError(() => of<FamilyJson[]>([])),
-    ),
-    { initialValue: [] as FamilyJson[] },
-  );
-  private readonly series = toSignal(
-    this.api.stepSeries().pipe(
-      map((page) => page.items),
-      catchError(() => of<StepSeriesJson[]>([])),
-    ),
-    { initialValue: [] as StepSeriesJson[] },
-  );
-  protected readonly steps = computed(() => {
-    const family = this.families().find((f) => f.id === this.list.filters().familyId);
-    return family ? (this.series().find((s) => s.id === family.stepSeriesId)?.steps ?? []) : [];
-  });
+  private readonly choices = familySteps(this.api, () => this.list.filters().familyId);
+  protected readonly families = this.choices.families;
+  protected readonly steps = this.choices.steps;
 
   private scanned = '';
 
