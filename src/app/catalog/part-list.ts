@@ -8,7 +8,7 @@ import { MatSelectModule } from '@angular/material/select';
 import { MatSortModule } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
 import { Router, RouterLink } from '@angular/router';
-import { map, of } from 'rxjs';
+import { map } from 'rxjs';
 
 import { PART_KINDS, type PartJson, type PartKind } from '../../../shared/api/catalog';
 import type { Page } from '../../../shared/api/common';
