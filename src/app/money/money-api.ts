@@ -4,6 +4,7 @@ import type { Observable } from 'rxjs';
 
 import type {
   CounterMethod,
+  CreditNoteJson,
   EstimateJson,
   EstimateLineJson,
   InvoiceJson,
@@ -106,6 +107,14 @@ export class MoneyApi {
   refund(jobId: string, paymentId: string, reason: string): Observable<PaymentJson> {
     return this.http.post<PaymentJson>(`/api/jobs/${jobId}/payments/${paymentId}/refund`, {
       reason,
+    });
+  }
+
+  /** A correction of the issued invoice: one amount off, with its reason. */
+  creditNote(jobId: string, reason: string, amount: string): Observable<CreditNoteJson> {
+    return this.http.post<CreditNoteJson>(`/api/jobs/${jobId}/invoice/credit-notes`, {
+      reason,
+      amount,
     });
   }
 
