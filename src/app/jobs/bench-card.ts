@@ -1,20 +1,15 @@
-import {
-  ChangeDetectionStrategy,
-  Component,
-  computed,
-  inject,
-  input,
-  linkedSignal,
-} from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { RouterLink } from '@angular/router';
 
+import type { BoreSheetJson } from '../../../shared/api/jobs';
 import { LengthPipe } from '../core/length-pipe';
 import { Session } from '../core/session';
 import { ListState } from '../ui/list-state';
 import { loadEach } from '../ui/load';
 import { JobsApi } from './jobs-api';
+import { PassTicks } from './pass-ticks';
 
 const PASS_WORDS: Record<string, string> = {
   truing: 'truing pass',
@@ -22,22 +17,10 @@ const PASS_WORDS: Record<string, string> = {
   finish: 'finishing pass',
 };
 
-function passKey(jobId: string, n: number): string {
-  return `stepstock.pass.${jobId}.${n}`;
-}
-
-function storedPass(jobId: string, n: number): number {
-  try {
-    const v = Number(localStorage.getItem(passKey(jobId, n)));
-    return Number.isInteger(v) && v >= 0 ? v : 0;
-  } catch {
-    return 0;
-  }
-}
-
 /**
- * At the machine, in large type: the size to bore to, the pass the bar is on (kept on this tablet
- * as the machinist steps through them), and the bore sheet's cautions, always in view.
+ * At the machine, in large type: the size to bore to, the pass the bar is on (the cylinder's passes
+ * done, ticked here as on the bore sheet, and kept on the tablet while offline), and the bore
+ * sheet's cautions, always in view.
  */
 @Component({
   selector: 'app-bench-card',
@@ -78,15 +61,20 @@ function storedPass(jobId: string, n: number): number {
             </p>
           }
           <div class="pass-buttons">
-            <button mat-stroked-button type="button" [disabled]="i === 0" (click)="go(i - 1)">
+            <button
+              mat-stroked-button
+              type="button"
+              [disabled]="i === 0 || ticks.busy()"
+              (click)="go(s, i - 1)"
+            >
               <mat-icon>undo</mat-icon>
               Previous pass
             </button>
             <button
               mat-flat-button
               type="button"
-              [disabled]="i >= s.passes.length"
-              (click)="go(i + 1)"
+              [disabled]="i >= s.passes.length || ticks.busy()"
+              (click)="go(s, i)"
             >
               <mat-icon>check</mat-icon>
               Pass {{ i + 1 }} done
@@ -127,17 +115,16 @@ export class BenchCard {
     ({ id, n }) => this.api.boreSheet(id, n),
     { equal: (a, b) => a.id === b.id && a.n === b.n },
   );
-  /** Which pass the bar is on; kept per cylinder on this device. */
-  protected readonly current = linkedSignal(() => storedPass(this.jobId(), this.n()));
+  protected readonly ticks = inject(PassTicks);
 
-  protected go(index: number): void {
-    const passes = this.loaded.value()?.passes.length ?? 0;
-    const next = Math.max(0, Math.min(index, passes));
-    this.current.set(next);
-    try {
-      localStorage.setItem(passKey(this.jobId(), this.n()), String(next));
-    } catch {
-      // Kept for this visit only where the browser keeps nothing.
-    }
+  /** Which pass the bar is on: how many are done. */
+  protected readonly current = computed(() => {
+    const sheet = this.loaded.value();
+    return sheet ? Math.min(this.ticks.done(sheet), sheet.passes.length) : 0;
+  });
+
+  /** Pass `index` done (or, for the one before the current, taken back). */
+  protected go(sheet: BoreSheetJson, index: number): void {
+    this.ticks.tick(sheet, index, () => this.loaded.reload());
   }
 }

@@ -4,6 +4,7 @@ import { MatDialog } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
+import { MatTooltipModule } from '@angular/material/tooltip';
 import { RouterLink } from '@angular/router';
 import { filter } from 'rxjs';
 
@@ -22,6 +23,7 @@ import { Session } from '../core/session';
 import { CutDialog, type CutDialogData, type CutDialogResult } from './cut-dialog';
 import { BenchQueue, serverUnreachable, type FinishChanges } from './bench-queue';
 import { JobsApi, type CylinderChanges } from './jobs-api';
+import { PassTicks } from './pass-ticks';
 import { WaitingEntries } from './waiting-entries';
 import { ShopDatePipe } from '../core/shop-date-pipe';
 import { ListState } from '../ui/list-state';
@@ -42,6 +44,7 @@ import { allows } from '../../../shared/access';
     MatFormFieldModule,
     MatIconModule,
     MatInputModule,
+    MatTooltipModule,
     RouterLink,
     WaitingEntries,
   ],
@@ -75,50 +78,17 @@ export class BoreSheetPage {
     return sheet ? isOpenState(sheet.job.state) : false;
   });
 
+  protected readonly ticks = inject(PassTicks);
+
   /** Passes done: the server's count, or the last tick still waiting on this tablet. */
   protected readonly ticked = computed(() => {
     const sheet = this.sheet();
-    if (!sheet) return 0;
-    const waiting = this.queue
-      .forCylinder(sheet.job.id, sheet.cylinder)
-      .filter((e) => e.kind === 'passes' && !e.refusal);
-    const last = waiting.at(-1);
-    return last?.kind === 'passes' ? last.done : sheet.passesDone;
+    return sheet ? this.ticks.done(sheet) : 0;
   });
 
-  /** Ticking a pass marks every pass before it done too; unticking it takes it and the later back. */
   protected tickPass(index: number): void {
     const sheet = this.sheet();
-    if (!sheet || this.busy()) return;
-    const basedOn = this.ticked();
-    const done = index < basedOn ? index : index + 1;
-    const keep = () =>
-      void this.queue
-        .addPasses({
-          jobId: sheet.job.id,
-          jobNumber: sheet.job.number,
-          cylinder: sheet.cylinder,
-          done,
-          basedOn,
-        })
-        .catch((error: unknown) => this.notifier.error(apiErrorMessage(error)));
-    if (!this.online() || this.queue.forCylinder(sheet.job.id, sheet.cylinder).length > 0) {
-      // Offline, or earlier entries still waiting: this one goes after them, in order.
-      keep();
-      return;
-    }
-    this.busy.set(true);
-    this.api.passesDone(sheet.job.id, sheet.cylinder, done, basedOn).subscribe({
-      next: () => {
-        this.busy.set(false);
-        this.loaded.reload();
-      },
-      error: (error: unknown) => {
-        this.busy.set(false);
-        if (serverUnreachable(error)) keep();
-        else this.notifier.error(apiErrorMessage(error));
-      },
-    });
+    if (sheet && !this.busy()) this.ticks.tick(sheet, index, () => this.loaded.reload());
   }
 
   protected readonly passKinds: Record<string, string> = {
