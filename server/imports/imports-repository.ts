@@ -60,13 +60,16 @@ export interface ProgressRow {
   application_name: string;
   rows: number;
   bytes: number;
+  /** The staging COPY has ended on that connection; the next phase has not been marked yet. */
+  copy_done: boolean;
 }
 
 export async function progress(token: string, k: Knex = db): Promise<ProgressRow | undefined> {
   const result = await k.raw<{ rows: ProgressRow[] }>(
     `SELECT a.application_name,
             coalesce(p.tuples_processed, 0)::bigint AS rows,
-            coalesce(p.bytes_processed, 0)::bigint AS bytes
+            coalesce(p.bytes_processed, 0)::bigint AS bytes,
+            (p.pid IS NULL AND a.query ILIKE 'COPY %') AS copy_done
        FROM pg_stat_activity a
        LEFT JOIN pg_stat_progress_copy p ON p.pid = a.pid
       WHERE a.application_name LIKE ?

@@ -426,5 +426,8 @@ export async function progress(token: string): Promise<ImportProgressJson> {
   const row = await repo.progress(token);
   if (!row) return { phase: 'waiting', rows: 0, bytes: 0 };
   const phase = row.application_name.split(':')[2] as ImportProgressJson['phase'];
+  // Between the end of the staging COPY and the mark of the next phase, the database has no copy
+  // progress left to show: the reading is over, so say so rather than "reading, 0 rows".
+  if (phase === 'reading' && row.copy_done) return { phase: 'comparing', rows: 0, bytes: 0 };
   return { phase, rows: Number(row.rows), bytes: Number(row.bytes) };
 }
