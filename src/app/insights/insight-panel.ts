@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, Component, input, output } from '@angular/core';
+import { booleanAttribute, ChangeDetectionStrategy, Component, input, output } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
@@ -26,5 +26,7 @@ export class InsightPanel {
   readonly emptyText = input('Nothing to show for this period.');
   /** Chart and table side by side (false: the table alone, full width). */
   readonly withChart = input(true);
+  /** The chart above the table instead of beside it: for a table with many figure columns. */
+  readonly chartAbove = input(false, { transform: booleanAttribute });
   readonly retry = output<void>();
 }
