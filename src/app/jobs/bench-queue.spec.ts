@@ -3,30 +3,11 @@ import { HttpTestingController, provideHttpClientTesting } from '@angular/common
 import { TestBed } from '@angular/core/testing';
 import { provideRouter } from '@angular/router';
 
-import { OFFLINE_STORAGE, type OfflineStorage } from '../core/offline-store';
+import { OFFLINE_STORAGE } from '../core/offline-store';
 import { OfflineStatus } from '../core/offline-status';
 import { Session } from '../core/session';
+import { memoryStorage } from '../testing/memory-storage';
 import { BenchQueue } from './bench-queue';
-
-/**
- * The browser's IndexedDB is not in jsdom: the same four calls over a Map, so what the queue
- * keeps, sends and forgets can be read back.
- */
-function memoryStorage(): OfflineStorage & { map: Map<string, unknown> } {
-  const map = new Map<string, unknown>();
-  return {
-    map,
-    all: async (userId) =>
-      [...map.entries()]
-        .filter(([k]) => k.startsWith(`${userId}:`))
-        .sort(([a], [b]) => (a < b ? -1 : 1)),
-    put: async (key, value) => void map.set(key, JSON.parse(JSON.stringify(value))),
-    remove: async (key) => void map.delete(key),
-    removeUser: async (userId) => {
-      for (const key of [...map.keys()]) if (key.startsWith(`${userId}:`)) map.delete(key);
-    },
-  };
-}
 
 const READINGS = [
   { depth: 'top' as const, axis: 'pin' as const, diameter: '2.5260 in' },

@@ -4,27 +4,12 @@ import { TestBed } from '@angular/core/testing';
 import { provideRouter } from '@angular/router';
 
 import type { BoreSheetJson } from '../../../shared/api/jobs';
-import { OFFLINE_STORAGE, type OfflineStorage } from '../core/offline-store';
+import { OFFLINE_STORAGE } from '../core/offline-store';
 import { OfflineStatus } from '../core/offline-status';
 import { Session } from '../core/session';
+import { memoryStorage } from '../testing/memory-storage';
 import { BenchQueue } from './bench-queue';
 import { PassTicks } from './pass-ticks';
-
-/** jsdom has no IndexedDB: the queue's four storage calls over a Map. */
-function memoryStorage(): OfflineStorage {
-  const map = new Map<string, unknown>();
-  return {
-    all: async (userId) =>
-      [...map.entries()]
-        .filter(([k]) => k.startsWith(`${userId}:`))
-        .sort(([a], [b]) => (a < b ? -1 : 1)),
-    put: async (key, value) => void map.set(key, JSON.parse(JSON.stringify(value))),
-    remove: async (key) => void map.delete(key),
-    removeUser: async (userId) => {
-      for (const key of [...map.keys()]) if (key.startsWith(`${userId}:`)) map.delete(key);
-    },
-  };
-}
 
 /** Just what ticking reads of a bore sheet: its job, cylinder and passes done. */
 const SHEET = {
