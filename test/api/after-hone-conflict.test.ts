@@ -4,37 +4,26 @@
 // before. Sizes in inches, 1 in = 25.4 mm exactly (NIST SP 811).
 import { db } from '../../server/db/knex';
 import { saveSettings } from '../../server/settings/settings-service';
-import { closeTestApp, signedIn, type Client } from '../support/api';
+import { closeTestApp } from '../support/api';
 import {
-  makeBin,
-  makeFamily,
+  benchShop,
   makeJob,
   makePart,
   receivePistons,
   WORN_READINGS,
-  type Family,
 } from '../support/jobs-fixtures';
 
-let owner: Client;
-let machinist: Client;
-let staff: Client;
-let family: Family;
-let binId: string;
+const { owner, machinist, staff, family, bin } = benchShop({ cylinders: 1, machinistUnit: 'in' });
 
 beforeAll(async () => {
-  owner = await signedIn('owner');
-  machinist = await signedIn('machinist', { unit: 'in' });
-  staff = await signedIn('staff');
   await saveSettings(null, { cutOnlyAfterApproval: false, clearancePolicy: 'min' });
-  family = await makeFamily(owner, { cylinders: 1 });
-  binId = await makeBin(owner);
 });
 afterAll(closeTestApp);
 
 /** An open job whose only cylinder is cut, ready for its after-honing sizes. */
 async function cutCylinder(): Promise<string> {
   const part = await makePart(owner, family, '+0.040 in', 'piston');
-  const [unit] = await receivePistons(owner, part, binId, ['2.5555 in']);
+  const [unit] = await receivePistons(owner, part, bin.id, ['2.5555 in']);
   const job = await makeJob(staff, family.id);
   const cyl = `/api/jobs/${job.id}/cylinders/1`;
   expect((await machinist.put(`${cyl}/readings`, { readings: WORN_READINGS })).status).toBe(200);

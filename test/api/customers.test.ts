@@ -3,30 +3,15 @@
 // bored before is never offered a step its earlier bore has already passed.
 import { db } from '../../server/db/knex';
 import { saveSettings } from '../../server/settings/settings-service';
-import { closeTestApp, signedIn, uniq, type Client } from '../support/api';
-import {
-  makeBin,
-  makeFamily,
-  makePart,
-  receivePistons,
-  WORN_READINGS,
-  type Family,
-} from '../support/jobs-fixtures';
+import { closeTestApp, uniq } from '../support/api';
+import { benchShop, makePart, receivePistons, WORN_READINGS } from '../support/jobs-fixtures';
 
-let owner: Client;
-let machinist: Client;
-let staff: Client;
-let buyer: Client;
-let family: Family;
-let binId: string;
+const { owner, machinist, staff, buyer, family, bin } = benchShop({
+  cylinders: 2,
+  machinistUnit: 'in',
+});
 
 beforeAll(async () => {
-  owner = await signedIn('owner');
-  machinist = await signedIn('machinist', { unit: 'in' });
-  staff = await signedIn('staff');
-  buyer = await signedIn('buyer');
-  family = await makeFamily(owner, { cylinders: 2 });
-  binId = await makeBin(owner);
   // The cuts here record a cylinder's history; the customer's approval has its own tests.
   await saveSettings(null, { cutOnlyAfterApproval: false });
 });
@@ -429,7 +414,7 @@ describe('cylinders and their bores', () => {
       ).status,
     ).toBe(200);
     const part = await makePart(owner, family, '+0.020 in', 'piston');
-    const [unit] = await receivePistons(owner, part, binId, ['2.5352 in']);
+    const [unit] = await receivePistons(owner, part, bin.id, ['2.5352 in']);
     expect(
       (await machinist.post(`/api/jobs/${first.id}/holds`, { cylinder: 1, unitId: unit.id }))
         .status,
@@ -514,7 +499,7 @@ describe('cylinders and their bores', () => {
       stepId: family.steps['+0.030 in'],
     });
     const part = await makePart(owner, family, '+0.030 in', 'piston');
-    const [unit] = await receivePistons(owner, part, binId, ['2.5452 in']);
+    const [unit] = await receivePistons(owner, part, bin.id, ['2.5452 in']);
     await machinist.post(`/api/jobs/${first.id}/holds`, { cylinder: 1, unitId: unit.id });
     // The shop cuts only after the customer agreed to the estimate (the default setting).
     await staff.post(`/api/jobs/${first.id}/estimate/approval`, { how: 'phone' });

@@ -2,27 +2,18 @@
 // against it, the ring end gap suggested from the bore and checked, and the honing lines of the
 // sheet — each figure worked by hand in inches (1 in = 25.4 mm exactly, NIST SP 811).
 import { saveSettings } from '../../server/settings/settings-service';
-import { closeTestApp, signedIn, type Client } from '../support/api';
+import { closeTestApp } from '../support/api';
 import {
-  makeBin,
-  makeFamily,
+  benchShop,
   makeJob,
   makePart,
   receivePistons,
   WORN_READINGS,
-  type Family,
 } from '../support/jobs-fixtures';
 
-let owner: Client;
-let machinist: Client;
-let staff: Client;
-let family: Family;
-let binId: string;
+const { owner, machinist, staff, family, bin } = benchShop({ cylinders: 1, machinistUnit: 'in' });
 
 beforeAll(async () => {
-  owner = await signedIn('owner');
-  machinist = await signedIn('machinist', { unit: 'in' });
-  staff = await signedIn('staff');
   await saveSettings(null, {
     clearancePolicy: 'min',
     maxCutPerPass: '0.020 in',
@@ -34,8 +25,6 @@ beforeAll(async () => {
     timeZone: 'UTC',
     cutOnlyAfterApproval: false,
   });
-  family = await makeFamily(owner, { cylinders: 1 });
-  binId = await makeBin(owner);
 });
 afterAll(closeTestApp);
 
@@ -79,7 +68,7 @@ describe('a forged piston through the sheet, the cut and the hone', () => {
   beforeAll(async () => {
     const part = await makePart(owner, family, '+0.040 in', 'piston');
     expect((await owner.patch(`/api/parts/${part}`, { material: 'forged' })).status).toBe(200);
-    const [unit] = await receivePistons(owner, part, binId, ['2.5555 in']);
+    const [unit] = await receivePistons(owner, part, bin.id, ['2.5555 in']);
     job = await makeJob(staff, family.id);
     await machinist.put(`/api/jobs/${job.id}/cylinders/1/readings`, { readings: WORN_READINGS });
     await machinist.patch(`/api/jobs/${job.id}/cylinders/1`, { stepId: family.steps['+0.040 in'] });

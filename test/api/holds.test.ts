@@ -3,28 +3,20 @@
 // levels and the units must tell the same story.
 import { db } from '../../server/db/knex';
 import { saveSettings } from '../../server/settings/settings-service';
-import { closeTestApp, signedIn, type Client } from '../support/api';
+import { closeTestApp } from '../support/api';
 import {
-  makeBin,
+  benchShop,
   makeFamily,
   makeJob,
   makePart,
   receiveCounted,
   receivePistons,
   WORN_READINGS,
-  type Family,
 } from '../support/jobs-fixtures';
 
-let owner: Client;
-let machinist: Client;
-let staff: Client;
-let family: Family;
-let binId: string;
+const { owner, machinist, staff, family, bin } = benchShop();
 
 beforeAll(async () => {
-  owner = await signedIn('owner');
-  machinist = await signedIn('machinist');
-  staff = await signedIn('staff');
   // The settings these tests rely on, whatever another test file left behind: the move to the bar
   // here is about held pistons, so it does not wait for the customer's approval (tested elsewhere).
   await saveSettings(null, {
@@ -33,8 +25,6 @@ beforeAll(async () => {
     timeZone: 'UTC',
     cutOnlyAfterApproval: false,
   });
-  family = await makeFamily(owner);
-  binId = await makeBin(owner);
 });
 afterAll(closeTestApp);
 
@@ -75,12 +65,12 @@ describe('GET /api/jobs/:id/cylinders/:n/proposal', () => {
     const piston = await makePart(owner, family, '+0.010 in', 'piston');
     const rings = await makePart(owner, family, '+0.010 in', 'rings');
     // Nominal at +0.010 in: 2.5170 + 0.010 = 2.5270 in. Distances 0.0020, 0.0005, 0.0012 in.
-    const units = await receivePistons(owner, piston, binId, [
+    const units = await receivePistons(owner, piston, bin.id, [
       '2.5250 in',
       '2.5265 in',
       '2.5258 in',
     ]);
-    await receivePistons(owner, piston, binId, ['2.5270 in']).then(async ([unmeasuredLater]) => {
+    await receivePistons(owner, piston, bin.id, ['2.5270 in']).then(async ([unmeasuredLater]) => {
       // A unit held elsewhere is never proposed.
       const other = await makeJob(staff, family.id);
       const r = await machinist.post(`/api/jobs/${other.id}/holds`, {
@@ -89,7 +79,7 @@ describe('GET /api/jobs/:id/cylinders/:n/proposal', () => {
       });
       expect(r.status).toBe(201);
     });
-    await receiveCounted(owner, rings, binId, 2);
+    await receiveCounted(owner, rings, bin.id, 2);
     const job = await makeJob(staff, family.id);
     const noStep = await machinist.get(`/api/jobs/${job.id}/cylinders/1/proposal`);
     expect(noStep.status).toBe(409);
@@ -122,8 +112,8 @@ describe('POST /api/jobs/:id/holds and DELETE /api/holds/:id', () => {
   beforeAll(async () => {
     piston = await makePart(owner, family, '+0.030 in', 'piston');
     rings = await makePart(owner, family, '+0.030 in', 'rings');
-    units = await receivePistons(owner, piston, binId, ['2.5465 in', '2.5463 in']);
-    await receiveCounted(owner, rings, binId, 2);
+    units = await receivePistons(owner, piston, bin.id, ['2.5465 in', '2.5463 in']);
+    await receiveCounted(owner, rings, bin.id, 2);
   });
 
   it('when a measured piston is held, then 201, the unit is held, held + 1 and a reservation row is written', async () => {
@@ -233,7 +223,7 @@ describe('POST /api/jobs/:id/holds and DELETE /api/holds/:id', () => {
 
     const otherFamily = await makeFamily(owner);
     const otherPart = await makePart(owner, otherFamily, '+0.040 in', 'piston');
-    const [foreign] = await receivePistons(owner, otherPart, binId, ['2.5555 in']);
+    const [foreign] = await receivePistons(owner, otherPart, bin.id, ['2.5555 in']);
     const wrongFamily = await machinist.post(`/api/jobs/${job.id}/holds`, {
       cylinder: 1,
       unitId: foreign.id,
@@ -244,7 +234,7 @@ describe('POST /api/jobs/:id/holds and DELETE /api/holds/:id', () => {
     const receipt = await owner.post('/api/stock/receipts', {
       partId: step040,
       quantity: 1,
-      binId,
+      binId: bin.id,
       unitCost: '40.00',
       units: [{}],
     });
@@ -276,7 +266,7 @@ describe('the race for the last free piston', () => {
   it('when 50 holds reach for the last free unit at once, then exactly one 201 and 49 × 409, and ledger, levels and unit agree', async () => {
     const fam = await makeFamily(owner);
     const piston = await makePart(owner, fam, '+0.020 in', 'piston');
-    const [last, spare] = await receivePistons(owner, piston, binId, ['2.5365 in', '2.5360 in']);
+    const [last, spare] = await receivePistons(owner, piston, bin.id, ['2.5365 in', '2.5360 in']);
     // The spare is held already, so `last` is the last free one and nothing is next best.
     const holder = await makeJob(staff, fam.id);
     expect(
@@ -322,7 +312,7 @@ describe('the race for the last free piston', () => {
     const fam = await makeFamily(owner);
     const piston = await makePart(owner, fam, '+0.020 in', 'piston');
     // Nominal 2.5370 in: the 2.5364 in piston is nearer than the 2.5351 in one.
-    const [taken, far, near] = await receivePistons(owner, piston, binId, [
+    const [taken, far, near] = await receivePistons(owner, piston, bin.id, [
       '2.5366 in',
       '2.5351 in',
       '2.5364 in',
@@ -350,7 +340,7 @@ describe('POST /api/holds/:id/move', () => {
   it('when a hold moves to another job, then the unit stays held, for the new job, with a release and a reservation row', async () => {
     const fam = await makeFamily(owner);
     const piston = await makePart(owner, fam, '+0.020 in', 'piston');
-    const [unit] = await receivePistons(owner, piston, binId, ['2.5362 in']);
+    const [unit] = await receivePistons(owner, piston, bin.id, ['2.5362 in']);
     const from = await makeJob(staff, fam.id);
     const to = await makeJob(staff, fam.id, { cylinders: 2 });
     const hold = await machinist.post(`/api/jobs/${from.id}/holds`, {
@@ -400,8 +390,8 @@ describe('expiry and the sweep', () => {
     const fam = await makeFamily(owner);
     const piston = await makePart(owner, fam, '+0.020 in', 'piston');
     const rings = await makePart(owner, fam, '+0.020 in', 'rings');
-    const [unit, keep] = await receivePistons(owner, piston, binId, ['2.5362 in', '2.5360 in']);
-    await receiveCounted(owner, rings, binId, 1);
+    const [unit, keep] = await receivePistons(owner, piston, bin.id, ['2.5362 in', '2.5360 in']);
+    await receiveCounted(owner, rings, bin.id, 1);
     const job = await makeJob(staff, fam.id, { cylinders: 2 });
     const expiring = await machinist.post(`/api/jobs/${job.id}/holds`, {
       cylinder: 1,
@@ -470,7 +460,7 @@ describe('holds and the job state', () => {
   it('when every stepped cylinder has its piston, then the job may go to the bar; readings move it to gauged', async () => {
     const fam = await makeFamily(owner);
     const piston = await makePart(owner, fam, '+0.020 in', 'piston');
-    const [a, b] = await receivePistons(owner, piston, binId, ['2.5362 in', '2.5361 in']);
+    const [a, b] = await receivePistons(owner, piston, bin.id, ['2.5362 in', '2.5361 in']);
     const job = await makeJob(staff, fam.id, { cylinders: 2 });
     await machinist.put(`/api/jobs/${job.id}/cylinders/1/readings`, { readings: WORN_READINGS });
     await machinist.put(`/api/jobs/${job.id}/cylinders/2/readings`, { readings: WORN_READINGS });

@@ -1,29 +1,11 @@
 // The owner's insight "cylinders near their last step": marked cylinders whose bores leave at most
 // a given number of steps before a sleeve, with the customer to tell, as JSON and as CSV.
-import { closeTestApp, signedIn, uniq, type Client } from '../support/api';
-import {
-  makeBin,
-  makeFamily,
-  makePart,
-  receivePistons,
-  WORN_READINGS,
-  type Family,
-} from '../support/jobs-fixtures';
+import { closeTestApp, uniq } from '../support/api';
+import { benchShop, makePart, receivePistons, WORN_READINGS } from '../support/jobs-fixtures';
 
-let owner: Client;
-let machinist: Client;
-let staff: Client;
-let buyer: Client;
-let family: Family;
-let binId: string;
-
-beforeAll(async () => {
-  owner = await signedIn('owner');
-  machinist = await signedIn('machinist', { unit: 'in' });
-  staff = await signedIn('staff');
-  buyer = await signedIn('buyer');
-  family = await makeFamily(owner, { cylinders: 1 });
-  binId = await makeBin(owner);
+const { owner, machinist, staff, buyer, family, bin } = benchShop({
+  cylinders: 1,
+  machinistUnit: 'in',
 });
 
 afterAll(closeTestApp);
@@ -68,7 +50,7 @@ async function boredCylinder(
     'step',
   );
   const part = await makePart(owner, family, step, 'piston');
-  const [unit] = await receivePistons(owner, part, binId, [skirt]);
+  const [unit] = await receivePistons(owner, part, bin.id, [skirt]);
   expectStatus(
     await machinist.post(`/api/jobs/${id}/holds`, { cylinder: 1, unitId: unit.id }),
     201,

@@ -2,30 +2,20 @@
 // the practitioner's check values, the cut rule, collect and cancel, and intake photos.
 import { db } from '../../server/db/knex';
 import { saveSettings } from '../../server/settings/settings-service';
-import { closeTestApp, signedIn, type Client } from '../support/api';
+import { closeTestApp, type Client } from '../support/api';
 import {
-  makeBin,
+  benchShop,
   makeFamily,
   makeJob,
   makePart,
   receiveCounted,
   receivePistons,
   WORN_READINGS,
-  type Family,
 } from '../support/jobs-fixtures';
 
-let owner: Client;
-let machinist: Client;
-let staff: Client;
-let buyer: Client;
-let family: Family;
-let binId: string;
+const { owner, machinist, staff, buyer, family, bin } = benchShop({ machinistUnit: 'in' });
 
 beforeAll(async () => {
-  owner = await signedIn('owner');
-  machinist = await signedIn('machinist', { unit: 'in' });
-  staff = await signedIn('staff');
-  buyer = await signedIn('buyer');
   // The settings these tests rely on, whatever another test file left behind.
   await saveSettings(null, {
     clearancePolicy: 'min',
@@ -41,8 +31,6 @@ beforeAll(async () => {
     // The cut rules here are about held pistons; the approval rule has its own tests.
     cutOnlyAfterApproval: false,
   });
-  family = await makeFamily(owner);
-  binId = await makeBin(owner);
 });
 afterAll(closeTestApp);
 
@@ -239,7 +227,7 @@ describe('GET /api/jobs/:id/cylinders/:n/recommendation', () => {
     // The second of those is +0.030 in. It has no free piston here; +0.040 in has one.
     const fam = await makeFamily(owner);
     const piston040 = await makePart(owner, fam, '+0.040 in', 'piston');
-    await receivePistons(owner, piston040, binId, ['2.5575 in']);
+    await receivePistons(owner, piston040, bin.id, ['2.5575 in']);
     const job = await makeJob(staff, fam.id);
     await machinist.put(`/api/jobs/${job.id}/cylinders/1/readings`, { readings: WORN_READINGS });
     await saveSettings(null, { stepPolicy: 'save-steps' });
@@ -268,8 +256,8 @@ describe('GET /api/jobs/:id/cylinders/:n/recommendation', () => {
     const fam = await makeFamily(owner);
     const piston020 = await makePart(owner, fam, '+0.020 in', 'piston');
     const rings020 = await makePart(owner, fam, '+0.020 in', 'rings');
-    await receivePistons(owner, piston020, binId, ['2.5355 in', '2.5352 in']);
-    await receiveCounted(owner, rings020, binId, 3);
+    await receivePistons(owner, piston020, bin.id, ['2.5355 in', '2.5352 in']);
+    await receiveCounted(owner, rings020, bin.id, 3);
     const job = await makeJob(staff, fam.id);
     const before = await machinist.get(`/api/jobs/${job.id}/cylinders/1/recommendation`);
     expect(before.status).toBe(409);
@@ -328,7 +316,7 @@ describe('the bore sheet and the cut', () => {
 
   beforeAll(async () => {
     pistonPart = await makePart(owner, family, '+0.040 in', 'piston');
-    [{ id: unitId }] = await receivePistons(owner, pistonPart, binId, ['2.5555 in']);
+    [{ id: unitId }] = await receivePistons(owner, pistonPart, bin.id, ['2.5555 in']);
     job = await makeJob(staff, family.id);
     await machinist.put(`/api/jobs/${job.id}/cylinders/1/readings`, { readings: WORN_READINGS });
   });
@@ -511,7 +499,7 @@ describe('a held piston whose bore does not clean up', () => {
   beforeAll(async () => {
     const fam = await makeFamily(owner);
     const piston = await makePart(owner, fam, '+0.010 in', 'piston');
-    [{ id: unitId }] = await receivePistons(owner, piston, binId, ['2.5270 in']);
+    [{ id: unitId }] = await receivePistons(owner, piston, bin.id, ['2.5270 in']);
     job = await makeJob(staff, fam.id);
     await machinist.put(`/api/jobs/${job.id}/cylinders/1/readings`, { readings: WORN_READINGS });
     await machinist.patch(`/api/jobs/${job.id}/cylinders/1`, { stepId: fam.steps['+0.010 in'] });
@@ -577,9 +565,9 @@ describe('collect and cancel', () => {
     const fam = await makeFamily(owner);
     const piston = await makePart(owner, fam, '+0.020 in', 'piston', '92.50');
     const rings = await makePart(owner, fam, '+0.020 in', 'rings', '36.00');
-    const [unit] = await receivePistons(owner, piston, binId, ['2.5355 in'], '40.00');
-    await receivePistons(owner, piston, binId, ['2.5350 in'], '44.00');
-    await receiveCounted(owner, rings, binId, 4, '12.40');
+    const [unit] = await receivePistons(owner, piston, bin.id, ['2.5355 in'], '40.00');
+    await receivePistons(owner, piston, bin.id, ['2.5350 in'], '44.00');
+    await receiveCounted(owner, rings, bin.id, 4, '12.40');
     const job = await makeJob(staff, fam.id);
     await machinist.post(`/api/jobs/${job.id}/holds`, { cylinder: 1, unitId: unit.id });
     await machinist.post(`/api/jobs/${job.id}/holds`, { cylinder: 1, partId: rings, quantity: 1 });
@@ -634,7 +622,7 @@ describe('collect and cancel', () => {
     const { armFault, disarmFaults } = await import('../../server/testing-faults');
     const fam = await makeFamily(owner);
     const piston = await makePart(owner, fam, '+0.020 in', 'piston');
-    const [unit] = await receivePistons(owner, piston, binId, ['2.5355 in']);
+    const [unit] = await receivePistons(owner, piston, bin.id, ['2.5355 in']);
     const job = await makeJob(staff, fam.id);
     await machinist.post(`/api/jobs/${job.id}/holds`, { cylinder: 1, unitId: unit.id });
     armFault('jobs.collect.afterIssue');
@@ -654,8 +642,8 @@ describe('collect and cancel', () => {
     const fam = await makeFamily(owner);
     const piston = await makePart(owner, fam, '+0.020 in', 'piston');
     const rings = await makePart(owner, fam, '+0.020 in', 'rings');
-    const units = await receivePistons(owner, piston, binId, ['2.5355 in', '2.5351 in']);
-    await receiveCounted(owner, rings, binId, 2);
+    const units = await receivePistons(owner, piston, bin.id, ['2.5355 in', '2.5351 in']);
+    await receiveCounted(owner, rings, bin.id, 2);
     const job = await makeJob(staff, fam.id, { cylinders: 2 });
     for (const [i, unit] of units.entries()) {
       const r = await machinist.post(`/api/jobs/${job.id}/holds`, {

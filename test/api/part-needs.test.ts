@@ -1,23 +1,17 @@
 // One definition of a free part, an empty step and a job waiting for parts: the job bench and its
 // filter, a job's page, the step ladder, a family's empty-step count, Empty steps and Ran short
 // must all say the same thing about the same shelf, and name the part that is missing.
-import { closeTestApp, signedIn, type Client } from '../support/api';
+import { closeTestApp } from '../support/api';
 import {
-  makeBin,
-  makeFamily,
+  benchShop,
   makeJob,
   makePart,
   receiveCounted,
   receivePistons,
   WORN_READINGS,
-  type Family,
 } from '../support/jobs-fixtures';
 
-let owner: Client;
-let machinist: Client;
-let staff: Client;
-let family: Family;
-let binId: string;
+const { owner, machinist, staff, family, bin } = benchShop({ cylinders: 1 });
 const jobs: Record<'ringsShort' | 'pistonShort' | 'stocked', string> = {
   ringsShort: '',
   pistonShort: '',
@@ -43,11 +37,6 @@ async function hold(jobId: string, body: Record<string, unknown>) {
 }
 
 beforeAll(async () => {
-  owner = await signedIn('owner');
-  machinist = await signedIn('machinist');
-  staff = await signedIn('staff');
-  family = await makeFamily(owner, { cylinders: 1 });
-  binId = await makeBin(owner);
   // Every step has a piston part and a ring-set part in the catalog.
   const parts: Record<string, { piston: string; rings: string }> = {};
   for (const step of Object.keys(family.steps)) {
@@ -57,7 +46,7 @@ beforeAll(async () => {
     };
   }
   // +0.020 in: two measured pistons, no ring set at all.
-  const at20 = await receivePistons(owner, parts['+0.020 in'].piston, binId, [
+  const at20 = await receivePistons(owner, parts['+0.020 in'].piston, bin.id, [
     '2.5350 in',
     '2.5351 in',
   ]);
@@ -65,18 +54,18 @@ beforeAll(async () => {
   const unmeasured = await owner.post('/api/stock/receipts', {
     partId: parts['+0.030 in'].piston,
     quantity: 1,
-    binId,
+    binId: bin.id,
     unitCost: '41.20',
     units: [{ skirt: null }],
   });
   expect(unmeasured.status).toBe(201);
-  await receiveCounted(owner, parts['+0.030 in'].rings, binId, 2);
+  await receiveCounted(owner, parts['+0.030 in'].rings, bin.id, 2);
   // +0.040 in: two measured pistons and two ring sets.
-  const at40 = await receivePistons(owner, parts['+0.040 in'].piston, binId, [
+  const at40 = await receivePistons(owner, parts['+0.040 in'].piston, bin.id, [
     '2.5550 in',
     '2.5551 in',
   ]);
-  await receiveCounted(owner, parts['+0.040 in'].rings, binId, 2);
+  await receiveCounted(owner, parts['+0.040 in'].rings, bin.id, 2);
 
   // Has its piston; no ring set is free or held: waits for rings.
   jobs.ringsShort = await jobAtStep('+0.020 in');
@@ -199,7 +188,7 @@ describe('one rule for waiting, empty steps and shortages', () => {
     const step = ladder.body.steps.find((s: { label: string }) => s.label === '+0.020 in');
     const parts = await owner.get(`/api/parts?familyId=${family.id}&kind=rings&pageSize=50`);
     const rings = parts.body.items.find((p: { stepId: string }) => p.stepId === step.stepId);
-    await receiveCounted(owner, rings.id, binId, 1);
+    await receiveCounted(owner, rings.id, bin.id, 1);
 
     const waiting = await staff.get(`/api/jobs?state=open&waiting=true&familyId=${family.id}`);
     expect(waiting.body.items.map((j: { id: string }) => j.id)).toEqual([jobs.pistonShort]);

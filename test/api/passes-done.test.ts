@@ -2,18 +2,13 @@
 // made against an older count (a tablet offline at the bar, or two people) is refused with both
 // counts; without `basedOn` the count is set as asked.
 import { db } from '../../server/db/knex';
-import { closeTestApp, signedIn, type Client } from '../support/api';
+import { closeTestApp, signedInClients } from '../support/api';
 import { makeFamily, makeJob, WORN_READINGS, type Family } from '../support/jobs-fixtures';
 
-let owner: Client;
-let machinist: Client;
-let staff: Client;
+const { owner, machinist, staff } = signedInClients({ owner: 'mm', machinist: 'in', staff: 'mm' });
 let family: Family;
 
 beforeAll(async () => {
-  owner = await signedIn('owner');
-  machinist = await signedIn('machinist', { unit: 'in' });
-  staff = await signedIn('staff');
   family = await makeFamily(owner, { cylinders: 1 });
 });
 afterAll(closeTestApp);

@@ -2,16 +2,13 @@
 // cylinder) never overwrite newer ones: with `basedOn` the server answers 409 with both versions
 // when the stored readings changed since; without it, readings are stored as before.
 import { db } from '../../server/db/knex';
-import { closeTestApp, signedIn, type Client } from '../support/api';
+import { closeTestApp, signedInClients } from '../support/api';
 import { makeFamily, makeJob, WORN_READINGS, type Family } from '../support/jobs-fixtures';
 
-let owner: Client;
-let machinist: Client;
+const { owner, machinist } = signedInClients({ owner: 'mm', machinist: 'in' });
 let family: Family;
 
 beforeAll(async () => {
-  owner = await signedIn('owner');
-  machinist = await signedIn('machinist', { unit: 'in' });
   family = await makeFamily(owner, { cylinders: 1 });
 });
 afterAll(closeTestApp);

@@ -63,12 +63,16 @@ type Method = 'get' | 'post' | 'put' | 'patch' | 'delete';
 
 /** A supertest agent with a session cookie; mutating calls send the XSRF header automatically. */
 export class Client {
-  readonly agent: ReturnType<typeof request.agent>;
   xsrf = '';
   user: TestUser | null = null;
+  private made: ReturnType<typeof request.agent> | null = null;
 
-  constructor(app: Express = testApp()) {
-    this.agent = request.agent(app);
+  /** Without `app`, the file's shared test app, made at the first call (not when the client is). */
+  constructor(private readonly app?: Express) {}
+
+  get agent(): ReturnType<typeof request.agent> {
+    this.made ??= request.agent(this.app ?? testApp());
+    return this.made;
   }
 
   private capture(res: request.Response) {
@@ -116,12 +120,49 @@ export class Client {
   }
 }
 
+/** Signs `client` in as a fresh user of the role; a refused sign-in fails the file at once. */
+async function signInAsNew(
+  client: Client,
+  role: Role,
+  opts: { unit?: 'mm' | 'in' },
+): Promise<void> {
+  const res = await client.signIn(await makeUser(role, opts));
+  if (res.status !== 200)
+    throw new Error(`sign-in as ${role} failed: ${res.status} ${JSON.stringify(res.body)}`);
+}
+
 /** A client signed in as a fresh user of the role. */
 export async function signedIn(role: Role, opts: { unit?: 'mm' | 'in' } = {}): Promise<Client> {
   const client = new Client();
-  const user = await makeUser(role, opts);
-  const res = await client.signIn(user);
-  if (res.status !== 200)
-    throw new Error(`sign-in as ${role} failed: ${res.status} ${JSON.stringify(res.body)}`);
+  await signInAsNew(client, role, opts);
   return client;
+}
+
+/**
+ * One client per role named, each signed in as a fresh user of that role who reads lengths in the
+ * unit given, in a `beforeAll` this registers, so a file names its clients at the top:
+ * `const { owner, machinist } = signedInClients({ owner: 'mm', machinist: 'in' })`. Call it before the
+ * file's own `beforeAll`s (hooks run in the order they are declared), and still close the app in
+ * the file's `afterAll`.
+ */
+export function signedInClients<R extends Role>(roles: Record<R, 'mm' | 'in'>): Record<R, Client> {
+  const clients = {} as Record<R, Client>;
+  for (const role of Object.keys(roles) as R[]) clients[role] = new Client();
+  beforeAll(async () => {
+    for (const role of Object.keys(roles) as R[])
+      await signInAsNew(clients[role], role, { unit: roles[role] });
+  });
+  return clients;
+}
+
+/** The body of a fixture call that must answer `expected`; anything else fails with what it said. */
+export function ok<T = Record<string, unknown>>(
+  res: { status: number; body: unknown },
+  expected: number,
+  what: string,
+): T {
+  if (res.status !== expected) {
+    throw new Error(`${what}: expected ${expected}, got ${res.status} ${JSON.stringify(res.body)}`);
+  }
+  return res.body as T;
 }

@@ -1,7 +1,6 @@
 // Catalog rows for API tests, made through the API itself: a step series, an engine family, its
 // piston and ring parts, and a bin. Every call makes fresh rows with unique codes.
-import type { Client } from './api';
-import { uniq } from './api';
+import { ok, uniq, type Client } from './api';
 
 export interface Fixture {
   seriesId: string;
@@ -10,13 +9,6 @@ export interface Fixture {
   familyCode: string;
   binId: string;
   binCode: string;
-}
-
-function ok<T>(res: { status: number; body: unknown }, status: number, what: string): T {
-  if (res.status !== status) {
-    throw new Error(`${what}: expected ${status}, got ${res.status} ${JSON.stringify(res.body)}`);
-  }
-  return res.body as T;
 }
 
 export async function makeSeries(

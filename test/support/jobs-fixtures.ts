@@ -1,20 +1,12 @@
 // Rows the job tests need, made through the catalog and stock API like a shop would: an imperial
 // step series, an invented air-cooled two-stroke family, piston and ring parts per step, and
 // measured pistons received into a bin.
-import type { Client } from './api';
-import { uniq } from './api';
+import { ok, signedInClients, uniq, type Client } from './api';
 
 export interface Family {
   id: string;
   code: string;
   steps: Record<string, string>;
-}
-
-function ok(res: { status: number; body: unknown }, expected: number, what: string) {
-  if (res.status !== expected) {
-    throw new Error(`${what}: expected ${expected}, got ${res.status} ${JSON.stringify(res.body)}`);
-  }
-  return res.body as Record<string, unknown>;
 }
 
 /**
@@ -91,6 +83,37 @@ export async function makePart(
 export async function makeBin(owner: Client): Promise<string> {
   const bin = ok(await owner.post('/api/bins', { code: uniq('B') }), 201, 'bin') as { id: string };
   return bin.id;
+}
+
+/**
+ * The file's family (`makeFamily` with `opts`) and bin, made by the owner in a `beforeAll` this
+ * registers and filled in place, so a file names them at the top; declare it after the owner's
+ * sign-in (hooks run in the order they are declared).
+ */
+export function familyAndBin(
+  owner: Client,
+  opts: { cylinders?: number } = {},
+): { family: Family; bin: { id: string } } {
+  const rows = { family: { id: '', code: '', steps: {} } as Family, bin: { id: '' } };
+  beforeAll(async () => {
+    Object.assign(rows.family, await makeFamily(owner, opts));
+    rows.bin.id = await makeBin(owner);
+  });
+  return rows;
+}
+
+/**
+ * The bench files' shop: an owner, a buyer and staff reading millimetres, a machinist reading
+ * `machinistUnit`, and the file's family and bin (`familyAndBin`), all made before its tests.
+ */
+export function benchShop(opts: { cylinders?: number; machinistUnit?: 'mm' | 'in' } = {}) {
+  const clients = signedInClients({
+    owner: 'mm',
+    buyer: 'mm',
+    staff: 'mm',
+    machinist: opts.machinistUnit ?? 'mm',
+  });
+  return { ...clients, ...familyAndBin(clients.owner, { cylinders: opts.cylinders }) };
 }
 
 /** Receives measured pistons (one per skirt) and returns their unit ids in order. */

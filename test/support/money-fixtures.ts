@@ -1,6 +1,6 @@
 // Rows the money tests need: a priced labour list (invented prices) and a job on a two-stroke twin
 // with both cylinders measured, a step chosen and the measured piston and a ring set held for each.
-import { uniq, type Client } from './api';
+import { ok, uniq, type Client } from './api';
 import {
   makeBin,
   makeFamily,
@@ -11,13 +11,6 @@ import {
   WORN_READINGS,
   type Family,
 } from './jobs-fixtures';
-
-function ok(res: { status: number; body: unknown }, expected: number, what: string) {
-  if (res.status !== expected) {
-    throw new Error(`${what}: expected ${expected}, got ${res.status} ${JSON.stringify(res.body)}`);
-  }
-  return res.body as Record<string, unknown>;
-}
 
 export interface Labour {
   bore: string;
