@@ -4,7 +4,7 @@
 // the next fall is a new alert.
 import { db } from '../../server/db/knex';
 import { saveSettings } from '../../server/settings/settings-service';
-import { closeTestApp, signedIn, type Client } from '../support/api';
+import { closeTestApp, signedInClients } from '../support/api';
 import {
   makeBin,
   makeFamily,
@@ -14,17 +14,15 @@ import {
   WORN_READINGS,
 } from '../support/jobs-fixtures';
 
-let owner: Client;
-let buyer: Client;
-let machinist: Client;
-let staff: Client;
+const { owner, buyer, machinist, staff } = signedInClients({
+  owner: 'mm',
+  buyer: 'mm',
+  machinist: 'mm',
+  staff: 'mm',
+});
 
 beforeAll(async () => {
   await saveSettings(null, { holdExpiryDays: 14 });
-  owner = await signedIn('owner');
-  buyer = await signedIn('buyer');
-  machinist = await signedIn('machinist');
-  staff = await signedIn('staff');
 });
 afterAll(closeTestApp);
 

@@ -9,25 +9,24 @@ import { checkReorderCrossing } from '../../server/alerts/alerts-service';
 import { startLocalSmtp, type LocalSmtp } from '../../server/mail/fake-smtp';
 import { createMailWorker } from '../../server/mail/mail-worker';
 import { saveSettings } from '../../server/settings/settings-service';
-import { closeTestApp, signedIn, type Client } from '../support/api';
+import { type Client, closeTestApp, signedIn, signedInClients } from '../support/api';
 import {
-  makeBin,
-  makeFamily,
+  familyAndBin,
   makeJob,
   makePart,
   receiveCounted,
   receivePistons,
-  type Family,
 } from '../support/jobs-fixtures';
 
 let smtp: LocalSmtp;
-let owner: Client;
-let buyer: Client;
+const { owner, buyer, machinist, staff } = signedInClients({
+  owner: 'mm',
+  buyer: 'mm',
+  machinist: 'mm',
+  staff: 'mm',
+});
+const { family, bin } = familyAndBin(owner, { cylinders: 4 });
 let digestBuyer: Client;
-let machinist: Client;
-let staff: Client;
-let family: Family;
-let binId: string;
 
 beforeAll(async () => {
   smtp = await startLocalSmtp();
@@ -36,14 +35,8 @@ beforeAll(async () => {
     shopName: 'Quarry Bend Cylinder Works',
     shopHours: 'Tue–Sat 9:00–16:00',
   });
-  owner = await signedIn('owner');
-  buyer = await signedIn('buyer');
   digestBuyer = await signedIn('buyer');
-  machinist = await signedIn('machinist');
-  staff = await signedIn('staff');
   expect((await digestBuyer.patch('/api/account', { mailMode: 'digest' })).status).toBe(200);
-  family = await makeFamily(owner, { cylinders: 4 });
-  binId = await makeBin(owner);
 });
 afterAll(async () => {
   await smtp.stop();
@@ -79,7 +72,7 @@ describe('reorder alerts', () => {
   beforeAll(async () => {
     piston = await makePart(owner, family, '+0.010 in', 'piston');
     sku = (await owner.get(`/api/parts/${piston}`)).body.sku;
-    units = await receivePistons(owner, piston, binId, ['2.5268 in', '2.5266 in', '2.5271 in']);
+    units = await receivePistons(owner, piston, bin.id, ['2.5268 in', '2.5266 in', '2.5271 in']);
     job = await makeJob(staff, family.id, { cylinders: 4 });
   });
 
@@ -176,7 +169,7 @@ describe('reorder alerts', () => {
     // has acknowledged it, the next crossing is news.
     const [open] = await alertsOf(piston);
     expect((await owner.post(`/api/alerts/${open.id}/acknowledge`)).status).toBe(200);
-    await receivePistons(owner, piston, binId, ['2.5269 in', '2.5267 in']);
+    await receivePistons(owner, piston, bin.id, ['2.5269 in', '2.5267 in']);
     // Free 1 + 2 = 3 > 2: the crossing is over.
     let alerts = await alertsOf(piston);
     expect(alerts[0].recovered_at).toBeInstanceOf(Date);
@@ -191,7 +184,7 @@ describe('reorder alerts', () => {
 
   it('when a counted part is adjusted down to its point, then an alert is raised too', async () => {
     const rings = await makePart(owner, family, '+0.010 in', 'rings');
-    await receiveCounted(owner, rings, binId, 4);
+    await receiveCounted(owner, rings, bin.id, 4);
     expect(
       (await buyer.put(`/api/parts/${rings}/reorder-rule`, { reorderPoint: 3, orderUpTo: 8 }))
         .status,
@@ -207,7 +200,7 @@ describe('reorder alerts', () => {
 
   it('when a service calls checkReorderCrossing in its transaction, then it raises the alert once and then finds nothing to do', async () => {
     const other = await makePart(owner, family, '+0.020 in', 'piston');
-    await receivePistons(owner, other, binId, ['2.5368 in']);
+    await receivePistons(owner, other, bin.id, ['2.5368 in']);
     // Set the rule underneath the API, so no trigger on parts has already looked at it.
     await db('parts').where({ id: other }).update({ order_up_to: 4 });
     await db.raw('ALTER TABLE parts DISABLE TRIGGER parts_reorder_watch');
@@ -320,7 +313,7 @@ describe('PUT /api/parts/:id/reorder-rule', () => {
 
   it('when a family default is set, then a part without its own rule is watched by it', async () => {
     const part = await makePart(owner, family, '+0.040 in', 'rings');
-    await receiveCounted(owner, part, binId, 2);
+    await receiveCounted(owner, part, bin.id, 2);
     const res = await buyer.put('/api/reorder-defaults', {
       familyId: family.id,
       stepId: family.steps['+0.040 in'],

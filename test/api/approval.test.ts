@@ -9,19 +9,14 @@ import { db } from '../../server/db/knex';
 import { startLocalSmtp, type LocalSmtp } from '../../server/mail/fake-smtp';
 import { createMailWorker } from '../../server/mail/mail-worker';
 import { saveSettings } from '../../server/settings/settings-service';
-import { closeTestApp, signedIn, testApp, uniq, type Client } from '../support/api';
+import { closeTestApp, signedInClients, testApp, uniq } from '../support/api';
 import { makeLabour, makePricedJob } from '../support/money-fixtures';
 
 let smtp: LocalSmtp;
-let owner: Client;
-let staff: Client;
-let machinist: Client;
+const { owner, staff, machinist } = signedInClients({ owner: 'mm', staff: 'mm', machinist: 'in' });
 
 beforeAll(async () => {
   smtp = await startLocalSmtp();
-  owner = await signedIn('owner');
-  staff = await signedIn('staff');
-  machinist = await signedIn('machinist', { unit: 'in' });
   await saveSettings(null, {
     shopName: 'Fernhollow Cylinder Works',
     taxRate: '20',

@@ -1,7 +1,7 @@
 // The audit trail names the records a change is about the way people know them: a hold by its
 // job number and cylinder, the job by number, the piston by label, the part by SKU, each with the
 // page that shows it; ids it cannot name stay as they are.
-import { closeTestApp, signedIn, type Client } from '../support/api';
+import { closeTestApp, signedInClients } from '../support/api';
 import {
   makeBin,
   makeFamily,
@@ -11,15 +11,8 @@ import {
   WORN_READINGS,
 } from '../support/jobs-fixtures';
 
-let owner: Client;
-let machinist: Client;
-let staff: Client;
+const { owner, machinist, staff } = signedInClients({ owner: 'mm', machinist: 'mm', staff: 'mm' });
 
-beforeAll(async () => {
-  owner = await signedIn('owner');
-  machinist = await signedIn('machinist');
-  staff = await signedIn('staff');
-});
 afterAll(closeTestApp);
 
 describe('audit trail references', () => {

@@ -2,7 +2,7 @@
 // app and database. Length checks rest on 1 in = 25.4 mm exactly (international yard and pound
 // agreement of 1959, as stated in NIST Special Publication 811, appendix B).
 import { db } from '../../server/db/knex';
-import { closeTestApp, signedIn, uniq, type Client } from '../support/api';
+import { type Client, closeTestApp, signedInClients, uniq } from '../support/api';
 import {
   makeBin,
   makeFamily,
@@ -11,17 +11,13 @@ import {
   type Fixture,
 } from '../support/catalog-fixtures';
 
-let owner: Client;
-let buyer: Client;
-let machinist: Client;
-let staff: Client;
-
-beforeAll(async () => {
-  owner = await signedIn('owner');
-  buyer = await signedIn('buyer');
-  machinist = await signedIn('machinist', { unit: 'mm' });
-  staff = await signedIn('staff', { unit: 'in' });
+const { owner, buyer, machinist, staff } = signedInClients({
+  owner: 'mm',
+  buyer: 'mm',
+  machinist: 'mm',
+  staff: 'in',
 });
+
 afterAll(closeTestApp);
 
 async function receive(

@@ -3,18 +3,13 @@
 // job event and an audit row with the reason; a cylinder measured after honing keeps its cut.
 import { db } from '../../server/db/knex';
 import { saveSettings } from '../../server/settings/settings-service';
-import { closeTestApp, signedIn, type Client } from '../support/api';
+import { type Client, closeTestApp, signedIn, signedInClients } from '../support/api';
 import { makeLabour, makePricedJob } from '../support/money-fixtures';
 
-let owner: Client;
-let staff: Client;
-let machinist: Client;
+const { owner, staff, machinist } = signedInClients({ owner: 'mm', staff: 'mm', machinist: 'in' });
 let otherMachinist: Client;
 
 beforeAll(async () => {
-  owner = await signedIn('owner');
-  staff = await signedIn('staff');
-  machinist = await signedIn('machinist', { unit: 'in' });
   otherMachinist = await signedIn('machinist');
   await saveSettings(null, { cutOnlyAfterApproval: false, maxCutPerPass: '0.020 in' });
   await makeLabour(owner);

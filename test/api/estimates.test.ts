@@ -4,21 +4,19 @@
 // written beside each check (half-up per line, tax once on the subtotal).
 import { db } from '../../server/db/knex';
 import { saveSettings } from '../../server/settings/settings-service';
-import { closeTestApp, signedIn, type Client } from '../support/api';
+import { closeTestApp, signedInClients } from '../support/api';
 import { makeLabour, makePricedJob, type Labour, type PricedJob } from '../support/money-fixtures';
 
-let owner: Client;
-let staff: Client;
-let machinist: Client;
-let buyer: Client;
+const { owner, staff, machinist, buyer } = signedInClients({
+  owner: 'mm',
+  staff: 'mm',
+  machinist: 'in',
+  buyer: 'mm',
+});
 let labour: Labour;
 let job: PricedJob;
 
 beforeAll(async () => {
-  owner = await signedIn('owner');
-  staff = await signedIn('staff');
-  machinist = await signedIn('machinist', { unit: 'in' });
-  buyer = await signedIn('buyer');
   await saveSettings(null, {
     taxRate: '20',
     pricesIncludeTax: false,

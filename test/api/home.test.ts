@@ -5,7 +5,7 @@ import { DateTime } from 'luxon';
 import request from 'supertest';
 import { HOME_LIST_LENGTH, HOME_SECTIONS_BY_ROLE, type HomeJson } from '../../shared/api/home';
 import type { Role } from '../../shared/session-types';
-import { closeTestApp, signedIn, testApp, uniq, type Client } from '../support/api';
+import { type Client, closeTestApp, signedInClients, testApp, uniq } from '../support/api';
 import {
   makeFamily,
   makeJob,
@@ -15,17 +15,15 @@ import {
 } from '../support/jobs-fixtures';
 import { makeLabour, makePricedJob } from '../support/money-fixtures';
 
-let owner: Client;
-let buyer: Client;
-let machinist: Client;
-let staff: Client;
+const { owner, buyer, machinist, staff } = signedInClients({
+  owner: 'mm',
+  buyer: 'mm',
+  machinist: 'mm',
+  staff: 'mm',
+});
 let family: Family;
 
 beforeAll(async () => {
-  owner = await signedIn('owner');
-  buyer = await signedIn('buyer');
-  machinist = await signedIn('machinist');
-  staff = await signedIn('staff');
   family = await makeFamily(owner, { cylinders: 1 });
 });
 afterAll(async () => {

@@ -6,20 +6,16 @@ import { join } from 'node:path';
 import iconv from 'iconv-lite';
 import { db } from '../../server/db/knex';
 import { armFault, disarmFaults } from '../../server/testing-faults';
-import { closeTestApp, signedIn, uniq, type Client } from '../support/api';
+import { type Client, closeTestApp, signedInClients, uniq } from '../support/api';
 import { makeFamily, makePart } from '../support/catalog-fixtures';
 
-let owner: Client;
-let buyer: Client;
-let staff: Client;
-let machinist: Client;
-
-beforeAll(async () => {
-  owner = await signedIn('owner');
-  buyer = await signedIn('buyer');
-  staff = await signedIn('staff');
-  machinist = await signedIn('machinist');
+const { owner, buyer, staff, machinist } = signedInClients({
+  owner: 'mm',
+  buyer: 'mm',
+  staff: 'mm',
+  machinist: 'mm',
 });
+
 afterEach(disarmFaults);
 afterAll(closeTestApp);
 

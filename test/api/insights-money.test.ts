@@ -14,7 +14,7 @@ import type {
   OutstandingAnswer,
   RevenueAnswer,
 } from '../../shared/api/insights';
-import { closeTestApp, signedIn, type Client } from '../support/api';
+import { closeTestApp, signedInClients } from '../support/api';
 import { makeFamily, makeJob } from '../support/jobs-fixtures';
 import { makeLabour, makePricedJob } from '../support/money-fixtures';
 
@@ -22,16 +22,11 @@ import { makeLabour, makePricedJob } from '../support/money-fixtures';
 // Pacific/Auckland), so 2025-03-31T20:00Z is 1 April there.
 const ZONE = 'Pacific/Auckland';
 
-let owner: Client;
-let staff: Client;
-let machinist: Client;
+const { owner, staff, machinist } = signedInClients({ owner: 'mm', staff: 'mm', machinist: 'in' });
 let savedZone: string;
 let family: Awaited<ReturnType<typeof makeFamily>>;
 
 beforeAll(async () => {
-  owner = await signedIn('owner');
-  staff = await signedIn('staff');
-  machinist = await signedIn('machinist', { unit: 'in' });
   savedZone = (await getSettings()).timeZone;
   await saveSettings(null, {
     homeCurrency: 'EUR',

@@ -7,16 +7,18 @@ import { DateTime } from 'luxon';
 import { db } from '../../server/db/knex';
 import { recordShortage, supplierReliability } from '../../server/insights/insights-service';
 import { neutralizeCell } from '../../shared/csv-safety';
-import { closeTestApp, signedIn, type Client } from '../support/api';
+import { closeTestApp, signedInClients } from '../support/api';
 import { makeFamily, makePart, type Fixture } from '../support/catalog-fixtures';
 
 // A zone without daylight saving and without a place name: UTC+3 all year (IANA "Etc/GMT-3").
 const ZONE = 'Etc/GMT-3';
 
-let owner: Client;
-let buyer: Client;
-let machinist: Client;
-let staff: Client;
+const { owner, buyer, machinist, staff } = signedInClients({
+  owner: 'mm',
+  buyer: 'mm',
+  machinist: 'mm',
+  staff: 'mm',
+});
 let savedZone: string;
 let fx: Fixture;
 
@@ -57,10 +59,6 @@ function sum(values: string[]): Decimal {
 }
 
 beforeAll(async () => {
-  owner = await signedIn('owner');
-  buyer = await signedIn('buyer');
-  machinist = await signedIn('machinist');
-  staff = await signedIn('staff');
   savedZone = (await owner.get('/api/settings')).body.timeZone;
   const res = await owner.patch('/api/settings', { timeZone: ZONE });
   expect(res.status).toBe(200);

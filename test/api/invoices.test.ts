@@ -13,22 +13,20 @@ import { saveSettings } from '../../server/settings/settings-service';
 import { armFault, disarmFaults } from '../../server/testing-faults';
 import { invoicePdf } from '../../server/money/invoice-pdf';
 import type { InvoiceJson } from '../../shared/api/money';
-import { closeTestApp, signedIn, uniq, type Client } from '../support/api';
+import { closeTestApp, signedInClients, uniq } from '../support/api';
 import { makeLabour, makePricedJob } from '../support/money-fixtures';
 import { makeBin, makeFamily, makeJob, makePart, receiveCounted } from '../support/jobs-fixtures';
 
 let smtp: LocalSmtp;
-let owner: Client;
-let staff: Client;
-let machinist: Client;
-let buyer: Client;
+const { owner, staff, machinist, buyer } = signedInClients({
+  owner: 'mm',
+  staff: 'mm',
+  machinist: 'in',
+  buyer: 'mm',
+});
 
 beforeAll(async () => {
   smtp = await startLocalSmtp();
-  owner = await signedIn('owner');
-  staff = await signedIn('staff');
-  machinist = await signedIn('machinist', { unit: 'in' });
-  buyer = await signedIn('buyer');
   await saveSettings(null, {
     shopName: 'Quillmoor Bore & Hone',
     homeCurrency: 'EUR',

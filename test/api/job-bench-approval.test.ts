@@ -1,17 +1,12 @@
 // The job bench marks the jobs whose estimate is with the customer, unanswered: the list and the
 // job itself say awaitingApproval from sending until the customer (or the counter) answers.
 import { saveSettings } from '../../server/settings/settings-service';
-import { closeTestApp, signedIn, uniq, type Client } from '../support/api';
+import { closeTestApp, signedInClients, uniq } from '../support/api';
 import { makeLabour, makePricedJob } from '../support/money-fixtures';
 
-let owner: Client;
-let staff: Client;
-let machinist: Client;
+const { owner, staff, machinist } = signedInClients({ owner: 'mm', staff: 'mm', machinist: 'in' });
 
 beforeAll(async () => {
-  owner = await signedIn('owner');
-  staff = await signedIn('staff');
-  machinist = await signedIn('machinist', { unit: 'in' });
   await saveSettings(null, { cutOnlyAfterApproval: true, maxCutPerPass: '0.020 in' });
   await makeLabour(owner);
 });

@@ -2,19 +2,14 @@
 // plus its share, by value, by count or not at all as the shop sets it. Worked by hand.
 import { db } from '../../server/db/knex';
 import { saveSettings } from '../../server/settings/settings-service';
-import { closeTestApp, signedIn, uniq, type Client } from '../support/api';
+import { closeTestApp, signedIn, signedInClients, uniq } from '../support/api';
 import { makeBin, makeFamily, makePart, type Family } from '../support/jobs-fixtures';
 
-let owner: Client;
-let buyer: Client;
-let staff: Client;
+const { owner, buyer, staff } = signedInClients({ owner: 'mm', buyer: 'mm', staff: 'mm' });
 let family: Family;
 
 beforeAll(async () => {
   await saveSettings(null, { homeCurrency: 'EUR', shippingAllocation: 'value' });
-  owner = await signedIn('owner');
-  buyer = await signedIn('buyer');
-  staff = await signedIn('staff');
   family = await makeFamily(owner);
   await makeBin(owner);
 });

@@ -16,17 +16,19 @@ import { startFakePayments, type FakePayments } from '../../server/payments/fake
 import { takeEventsAt, useLocalPayments } from '../../server/payments/payment-client';
 import { saveSettings } from '../../server/settings/settings-service';
 import { armFault, disarmFaults } from '../../server/testing-faults';
-import { closeTestApp, signedIn, testApp, uniq, type Client } from '../support/api';
+import { closeTestApp, signedInClients, testApp, uniq } from '../support/api';
 import { makeLabour, makePricedJob, type PricedJob } from '../support/money-fixtures';
 
 let smtp: LocalSmtp;
 let fake: FakePayments;
 let server: http.Server;
 let second: CreatedApp;
-let owner: Client;
-let staff: Client;
-let machinist: Client;
-let buyer: Client;
+const { owner, staff, machinist, buyer } = signedInClients({
+  owner: 'mm',
+  staff: 'mm',
+  machinist: 'in',
+  buyer: 'mm',
+});
 
 beforeAll(async () => {
   smtp = await startLocalSmtp();
@@ -37,10 +39,6 @@ beforeAll(async () => {
   await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
   takeEventsAt(`http://127.0.0.1:${(server.address() as AddressInfo).port}`);
   second = createApp({ serveClient: false });
-  owner = await signedIn('owner');
-  staff = await signedIn('staff');
-  machinist = await signedIn('machinist', { unit: 'in' });
-  buyer = await signedIn('buyer');
   await saveSettings(null, {
     shopName: 'Fernhollow Cylinder Works',
     homeCurrency: 'EUR',

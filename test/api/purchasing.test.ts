@@ -9,23 +9,17 @@ import { onOrderByPart } from '../../server/purchasing/orders-repository';
 import { saveSettings } from '../../server/settings/settings-service';
 import { armFault, disarmFaults } from '../../server/testing-faults';
 import { gtinCheckDigit } from '../../shared/gtin';
-import { closeTestApp, signedIn, uniq, type Client } from '../support/api';
-import {
-  makeBin,
-  makeFamily,
-  makeJob,
-  makePart,
-  receivePistons,
-  type Family,
-} from '../support/jobs-fixtures';
+import { closeTestApp, signedInClients, uniq } from '../support/api';
+import { familyAndBin, makeJob, makePart, receivePistons } from '../support/jobs-fixtures';
 
 let smtp: LocalSmtp;
-let owner: Client;
-let buyer: Client;
-let staff: Client;
-let machinist: Client;
-let family: Family;
-let binId: string;
+const { owner, buyer, staff, machinist } = signedInClients({
+  owner: 'mm',
+  buyer: 'mm',
+  staff: 'mm',
+  machinist: 'mm',
+});
+const { family, bin } = familyAndBin(owner, { cylinders: 2 });
 let today: string;
 
 beforeAll(async () => {
@@ -40,12 +34,6 @@ beforeAll(async () => {
     // Unit costs here are about currency conversion; shipping in the cost has its own tests.
     shippingAllocation: 'none',
   });
-  owner = await signedIn('owner');
-  buyer = await signedIn('buyer');
-  staff = await signedIn('staff');
-  machinist = await signedIn('machinist');
-  family = await makeFamily(owner, { cylinders: 2 });
-  binId = await makeBin(owner);
   today = new Date().toISOString().slice(0, 10);
   expect((await owner.put('/api/exchange-rates/USD', { rate: '0.9' })).status).toBe(200);
 });
@@ -672,7 +660,7 @@ describe('parts nobody offers, and the mapping queue', () => {
 describe('GET /api/parts/:id/reorder-suggestion', () => {
   it('when a part was issued 2, 1 and 3 on three days of fourteen, then the reorder point and order quantity match the hand calculation', async () => {
     const part = await makePart(owner, family, '+0.010 in', 'piston');
-    await receivePistons(owner, part, binId, ['2.5268 in'], '41.20');
+    await receivePistons(owner, part, bin.id, ['2.5268 in'], '41.20');
     const day = (n: number) => new Date(`${addDays(today, -n)}T12:00:00Z`);
     await db('stock_ledger').insert([
       { part_id: part, kind: 'issue', quantity: -2, at: day(2) },

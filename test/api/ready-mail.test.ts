@@ -6,7 +6,7 @@ import { db } from '../../server/db/knex';
 import { startLocalSmtp, type LocalSmtp } from '../../server/mail/fake-smtp';
 import { createMailWorker } from '../../server/mail/mail-worker';
 import { saveSettings } from '../../server/settings/settings-service';
-import { closeTestApp, signedIn, type Client } from '../support/api';
+import { closeTestApp, signedInClients } from '../support/api';
 import {
   makeBin,
   makeFamily,
@@ -17,16 +17,11 @@ import {
 } from '../support/jobs-fixtures';
 
 let smtp: LocalSmtp;
-let owner: Client;
-let machinist: Client;
-let staff: Client;
+const { owner, machinist, staff } = signedInClients({ owner: 'mm', machinist: 'mm', staff: 'mm' });
 
 beforeAll(async () => {
   smtp = await startLocalSmtp();
   await saveSettings(null, { timeZone: 'UTC', shopName: 'Quarry Bend Cylinder Works' });
-  owner = await signedIn('owner');
-  machinist = await signedIn('machinist');
-  staff = await signedIn('staff');
 });
 afterAll(async () => {
   await smtp.stop();

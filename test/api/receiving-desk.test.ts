@@ -3,25 +3,17 @@
 // receipt at the cost typed. Both go through POST /api/stock/receipts.
 import { db } from '../../server/db/knex';
 import { saveSettings } from '../../server/settings/settings-service';
-import { closeTestApp, signedIn, uniq, type Client } from '../support/api';
-import { makeBin, makeFamily, makePart, type Family } from '../support/jobs-fixtures';
+import { closeTestApp, signedInClients, uniq } from '../support/api';
+import { familyAndBin, makePart } from '../support/jobs-fixtures';
 
-let owner: Client;
-let buyer: Client;
-let staff: Client;
-let family: Family;
-let binId: string;
+const { owner, buyer, staff } = signedInClients({ owner: 'mm', buyer: 'mm', staff: 'mm' });
+const { family, bin } = familyAndBin(owner);
 let piston: string;
 let rings: string;
 let order: { id: string; number: string; lines: { id: string; partId: string }[] };
 
 beforeAll(async () => {
   await saveSettings(null, { timeZone: 'UTC', homeCurrency: 'EUR' });
-  owner = await signedIn('owner');
-  buyer = await signedIn('buyer');
-  staff = await signedIn('staff');
-  family = await makeFamily(owner);
-  binId = await makeBin(owner);
   piston = await makePart(owner, family, '+0.020 in', 'piston');
   rings = await makePart(owner, family, '+0.020 in', 'rings');
   const name = uniq('Supplier');
@@ -68,7 +60,7 @@ describe('one receiving page', () => {
     const res = await staff.post('/api/stock/receipts', {
       partId: piston,
       quantity: 1,
-      binId,
+      binId: bin.id,
       units: [{ skirt: '2.5360 in' }],
       orderLineId: lineOf(piston),
     });
@@ -98,7 +90,7 @@ describe('one receiving page', () => {
     const last = await staff.post('/api/stock/receipts', {
       partId: piston,
       quantity: 1,
-      binId,
+      binId: bin.id,
       units: [{ skirt: null }],
       orderLineId: lineOf(piston),
     });
@@ -107,7 +99,7 @@ describe('one receiving page', () => {
     const ringSets = await staff.post('/api/stock/receipts', {
       partId: rings,
       quantity: 4,
-      binId,
+      binId: bin.id,
       orderLineId: lineOf(rings),
     });
     expect(ringSets.status).toBe(201);
@@ -128,7 +120,7 @@ describe('one receiving page', () => {
     const full = await staff.post('/api/stock/receipts', {
       partId: piston,
       quantity: 1,
-      binId,
+      binId: bin.id,
       units: [{ skirt: null }],
       orderLineId: lineOf(piston),
     });
@@ -136,7 +128,7 @@ describe('one receiving page', () => {
     const other = await staff.post('/api/stock/receipts', {
       partId: piston,
       quantity: 1,
-      binId,
+      binId: bin.id,
       units: [{ skirt: null }],
       orderLineId: lineOf(rings),
     });
@@ -149,13 +141,17 @@ describe('one receiving page', () => {
   });
 
   it('when a delivery nobody ordered is received, then it needs the cost paid and leaves orders alone', async () => {
-    const noCost = await staff.post('/api/stock/receipts', { partId: rings, quantity: 2, binId });
+    const noCost = await staff.post('/api/stock/receipts', {
+      partId: rings,
+      quantity: 2,
+      binId: bin.id,
+    });
     expect(noCost.status).toBe(400);
     expect(noCost.body.error.details[0].field).toBe('unitCost');
     const plain = await staff.post('/api/stock/receipts', {
       partId: rings,
       quantity: 2,
-      binId,
+      binId: bin.id,
       unitCost: '12.00',
     });
     expect(plain.status).toBe(201);

@@ -3,20 +3,11 @@
 // worked by hand below.
 import { db } from '../../server/db/knex';
 import { saveSettings } from '../../server/settings/settings-service';
-import { closeTestApp, signedIn, uniq, type Client } from '../support/api';
-import {
-  makeBin,
-  makeFamily,
-  makeJob,
-  makePart,
-  receivePistons,
-  type Family,
-} from '../support/jobs-fixtures';
+import { closeTestApp, signedInClients, uniq } from '../support/api';
+import { familyAndBin, makeJob, makePart, receivePistons } from '../support/jobs-fixtures';
 
-let owner: Client;
-let buyer: Client;
-let family: Family;
-let binId: string;
+const { owner, buyer } = signedInClients({ owner: 'mm', buyer: 'mm' });
+const { family, bin } = familyAndBin(owner, { cylinders: 1 });
 
 beforeAll(async () => {
   await saveSettings(null, {
@@ -26,10 +17,6 @@ beforeAll(async () => {
     holdingCostRate: '0.25',
     serviceLevel: 0.95,
   });
-  owner = await signedIn('owner');
-  buyer = await signedIn('buyer');
-  family = await makeFamily(owner, { cylinders: 1 });
-  binId = await makeBin(owner);
 });
 afterAll(closeTestApp);
 
@@ -88,7 +75,7 @@ describe('GET /api/parts/:id/reorder-suggestion with lost sales and a late suppl
   it('when pistons were asked for and none was free, then the unmet requests count as demand; once the supplier has delivered five times, its spread joins the safety stock', async () => {
     const step = '+0.020 in';
     const part = await makePart(owner, family, step, 'piston');
-    await receivePistons(owner, part, binId, ['2.5368 in'], '40.00');
+    await receivePistons(owner, part, bin.id, ['2.5368 in'], '40.00');
     const supplierId = await supplierOffering(part, 7);
     const jobNeverSupplied = (await makeJob(owner, family.id)).id as string;
     const jobSuppliedLater = (await makeJob(owner, family.id)).id as string;

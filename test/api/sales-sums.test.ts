@@ -3,10 +3,10 @@
 // the ledger itself. Expected figures are worked by hand in the comments.
 import { db } from '../../server/db/knex';
 import { saveSettings } from '../../server/settings/settings-service';
-import { closeTestApp, signedIn, type Client } from '../support/api';
+import { closeTestApp, signedInClients } from '../support/api';
 import { makeFamily, makePart } from '../support/jobs-fixtures';
 
-let owner: Client;
+const { owner } = signedInClients({ owner: 'mm' });
 let part: string;
 
 async function sums(partId: string) {
@@ -19,7 +19,6 @@ async function sums(partId: string) {
 }
 
 beforeAll(async () => {
-  owner = await signedIn('owner');
   await saveSettings(null, { timeZone: 'UTC' });
   const family = await makeFamily(owner);
   part = await makePart(owner, family, '+0.030 in', 'rings');

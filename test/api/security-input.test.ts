@@ -3,18 +3,10 @@
 // pool's database sessions cannot hold a lock long after their process died. Named after the OWASP
 // Application Security Verification Standard 4.0.3, level 2.
 import { db } from '../../server/db/knex';
-import { closeTestApp, makeUser, signedIn, uniq, type Client } from '../support/api';
+import { closeTestApp, makeUser, signedInClients, uniq } from '../support/api';
 import { makeBin, makeFamily, makePart, receiveCounted } from '../support/jobs-fixtures';
 
-let owner: Client;
-let buyer: Client;
-let staff: Client;
-
-beforeAll(async () => {
-  owner = await signedIn('owner');
-  buyer = await signedIn('buyer');
-  staff = await signedIn('staff');
-});
+const { owner, buyer, staff } = signedInClients({ owner: 'mm', buyer: 'mm', staff: 'mm' });
 
 afterAll(async () => {
   await closeTestApp();

@@ -7,15 +7,9 @@ import { join } from 'node:path';
 import { db } from '../../server/db/knex';
 import { sweepExpiredPreviews } from '../../server/imports/preview-sweep';
 import { deleteExpiredPreviews } from '../../server/imports/previews-repository';
-import { closeTestApp, signedIn, uniq, type Client } from '../support/api';
+import { closeTestApp, signedInClients, uniq } from '../support/api';
 
-let staff: Client;
-let buyer: Client;
-
-beforeAll(async () => {
-  staff = await signedIn('staff');
-  buyer = await signedIn('buyer');
-});
+const { staff, buyer } = signedInClients({ staff: 'mm', buyer: 'mm' });
 
 afterAll(async () => {
   await closeTestApp();

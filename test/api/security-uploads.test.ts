@@ -7,18 +7,17 @@ import http from 'node:http';
 import type { AddressInfo } from 'node:net';
 import { withImportSlot, importLoad } from '../../server/imports/import-slots';
 import { keepFirst, MAX_ISSUES } from '../../server/imports/imports-service';
-import { closeTestApp, signedIn, testApp, type Client } from '../support/api';
+import { closeTestApp, signedIn, signedInClients, testApp } from '../support/api';
 import { makeFamily, makeJob } from '../support/jobs-fixtures';
 
 let server: http.Server;
 let port = 0;
-let staff: Client;
+const { staff } = signedInClients({ staff: 'mm' });
 
 beforeAll(async () => {
   server = http.createServer(testApp());
   await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
   port = (server.address() as AddressInfo).port;
-  staff = await signedIn('staff');
 });
 
 afterAll(async () => {

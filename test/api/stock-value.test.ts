@@ -2,18 +2,12 @@
 // leaving takes its share, a count that finds more adds it at the average; the average cost is
 // derived from value ÷ quantity. Every figure worked by hand.
 import { db } from '../../server/db/knex';
-import { closeTestApp, signedIn, type Client } from '../support/api';
-import { makeBin, makeFamily, makePart, type Family } from '../support/jobs-fixtures';
+import { closeTestApp, signedInClients } from '../support/api';
+import { familyAndBin, makeFamily, makePart } from '../support/jobs-fixtures';
 
-let owner: Client;
-let family: Family;
-let binId: string;
+const { owner } = signedInClients({ owner: 'mm' });
+const { family, bin } = familyAndBin(owner);
 
-beforeAll(async () => {
-  owner = await signedIn('owner');
-  family = await makeFamily(owner);
-  binId = await makeBin(owner);
-});
 afterAll(closeTestApp);
 
 async function valueOf(partId: string) {
@@ -32,7 +26,7 @@ describe('the value of stock on hand', () => {
       const res = await owner.post('/api/stock/receipts', {
         partId: part,
         quantity: 1,
-        binId,
+        binId: bin.id,
         unitCost,
       });
       expect(res.status).toBe(201);
@@ -71,7 +65,12 @@ describe('the value of stock on hand', () => {
     const fam = await makeFamily(owner);
     const part = await makePart(owner, fam, '+0.020 in', 'rings');
     for (const unitCost of ['1.00', '1.00', '2.00']) {
-      await owner.post('/api/stock/receipts', { partId: part, quantity: 1, binId, unitCost });
+      await owner.post('/api/stock/receipts', {
+        partId: part,
+        quantity: 1,
+        binId: bin.id,
+        unitCost,
+      });
     }
     const res = await owner.get('/api/insights/stock-value?months=12');
     expect(res.status).toBe(200);

@@ -4,20 +4,18 @@
 import { randomUUID } from 'node:crypto';
 import { db } from '../../server/db/knex';
 import { armFault, disarmFaults } from '../../server/testing-faults';
-import { closeTestApp, signedIn, uniq, type Client } from '../support/api';
+import { closeTestApp, signedInClients, uniq } from '../support/api';
 import { makeBin, makeFamily, makePart, type Fixture } from '../support/catalog-fixtures';
 
-let owner: Client;
-let buyer: Client;
-let staff: Client;
-let machinist: Client;
+const { owner, buyer, staff, machinist } = signedInClients({
+  owner: 'mm',
+  buyer: 'mm',
+  staff: 'in',
+  machinist: 'mm',
+});
 let fx: Fixture;
 
 beforeAll(async () => {
-  owner = await signedIn('owner');
-  buyer = await signedIn('buyer');
-  staff = await signedIn('staff', { unit: 'in' });
-  machinist = await signedIn('machinist', { unit: 'mm' });
   fx = await makeFamily(owner);
 });
 afterEach(disarmFaults);
