@@ -5,14 +5,7 @@
 import { db } from '../../server/db/knex';
 import { saveSettings } from '../../server/settings/settings-service';
 import { closeTestApp, signedInClients } from '../support/api';
-import {
-  makeBin,
-  makeFamily,
-  makeJob,
-  makePart,
-  receivePistons,
-  WORN_READINGS,
-} from '../support/jobs-fixtures';
+import { jobAtStep, makeBin, makeFamily, makePart, receivePistons } from '../support/jobs-fixtures';
 
 const { owner, buyer, machinist, staff } = signedInClients({
   owner: 'mm',
@@ -36,9 +29,7 @@ describe('one stock alert per part until it is seen', () => {
         .status,
     ).toBe(200);
     await receivePistons(owner, part, bin, ['2.5360 in', '2.5361 in']);
-    const job = await makeJob(staff, family.id);
-    await machinist.put(`/api/jobs/${job.id}/cylinders/1/readings`, { readings: WORN_READINGS });
-    await machinist.patch(`/api/jobs/${job.id}/cylinders/1`, { stepId: family.steps['+0.020 in'] });
+    const job = await jobAtStep(staff, machinist, family, '+0.020 in');
     const units = await db('piston_units').where({ part_id: part }).orderBy('label');
 
     const alerts = async () =>

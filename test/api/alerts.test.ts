@@ -6,10 +6,9 @@
 import { db } from '../../server/db/knex';
 import { runDigestSweep } from '../../server/alerts/digest-sweep';
 import { checkReorderCrossing } from '../../server/alerts/alerts-service';
-import { startLocalSmtp, type LocalSmtp } from '../../server/mail/fake-smtp';
-import { createMailWorker } from '../../server/mail/mail-worker';
 import { saveSettings } from '../../server/settings/settings-service';
 import { type Client, closeTestApp, signedIn, signedInClients } from '../support/api';
+import { localMailbox } from '../support/mailbox';
 import {
   familyAndBin,
   makeJob,
@@ -18,7 +17,7 @@ import {
   receivePistons,
 } from '../support/jobs-fixtures';
 
-let smtp: LocalSmtp;
+const smtp = localMailbox();
 const { owner, buyer, machinist, staff } = signedInClients({
   owner: 'mm',
   buyer: 'mm',
@@ -29,7 +28,6 @@ const { family, bin } = familyAndBin(owner, { cylinders: 4 });
 let digestBuyer: Client;
 
 beforeAll(async () => {
-  smtp = await startLocalSmtp();
   await saveSettings(null, {
     timeZone: 'UTC',
     shopName: 'Quarry Bend Cylinder Works',
@@ -38,16 +36,7 @@ beforeAll(async () => {
   digestBuyer = await signedIn('buyer');
   expect((await digestBuyer.patch('/api/account', { mailMode: 'digest' })).status).toBe(200);
 });
-afterAll(async () => {
-  await smtp.stop();
-  await closeTestApp();
-});
-
-async function deliver() {
-  const worker = createMailWorker({ smtpUrl: () => smtp.url });
-  await worker.runOnce();
-  await worker.stop();
-}
+afterAll(closeTestApp);
 
 function outboxFor(to: string, template: string) {
   return db('outbox').where({ to_address: to, template });
@@ -119,7 +108,7 @@ describe('reorder alerts', () => {
     // The buyer who chose a daily digest gets no instant message.
     expect(await outboxFor(digestBuyer.user?.email as string, 'reorder-alert')).toHaveLength(0);
 
-    await deliver();
+    await smtp.deliver();
     const got = smtp.received.filter((m) => m.to.includes(me) && m.subject.includes(sku));
     expect(got).toHaveLength(1);
     expect(got[0].subject).toBe(`Running low: ${sku} is down to 2 free (reorder point 2)`);
@@ -158,7 +147,7 @@ describe('reorder alerts', () => {
         [piston],
       ),
     ).toHaveLength(1);
-    await deliver();
+    await smtp.deliver();
     expect(smtp.received.filter((m) => m.to.includes(me) && m.subject.includes(sku))).toHaveLength(
       1,
     );
@@ -354,7 +343,7 @@ describe('customer notice when a job is ready', () => {
     expect(rows).toEqual([
       expect.objectContaining({ to_address: 'halloran.vey@example.test', template: 'job-ready' }),
     ]);
-    await deliver();
+    await smtp.deliver();
     const got = smtp.received.filter((m) => m.subject.includes(job.number));
     expect(got).toHaveLength(1);
     expect(got[0].to).toEqual(['halloran.vey@example.test']);

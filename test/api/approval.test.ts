@@ -6,40 +6,24 @@ import { randomUUID } from 'node:crypto';
 import request from 'supertest';
 import { randomBytes } from 'node:crypto';
 import { db } from '../../server/db/knex';
-import { startLocalSmtp, type LocalSmtp } from '../../server/mail/fake-smtp';
-import { createMailWorker } from '../../server/mail/mail-worker';
 import { saveSettings } from '../../server/settings/settings-service';
 import { closeTestApp, signedInClients, testApp, uniq } from '../support/api';
-import { makeLabour, makePricedJob } from '../support/money-fixtures';
+import { localMailbox } from '../support/mailbox';
+import { makePricedJob, moneyShop } from '../support/money-fixtures';
 
-let smtp: LocalSmtp;
+const smtp = localMailbox();
 const { owner, staff, machinist } = signedInClients({ owner: 'mm', staff: 'mm', machinist: 'in' });
 
 beforeAll(async () => {
-  smtp = await startLocalSmtp();
-  await saveSettings(null, {
+  await moneyShop(owner, {
     shopName: 'Fernhollow Cylinder Works',
-    taxRate: '20',
-    pricesIncludeTax: false,
-    cutOnlyAfterApproval: true,
-    clearancePolicy: 'min',
-    maxCutPerPass: '0.020 in',
   });
-  await db('labour_operations').update({ active: false });
-  await makeLabour(owner);
 });
-afterAll(async () => {
-  await smtp.stop();
-  await closeTestApp();
-});
+afterAll(closeTestApp);
 
 /** Sends what the outbox holds and returns the token in the last message to this address. */
 async function deliveredToken(to: string): Promise<string> {
-  const worker = createMailWorker({ smtpUrl: () => smtp.url });
-  await worker.runOnce();
-  await worker.stop();
-  const mail = smtp.received.filter((m) => m.to.includes(to)).at(-1);
-  if (!mail) throw new Error(`no mail reached ${to}`);
+  const mail = await smtp.deliveredTo(to);
   const m = /\/c\/([A-Za-z0-9_-]{43})/.exec(mail.text);
   if (!m) throw new Error(`no link in: ${mail.text}`);
   return m[1];

@@ -2,14 +2,7 @@
 // job number and cylinder, the job by number, the piston by label, the part by SKU, each with the
 // page that shows it; ids it cannot name stay as they are.
 import { closeTestApp, signedInClients } from '../support/api';
-import {
-  makeBin,
-  makeFamily,
-  makeJob,
-  makePart,
-  receivePistons,
-  WORN_READINGS,
-} from '../support/jobs-fixtures';
+import { jobAtStep, makeBin, makeFamily, makePart, receivePistons } from '../support/jobs-fixtures';
 
 const { owner, machinist, staff } = signedInClients({ owner: 'mm', machinist: 'mm', staff: 'mm' });
 
@@ -21,9 +14,7 @@ describe('audit trail references', () => {
     const bin = await makeBin(owner);
     const part = await makePart(owner, family, '+0.020 in', 'piston');
     const [unit] = await receivePistons(owner, part, bin, ['2.5360 in']);
-    const job = await makeJob(staff, family.id);
-    await machinist.put(`/api/jobs/${job.id}/cylinders/1/readings`, { readings: WORN_READINGS });
-    await machinist.patch(`/api/jobs/${job.id}/cylinders/1`, { stepId: family.steps['+0.020 in'] });
+    const job = await jobAtStep(staff, machinist, family, '+0.020 in');
     const hold = await machinist.post(`/api/jobs/${job.id}/holds`, {
       cylinder: 1,
       unitId: unit.id,

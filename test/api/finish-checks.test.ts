@@ -3,13 +3,7 @@
 // sheet — each figure worked by hand in inches (1 in = 25.4 mm exactly, NIST SP 811).
 import { saveSettings } from '../../server/settings/settings-service';
 import { closeTestApp } from '../support/api';
-import {
-  benchShop,
-  makeJob,
-  makePart,
-  receivePistons,
-  WORN_READINGS,
-} from '../support/jobs-fixtures';
+import { benchShop, jobAtStep, makePart, receivePistons } from '../support/jobs-fixtures';
 
 const { owner, machinist, staff, family, bin } = benchShop({ cylinders: 1, machinistUnit: 'in' });
 
@@ -69,9 +63,7 @@ describe('a forged piston through the sheet, the cut and the hone', () => {
     const part = await makePart(owner, family, '+0.040 in', 'piston');
     expect((await owner.patch(`/api/parts/${part}`, { material: 'forged' })).status).toBe(200);
     const [unit] = await receivePistons(owner, part, bin.id, ['2.5555 in']);
-    job = await makeJob(staff, family.id);
-    await machinist.put(`/api/jobs/${job.id}/cylinders/1/readings`, { readings: WORN_READINGS });
-    await machinist.patch(`/api/jobs/${job.id}/cylinders/1`, { stepId: family.steps['+0.040 in'] });
+    job = await jobAtStep(staff, machinist, family, '+0.040 in');
     expect(
       (await machinist.post(`/api/jobs/${job.id}/holds`, { cylinder: 1, unitId: unit.id })).status,
     ).toBe(201);

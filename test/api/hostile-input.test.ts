@@ -154,6 +154,28 @@ function multipart(
     .send(body);
 }
 
+/** Changes to the shop's settings by the owner, each refused with 400 at the field named. */
+function refusedSettings(rows: [name: string, patch: object, field: string][]): HostileCase[] {
+  return rows.map(([name, patch, field]) => ({
+    name,
+    send: (c) => c.owner.patch('/api/settings', patch),
+    status: 400,
+    field,
+  }));
+}
+
+/** New engine families (`family` with the patch over it), each refused with 400 at the field named. */
+function refusedFamilies(
+  rows: [name: string, patch: Record<string, unknown>, field: string][],
+): HostileCase[] {
+  return rows.map(([name, patch, field]) => ({
+    name,
+    send: (c, f) => c.owner.post('/api/engine-families', family(f, patch)),
+    status: 400,
+    field,
+  }));
+}
+
 const CASES: HostileCase[] = [
   // ---- Sign-in ---------------------------------------------------------------------------------
   {
@@ -349,36 +371,17 @@ const CASES: HostileCase[] = [
     status: 400,
     field: 'holdExpiryDays',
   },
-  {
-    name: 'settings with hold expiry "NaN" as text',
-    send: (c) => c.owner.patch('/api/settings', { holdExpiryDays: 'NaN' }),
-    status: 400,
-    field: 'holdExpiryDays',
-  },
-  {
-    name: 'settings with a time zone on another planet',
-    send: (c) => c.owner.patch('/api/settings', { timeZone: 'Mars/Olympus' }),
-    status: 400,
-    field: 'timeZone',
-  },
-  {
-    name: 'settings with a home currency that is not ISO 4217',
-    send: (c) => c.owner.patch('/api/settings', { homeCurrency: '$$$' }),
-    status: 400,
-    field: 'homeCurrency',
-  },
-  {
-    name: 'settings with a cut per pass that is not a length',
-    send: (c) => c.owner.patch('/api/settings', { maxCutPerPass: 'banana' }),
-    status: 400,
-    field: 'maxCutPerPass',
-  },
-  {
-    name: 'settings with a negative ordering cost',
-    send: (c) => c.owner.patch('/api/settings', { orderCost: '-5' }),
-    status: 400,
-    field: 'orderCost',
-  },
+  ...refusedSettings([
+    ['settings with hold expiry "NaN" as text', { holdExpiryDays: 'NaN' }, 'holdExpiryDays'],
+    ['settings with a time zone on another planet', { timeZone: 'Mars/Olympus' }, 'timeZone'],
+    ['settings with a home currency that is not ISO 4217', { homeCurrency: '$$$' }, 'homeCurrency'],
+    [
+      'settings with a cut per pass that is not a length',
+      { maxCutPerPass: 'banana' },
+      'maxCutPerPass',
+    ],
+    ['settings with a negative ordering cost', { orderCost: '-5' }, 'orderCost'],
+  ]),
   {
     name: 'settings with an unknown key',
     send: (c) => c.owner.patch('/api/settings', { adminMode: true }),
@@ -386,69 +389,26 @@ const CASES: HostileCase[] = [
   },
 
   // ---- Lengths (engine families) -------------------------------------------------------------------
-  {
-    name: 'family with a negative bore',
-    send: (c, f) => c.owner.post('/api/engine-families', family(f, { standardBore: '-54.00 mm' })),
-    status: 400,
-    field: 'standardBore',
-  },
-  {
-    name: 'family with NaN as its bore',
-    send: (c, f) => c.owner.post('/api/engine-families', family(f, { standardBore: 'NaN mm' })),
-    status: 400,
-    field: 'standardBore',
-  },
-  {
-    name: 'family with Infinity as its stroke',
-    send: (c, f) => c.owner.post('/api/engine-families', family(f, { stroke: 'Infinity mm' })),
-    status: 400,
-    field: 'stroke',
-  },
-  {
-    name: 'family with a bore in exponent notation',
-    send: (c, f) => c.owner.post('/api/engine-families', family(f, { standardBore: '5.4e1 mm' })),
-    status: 400,
-    field: 'standardBore',
-  },
-  {
-    name: 'family with a bore in furlongs',
-    send: (c, f) =>
-      c.owner.post('/api/engine-families', family(f, { standardBore: '0.0003 furlongs' })),
-    status: 400,
-    field: 'standardBore',
-  },
-  {
-    name: 'family with a clearance in centimetres',
-    send: (c, f) => c.owner.post('/api/engine-families', family(f, { clearanceMin: '0.004 cm' })),
-    status: 400,
-    field: 'clearanceMin',
-  },
-  {
-    name: 'family with a bore as a bare number (no unit, wrong type)',
-    send: (c, f) => c.owner.post('/api/engine-families', family(f, { standardBore: 54 })),
-    status: 400,
-    field: 'standardBore',
-  },
-  {
-    name: 'family with a bore of a kilometre',
-    send: (c, f) => c.owner.post('/api/engine-families', family(f, { standardBore: '1000000 mm' })),
-    status: 400,
-    field: 'standardBore',
-  },
-  {
-    name: 'family with a bore finer than a nanometre',
-    send: (c, f) =>
-      c.owner.post('/api/engine-families', family(f, { standardBore: '54.0000001 mm' })),
-    status: 400,
-    field: 'standardBore',
-  },
-  {
-    name: 'family with a 1 MB-less-a-bit name',
-    send: (c, f) =>
-      c.owner.post('/api/engine-families', family(f, { name: 'n'.repeat(MB - 2000) })),
-    status: 400,
-    field: 'name',
-  },
+  ...refusedFamilies([
+    ['family with a negative bore', { standardBore: '-54.00 mm' }, 'standardBore'],
+    ['family with NaN as its bore', { standardBore: 'NaN mm' }, 'standardBore'],
+    ['family with Infinity as its stroke', { stroke: 'Infinity mm' }, 'stroke'],
+    ['family with a bore in exponent notation', { standardBore: '5.4e1 mm' }, 'standardBore'],
+    ['family with a bore in furlongs', { standardBore: '0.0003 furlongs' }, 'standardBore'],
+    ['family with a clearance in centimetres', { clearanceMin: '0.004 cm' }, 'clearanceMin'],
+    [
+      'family with a bore as a bare number (no unit, wrong type)',
+      { standardBore: 54 },
+      'standardBore',
+    ],
+    ['family with a bore of a kilometre', { standardBore: '1000000 mm' }, 'standardBore'],
+    [
+      'family with a bore finer than a nanometre',
+      { standardBore: '54.0000001 mm' },
+      'standardBore',
+    ],
+    ['family with a 1 MB-less-a-bit name', { name: 'n'.repeat(MB - 2000) }, 'name'],
+  ]),
 
   // ---- Parts and queries -------------------------------------------------------------------------------
   {

@@ -73,6 +73,23 @@ async function written(supplierId: string) {
 
 const NOTHING = { imports: 0, items: 0, prices: 0, staged: 0 };
 
+/** Staff upload the semicolon Windows-1252 sample to `supplierId`. */
+const uploadMorvendt = (supplierId: string) =>
+  upload(staff, supplierId, sample('morvendt-motorteile-2026-12.csv'), 'morvendt.csv');
+
+/** That sample's counts at a supplier that offers nothing yet: its 31 lines, each new and unmapped. */
+const MORVENDT_FIRST_COUNTS = {
+  rows: 31,
+  ok: 31,
+  errors: 0,
+  new: 31,
+  up: 0,
+  down: 0,
+  unchanged: 0,
+  missing: 0,
+  unmapped: 31,
+};
+
 describe('suppliers', () => {
   it('when a buyer creates a supplier, then 201 and it is listed with its currency and lead time', async () => {
     const name = uniq('Kestrel Parts');
@@ -130,29 +147,14 @@ describe('suppliers', () => {
 describe('uploading and committing a price list', () => {
   it('when staff upload the semicolon Windows-1252 sample, then the preview shows the detected format, counts and sample', async () => {
     const supplier = await makeSupplier();
-    const res = await upload(
-      staff,
-      supplier.id,
-      sample('morvendt-motorteile-2026-12.csv'),
-      'morvendt.csv',
-    );
+    const res = await uploadMorvendt(supplier.id);
     expect(res.status).toBe(201);
     expect(res.body).toMatchObject({
       importId: expect.any(String),
       status: 'previewed',
       detected: { encoding: 'windows-1252', delimiter: ';', decimal: ',', headerLine: 1 },
       mapping: { sku: 'Art.-Nr.', price: 'Preis €', size: 'Ø mm', sizeUnit: 'mm' },
-      counts: {
-        rows: 31,
-        ok: 31,
-        errors: 0,
-        new: 31,
-        up: 0,
-        down: 0,
-        unchanged: 0,
-        missing: 0,
-        unmapped: 31,
-      },
+      counts: MORVENDT_FIRST_COUNTS,
       errors: [],
     });
     expect(res.body.sample).toHaveLength(20);
@@ -174,28 +176,13 @@ describe('uploading and committing a price list', () => {
 
   it('when the preview is committed, then every item and its first price are written in one go', async () => {
     const supplier = await makeSupplier();
-    const preview = await upload(
-      staff,
-      supplier.id,
-      sample('morvendt-motorteile-2026-12.csv'),
-      'morvendt.csv',
-    );
+    const preview = await uploadMorvendt(supplier.id);
     const commit = await staff.post(`/api/price-list-imports/${preview.body.importId}/commit`);
     expect(commit.status).toBe(200);
     expect(commit.body).toEqual({
       status: 'committed',
       importId: preview.body.importId,
-      counts: {
-        rows: 31,
-        ok: 31,
-        errors: 0,
-        new: 31,
-        up: 0,
-        down: 0,
-        unchanged: 0,
-        missing: 0,
-        unmapped: 31,
-      },
+      counts: MORVENDT_FIRST_COUNTS,
     });
     expect(await written(supplier.id)).toEqual({ imports: 1, items: 31, prices: 31, staged: 0 });
 

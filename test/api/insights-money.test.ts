@@ -16,7 +16,7 @@ import type {
 } from '../../shared/api/insights';
 import { closeTestApp, signedInClients } from '../support/api';
 import { makeFamily, makeJob } from '../support/jobs-fixtures';
-import { makeLabour, makePricedJob } from '../support/money-fixtures';
+import { makePricedJob, moneyShop } from '../support/money-fixtures';
 
 // New Zealand keeps daylight time (UTC+13) until 03:00 on Sunday 6 April 2025 (IANA tz database,
 // Pacific/Auckland), so 2025-03-31T20:00Z is 1 April there.
@@ -28,17 +28,10 @@ let family: Awaited<ReturnType<typeof makeFamily>>;
 
 beforeAll(async () => {
   savedZone = (await getSettings()).timeZone;
-  await saveSettings(null, {
+  await moneyShop(owner, {
     homeCurrency: 'EUR',
-    taxRate: '20',
-    pricesIncludeTax: false,
-    cutOnlyAfterApproval: true,
-    clearancePolicy: 'min',
-    maxCutPerPass: '0.020 in',
     timeZone: ZONE,
   });
-  await db('labour_operations').update({ active: false });
-  await makeLabour(owner);
   family = await makeFamily(owner, { cylinders: 1 });
 });
 afterAll(async () => {

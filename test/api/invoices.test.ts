@@ -6,18 +6,16 @@
 import { inflateSync } from 'node:zlib';
 import type { Response } from 'superagent';
 import { db } from '../../server/db/knex';
-import { startLocalSmtp, type LocalSmtp } from '../../server/mail/fake-smtp';
-import { createMailWorker } from '../../server/mail/mail-worker';
 import { insertPayment } from '../../server/money/payments-repository';
-import { saveSettings } from '../../server/settings/settings-service';
 import { armFault, disarmFaults } from '../../server/testing-faults';
 import { invoicePdf } from '../../server/money/invoice-pdf';
 import type { InvoiceJson } from '../../shared/api/money';
 import { closeTestApp, signedInClients, uniq } from '../support/api';
-import { makeLabour, makePricedJob } from '../support/money-fixtures';
+import { localMailbox } from '../support/mailbox';
+import { makePricedJob, moneyShop } from '../support/money-fixtures';
 import { makeBin, makeFamily, makeJob, makePart, receiveCounted } from '../support/jobs-fixtures';
 
-let smtp: LocalSmtp;
+const smtp = localMailbox();
 const { owner, staff, machinist, buyer } = signedInClients({
   owner: 'mm',
   staff: 'mm',
@@ -26,22 +24,13 @@ const { owner, staff, machinist, buyer } = signedInClients({
 });
 
 beforeAll(async () => {
-  smtp = await startLocalSmtp();
-  await saveSettings(null, {
+  await moneyShop(owner, {
     shopName: 'Quillmoor Bore & Hone',
     homeCurrency: 'EUR',
-    taxRate: '20',
-    pricesIncludeTax: false,
-    cutOnlyAfterApproval: true,
-    clearancePolicy: 'min',
-    maxCutPerPass: '0.020 in',
   });
-  await db('labour_operations').update({ active: false });
-  await makeLabour(owner);
 });
 afterAll(async () => {
   disarmFaults();
-  await smtp.stop();
   await closeTestApp();
 });
 
@@ -219,10 +208,7 @@ describe('the invoice of a priced, approved job with a part beyond the estimate 
   });
 
   it('when the outbox is sent, then the customer gets text and HTML with the totals and the PDF attached', async () => {
-    const worker = createMailWorker({ smtpUrl: () => smtp.url });
-    await worker.runOnce();
-    await worker.stop();
-    const mail = smtp.received.filter((m) => m.to.includes(email)).at(-1);
+    const mail = await smtp.deliveredTo(email);
     expect(mail?.subject).toContain(invoice.number);
     expect(mail?.subject).toContain('Quillmoor Bore & Hone');
     expect(mail?.text).toMatch(/490\.40 EUR is still to pay/);

@@ -5,6 +5,7 @@ import { saveSettings } from '../../server/settings/settings-service';
 import { closeTestApp, type Client } from '../support/api';
 import {
   benchShop,
+  jobAtStep,
   makeFamily,
   makeJob,
   makePart,
@@ -500,9 +501,7 @@ describe('a held piston whose bore does not clean up', () => {
     const fam = await makeFamily(owner);
     const piston = await makePart(owner, fam, '+0.010 in', 'piston');
     [{ id: unitId }] = await receivePistons(owner, piston, bin.id, ['2.5270 in']);
-    job = await makeJob(staff, fam.id);
-    await machinist.put(`/api/jobs/${job.id}/cylinders/1/readings`, { readings: WORN_READINGS });
-    await machinist.patch(`/api/jobs/${job.id}/cylinders/1`, { stepId: fam.steps['+0.010 in'] });
+    job = await jobAtStep(staff, machinist, fam, '+0.010 in');
   });
 
   it('when the proposal offers it, then it says the piston does not clean up', async () => {

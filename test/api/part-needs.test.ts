@@ -4,11 +4,10 @@
 import { closeTestApp } from '../support/api';
 import {
   benchShop,
-  makeJob,
+  jobAtStep,
   makePart,
   receiveCounted,
   receivePistons,
-  WORN_READINGS,
 } from '../support/jobs-fixtures';
 
 const { owner, machinist, staff, family, bin } = benchShop({ cylinders: 1 });
@@ -17,19 +16,6 @@ const jobs: Record<'ringsShort' | 'pistonShort' | 'stocked', string> = {
   pistonShort: '',
   stocked: '',
 };
-
-async function jobAtStep(step: string): Promise<string> {
-  const job = await makeJob(staff, family.id);
-  const put = await machinist.put(`/api/jobs/${job.id}/cylinders/1/readings`, {
-    readings: WORN_READINGS,
-  });
-  expect(put.status).toBe(200);
-  const patch = await machinist.patch(`/api/jobs/${job.id}/cylinders/1`, {
-    stepId: family.steps[step],
-  });
-  expect(patch.status).toBe(200);
-  return job.id;
-}
 
 async function hold(jobId: string, body: Record<string, unknown>) {
   const res = await machinist.post(`/api/jobs/${jobId}/holds`, { cylinder: 1, ...body });
@@ -68,12 +54,12 @@ beforeAll(async () => {
   await receiveCounted(owner, parts['+0.040 in'].rings, bin.id, 2);
 
   // Has its piston; no ring set is free or held: waits for rings.
-  jobs.ringsShort = await jobAtStep('+0.020 in');
+  jobs.ringsShort = (await jobAtStep(staff, machinist, family, '+0.020 in')).id;
   await hold(jobs.ringsShort, { unitId: at20[0].id });
   // Ring sets are free; the only piston is still to measure: waits for a piston.
-  jobs.pistonShort = await jobAtStep('+0.030 in');
+  jobs.pistonShort = (await jobAtStep(staff, machinist, family, '+0.030 in')).id;
   // Piston and ring set held: waits for nothing.
-  jobs.stocked = await jobAtStep('+0.040 in');
+  jobs.stocked = (await jobAtStep(staff, machinist, family, '+0.040 in')).id;
   await hold(jobs.stocked, { unitId: at40[0].id });
   await hold(jobs.stocked, { partId: parts['+0.040 in'].rings, quantity: 1 });
 });

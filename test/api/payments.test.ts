@@ -10,16 +10,14 @@ import Stripe from 'stripe';
 import Decimal from 'decimal.js';
 import { db } from '../../server/db/knex';
 import { createApp, type CreatedApp } from '../../server/app';
-import { startLocalSmtp, type LocalSmtp } from '../../server/mail/fake-smtp';
-import { createMailWorker } from '../../server/mail/mail-worker';
 import { startFakePayments, type FakePayments } from '../../server/payments/fake-payments';
 import { takeEventsAt, useLocalPayments } from '../../server/payments/payment-client';
-import { saveSettings } from '../../server/settings/settings-service';
 import { armFault, disarmFaults } from '../../server/testing-faults';
 import { closeTestApp, signedInClients, testApp, uniq } from '../support/api';
-import { makeLabour, makePricedJob, type PricedJob } from '../support/money-fixtures';
+import { localMailbox } from '../support/mailbox';
+import { makePricedJob, moneyShop, type PricedJob } from '../support/money-fixtures';
 
-let smtp: LocalSmtp;
+const smtp = localMailbox();
 let fake: FakePayments;
 let server: http.Server;
 let second: CreatedApp;
@@ -31,7 +29,6 @@ const { owner, staff, machinist, buyer } = signedInClients({
 });
 
 beforeAll(async () => {
-  smtp = await startLocalSmtp();
   fake = await startFakePayments();
   useLocalPayments(fake);
   // The stand-in sends its events to a listening copy of the app, as it would to a server.
@@ -39,18 +36,11 @@ beforeAll(async () => {
   await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
   takeEventsAt(`http://127.0.0.1:${(server.address() as AddressInfo).port}`);
   second = createApp({ serveClient: false });
-  await saveSettings(null, {
+  await moneyShop(owner, {
     shopName: 'Fernhollow Cylinder Works',
     homeCurrency: 'EUR',
-    taxRate: '20',
-    pricesIncludeTax: false,
     depositPercent: '30',
-    cutOnlyAfterApproval: true,
-    clearancePolicy: 'min',
-    maxCutPerPass: '0.020 in',
   });
-  await db('labour_operations').update({ active: false });
-  await makeLabour(owner);
 });
 afterAll(async () => {
   takeEventsAt(null);
@@ -59,7 +49,6 @@ afterAll(async () => {
   server.closeAllConnections();
   await second.close();
   await fake.stop();
-  await smtp.stop();
   await closeTestApp();
 });
 
@@ -67,16 +56,6 @@ async function pricedJob(): Promise<PricedJob & { email: string }> {
   const email = `${uniq('cust')}@example.test`;
   const job = await makePricedJob(owner, staff, machinist, { customerEmail: email });
   return { ...job, email };
-}
-
-/** Sends what the outbox holds; the last message to this address. */
-async function deliveredTo(to: string) {
-  const worker = createMailWorker({ smtpUrl: () => smtp.url });
-  await worker.runOnce();
-  await worker.stop();
-  const mail = smtp.received.filter((m) => m.to.includes(to)).at(-1);
-  if (!mail) throw new Error(`no mail reached ${to}`);
-  return mail;
 }
 
 const sessionPath = (url: string) => new URL(url).pathname;
@@ -131,7 +110,7 @@ describe('a deposit asked for, paid on the payment page, marked paid once', () =
   });
 
   it('when the outbox is sent, then the customer gets text and HTML with the pay link and their job page', async () => {
-    const mail = await deliveredTo(job.email);
+    const mail = await smtp.deliveredTo(job.email);
     expect(mail.subject).toContain('Fernhollow Cylinder Works');
     expect(mail.subject).toContain(job.number);
     expect(mail.text).toContain(url);
@@ -524,8 +503,8 @@ describe('public payment links', () => {
     const b = await pricedJob();
     await staff.post(`/api/jobs/${a.id}/payment-requests`, { purpose: 'deposit' });
     await staff.post(`/api/jobs/${b.id}/payment-requests`, { purpose: 'deposit', amount: '10.00' });
-    const tokenA = /\/c\/([A-Za-z0-9_-]{43})/.exec((await deliveredTo(a.email)).text)![1];
-    const tokenB = /\/c\/([A-Za-z0-9_-]{43})/.exec((await deliveredTo(b.email)).text)![1];
+    const tokenA = /\/c\/([A-Za-z0-9_-]{43})/.exec((await smtp.deliveredTo(a.email)).text)![1];
+    const tokenB = /\/c\/([A-Za-z0-9_-]{43})/.exec((await smtp.deliveredTo(b.email)).text)![1];
     const pageB = (await request(testApp()).get(`/api/public/jobs/${tokenB}`)).body;
     expect(pageB.job.number).toBe(b.number);
     expect(pageB.payments).toEqual([expect.objectContaining({ amount: '10.00', state: 'open' })]);

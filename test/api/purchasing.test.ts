@@ -3,16 +3,15 @@
 // jobs, oldest first, and the machinist told by e-mail), drafts from the reorder list, and the
 // reorder suggestion worked by hand.
 import { db } from '../../server/db/knex';
-import { startLocalSmtp, type LocalSmtp } from '../../server/mail/fake-smtp';
-import { createMailWorker } from '../../server/mail/mail-worker';
 import { onOrderByPart } from '../../server/purchasing/orders-repository';
 import { saveSettings } from '../../server/settings/settings-service';
 import { armFault, disarmFaults } from '../../server/testing-faults';
 import { gtinCheckDigit } from '../../shared/gtin';
 import { closeTestApp, signedInClients, uniq } from '../support/api';
+import { localMailbox } from '../support/mailbox';
 import { familyAndBin, makeJob, makePart, receivePistons } from '../support/jobs-fixtures';
 
-let smtp: LocalSmtp;
+const smtp = localMailbox();
 const { owner, buyer, staff, machinist } = signedInClients({
   owner: 'mm',
   buyer: 'mm',
@@ -23,7 +22,6 @@ const { family, bin } = familyAndBin(owner, { cylinders: 2 });
 let today: string;
 
 beforeAll(async () => {
-  smtp = await startLocalSmtp();
   await saveSettings(null, {
     timeZone: 'UTC',
     homeCurrency: 'EUR',
@@ -39,7 +37,6 @@ beforeAll(async () => {
 });
 afterAll(async () => {
   disarmFaults();
-  await smtp.stop();
   await closeTestApp();
 });
 
@@ -47,12 +44,6 @@ function addDays(iso: string, days: number): string {
   const d = new Date(`${iso}T00:00:00Z`);
   d.setUTCDate(d.getUTCDate() + days);
   return d.toISOString().slice(0, 10);
-}
-
-async function deliver() {
-  const worker = createMailWorker({ smtpUrl: () => smtp.url });
-  await worker.runOnce();
-  await worker.stop();
 }
 
 async function makeSupplier(opts: {
@@ -291,7 +282,7 @@ describe('purchase orders, receiving and waiting jobs', () => {
     );
     expect((await buyer.post(`/api/purchase-orders/${order.id}/send`)).status).toBe(409);
 
-    await deliver();
+    await smtp.deliver();
     const got = smtp.received.filter((m) => m.to.includes(supplier.email as string));
     expect(got).toHaveLength(1);
     expect(got[0].subject).toBe(`Purchase order ${order.number} from Quarry Bend Cylinder Works`);
@@ -453,7 +444,7 @@ describe('purchase orders, receiving and waiting jobs', () => {
     const job = await machinist.get(`/api/jobs/${olderJob.id}`);
     expect(job.body.pistonsHeld).toBe(1);
 
-    await deliver();
+    await smtp.deliver();
     const me = machinist.user?.email as string;
     const told = smtp.received.filter(
       (m) => m.to.includes(me) && m.subject.includes(olderJob.number),

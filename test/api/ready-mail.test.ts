@@ -3,36 +3,25 @@
 // units, with running-in advice that defers to the engine maker. Delivered to a real SMTP server
 // on loopback. Conversions use 1 in = 25.4 mm exactly (the international inch, 1959).
 import { db } from '../../server/db/knex';
-import { startLocalSmtp, type LocalSmtp } from '../../server/mail/fake-smtp';
-import { createMailWorker } from '../../server/mail/mail-worker';
 import { saveSettings } from '../../server/settings/settings-service';
 import { closeTestApp, signedInClients } from '../support/api';
+import { localMailbox } from '../support/mailbox';
 import {
+  jobAtStep,
   makeBin,
   makeFamily,
   makeJob,
   makePart,
   receivePistons,
-  WORN_READINGS,
 } from '../support/jobs-fixtures';
 
-let smtp: LocalSmtp;
+const smtp = localMailbox();
 const { owner, machinist, staff } = signedInClients({ owner: 'mm', machinist: 'mm', staff: 'mm' });
 
 beforeAll(async () => {
-  smtp = await startLocalSmtp();
   await saveSettings(null, { timeZone: 'UTC', shopName: 'Quarry Bend Cylinder Works' });
 });
-afterAll(async () => {
-  await smtp.stop();
-  await closeTestApp();
-});
-
-async function deliver() {
-  const worker = createMailWorker({ smtpUrl: () => smtp.url });
-  await worker.runOnce();
-  await worker.stop();
-}
+afterAll(closeTestApp);
 
 describe('the ready-to-collect e-mail', () => {
   it('when a bored and honed job is ready, then the e-mail gives the sizes recorded and running-in advice', async () => {
@@ -40,9 +29,9 @@ describe('the ready-to-collect e-mail', () => {
     const bin = await makeBin(owner);
     const part = await makePart(owner, family, '+0.020 in', 'piston');
     const [unit] = await receivePistons(owner, part, bin, ['2.5360 in']);
-    const job = await makeJob(staff, family.id, { customerEmail: 'wenna.stroud@example.test' });
-    await machinist.put(`/api/jobs/${job.id}/cylinders/1/readings`, { readings: WORN_READINGS });
-    await machinist.patch(`/api/jobs/${job.id}/cylinders/1`, { stepId: family.steps['+0.020 in'] });
+    const job = await jobAtStep(staff, machinist, family, '+0.020 in', {
+      customerEmail: 'wenna.stroud@example.test',
+    });
     const hold = await machinist.post(`/api/jobs/${job.id}/holds`, {
       cylinder: 1,
       unitId: unit.id,
@@ -55,7 +44,7 @@ describe('the ready-to-collect e-mail', () => {
     expect((await machinist.patch(`/api/jobs/${job.id}`, { state: 'ready_to_go' })).status).toBe(
       200,
     );
-    await deliver();
+    await smtp.deliver();
     const [mail] = smtp.received.filter((m) => m.subject.includes(job.number));
     expect(mail).toBeDefined();
     const text = mail.text.replace(/\s+/g, ' ');
@@ -79,7 +68,7 @@ describe('the ready-to-collect e-mail', () => {
     expect((await machinist.patch(`/api/jobs/${job.id}`, { state: 'ready_to_go' })).status).toBe(
       200,
     );
-    await deliver();
+    await smtp.deliver();
     const [mail] = smtp.received.filter((m) => m.subject.includes(job.number));
     const text = mail.text.replace(/\s+/g, ' ');
     expect(text).not.toMatch(/Finished bore|Piston clearance/);

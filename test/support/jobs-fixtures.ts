@@ -180,3 +180,21 @@ export const WORN_READINGS = [
   { depth: 'bottom', axis: 'pin', diameter: '2.5205 in' },
   { depth: 'bottom', axis: 'thrust', diameter: '2.5204 in' },
 ];
+
+/**
+ * A one-cylinder job taken in by `staff` (`makeJob` with `extra`), its cylinder measured with
+ * `WORN_READINGS` and set to `step` by `machinist`; a refused call fails at once.
+ */
+export async function jobAtStep(
+  staff: Client,
+  machinist: Client,
+  family: Family,
+  step: string,
+  extra: Record<string, unknown> = {},
+): Promise<{ id: string; number: string; state: string }> {
+  const job = await makeJob(staff, family.id, extra);
+  const cylinder = `/api/jobs/${job.id}/cylinders/1`;
+  ok(await machinist.put(`${cylinder}/readings`, { readings: WORN_READINGS }), 200, 'readings');
+  ok(await machinist.patch(cylinder, { stepId: family.steps[step] }), 200, 'step');
+  return job;
+}

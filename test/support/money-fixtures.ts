@@ -1,5 +1,7 @@
 // Rows the money tests need: a priced labour list (invented prices) and a job on a two-stroke twin
 // with both cylinders measured, a step chosen and the measured piston and a ring set held for each.
+import { db } from '../../server/db/knex';
+import { saveSettings } from '../../server/settings/settings-service';
 import { ok, uniq, type Client } from './api';
 import {
   makeBin,
@@ -40,6 +42,27 @@ export async function makeLabour(owner: Client): Promise<Labour> {
     chamfer: await add('Chamfer the port edges', 'cylinder', '18.50', 'bored_two_stroke'),
     clean: await add('Clean and inspect', 'job', '12.00', 'every_job'),
   };
+}
+
+/**
+ * The shop the money files share: tax 20 % added to the prices, the cut waiting for the customer's
+ * approval, the tighter clearance and cuts of 0.020 in a pass, with `settings` over those; then
+ * only `makeLabour`'s prices are active, whatever another file left. Returns those prices.
+ */
+export async function moneyShop(
+  owner: Client,
+  settings: Parameters<typeof saveSettings>[1] = {},
+): Promise<Labour> {
+  await saveSettings(null, {
+    taxRate: '20',
+    pricesIncludeTax: false,
+    cutOnlyAfterApproval: true,
+    clearancePolicy: 'min',
+    maxCutPerPass: '0.020 in',
+    ...settings,
+  });
+  await db('labour_operations').update({ active: false });
+  return makeLabour(owner);
 }
 
 export interface PricedJob {
