@@ -4,15 +4,10 @@
 // the next fall is a new alert.
 import { db } from '../../server/db/knex';
 import { saveSettings } from '../../server/settings/settings-service';
-import { closeTestApp, signedInClients } from '../support/api';
+import { closeTestApp, everyRoleSignedIn } from '../support/api';
 import { jobAtStep, makeBin, makeFamily, makePart, receivePistons } from '../support/jobs-fixtures';
 
-const { owner, buyer, machinist, staff } = signedInClients({
-  owner: 'mm',
-  buyer: 'mm',
-  machinist: 'mm',
-  staff: 'mm',
-});
+const { owner, buyer, machinist, staff } = everyRoleSignedIn();
 
 beforeAll(async () => {
   await saveSettings(null, { holdExpiryDays: 14 });

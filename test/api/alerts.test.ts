@@ -7,7 +7,7 @@ import { db } from '../../server/db/knex';
 import { runDigestSweep } from '../../server/alerts/digest-sweep';
 import { checkReorderCrossing } from '../../server/alerts/alerts-service';
 import { saveSettings } from '../../server/settings/settings-service';
-import { type Client, closeTestApp, signedIn, signedInClients } from '../support/api';
+import { type Client, closeTestApp, everyRoleSignedIn, signedIn } from '../support/api';
 import { localMailbox } from '../support/mailbox';
 import {
   familyAndBin,
@@ -18,12 +18,7 @@ import {
 } from '../support/jobs-fixtures';
 
 const smtp = localMailbox();
-const { owner, buyer, machinist, staff } = signedInClients({
-  owner: 'mm',
-  buyer: 'mm',
-  machinist: 'mm',
-  staff: 'mm',
-});
+const { owner, buyer, machinist, staff } = everyRoleSignedIn();
 const { family, bin } = familyAndBin(owner, { cylinders: 4 });
 let digestBuyer: Client;
 

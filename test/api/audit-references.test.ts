@@ -2,7 +2,7 @@
 // job number and cylinder, the job by number, the piston by label, the part by SKU, each with the
 // page that shows it; ids it cannot name stay as they are.
 import { closeTestApp, signedInClients } from '../support/api';
-import { jobAtStep, makeBin, makeFamily, makePart, receivePistons } from '../support/jobs-fixtures';
+import { jobAtStep, pistonsOnShelf } from '../support/jobs-fixtures';
 
 const { owner, machinist, staff } = signedInClients({ owner: 'mm', machinist: 'mm', staff: 'mm' });
 
@@ -10,10 +10,8 @@ afterAll(closeTestApp);
 
 describe('audit trail references', () => {
   it('when a piston is held for a job, then its trail entry names the hold, job, piston and part with links', async () => {
-    const family = await makeFamily(owner, { cylinders: 1 });
-    const bin = await makeBin(owner);
-    const part = await makePart(owner, family, '+0.020 in', 'piston');
-    const [unit] = await receivePistons(owner, part, bin, ['2.5360 in']);
+    const { family, part, units } = await pistonsOnShelf(owner, '+0.020 in', ['2.5360 in']);
+    const [unit] = units;
     const job = await jobAtStep(staff, machinist, family, '+0.020 in');
     const hold = await machinist.post(`/api/jobs/${job.id}/holds`, {
       cylinder: 1,

@@ -2,7 +2,7 @@
 // app and database. Length checks rest on 1 in = 25.4 mm exactly (international yard and pound
 // agreement of 1959, as stated in NIST Special Publication 811, appendix B).
 import { db } from '../../server/db/knex';
-import { type Client, closeTestApp, signedInClients, uniq } from '../support/api';
+import { type Client, closeTestApp, everyRoleSignedIn, uniq } from '../support/api';
 import {
   makeBin,
   makeFamily,
@@ -11,12 +11,7 @@ import {
   type Fixture,
 } from '../support/catalog-fixtures';
 
-const { owner, buyer, machinist, staff } = signedInClients({
-  owner: 'mm',
-  buyer: 'mm',
-  machinist: 'mm',
-  staff: 'in',
-});
+const { owner, buyer, machinist, staff } = everyRoleSignedIn({ staff: 'in' });
 
 afterAll(closeTestApp);
 

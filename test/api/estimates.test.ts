@@ -4,15 +4,10 @@
 // written beside each check (half-up per line, tax once on the subtotal).
 import { db } from '../../server/db/knex';
 import { saveSettings } from '../../server/settings/settings-service';
-import { closeTestApp, signedInClients } from '../support/api';
+import { closeTestApp, everyRoleSignedIn } from '../support/api';
 import { makeLabour, makePricedJob, type Labour, type PricedJob } from '../support/money-fixtures';
 
-const { owner, staff, machinist, buyer } = signedInClients({
-  owner: 'mm',
-  staff: 'mm',
-  machinist: 'in',
-  buyer: 'mm',
-});
+const { owner, staff, machinist, buyer } = everyRoleSignedIn({ machinist: 'in' });
 let labour: Labour;
 let job: PricedJob;
 

@@ -3,22 +3,18 @@
 // sheet — each figure worked by hand in inches (1 in = 25.4 mm exactly, NIST SP 811).
 import { saveSettings } from '../../server/settings/settings-service';
 import { closeTestApp } from '../support/api';
-import { benchShop, jobAtStep, makePart, receivePistons } from '../support/jobs-fixtures';
+import {
+  benchShop,
+  CUT_SETTINGS,
+  jobAtStep,
+  makePart,
+  receivePistons,
+} from '../support/jobs-fixtures';
 
 const { owner, machinist, staff, family, bin } = benchShop({ cylinders: 1, machinistUnit: 'in' });
 
 beforeAll(async () => {
-  await saveSettings(null, {
-    clearancePolicy: 'min',
-    maxCutPerPass: '0.020 in',
-    finishPass: '',
-    truingPass: '',
-    minCutPerPass: '0.001 in',
-    barResolution: '0.0001 in',
-    stepPolicy: 'first-that-cleans',
-    timeZone: 'UTC',
-    cutOnlyAfterApproval: false,
-  });
+  await saveSettings(null, { ...CUT_SETTINGS, cutOnlyAfterApproval: false });
 });
 afterAll(closeTestApp);
 

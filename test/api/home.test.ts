@@ -5,7 +5,7 @@ import { DateTime } from 'luxon';
 import request from 'supertest';
 import { HOME_LIST_LENGTH, HOME_SECTIONS_BY_ROLE, type HomeJson } from '../../shared/api/home';
 import type { Role } from '../../shared/session-types';
-import { type Client, closeTestApp, signedInClients, testApp, uniq } from '../support/api';
+import { type Client, closeTestApp, everyRoleSignedIn, testApp, uniq } from '../support/api';
 import {
   makeFamily,
   makeJob,
@@ -15,12 +15,7 @@ import {
 } from '../support/jobs-fixtures';
 import { makeLabour, makePricedJob } from '../support/money-fixtures';
 
-const { owner, buyer, machinist, staff } = signedInClients({
-  owner: 'mm',
-  buyer: 'mm',
-  machinist: 'mm',
-  staff: 'mm',
-});
+const { owner, buyer, machinist, staff } = everyRoleSignedIn();
 let family: Family;
 
 beforeAll(async () => {

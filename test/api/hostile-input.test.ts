@@ -5,7 +5,7 @@
 import request from 'supertest';
 import { existsSync } from 'node:fs';
 import { db } from '../../server/db/knex';
-import { closeTestApp, makeUser, signedIn, testApp, uniq, type Client } from '../support/api';
+import { type Client, closeTestApp, makeUser, signedIn, testApp, uniq } from '../support/api';
 import { makeFamily, makePart, type Fixture } from '../support/catalog-fixtures';
 import type { Role } from '../../shared/session-types';
 

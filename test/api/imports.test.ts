@@ -6,15 +6,10 @@ import { join } from 'node:path';
 import iconv from 'iconv-lite';
 import { db } from '../../server/db/knex';
 import { armFault, disarmFaults } from '../../server/testing-faults';
-import { type Client, closeTestApp, signedInClients, uniq } from '../support/api';
+import { type Client, closeTestApp, everyRoleSignedIn, uniq } from '../support/api';
 import { makeFamily, makePart } from '../support/catalog-fixtures';
 
-const { owner, buyer, staff, machinist } = signedInClients({
-  owner: 'mm',
-  buyer: 'mm',
-  staff: 'mm',
-  machinist: 'mm',
-});
+const { owner, buyer, staff, machinist } = everyRoleSignedIn();
 
 afterEach(disarmFaults);
 afterAll(closeTestApp);

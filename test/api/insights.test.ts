@@ -7,18 +7,13 @@ import { DateTime } from 'luxon';
 import { db } from '../../server/db/knex';
 import { recordShortage, supplierReliability } from '../../server/insights/insights-service';
 import { neutralizeCell } from '../../shared/csv-safety';
-import { closeTestApp, signedInClients } from '../support/api';
+import { closeTestApp, everyRoleSignedIn } from '../support/api';
 import { makeFamily, makePart, type Fixture } from '../support/catalog-fixtures';
 
 // A zone without daylight saving and without a place name: UTC+3 all year (IANA "Etc/GMT-3").
 const ZONE = 'Etc/GMT-3';
 
-const { owner, buyer, machinist, staff } = signedInClients({
-  owner: 'mm',
-  buyer: 'mm',
-  machinist: 'mm',
-  staff: 'mm',
-});
+const { owner, buyer, machinist, staff } = everyRoleSignedIn();
 let savedZone: string;
 let fx: Fixture;
 

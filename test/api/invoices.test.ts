@@ -10,18 +10,13 @@ import { insertPayment } from '../../server/money/payments-repository';
 import { armFault, disarmFaults } from '../../server/testing-faults';
 import { invoicePdf } from '../../server/money/invoice-pdf';
 import type { InvoiceJson } from '../../shared/api/money';
-import { closeTestApp, signedInClients, uniq } from '../support/api';
+import { closeTestApp, everyRoleSignedIn, uniq } from '../support/api';
 import { localMailbox } from '../support/mailbox';
 import { makePricedJob, moneyShop } from '../support/money-fixtures';
 import { makeBin, makeFamily, makeJob, makePart, receiveCounted } from '../support/jobs-fixtures';
 
 const smtp = localMailbox();
-const { owner, staff, machinist, buyer } = signedInClients({
-  owner: 'mm',
-  staff: 'mm',
-  machinist: 'in',
-  buyer: 'mm',
-});
+const { owner, staff, machinist, buyer } = everyRoleSignedIn({ machinist: 'in' });
 
 beforeAll(async () => {
   await moneyShop(owner, {

@@ -2,9 +2,10 @@
 // the practitioner's check values, the cut rule, collect and cancel, and intake photos.
 import { db } from '../../server/db/knex';
 import { saveSettings } from '../../server/settings/settings-service';
-import { closeTestApp, type Client } from '../support/api';
+import { type Client, closeTestApp } from '../support/api';
 import {
   benchShop,
+  CUT_SETTINGS,
   jobAtStep,
   makeFamily,
   makeJob,
@@ -19,16 +20,9 @@ const { owner, machinist, staff, buyer, family, bin } = benchShop({ machinistUni
 beforeAll(async () => {
   // The settings these tests rely on, whatever another test file left behind.
   await saveSettings(null, {
-    clearancePolicy: 'min',
-    maxCutPerPass: '0.020 in',
-    finishPass: '',
-    truingPass: '',
-    minCutPerPass: '0.001 in',
-    barResolution: '0.0001 in',
+    ...CUT_SETTINGS,
     holdExpiryDays: 14,
     skipMarginalStep: false,
-    stepPolicy: 'first-that-cleans',
-    timeZone: 'UTC',
     // The cut rules here are about held pistons; the approval rule has its own tests.
     cutOnlyAfterApproval: false,
   });

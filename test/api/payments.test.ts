@@ -13,7 +13,7 @@ import { createApp, type CreatedApp } from '../../server/app';
 import { startFakePayments, type FakePayments } from '../../server/payments/fake-payments';
 import { takeEventsAt, useLocalPayments } from '../../server/payments/payment-client';
 import { armFault, disarmFaults } from '../../server/testing-faults';
-import { closeTestApp, signedInClients, testApp, uniq } from '../support/api';
+import { closeTestApp, everyRoleSignedIn, testApp, uniq } from '../support/api';
 import { localMailbox } from '../support/mailbox';
 import { makePricedJob, moneyShop, type PricedJob } from '../support/money-fixtures';
 
@@ -21,12 +21,7 @@ const smtp = localMailbox();
 let fake: FakePayments;
 let server: http.Server;
 let second: CreatedApp;
-const { owner, staff, machinist, buyer } = signedInClients({
-  owner: 'mm',
-  staff: 'mm',
-  machinist: 'in',
-  buyer: 'mm',
-});
+const { owner, staff, machinist, buyer } = everyRoleSignedIn({ machinist: 'in' });
 
 beforeAll(async () => {
   fake = await startFakePayments();

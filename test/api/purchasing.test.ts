@@ -7,17 +7,12 @@ import { onOrderByPart } from '../../server/purchasing/orders-repository';
 import { saveSettings } from '../../server/settings/settings-service';
 import { armFault, disarmFaults } from '../../server/testing-faults';
 import { gtinCheckDigit } from '../../shared/gtin';
-import { closeTestApp, signedInClients, uniq } from '../support/api';
+import { closeTestApp, everyRoleSignedIn, uniq } from '../support/api';
 import { localMailbox } from '../support/mailbox';
 import { familyAndBin, makeJob, makePart, receivePistons } from '../support/jobs-fixtures';
 
 const smtp = localMailbox();
-const { owner, buyer, staff, machinist } = signedInClients({
-  owner: 'mm',
-  buyer: 'mm',
-  staff: 'mm',
-  machinist: 'mm',
-});
+const { owner, buyer, staff, machinist } = everyRoleSignedIn();
 const { family, bin } = familyAndBin(owner, { cylinders: 2 });
 let today: string;
 

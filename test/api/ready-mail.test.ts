@@ -6,14 +6,7 @@ import { db } from '../../server/db/knex';
 import { saveSettings } from '../../server/settings/settings-service';
 import { closeTestApp, signedInClients } from '../support/api';
 import { localMailbox } from '../support/mailbox';
-import {
-  jobAtStep,
-  makeBin,
-  makeFamily,
-  makeJob,
-  makePart,
-  receivePistons,
-} from '../support/jobs-fixtures';
+import { jobAtStep, makeFamily, makeJob, pistonsOnShelf } from '../support/jobs-fixtures';
 
 const smtp = localMailbox();
 const { owner, machinist, staff } = signedInClients({ owner: 'mm', machinist: 'mm', staff: 'mm' });
@@ -25,10 +18,8 @@ afterAll(closeTestApp);
 
 describe('the ready-to-collect e-mail', () => {
   it('when a bored and honed job is ready, then the e-mail gives the sizes recorded and running-in advice', async () => {
-    const family = await makeFamily(owner, { cylinders: 1 });
-    const bin = await makeBin(owner);
-    const part = await makePart(owner, family, '+0.020 in', 'piston');
-    const [unit] = await receivePistons(owner, part, bin, ['2.5360 in']);
+    const { family, units } = await pistonsOnShelf(owner, '+0.020 in', ['2.5360 in']);
+    const [unit] = units;
     const job = await jobAtStep(staff, machinist, family, '+0.020 in', {
       customerEmail: 'wenna.stroud@example.test',
     });

@@ -3,7 +3,7 @@
 import express, { type Router } from 'express';
 import { createApp } from '../../server/app';
 import { assertEveryRouteDeclared, type Access } from '../../server/http/route';
-import { closeTestApp, Client, signedIn } from '../support/api';
+import { Client, closeTestApp, signedIn } from '../support/api';
 import { ROLES, type Role } from '../../shared/session-types';
 
 const ALL: Access = 'signed-in';

@@ -14,9 +14,9 @@ import {
   closeTestApp,
   makeUser,
   signedIn,
+  TEST_PASSWORD,
   testApp,
   uniq,
-  TEST_PASSWORD,
 } from '../support/api';
 import { makeFamily, makePart, type Fixture } from '../support/catalog-fixtures';
 

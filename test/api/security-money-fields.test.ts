@@ -6,7 +6,7 @@
 import { db } from '../../server/db/knex';
 import { declaredRoutes } from '../../server/http/route';
 import type { Role } from '../../shared/session-types';
-import { closeTestApp, signedIn, type Client } from '../support/api';
+import { type Client, closeTestApp, signedIn } from '../support/api';
 import { makeBin, makeFamily, makePart, receiveCounted } from '../support/jobs-fixtures';
 
 const clients = {} as Record<Role, Client>;

@@ -1,4 +1,4 @@
-import { closeTestApp, Client, makeUser, signedIn, testApp } from '../support/api';
+import { Client, closeTestApp, makeUser, signedIn, testApp } from '../support/api';
 import request from 'supertest';
 import { db } from '../../server/db/knex';
 import { ROLES } from '../../shared/session-types';

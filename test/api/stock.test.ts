@@ -4,15 +4,10 @@
 import { randomUUID } from 'node:crypto';
 import { db } from '../../server/db/knex';
 import { armFault, disarmFaults } from '../../server/testing-faults';
-import { closeTestApp, signedInClients, uniq } from '../support/api';
+import { closeTestApp, everyRoleSignedIn, uniq } from '../support/api';
 import { makeBin, makeFamily, makePart, type Fixture } from '../support/catalog-fixtures';
 
-const { owner, buyer, staff, machinist } = signedInClients({
-  owner: 'mm',
-  buyer: 'mm',
-  staff: 'in',
-  machinist: 'mm',
-});
+const { owner, buyer, staff, machinist } = everyRoleSignedIn({ staff: 'in' });
 let fx: Fixture;
 
 beforeAll(async () => {

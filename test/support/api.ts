@@ -155,6 +155,11 @@ export function signedInClients<R extends Role>(roles: Record<R, 'mm' | 'in'>): 
   return clients;
 }
 
+/** `signedInClients` for every role, each reading millimetres unless `units` says otherwise. */
+export function everyRoleSignedIn(units: Partial<Record<Role, 'mm' | 'in'>> = {}) {
+  return signedInClients({ owner: 'mm', buyer: 'mm', staff: 'mm', machinist: 'mm', ...units });
+}
+
 /** The body of a fixture call that must answer `expected`; anything else fails with what it said. */
 export function ok<T = Record<string, unknown>>(
   res: { status: number; body: unknown },

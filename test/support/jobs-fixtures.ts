@@ -1,7 +1,8 @@
 // Rows the job tests need, made through the catalog and stock API like a shop would: an imperial
 // step series, an invented air-cooled two-stroke family, piston and ring parts per step, and
 // measured pistons received into a bin.
-import { ok, signedInClients, uniq, type Client } from './api';
+import type { saveSettings } from '../../server/settings/settings-service';
+import { everyRoleSignedIn, ok, uniq, type Client } from './api';
 
 export interface Family {
   id: string;
@@ -107,12 +108,7 @@ export function familyAndBin(
  * `machinistUnit`, and the file's family and bin (`familyAndBin`), all made before its tests.
  */
 export function benchShop(opts: { cylinders?: number; machinistUnit?: 'mm' | 'in' } = {}) {
-  const clients = signedInClients({
-    owner: 'mm',
-    buyer: 'mm',
-    staff: 'mm',
-    machinist: opts.machinistUnit ?? 'mm',
-  });
+  const clients = everyRoleSignedIn({ machinist: opts.machinistUnit ?? 'mm' });
   return { ...clients, ...familyAndBin(clients.owner, { cylinders: opts.cylinders }) };
 }
 
@@ -171,6 +167,22 @@ export async function makeJob(
   ) as { id: string; number: string; state: string };
 }
 
+/**
+ * The cut settings the bench figures of the job tests are worked out with: the least clearance,
+ * passes of 0.001 to 0.020 in with no truing or finishing pass of their own, a bar read to
+ * 0.0001 in, the first step that cleans up, and UTC. Spread into the file's `saveSettings`.
+ */
+export const CUT_SETTINGS = {
+  clearancePolicy: 'min',
+  maxCutPerPass: '0.020 in',
+  finishPass: '',
+  truingPass: '',
+  minCutPerPass: '0.001 in',
+  barResolution: '0.0001 in',
+  stepPolicy: 'first-that-cleans',
+  timeZone: 'UTC',
+} satisfies Parameters<typeof saveSettings>[1];
+
 /** Six readings in inches, worst 2.5260 in at the top along the pin axis. */
 export const WORN_READINGS = [
   { depth: 'top', axis: 'pin', diameter: '2.5260 in' },
@@ -197,4 +209,19 @@ export async function jobAtStep(
   ok(await machinist.put(`${cylinder}/readings`, { readings: WORN_READINGS }), 200, 'readings');
   ok(await machinist.patch(cylinder, { stepId: family.steps[step] }), 200, 'step');
   return job;
+}
+
+/**
+ * A fresh one-cylinder family with a bin and a piston part at `step`, and measured pistons of
+ * that part received into the bin, one per skirt.
+ */
+export async function pistonsOnShelf(
+  owner: Client,
+  step: string,
+  skirts: string[],
+): Promise<{ family: Family; part: string; units: { id: string; label: string }[] }> {
+  const family = await makeFamily(owner, { cylinders: 1 });
+  const binId = await makeBin(owner);
+  const part = await makePart(owner, family, step, 'piston');
+  return { family, part, units: await receivePistons(owner, part, binId, skirts) };
 }

@@ -46,7 +46,7 @@ export async function makeLabour(owner: Client): Promise<Labour> {
 
 /**
  * The shop the money files share: tax 20 % added to the prices, the cut waiting for the customer's
- * approval, the tighter clearance and cuts of 0.020 in a pass, with `settings` over those; then
+ * approval, the least clearance and cuts of 0.020 in a pass, with `settings` over those; then
  * only `makeLabour`'s prices are active, whatever another file left. Returns those prices.
  */
 export async function moneyShop(
