@@ -1,26 +1,8 @@
 // The owner reads the audit trail: a change made a moment ago is on top with who, what and the
 // values before and after; the filters work from the keyboard; other roles have no way in.
-import {
-  DEMO,
-  e2eEnvironment,
-  failOnPageErrors,
-  screenshot,
-  seriousA11yViolations,
-  signIn,
-} from './support';
+import { browserTestFile, DEMO, screenshot, seriousA11yViolations, signIn } from './support';
 
-failOnPageErrors();
-
-jest.setTimeout(180_000);
-
-let env: Awaited<ReturnType<typeof e2eEnvironment>>;
-
-beforeAll(async () => {
-  env = await e2eEnvironment();
-});
-afterAll(async () => {
-  await env?.close();
-});
+const env = browserTestFile({ timeout: 180_000 });
 
 describe('audit trail', () => {
   it('when the owner changes a role and opens the audit trail, then the change is on top with before and after', async () => {
@@ -75,8 +57,7 @@ describe('audit trail', () => {
 
   it('when the machinist goes to the audit trail address, then the page is not shown and the menu has no entry', async () => {
     const page = env.page;
-    await page.context().clearCookies();
-    await signIn(page, env.baseUrl, DEMO.machinist);
+    await env.signInAs('machinist');
     const nav = page.getByRole('navigation', { name: /main/i });
     await nav.getByRole('link', { name: 'Home' }).waitFor();
     expect(await nav.getByRole('link', { name: 'Audit trail' }).count()).toBe(0);

@@ -3,47 +3,11 @@
 // order line, with the part's usual bin filled in, and the order moves on. Screenshots of each
 // changed page at 1280 and 800 px wide.
 import type { Page } from 'playwright-core';
-import {
-  DEMO,
-  e2eEnvironment,
-  failOnPageErrors,
-  screenshotAtWidths,
-  seriousA11yViolations,
-  signIn,
-} from './support';
+import { browserTestFile, screenshotAtWidths, seriousA11yViolations } from './support';
 
-failOnPageErrors();
-
-jest.setTimeout(180_000);
-
-let env: Awaited<ReturnType<typeof e2eEnvironment>>;
+const env = browserTestFile({ timeout: 180_000 });
 /** The order the receiving test takes in, for the audit-trail test after it. */
 let received: { id: string; number: string } | null = null;
-
-beforeAll(async () => {
-  env = await e2eEnvironment();
-});
-afterAll(async () => {
-  await env?.close();
-});
-
-async function get<T>(page: Page, path: string): Promise<T> {
-  const res = await page.request.get(`${env.baseUrl}${path}`);
-  if (!res.ok()) throw new Error(`GET ${path}: ${res.status()} ${await res.text()}`);
-  return (await res.json()) as T;
-}
-
-/** A write through the API the pages use, with the session's XSRF token like Angular sends it. */
-async function post<T>(page: Page, path: string, data: object): Promise<T> {
-  const cookies = await page.context().cookies();
-  const token = cookies.find((c) => c.name === 'XSRF-TOKEN')?.value ?? '';
-  const res = await page.request.post(`${env.baseUrl}${path}`, {
-    data,
-    headers: { 'X-XSRF-TOKEN': token },
-  });
-  if (!res.ok()) throw new Error(`POST ${path}: ${res.status()} ${await res.text()}`);
-  return (await res.json()) as T;
-}
 
 /** Looks again every tenth of a second, for up to ten seconds, until the check holds. */
 async function until(check: () => Promise<boolean>): Promise<void> {
@@ -63,11 +27,11 @@ async function figure(page: Page, label: string): Promise<number> {
 describe('the counts agree', () => {
   it('when the owner looks at the bench, Ran short, Empty steps and a ladder, then they count the same waiting jobs and empty steps and name the missing part', async () => {
     const page = env.page;
-    await page.context().clearCookies();
-    await signIn(page, env.baseUrl, DEMO.owner);
+    await env.signInAs('owner');
 
-    const waiting = await get<{ total: number; items: { waitingFor: string[] }[] }>(
+    const waiting = await env.api<{ total: number; items: { waitingFor: string[] }[] }>(
       page,
+      'GET',
       '/api/jobs?state=open&waiting=true&pageSize=100',
     );
     // The demo has jobs whose step has nothing free: otherwise there is nothing to compare.
@@ -94,10 +58,10 @@ describe('the counts agree', () => {
     }
     await screenshotAtWidths(page, 'counts-ran-short');
 
-    const empty = await get<{
+    const empty = await env.api<{
       total: number;
       items: { familyId: string; stepLabel: string; missing: string[] }[];
-    }>(page, '/api/exposure?pageSize=200');
+    }>(page, 'GET', '/api/exposure?pageSize=200');
     expect(empty.total).toBeGreaterThan(0);
     await page.goto(`${env.baseUrl}/stock/exposure`);
     await page.getByRole('heading', { name: 'Empty steps', exact: true }).waitFor();
@@ -128,29 +92,34 @@ describe('the counts agree', () => {
 describe('one receiving page', () => {
   it('when staff receive an ordered part on the one page, then its open line is offered first with the usual bin, and the order is all in', async () => {
     const page = env.page;
-    await page.context().clearCookies();
-    await signIn(page, env.baseUrl, DEMO.buyer);
+    await env.signInAs('buyer');
     // A ring set with a usual bin, ordered from a demo supplier and sent.
-    const parts = await get<{ items: { id: string; sku: string; bin: string | null }[] }>(
+    const parts = await env.api<{ items: { id: string; sku: string; bin: string | null }[] }>(
       page,
+      'GET',
       '/api/parts?kind=rings&pageSize=100',
     );
     const part = parts.items.find((p) => p.bin);
     expect(part).toBeDefined();
-    const suppliers = await get<{ items: { id: string; email: string | null }[] }>(
+    const suppliers = await env.api<{ items: { id: string; email: string | null }[] }>(
       page,
+      'GET',
       '/api/suppliers?pageSize=50',
     );
     const supplier = suppliers.items.find((s) => s.email);
     expect(supplier).toBeDefined();
-    const order = await post<{ id: string; number: string }>(page, '/api/purchase-orders', {
-      supplierId: supplier?.id,
-      lines: [{ partId: part?.id, quantity: 3, unitPrice: '14.20' }],
-    });
-    await post(page, `/api/purchase-orders/${order.id}/send`, {});
+    const order = await env.api<{ id: string; number: string }>(
+      page,
+      'POST',
+      '/api/purchase-orders',
+      {
+        supplierId: supplier?.id,
+        lines: [{ partId: part?.id, quantity: 3, unitPrice: '14.20' }],
+      },
+    );
+    await env.api(page, 'POST', `/api/purchase-orders/${order.id}/send`, {});
 
-    await page.context().clearCookies();
-    await signIn(page, env.baseUrl, DEMO.staff);
+    await env.signInAs('staff');
     // The old address leads to the one page.
     await page.goto(`${env.baseUrl}/purchasing/receiving`);
     await page.waitForURL(/\/stock\/receive$/);
@@ -178,7 +147,11 @@ describe('one receiving page', () => {
       new RegExp(`${order.number} line 1: 3 of 3 in\\. The order is now all in`),
     );
     await screenshotAtWidths(page, 'counts-receive-done');
-    const stored = await get<{ state: string }>(page, `/api/purchase-orders/${order.id}`);
+    const stored = await env.api<{ state: string }>(
+      page,
+      'GET',
+      `/api/purchase-orders/${order.id}`,
+    );
     expect(stored.state).toBe('all_in');
     received = order;
   });
@@ -188,8 +161,7 @@ describe('the audit trail names records', () => {
   it('when the owner opens the trail of that order, then it reads by order number and SKU with links, not raw ids', async () => {
     expect(received).not.toBeNull();
     const page = env.page;
-    await page.context().clearCookies();
-    await signIn(page, env.baseUrl, DEMO.owner);
+    await env.signInAs('owner');
     await page.goto(
       `${env.baseUrl}/admin/audit?entity=purchase_order&entityId=${received?.id ?? ''}`,
     );

@@ -4,22 +4,16 @@
 // has passed; the cylinder page shows its history, chart and tag; the owner merges a duplicate,
 // exports and erases a customer without losing a job; the owner's insight lists cylinders near
 // their last step.
-import type { Page } from 'playwright-core';
 import {
+  browserTestFile,
   DEMO,
-  e2eEnvironment,
-  failOnPageErrors,
   screenshotAtWidths,
   seriousA11yViolations,
   signIn,
 } from './support';
 
-failOnPageErrors();
-
 // Each step drives a real browser against a real server; on a busy machine that takes seconds.
-jest.setTimeout(180_000);
-
-let env: Awaited<ReturnType<typeof e2eEnvironment>>;
+const env = browserTestFile({ timeout: 180_000 });
 
 interface JobBody {
   id: string;
@@ -42,44 +36,31 @@ const known = {
   newJobUrl: '',
 };
 
-async function call<T>(page: Page, method: string, path: string, data?: object): Promise<T> {
-  const cookies = await page.context().cookies();
-  const token = cookies.find((c) => c.name === 'XSRF-TOKEN')?.value ?? '';
-  const res = await page.request.fetch(`${env.baseUrl}${path}`, {
-    method,
-    ...(data ? { data } : {}),
-    headers: { 'X-XSRF-TOKEN': token },
-  });
-  if (!res.ok()) throw new Error(`${method} ${path}: ${res.status()} ${await res.text()}`);
-  return (await res.json()) as T;
-}
-
 beforeAll(async () => {
-  env = await e2eEnvironment();
   await signIn(env.page, env.baseUrl, DEMO.owner);
   const page = env.page;
   // A demo job whose first cylinder is already cut: that bore becomes the cylinder's history.
-  const list = await call<{ items: { id: string }[] }>(
+  const list = await env.api<{ items: { id: string }[] }>(
     page,
     'GET',
     '/api/jobs?state=ready_to_go&pageSize=50',
   );
   let cut: JobBody | null = null;
   for (const item of list.items) {
-    const job = await call<JobBody>(page, 'GET', `/api/jobs/${item.id}`);
+    const job = await env.api<JobBody>(page, 'GET', `/api/jobs/${item.id}`);
     if (job.cylinderDetails[0]?.cutAt && job.cylinderDetails[0].step) {
       cut = job;
       break;
     }
   }
   if (!cut) throw new Error('the demo shop has no job ready to go with a cut cylinder 1');
-  const cylinder = await call<{ id: string }>(
+  const cylinder = await env.api<{ id: string }>(
     page,
     'POST',
     `/api/customers/${cut.customerId}/cylinders`,
     { mark: known.mark, familyId: cut.family.id, castNumber: 'C-2231' },
   );
-  await call(page, 'PATCH', `/api/jobs/${cut.id}/cylinders/1`, { cylinderId: cylinder.id });
+  await env.api(page, 'PATCH', `/api/jobs/${cut.id}/cylinders/1`, { cylinderId: cylinder.id });
   Object.assign(known, {
     customerId: cut.customerId,
     customerName: cut.customerName,
@@ -88,9 +69,6 @@ beforeAll(async () => {
     firstStep: cut.cylinderDetails[0].step?.label ?? '',
     familyCode: cut.family.code,
   });
-});
-afterAll(async () => {
-  await env?.close();
 });
 
 describe('customers and their cylinders', () => {
@@ -121,11 +99,9 @@ describe('customers and their cylinders', () => {
     await page.getByRole('button', { name: 'Book the job in' }).click();
     await page.waitForURL(/\/jobs\/[0-9a-f-]{36}$/);
     known.newJobUrl = page.url();
-    const job = await call<JobBody & { cylinderDetails: { cylinder: { mark: string } | null }[] }>(
-      page,
-      'GET',
-      `/api/jobs/${known.newJobUrl.split('/').pop()}`,
-    );
+    const job = await env.api<
+      JobBody & { cylinderDetails: { cylinder: { mark: string } | null }[] }
+    >(page, 'GET', `/api/jobs/${known.newJobUrl.split('/').pop()}`);
     expect(job.customerId).toBe(known.customerId);
     expect(job.cylinderDetails[0].cylinder?.mark).toBe(known.mark);
   });
@@ -133,13 +109,13 @@ describe('customers and their cylinders', () => {
   it('when the linked cylinder is measured, then the step choice shows its earlier bore, refuses the steps it passed and counts the steps left', async () => {
     const page = env.page;
     const jobId = known.newJobUrl.split('/').pop() ?? '';
-    const job = await call<JobBody>(page, 'GET', `/api/jobs/${jobId}`);
+    const job = await env.api<JobBody>(page, 'GET', `/api/jobs/${jobId}`);
     // Worn a little over standard: only the earlier bore stops the small steps.
     const worn = (Number(job.family.standardBore.mm) + 0.04).toFixed(3);
     const readings = ['top', 'middle', 'bottom'].flatMap((depth) =>
       ['pin', 'thrust'].map((axis) => ({ depth, axis, diameter: `${worn} mm` })),
     );
-    await call(page, 'PUT', `/api/jobs/${jobId}/cylinders/1/readings`, { readings });
+    await env.api(page, 'PUT', `/api/jobs/${jobId}/cylinders/1/readings`, { readings });
     await page.goto(`${known.newJobUrl}/cylinders/1`);
     const past = page.getByRole('region', { name: "This cylinder's earlier bores" });
     // The cylinder's history loads beside the job: wait for the earlier job's link in it.
@@ -179,21 +155,21 @@ describe('customers and their cylinders', () => {
 
   it('when the owner merges a duplicate record, then its jobs move over and the duplicate is gone', async () => {
     const page = env.page;
-    const families = await call<{ items: { id: string; code: string }[] }>(
+    const families = await env.api<{ items: { id: string; code: string }[] }>(
       page,
       'GET',
       '/api/engine-families?pageSize=50',
     );
     const family = families.items.find((f) => f.code === known.familyCode) ?? families.items[0];
-    const into = await call<{ id: string }>(page, 'POST', '/api/customers', {
+    const into = await env.api<{ id: string }>(page, 'POST', '/api/customers', {
       name: 'Perpetua Quillfeather',
       phone: '555 0170',
     });
-    const dup = await call<{ id: string }>(page, 'POST', '/api/customers', {
+    const dup = await env.api<{ id: string }>(page, 'POST', '/api/customers', {
       name: 'P. Quillfeather',
       phone: '555 0171',
     });
-    const dupJob = await call<{ number: string }>(page, 'POST', '/api/jobs', {
+    const dupJob = await env.api<{ number: string }>(page, 'POST', '/api/jobs', {
       customerId: dup.id,
       familyId: family.id,
       cylinders: 1,
@@ -218,12 +194,16 @@ describe('customers and their cylinders', () => {
 
   it('when the owner exports and then erases a customer, then the downloads hold their data and the jobs stay under a placeholder', async () => {
     const page = env.page;
-    const families = await call<{ items: { id: string }[] }>(page, 'GET', '/api/engine-families');
-    const c = await call<{ id: string }>(page, 'POST', '/api/customers', {
+    const families = await env.api<{ items: { id: string }[] }>(
+      page,
+      'GET',
+      '/api/engine-families',
+    );
+    const c = await env.api<{ id: string }>(page, 'POST', '/api/customers', {
       name: 'Ambrose Thistlewick',
       email: 'ambrose@example.test',
     });
-    const job = await call<{ number: string }>(page, 'POST', '/api/jobs', {
+    const job = await env.api<{ number: string }>(page, 'POST', '/api/jobs', {
       customerId: c.id,
       familyId: families.items[0].id,
       cylinders: 1,

@@ -1,48 +1,19 @@
 // Forms at the desk and the bench: shop settings checked as they are typed, a due date far ahead
 // questioned and shown with its year, one way of writing dates from the shop's locale, a server's
 // refusal shown at its field, and "marked as cut" confirmed and taken back.
-import pg from 'pg';
 import {
   allowPageErrors,
-  DEMO,
-  e2eEnvironment,
-  failOnPageErrors,
+  browserTestFile,
   screenshotAtWidths,
   seriousA11yViolations,
-  signIn,
 } from './support';
 
-failOnPageErrors();
-
-let env: Awaited<ReturnType<typeof e2eEnvironment>>;
-
-beforeAll(async () => {
-  env = await e2eEnvironment();
-});
-afterAll(async () => {
-  await env?.close();
-});
-
-async function query<T>(sql: string, params: unknown[] = []): Promise<T[]> {
-  const client = new pg.Client({ connectionString: env.databaseUrl });
-  await client.connect();
-  try {
-    return (await client.query(sql, params)).rows as T[];
-  } finally {
-    await client.end();
-  }
-}
-
-async function as(role: keyof typeof DEMO): Promise<void> {
-  await env.page.context().clearCookies();
-  await signIn(env.page, env.baseUrl, DEMO[role]);
-}
+const env = browserTestFile();
 
 describe('shop settings', () => {
   it('when the owner types an unknown zone, the currency "XYZ" and a cut of 0.5 in, then the first two are refused at their fields at once and the cut is questioned with the usual range', async () => {
     const page = env.page;
-    await as('owner');
-    await page.goto(`${env.baseUrl}/admin/settings`);
+    await env.signInAs('owner', '/admin/settings');
     const zone = page.getByLabel('Time zone');
     await zone.waitFor();
     await zone.fill('Mars/Olympus');
@@ -64,30 +35,27 @@ describe('shop settings', () => {
 
   it('when the owner chooses month-first dates, then date fields ask for MM/DD/YYYY; back to day first they ask for DD/MM/YYYY', async () => {
     const page = env.page;
-    await as('owner');
-    await page.goto(`${env.baseUrl}/admin/settings`);
-    await page.getByLabel('How dates are written').click();
-    await page.getByRole('option', { name: /English, month first/ }).click();
-    await page.getByRole('button', { name: 'Save settings' }).click();
-    await page.getByText('Shop settings saved.').waitFor();
-    await page.goto(`${env.baseUrl}/jobs/new`);
-    await page.getByText('MM/DD/YYYY', { exact: true }).waitFor();
-
-    await page.goto(`${env.baseUrl}/admin/settings`);
-    await page.getByLabel('How dates are written').click();
-    await page.getByRole('option', { name: /English, day first/ }).click();
-    await page.getByRole('button', { name: 'Save settings' }).click();
-    await page.getByText('Shop settings saved.').waitFor();
-    await page.goto(`${env.baseUrl}/jobs/new`);
-    await page.getByText('DD/MM/YYYY', { exact: true }).waitFor();
+    await env.signInAs('owner');
+    const orders = [
+      [/English, month first/, 'MM/DD/YYYY'],
+      [/English, day first/, 'DD/MM/YYYY'],
+    ] as const;
+    for (const [order, asked] of orders) {
+      await page.goto(`${env.baseUrl}/admin/settings`);
+      await page.getByLabel('How dates are written').click();
+      await page.getByRole('option', { name: order }).click();
+      await page.getByRole('button', { name: 'Save settings' }).click();
+      await page.getByText('Shop settings saved.').waitFor();
+      await page.goto(`${env.baseUrl}/jobs/new`);
+      await page.getByText(asked, { exact: true }).waitFor();
+    }
   });
 });
 
 describe('an engine family', () => {
   it('when a clearance of 0.5 mm is typed, then the usual range is shown beside it, as a caution', async () => {
     const page = env.page;
-    await as('owner');
-    await page.goto(`${env.baseUrl}/catalog/families/new`);
+    await env.signInAs('owner', '/catalog/families/new');
     await page.getByLabel('Clearance, least', { exact: true }).fill('0.5');
     // Usual range: common practice (no source), kept in shared/settings-ranges.ts.
     await page.getByText(/Far outside the usual 0\.010–0\.150 mm \(0\.0004–0\.0059 in\)/).waitFor();
@@ -98,8 +66,7 @@ describe('an engine family', () => {
 describe('taking in a job with a due date far ahead', () => {
   it('when 01/01/2099 is typed, then a caution asks to check the year, the job is still booked, and its page and bench card show the year', async () => {
     const page = env.page;
-    await as('staff');
-    await page.goto(`${env.baseUrl}/jobs/new`);
+    await env.signInAs('staff', '/jobs/new');
     await page.getByRole('button', { name: 'New customer' }).click();
     await page.getByLabel('Customer name').fill('Lorcan Thistlewood');
     await page.getByLabel('Phone').fill('555 0142');
@@ -129,11 +96,10 @@ describe('a refused order line', () => {
       /status of 400/,
       'the server refuses the quantity on purpose; the test checks the form shows it',
     );
-    const [draft] = await query<{ id: string }>(
+    const [draft] = await env.query<{ id: string }>(
       `SELECT id FROM purchase_orders WHERE state = 'drafting' ORDER BY created_at LIMIT 1`,
     );
-    await as('buyer');
-    await page.goto(`${env.baseUrl}/purchasing/orders/${draft.id}`);
+    await env.signInAs('buyer', `/purchasing/orders/${draft.id}`);
     const quantity = page.getByLabel('Quantity').first();
     await quantity.fill('0');
     await page.getByRole('button', { name: 'Save changes' }).click();
@@ -150,10 +116,10 @@ describe('marking a cylinder as cut', () => {
   it('when the machinist marks it, then a dialog says what it locks; right after, the machinist can take it back', async () => {
     const page = env.page;
     // The customer's approval before a cut has API tests of its own.
-    await query(
+    await env.query(
       `UPDATE settings SET value = value || '{"cutOnlyAfterApproval": false}'::jsonb WHERE key = 'shop'`,
     );
-    const [ready] = await query<{ job_id: string; n: number }>(
+    const [ready] = await env.query<{ job_id: string; n: number }>(
       `SELECT c.job_id, c.n FROM job_cylinders c
          JOIN jobs j ON j.id = c.job_id
          JOIN holds h ON h.job_id = c.job_id AND h.cylinder = c.n
@@ -161,8 +127,7 @@ describe('marking a cylinder as cut', () => {
         WHERE c.cut_at IS NULL AND j.state = 'parts_set_aside'
         ORDER BY j.number LIMIT 1`,
     );
-    await as('machinist');
-    await page.goto(`${env.baseUrl}/jobs/${ready.job_id}/cylinders/${ready.n}/sheet`);
+    await env.signInAs('machinist', `/jobs/${ready.job_id}/cylinders/${ready.n}/sheet`);
     const mark = page.getByRole('button', {
       name: new RegExp(`Mark cylinder ${ready.n} as cut|Cut anyway`),
     });
@@ -199,12 +164,12 @@ describe('marking a cylinder as cut', () => {
     await dialog.getByRole('button', { name: 'Take back the cut' }).click();
     await dialog.waitFor({ state: 'detached' });
     await mark.waitFor();
-    const rows = await query<{ cut_at: Date | null }>(
+    const rows = await env.query<{ cut_at: Date | null }>(
       'SELECT cut_at FROM job_cylinders WHERE job_id = $1 AND n = $2',
       [ready.job_id, ready.n],
     );
     expect(rows).toEqual([{ cut_at: null }]);
-    const audits = await query<{ action: string }>(
+    const audits = await env.query<{ action: string }>(
       `SELECT action FROM audit_events WHERE entity = 'job' AND entity_id = $1 AND action = 'cylinder.cut_undo'`,
       [ready.job_id],
     );

@@ -1,24 +1,14 @@
 // Each demo role signs in and sees its own navigation; the owner adds a user who then signs in.
 import {
+  browserTestFile,
   DEMO,
-  e2eEnvironment,
-  failOnPageErrors,
+  type DemoRole,
   screenshot,
   seriousA11yViolations,
   signIn,
-  type DemoRole,
 } from './support';
 
-failOnPageErrors();
-
-let env: Awaited<ReturnType<typeof e2eEnvironment>>;
-
-beforeAll(async () => {
-  env = await e2eEnvironment();
-});
-afterAll(async () => {
-  await env?.close();
-});
+const env = browserTestFile();
 
 // The navigation's named groups each role sees, in order; a group with nothing for the role is left out.
 const NAV: Record<DemoRole, { groups: string[]; sees: string[]; hidden: string[] }> = {
@@ -70,8 +60,7 @@ describe('signing in', () => {
     'when the demo %s signs in, then the navigation shows only what the role may use',
     async (role) => {
       const page = env.page;
-      await page.context().clearCookies();
-      await signIn(page, env.baseUrl, DEMO[role]);
+      await env.signInAs(role);
       const nav = page.getByRole('navigation', { name: /main/i });
       for (const label of NAV[role].sees) await nav.getByRole('link', { name: label }).waitFor();
       const toggles = nav.getByRole('heading', { level: 2 }).getByRole('button');
@@ -97,9 +86,7 @@ describe('signing in', () => {
 
   it('when the owner adds a user, then that user can sign in', async () => {
     const page = env.page;
-    await page.context().clearCookies();
-    await signIn(page, env.baseUrl, DEMO.owner);
-    await page.goto(`${env.baseUrl}/admin/users`);
+    await env.signInAs('owner', '/admin/users');
     await page.getByRole('button', { name: /add user/i }).click();
     const dialog = page.getByRole('dialog');
     await dialog.getByLabel('Name').fill('Wren Castellan');
@@ -126,9 +113,7 @@ describe('signing in', () => {
 describe('shop settings', () => {
   it('when the owner changes how long a held piston stays held, then it is saved and kept', async () => {
     const page = env.page;
-    await page.context().clearCookies();
-    await signIn(page, env.baseUrl, DEMO.owner);
-    await page.goto(`${env.baseUrl}/admin/settings`);
+    await env.signInAs('owner', '/admin/settings');
     const days = page.getByLabel('Held pistons are released after (days)');
     await days.waitFor();
     expect(await page.getByLabel('Shop name').inputValue()).toBe('Tallowmere Bore & Hone');

@@ -2,28 +2,9 @@
 // commas), check the detected format and the preview counts, apply it, and find the new prices on the
 // supplier's items. A screenshot of every step goes to test/artifacts/screenshots.
 import path from 'node:path';
-import {
-  DEMO,
-  e2eEnvironment,
-  failOnPageErrors,
-  REPO,
-  screenshot,
-  seriousA11yViolations,
-  signIn,
-} from './support';
+import { browserTestFile, REPO, screenshot, seriousA11yViolations } from './support';
 
-failOnPageErrors();
-
-jest.setTimeout(180_000);
-
-let env: Awaited<ReturnType<typeof e2eEnvironment>>;
-
-beforeAll(async () => {
-  env = await e2eEnvironment();
-});
-afterAll(async () => {
-  await env?.close();
-});
+const env = browserTestFile({ timeout: 180_000 });
 
 const SUPPLIER = 'Brannock Kolbenvertrieb';
 const LIST = path.join(REPO, 'imports', 'morvendt-motorteile-2026-12.csv');
@@ -31,9 +12,7 @@ const LIST = path.join(REPO, 'imports', 'morvendt-motorteile-2026-12.csv');
 describe('bringing in a supplier price list', () => {
   it('when a buyer adds a supplier, then it is listed with its currency', async () => {
     const page = env.page;
-    await page.context().clearCookies();
-    await signIn(page, env.baseUrl, DEMO.buyer);
-    await page.goto(`${env.baseUrl}/suppliers/new`);
+    await env.signInAs('buyer', '/suppliers/new');
     await page.getByLabel('Name').fill(SUPPLIER);
     await page.getByLabel('Ordering e-mail').fill('bestellung@brannock.test');
     await page.getByLabel('Currency').fill('EUR');
@@ -47,9 +26,7 @@ describe('bringing in a supplier price list', () => {
 
   it('when staff upload the semicolon list, then the detected format and counts show, and applying it shows the new prices', async () => {
     const page = env.page;
-    await page.context().clearCookies();
-    await signIn(page, env.baseUrl, DEMO.staff);
-    await page.goto(`${env.baseUrl}/imports/new`);
+    await env.signInAs('staff', '/imports/new');
     await page.getByRole('heading', { name: 'Bring in a price list' }).waitFor();
 
     // The list of suppliers arrives after the page: a select with no options yet does not open.

@@ -4,32 +4,24 @@
 import { readFileSync } from 'node:fs';
 import type { Page } from 'playwright-core';
 import {
+  browserTestFile,
   DEMO,
-  e2eEnvironment,
-  failOnPageErrors,
+  openFromNav,
   screenshot,
   seriousA11yViolations,
   signIn,
 } from './support';
 
-failOnPageErrors();
-
 // Each step drives a real browser against a real server; on a busy machine that takes seconds.
-jest.setTimeout(180_000);
-
-let env: Awaited<ReturnType<typeof e2eEnvironment>>;
+const env = browserTestFile({ timeout: 180_000 });
 /** Script errors in the page: a chart or table that failed to render shows up here. */
 const pageErrors: string[] = [];
 
 beforeAll(async () => {
-  env = await e2eEnvironment();
   env.page.on('pageerror', (error) => pageErrors.push(error.message));
   env.page.on('response', (response) => {
     if (response.status() >= 500) pageErrors.push(`${response.status()} ${response.url()}`);
   });
-});
-afterAll(async () => {
-  await env?.close();
 });
 
 /** Waits until every chart on the page is drawn: canvases sized and not blank. */
@@ -107,11 +99,7 @@ describe('insights for the owner', () => {
 
   it('when the owner opens What sells, then the charts draw in our font beside their tables', async () => {
     const page = env.page;
-    await page
-      .getByRole('navigation', { name: /main/i })
-      .getByRole('link', { name: 'What sells' })
-      .click();
-    await page.getByRole('heading', { name: 'What sells', level: 1 }).waitFor();
+    await openFromNav(page, 'What sells');
     await settled(page);
     await chartsDrawn(page, 3);
     expect(await plexLoaded(page)).toBe(true);
@@ -166,11 +154,7 @@ describe('insights for the owner', () => {
 
   it('when the owner opens What sits, then stock value, turnover and parts not moved show', async () => {
     const page = env.page;
-    await page
-      .getByRole('navigation', { name: /main/i })
-      .getByRole('link', { name: 'What sits' })
-      .click();
-    await page.getByRole('heading', { name: 'What sits', level: 1 }).waitFor();
+    await openFromNav(page, 'What sits');
     await chartsDrawn(page, 1);
     const notMoved = page.getByRole('region', { name: 'Not moved' });
     // The demo's stock all came in recently, so with receipts counted as movement the list may be
@@ -194,11 +178,7 @@ describe('insights for the owner', () => {
 
   it('when the owner opens ABC classes, then the Pareto chart and the class table show', async () => {
     const page = env.page;
-    await page
-      .getByRole('navigation', { name: /main/i })
-      .getByRole('link', { name: 'ABC classes' })
-      .click();
-    await page.getByRole('heading', { name: 'ABC classes', level: 1 }).waitFor();
+    await openFromNav(page, 'ABC classes');
     await chartsDrawn(page, 1);
     const classes = page.getByRole('list', { name: 'Classes' }).getByRole('listitem');
     expect(await classes.count()).toBe(3);
@@ -212,11 +192,7 @@ describe('insights for the owner', () => {
 
   it('when the owner opens Ran short, then short steps and the supplier comparison show', async () => {
     const page = env.page;
-    await page
-      .getByRole('navigation', { name: /main/i })
-      .getByRole('link', { name: 'Ran short' })
-      .click();
-    await page.getByRole('heading', { name: 'Ran short', level: 1 }).waitFor();
+    await openFromNav(page, 'Ran short');
     await chartsDrawn(page, 1);
     await page
       .getByRole('region', { name: 'Steps that ran short' })
@@ -230,11 +206,7 @@ describe('insights for the owner', () => {
 
   it('when the owner opens Invoiced and owed, then the invoiced months, estimates, balances and deposits show', async () => {
     const page = env.page;
-    await page
-      .getByRole('navigation', { name: /main/i })
-      .getByRole('link', { name: 'Invoiced and owed' })
-      .click();
-    await page.getByRole('heading', { name: 'Invoiced and owed', level: 1 }).waitFor();
+    await openFromNav(page, 'Invoiced and owed');
     await settled(page);
     // The demo hands jobs back when it is seeded, so this month has invoices and a chart.
     await chartsDrawn(page, 1);
@@ -272,8 +244,7 @@ describe('the insights pages', () => {
 describe('insights for the buyer', () => {
   it('when the buyer signs in, then the stock side shows and What sells does not', async () => {
     const page = env.page;
-    await page.context().clearCookies();
-    await signIn(page, env.baseUrl, DEMO.buyer);
+    await env.signInAs('buyer');
     const nav = page.getByRole('navigation', { name: /main/i });
     for (const label of ['What sits', 'ABC classes', 'Ran short'])
       await nav.getByRole('link', { name: label }).waitFor();

@@ -3,38 +3,19 @@
 // Chromium), and hand the job back. Every page is screenshotted and scanned with axe-core.
 import { mkdirSync, readFileSync } from 'node:fs';
 import path from 'node:path';
-import pg from 'pg';
 import type { Page } from 'playwright-core';
 import {
   ARTIFACTS,
+  browserTestFile,
   DEMO,
-  e2eEnvironment,
-  failOnPageErrors,
+  openFromNav,
   screenshot,
   screenshotAtWidths,
   seriousA11yViolations,
   signIn,
 } from './support';
 
-let env: Awaited<ReturnType<typeof e2eEnvironment>>;
-failOnPageErrors();
-
-beforeAll(async () => {
-  env = await e2eEnvironment();
-});
-afterAll(async () => {
-  await env?.close();
-});
-
-async function query<T>(sql: string, params: unknown[] = []): Promise<T[]> {
-  const client = new pg.Client({ connectionString: env.databaseUrl });
-  await client.connect();
-  try {
-    return (await client.query(sql, params)).rows as T[];
-  } finally {
-    await client.end();
-  }
-}
+const env = browserTestFile();
 
 /** Pages in a PDF written by Chromium: each page object carries "/Type /Page". */
 function pdfPageCount(file: string): number {
@@ -187,7 +168,7 @@ async function holdThroughDialog(page: Page, shot: string, measure?: string): Pr
   await hold.click();
   await dialog.waitFor({ state: 'detached' });
   await page.locator('.held-piston', { hasText: label }).waitFor();
-  const units = await query<{ status: string }>(
+  const units = await env.query<{ status: string }>(
     'SELECT status FROM piston_units WHERE label = $1',
     [label],
   );
@@ -201,11 +182,7 @@ describe('a cylinder job from intake to hand-back', () => {
   it('when the machinist opens the job bench, then the seeded jobs show by stage', async () => {
     const page = env.page;
     await signIn(page, env.baseUrl, DEMO.machinist);
-    await page
-      .getByRole('navigation', { name: /main/i })
-      .getByRole('link', { name: 'Job bench' })
-      .click();
-    await page.getByRole('heading', { name: 'Job bench', level: 1 }).waitFor();
+    await openFromNav(page, 'Job bench');
     await page.getByRole('heading', { name: /Parts set aside/ }).waitFor();
     await page.getByText('Waiting for parts').first().waitFor();
     await screenshot(page, 'jobs-bench');
@@ -278,7 +255,7 @@ describe('a cylinder job from intake to hand-back', () => {
     const page = env.page;
     // The customer's approval before a cut has API tests of its own; this file walks the bench, so the
     // shop here cuts without waiting for it.
-    await query(
+    await env.query(
       `INSERT INTO settings (key, value, updated_at) VALUES ('shop', '{"cutOnlyAfterApproval": false}', now())
        ON CONFLICT (key) DO UPDATE SET value = settings.value::jsonb || excluded.value::jsonb`,
     );
@@ -296,7 +273,9 @@ describe('a cylinder job from intake to hand-back', () => {
     await page.getByText(/Clearance 0\.040 mm: in range/).waitFor();
     await screenshotAtWidths(page, 'jobs-mm-after-honing');
     const jobId = jobUrl.split('/').pop();
-    const rows = await query<{ state: string }>('SELECT state FROM jobs WHERE id = $1', [jobId]);
+    const rows = await env.query<{ state: string }>('SELECT state FROM jobs WHERE id = $1', [
+      jobId,
+    ]);
     expect(rows).toEqual([{ state: 'ready_to_go' }]);
   });
 
@@ -316,7 +295,7 @@ describe('a cylinder job from intake to hand-back', () => {
     expect(await seriousA11yViolations(page)).toEqual([]);
 
     const jobId = jobUrl.split('/').pop();
-    const issues = await query<{
+    const issues = await env.query<{
       kind: string;
       sale_price: string | null;
       unit_cost: string | null;
@@ -335,7 +314,7 @@ describe('a cylinder job from intake to hand-back', () => {
 describe('the same on a worn bore for a machinist who reads inches', () => {
   it(`when a bore worn past the first steps is measured in ${INCH_FOUR_STROKE.name}, then every step shows and the first that cleans up is taken`, async () => {
     const page = env.page;
-    await query("UPDATE users SET unit = 'in' WHERE email = $1", [DEMO.machinist]);
+    await env.query("UPDATE users SET unit = 'in' WHERE email = $1", [DEMO.machinist]);
     await page.goto(`${env.baseUrl}/`);
     await takeInJob(page, INCH_FOUR_STROKE.family, 'Tamsin Wollery');
     await measureAndChoose(page, INCH_FOUR_STROKE, 'jobs-in');

@@ -6,28 +6,25 @@
 import type { Page } from 'playwright-core';
 import {
   allowPageErrors,
+  type Browser,
+  browserTestFile,
   DEMO,
-  e2eEnvironment,
-  failOnPageErrors,
   openBrowser,
+  openFromNav,
   screenshotAtWidths,
   seriousA11yViolations,
   signIn,
-  type Browser,
 } from './support';
 
-let env: Awaited<ReturnType<typeof e2eEnvironment>>;
+const env = browserTestFile();
 let customer: Browser;
-failOnPageErrors();
 
 beforeAll(async () => {
-  env = await e2eEnvironment();
   // The customer's own browser: nothing shared with the shop's, no cookie, no session.
   customer = await openBrowser();
 });
 afterAll(async () => {
   await customer?.close();
-  await env?.close();
 });
 
 // The seeded job of Halvard Penrose (QV-54A, one cylinder, booked in, with an e-mail address): its
@@ -57,11 +54,7 @@ describe('a job priced, agreed from the link, paid and invoiced', () => {
   it('when the owner opens Labour prices and adds an operation, then it is listed with its exact price', async () => {
     const page = env.page;
     await signIn(page, env.baseUrl, DEMO.owner);
-    await page
-      .getByRole('navigation', { name: /main/i })
-      .getByRole('link', { name: 'Labour prices' })
-      .click();
-    await page.getByRole('heading', { name: 'Labour prices', level: 1 }).waitFor();
+    await openFromNav(page, 'Labour prices');
     await page.getByRole('cell', { name: 'Skim the head face', exact: true }).waitFor();
     await page.getByLabel('Operation', { exact: true }).fill('Check the port timing');
     await page.getByLabel(/^Price/).fill('22.40');
@@ -75,8 +68,7 @@ describe('a job priced, agreed from the link, paid and invoiced', () => {
 
   it('when staff add a line and a discount and send the estimate, then its totals follow the rule and it waits for the customer', async () => {
     const page = env.page;
-    await page.context().clearCookies();
-    await signIn(page, env.baseUrl, DEMO.staff);
+    await env.signInAs('staff');
     ({ id: jobId, number: jobNumber } = await jobOf(page, CUSTOMER));
     await openJob(page);
     const panel = page.locator('app-estimate-panel');
@@ -112,8 +104,7 @@ describe('a job priced, agreed from the link, paid and invoiced', () => {
 
   it('when the owner reads the Mailbox, then the estimate e-mail carries the customer’s link', async () => {
     const page = env.page;
-    await page.context().clearCookies();
-    await signIn(page, env.baseUrl, DEMO.owner);
+    await env.signInAs('owner');
     // The outbox worker sends every couple of seconds: ask again until the mail has arrived.
     for (let i = 0; i < 30 && !link; i++) {
       const res = await page.request.get(`${env.baseUrl}/api/mailbox?pageSize=50`);
@@ -160,8 +151,7 @@ describe('a job priced, agreed from the link, paid and invoiced', () => {
 
   it('when staff open the job again, then the estimate shows agreed from the link', async () => {
     const page = env.page;
-    await page.context().clearCookies();
-    await signIn(page, env.baseUrl, DEMO.staff);
+    await env.signInAs('staff');
     await openJob(page);
     const panel = page.locator('app-estimate-panel');
     await panel.locator('.badge', { hasText: 'Agreed by the customer' }).waitFor();

@@ -3,25 +3,9 @@
 // no picker's chosen value is cut short, the bench keeps its stages in one row, and every
 // icon-only button has a name. A screenshot of each page at both widths is kept.
 import type { Page } from 'playwright-core';
-import {
-  DEMO,
-  e2eEnvironment,
-  failOnPageErrors,
-  screenshotAtWidths,
-  signIn,
-  type DemoRole,
-} from './support';
+import { browserTestFile, DEMO, type DemoRole, screenshotAtWidths, signIn } from './support';
 
-failOnPageErrors();
-
-let env: Awaited<ReturnType<typeof e2eEnvironment>>;
-
-beforeAll(async () => {
-  env = await e2eEnvironment();
-});
-afterAll(async () => {
-  await env?.close();
-});
+const env = browserTestFile();
 
 const EVERYONE = [
   '/',

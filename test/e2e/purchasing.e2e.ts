@@ -2,27 +2,9 @@
 // for the first oversize of the twin to wait on the order line, send the order; staff receive it
 // with each piston's measured skirt; the job shows its held piston; the owner's Mailbox shows the
 // order and the notices. Screenshots of every page and an accessibility scan on each.
-import {
-  DEMO,
-  e2eEnvironment,
-  failOnPageErrors,
-  screenshot,
-  seriousA11yViolations,
-  signIn,
-} from './support';
+import { browserTestFile, screenshot, seriousA11yViolations } from './support';
 
-failOnPageErrors();
-
-jest.setTimeout(180_000);
-
-let env: Awaited<ReturnType<typeof e2eEnvironment>>;
-
-beforeAll(async () => {
-  env = await e2eEnvironment();
-});
-afterAll(async () => {
-  await env?.close();
-});
+const env = browserTestFile({ timeout: 180_000 });
 
 // The demo twin's first oversize (+0.25 mm over a 72.00 mm bore): nothing free, two jobs'
 // cylinders waiting for it. Skirts a few hundredths under the step's bore, as pistons come.
@@ -53,10 +35,7 @@ async function expectAccessible() {
 describe('ordering, receiving and the waiting job', () => {
   it('when the buyer drafts from the reorder list, then a draft at the best supplier holds the low piston', async () => {
     const page = env.page;
-    await page.context().clearCookies();
-    await signIn(page, env.baseUrl, DEMO.buyer);
-
-    await page.goto(`${env.baseUrl}/alerts`);
+    await env.signInAs('buyer', '/alerts');
     await page.getByRole('heading', { name: 'Stock alerts' }).waitFor();
     await screenshot(page, 'purchasing-alerts');
     await expectAccessible();
@@ -118,9 +97,7 @@ describe('ordering, receiving and the waiting job', () => {
 
   it('when staff receive the pistons with their measured skirts, then each is held for a waiting cylinder', async () => {
     const page = env.page;
-    await page.context().clearCookies();
-    await signIn(page, env.baseUrl, DEMO.staff);
-    await page.goto(`${env.baseUrl}/purchasing/orders`);
+    await env.signInAs('staff', '/purchasing/orders');
     await page.getByRole('link', { name: orderNumber, exact: true }).click();
     await page.getByRole('link', { name: 'Receive against it' }).click();
     const line = page.locator('li.line', { hasText: PART });
@@ -143,8 +120,7 @@ describe('ordering, receiving and the waiting job', () => {
 
   it('when the machinist opens the waiting job, then it shows its held piston', async () => {
     const page = env.page;
-    await page.context().clearCookies();
-    await signIn(page, env.baseUrl, DEMO.machinist);
+    await env.signInAs('machinist');
     const jobs = (await (
       await page.request.get(`${env.baseUrl}/api/jobs?q=${encodeURIComponent(jobNumber)}`)
     ).json()) as { items: { id: string; number: string }[] };
@@ -161,9 +137,7 @@ describe('ordering, receiving and the waiting job', () => {
 
   it('when the owner opens the Mailbox, then the order and the arrival notices are there', async () => {
     const page = env.page;
-    await page.context().clearCookies();
-    await signIn(page, env.baseUrl, DEMO.owner);
-    await page.goto(`${env.baseUrl}/alerts/mailbox`);
+    await env.signInAs('owner', '/alerts/mailbox');
     await page.getByRole('heading', { name: 'Mailbox' }).waitFor();
     // The outbox worker sends every couple of seconds: look again until both have arrived.
     const order = page.getByText(`Purchase order ${orderNumber} from`);
@@ -190,8 +164,7 @@ describe('ordering, receiving and the waiting job', () => {
 
   it('when the buyer looks up who has a step, then the offers show with landed costs', async () => {
     const page = env.page;
-    await page.context().clearCookies();
-    await signIn(page, env.baseUrl, DEMO.buyer);
+    await env.signInAs('buyer');
     const parts = (await (await page.request.get(`${env.baseUrl}/api/parts?q=${PART}`)).json()) as {
       items: { id: string; sku: string }[];
     };

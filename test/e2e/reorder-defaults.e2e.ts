@@ -1,23 +1,7 @@
 // The buyer sets a family-wide reorder default from the reorder page.
-import {
-  DEMO,
-  e2eEnvironment,
-  failOnPageErrors,
-  screenshot,
-  seriousA11yViolations,
-  signIn,
-} from './support';
+import { browserTestFile, DEMO, screenshot, seriousA11yViolations, signIn } from './support';
 
-failOnPageErrors();
-
-let env: Awaited<ReturnType<typeof e2eEnvironment>>;
-
-beforeAll(async () => {
-  env = await e2eEnvironment();
-});
-afterAll(async () => {
-  await env?.close();
-});
+const env = browserTestFile();
 
 describe('reorder defaults', () => {
   it('when the buyer saves a default for every step of a family, then it is listed', async () => {

@@ -2,45 +2,10 @@
 // suggestion says why and takes the rest from the next supplier; "who has it" opens Sourcing with
 // the part's family and step filled in and Find ready; a part nobody offers points to the item
 // waiting in the mapping queue that might be it. Screenshots at 1280 and 800 px wide.
-import pg from 'pg';
 import type { Page } from 'playwright-core';
-import {
-  DEMO,
-  e2eEnvironment,
-  failOnPageErrors,
-  screenshot,
-  seriousA11yViolations,
-  signIn,
-} from './support';
+import { browserTestFile, DEMO, screenshot, seriousA11yViolations, signIn } from './support';
 
-failOnPageErrors();
-
-jest.setTimeout(180_000);
-
-let env: Awaited<ReturnType<typeof e2eEnvironment>>;
-
-async function sql<T>(text: string, params: unknown[] = []): Promise<T[]> {
-  const client = new pg.Client({ connectionString: env.databaseUrl });
-  await client.connect();
-  try {
-    return (await client.query(text, params)).rows as T[];
-  } finally {
-    await client.end();
-  }
-}
-
-/** A write through the API the pages use, with the session's XSRF token like Angular sends it. */
-async function call(page: Page, method: 'POST' | 'PUT', path: string, data: object) {
-  const cookies = await page.context().cookies();
-  const token = cookies.find((c) => c.name === 'XSRF-TOKEN')?.value ?? '';
-  const res = await page.request.fetch(`${env.baseUrl}${path}`, {
-    method,
-    data,
-    headers: { 'X-XSRF-TOKEN': token },
-  });
-  if (!res.ok()) throw new Error(`${method} ${path}: ${res.status()} ${await res.text()}`);
-  return (await res.json()) as { id: string };
-}
+const env = browserTestFile({ timeout: 180_000 });
 
 async function both(page: Page, name: string) {
   await page.setViewportSize({ width: 1280, height: 900 });
@@ -63,14 +28,13 @@ let alder = '';
 let birch = '';
 
 beforeAll(async () => {
-  env = await e2eEnvironment();
   const page = env.page;
   await signIn(page, env.baseUrl, DEMO.owner);
   await page.goto(`${env.baseUrl}/`);
-  const [step] = await sql<{ family_id: string; step_id: string }>(
+  const [step] = await env.query<{ family_id: string; step_id: string }>(
     `SELECT family_id, step_id FROM parts WHERE sku = 'BT-72-PC-025'`,
   );
-  const capped = await call(page, 'POST', '/api/parts', {
+  const capped = await env.api<{ id: string }>(page, 'POST', '/api/parts', {
     kind: 'piston',
     sku: CAPPED,
     familyId: step.family_id,
@@ -80,7 +44,7 @@ beforeAll(async () => {
     material: 'cast',
     ringCount: 2,
   });
-  const unoffered = await call(page, 'POST', '/api/parts', {
+  const unoffered = await env.api<{ id: string }>(page, 'POST', '/api/parts', {
     kind: 'rings',
     sku: UNOFFERED,
     familyId: step.family_id,
@@ -88,16 +52,16 @@ beforeAll(async () => {
     description: 'Ring set nobody has mapped yet',
     salePrice: '34.50',
   });
-  await call(page, 'PUT', `/api/parts/${capped.id}/reorder-rule`, {
+  await env.api<{ id: string }>(page, 'PUT', `/api/parts/${capped.id}/reorder-rule`, {
     reorderPoint: 2,
     orderUpTo: 6,
   });
-  await call(page, 'PUT', `/api/parts/${unoffered.id}/reorder-rule`, {
+  await env.api<{ id: string }>(page, 'PUT', `/api/parts/${unoffered.id}/reorder-rule`, {
     reorderPoint: 1,
     orderUpTo: 2,
   });
   const supplier = (name: string) =>
-    call(page, 'POST', '/api/suppliers', {
+    env.api<{ id: string }>(page, 'POST', '/api/suppliers', {
       name,
       email: `${name.toLowerCase().replace(/\W+/g, '-')}@example.test`,
       currency: 'EUR',
@@ -109,7 +73,7 @@ beforeAll(async () => {
   // What their price lists said (an import writes these rows): Alderwick has 3, Birchcombe 4, and
   // Alderwick lists our ring set under our own SKU without anyone having mapped it.
   const item = (supplierId: string, sku: string, partId: string | null, price: string, n: number) =>
-    sql(
+    env.query(
       `INSERT INTO supplier_items (supplier_id, sku, description, part_id, price, currency, available)
        VALUES ($1, $2, $3, $4, $5, 'EUR', $6)`,
       [supplierId, sku, 'As the supplier lists it', partId, price, n],
@@ -118,16 +82,11 @@ beforeAll(async () => {
   await item(birch, 'BCR-0912', capped.id, '34.00', 4);
   await item(alder, UNOFFERED, null, '12.00', 20);
 });
-afterAll(async () => {
-  await env?.close();
-});
 
 describe('from the reorder list to orders', () => {
   it('when the cheapest supplier has only 3 of the 6 suggested, then the drafts say so and take 3 from the next', async () => {
     const page = env.page;
-    await page.context().clearCookies();
-    await signIn(page, env.baseUrl, DEMO.buyer);
-    await page.goto(`${env.baseUrl}/purchasing/reorder`);
+    await env.signInAs('buyer', '/purchasing/reorder');
     await page.getByLabel('Find a part').fill('FLW-');
     await page.getByText(CAPPED, { exact: true }).waitFor();
     await page.getByText(UNOFFERED, { exact: true }).waitFor();

@@ -1,28 +1,10 @@
 // Staff receives three measured pistons typing sizes in inches; the machinist, who reads
 // millimetres, finds them on the family's step ladder with the sizes converted exactly
 // (1 in = 25.4 mm, international yard and pound agreement of 1959, NIST SP 811 appendix B).
-import {
-  DEMO,
-  e2eEnvironment,
-  failOnPageErrors,
-  screenshot,
-  seriousA11yViolations,
-  signIn,
-} from './support';
-
-failOnPageErrors();
+import { browserTestFile, screenshot, seriousA11yViolations } from './support';
 
 // Each test walks several pages in a real browser.
-jest.setTimeout(120_000);
-
-let env: Awaited<ReturnType<typeof e2eEnvironment>>;
-
-beforeAll(async () => {
-  env = await e2eEnvironment();
-});
-afterAll(async () => {
-  await env?.close();
-});
+const env = browserTestFile({ timeout: 120_000 });
 
 // A demo piston at +0.020 in of the imperial single (standard bore 2.9375 in, so the step's bore
 // is 2.9575 in): three pistons a few ten-thousandths apart, as they come from the maker.
@@ -37,9 +19,7 @@ let labels: string[] = [];
 describe('receiving measured pistons and finding them on the step ladder', () => {
   it('when staff receives three pistons typing sizes in inches, then three labelled units are stored', async () => {
     const page = env.page;
-    await page.context().clearCookies();
-    await signIn(page, env.baseUrl, DEMO.staff);
-    await page.goto(`${env.baseUrl}/stock/receive`);
+    await env.signInAs('staff', '/stock/receive');
 
     // A keyboard-wedge scan: the code, then Enter, picks the single match.
     const picker = page.getByRole('combobox', { name: 'Part received' });
@@ -76,9 +56,7 @@ describe('receiving measured pistons and finding them on the step ladder', () =>
   it('when the machinist opens the family ladder in millimetres, then the three pistons show converted', async () => {
     expect(labels).toHaveLength(3);
     const page = env.page;
-    await page.context().clearCookies();
-    await signIn(page, env.baseUrl, DEMO.machinist);
-    await page.goto(`${env.baseUrl}/catalog/families`);
+    await env.signInAs('machinist', '/catalog/families');
     await page.getByRole('link', { name: 'MB-350', exact: true }).click();
     await page.getByRole('heading', { name: '+0.020 in' }).waitFor();
 
@@ -108,10 +86,7 @@ describe('receiving measured pistons and finding them on the step ladder', () =>
 
   it('when the catalog and stock pages open, then each shows its data without serious accessibility problems', async () => {
     const page = env.page;
-    await page.context().clearCookies();
-    await signIn(page, env.baseUrl, DEMO.owner);
-
-    await page.goto(`${env.baseUrl}/catalog/families`);
+    await env.signInAs('owner', '/catalog/families');
     await page.getByRole('link', { name: 'QV-54A', exact: true }).waitFor();
     await screenshot(page, 'catalog-families');
     expect(await seriousA11yViolations(page)).toEqual([]);

@@ -23,13 +23,7 @@ async function adminQuery(sql: string): Promise<void> {
   const url = process.env.STEPSTOCK_PG_ADMIN_URL;
   if (!url)
     throw new Error('STEPSTOCK_PG_ADMIN_URL is not set: run browser tests through npm test');
-  const client = new pg.Client({ connectionString: url });
-  await client.connect();
-  try {
-    await client.query(sql);
-  } finally {
-    await client.end();
-  }
+  await queryDatabase(url, sql);
 }
 
 /** A fresh copy of the seeded demo database (copying a template is much faster than seeding). */
@@ -228,6 +222,12 @@ export async function signIn(page: Page, baseUrl: string, email: string, passwor
   await page.waitForURL((u) => !u.pathname.startsWith('/sign-in'));
 }
 
+/** Opens a page from the main navigation by its link and waits for its heading of that name. */
+export async function openFromNav(page: Page, name: string): Promise<void> {
+  await page.getByRole('navigation', { name: /main/i }).getByRole('link', { name }).click();
+  await page.getByRole('heading', { name, level: 1 }).waitFor();
+}
+
 export async function signOut(page: Page) {
   await page.getByRole('button', { name: /account menu|user menu/i }).click();
   await page.getByRole('menuitem', { name: /sign out/i }).click();
@@ -299,6 +299,28 @@ export async function queryDatabase<T>(
   }
 }
 
+/**
+ * A call to the API the pages use, made from `page`'s session with its XSRF token like Angular
+ * sends it; anything but a 2xx answer fails with the method, path, status and what the server said.
+ */
+export async function apiCall<T>(
+  page: Page,
+  baseUrl: string,
+  method: 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE',
+  path: string,
+  data?: object,
+): Promise<T> {
+  const cookies = await page.context().cookies();
+  const token = cookies.find((c) => c.name === 'XSRF-TOKEN')?.value ?? '';
+  const res = await page.request.fetch(`${baseUrl}${path}`, {
+    method,
+    ...(data ? { data } : {}),
+    headers: { 'X-XSRF-TOKEN': token },
+  });
+  if (!res.ok()) throw new Error(`${method} ${path}: ${res.status()} ${await res.text()}`);
+  return (await res.json()) as T;
+}
+
 /** Starts a demo database, the server and a browser for one test file. */
 export async function e2eEnvironment(extraEnv: NodeJS.ProcessEnv = {}) {
   const database = await demoDatabase();
@@ -310,6 +332,17 @@ export async function e2eEnvironment(extraEnv: NodeJS.ProcessEnv = {}) {
     page: browser.page,
     browser,
     server,
+    /** Reads or writes this file's own database directly (`queryDatabase`). */
+    query: <T>(sql: string, params: unknown[] = []) => queryDatabase<T>(database.url, sql, params),
+    /** `apiCall` against this file's server. */
+    api: <T>(page: Page, method: Parameters<typeof apiCall>[2], path: string, data?: object) =>
+      apiCall<T>(page, server.url, method, path, data),
+    /** Signs the file's page out of whoever it was and in as the demo user of `role`; then opens `path`. */
+    async signInAs(role: DemoRole, path?: string) {
+      await browser.page.context().clearCookies();
+      await signIn(browser.page, server.url, DEMO[role]);
+      if (path) await browser.page.goto(`${server.url}${path}`);
+    },
     async close() {
       await browser.close().catch(() => undefined);
       await server.stop();
@@ -331,4 +364,27 @@ export function failOnPageErrors(): void {
       );
     }
   });
+}
+
+export type E2eEnvironment = Awaited<ReturnType<typeof e2eEnvironment>>;
+
+/**
+ * The usual top of a browser-test file: each test fails on a page error (`failOnPageErrors`) and
+ * may take `timeout` ms; an `e2eEnvironment` starts before the file's tests and closes after them.
+ * The object returned is filled in place once it has started, so a file names it at the top:
+ * `const env = browserTestFile({ timeout: 180_000 })`.
+ */
+export function browserTestFile(
+  options: { timeout?: number; extraEnv?: NodeJS.ProcessEnv } = {},
+): E2eEnvironment {
+  failOnPageErrors();
+  if (options.timeout) jest.setTimeout(options.timeout);
+  const env = {} as E2eEnvironment;
+  beforeAll(async () => {
+    Object.assign(env, await e2eEnvironment(options.extraEnv));
+  });
+  afterAll(async () => {
+    await env.close?.();
+  });
+  return env;
 }

@@ -1,34 +1,36 @@
 import { kitFree } from '../../shared/kits';
 
 describe('kitFree', () => {
-  it('when the components have different free stock, then the scarcest one decides', () => {
-    // Worked by hand: pistons 5 ÷ 1 = 5, ring sets 3 ÷ 1 = 3, clips 7 ÷ 2 = 3 (floor) → 3 kits.
-    expect(
-      kitFree([
+  it.each([
+    [
+      'when the components have different free stock, then the scarcest one decides',
+      // Worked by hand: pistons 5 ÷ 1 = 5, ring sets 3 ÷ 1 = 3, clips 7 ÷ 2 = 3 (floor) → 3 kits.
+      [
         { free: 5, perKit: 1 },
         { free: 3, perKit: 1 },
         { free: 7, perKit: 2 },
-      ]),
-    ).toBe(3);
-  });
-
-  it('when clips run short of a pair, then fewer kits are free', () => {
-    // 5 clips ÷ 2 per kit = 2 kits (floor), though 4 pistons are free.
-    expect(
-      kitFree([
+      ],
+      3,
+    ],
+    [
+      'when clips run short of a pair, then fewer kits are free',
+      // 5 clips ÷ 2 per kit = 2 kits (floor), though 4 pistons are free.
+      [
         { free: 4, perKit: 1 },
         { free: 5, perKit: 2 },
-      ]),
-    ).toBe(2);
-  });
-
-  it('when a component has none free, then no kit is free', () => {
-    expect(
-      kitFree([
+      ],
+      2,
+    ],
+    [
+      'when a component has none free, then no kit is free',
+      [
         { free: 0, perKit: 1 },
         { free: 9, perKit: 1 },
-      ]),
-    ).toBe(0);
+      ],
+      0,
+    ],
+  ])('%s', (_name, components, kits) => {
+    expect(kitFree(components)).toBe(kits);
   });
 
   it.each([
