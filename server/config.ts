@@ -1,50 +1,47 @@
 // Reads the environment once, validates it and fails fast with a clear message. Defaults make
 // `npm start` work with nothing set.
-import { z } from 'zod';
+import * as z from '../shared/zod';
 
 const schema = z.object({
-  NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
-  PORT: z.coerce.number().int().min(1).max(65535).default(4280),
-  HOST: z.string().default('127.0.0.1'),
-  DATABASE_URL: z.string().min(1).optional(),
-  SESSION_SECRET: z.string().min(16).optional(),
-  SESSION_IDLE_MINUTES: z.coerce
-    .number()
-    .int()
-    .min(1)
-    .max(24 * 60)
-    .default(120),
-  TRUST_PROXY: z.enum(['0', '1']).default('0'),
+  NODE_ENV: z._default(z.enum(['development', 'production', 'test']), 'development'),
+  PORT: z._default(z.coerce.number().check(z.int(), z.gte(1), z.lte(65535)), 4280),
+  HOST: z._default(z.string(), '127.0.0.1'),
+  DATABASE_URL: z.optional(z.string().check(z.minLength(1))),
+  SESSION_SECRET: z.optional(z.string().check(z.minLength(16))),
+  SESSION_IDLE_MINUTES: z._default(z.coerce.number().check(z.int(), z.gte(1), z.lte(24 * 60)), 120),
+  TRUST_PROXY: z._default(z.enum(['0', '1']), '0'),
   /** PEM files: with both set, Stepstock serves HTTPS itself (tablets need it for offline use). */
-  TLS_CERT: z.string().min(1).optional(),
-  TLS_KEY: z.string().min(1).optional(),
-  SMTP_URL: z.string().optional(),
-  MAIL_FROM: z.string().default('Stepstock <no-reply@stepstock.test>'),
-  APP_URL: z.string().optional(),
+  TLS_CERT: z.optional(z.string().check(z.minLength(1))),
+  TLS_KEY: z.optional(z.string().check(z.minLength(1))),
+  SMTP_URL: z.optional(z.string()),
+  MAIL_FROM: z._default(z.string(), 'Stepstock <no-reply@stepstock.test>'),
+  APP_URL: z.optional(z.string()),
   /**
    * The hosted payment service's secret API key and the signing secret of Stepstock's webhook
    * endpoint there: with both set the SDK talks to the real service; with neither, each server
    * process starts a local stand-in on loopback.
    */
-  PAYMENTS_SECRET_KEY: z.string().min(1).optional(),
-  PAYMENTS_WEBHOOK_SECRET: z.string().min(1).optional(),
-  LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
-  PHOTO_DIR: z.string().optional(),
-  DIST_DIR: z.string().optional(),
+  PAYMENTS_SECRET_KEY: z.optional(z.string().check(z.minLength(1))),
+  PAYMENTS_WEBHOOK_SECRET: z.optional(z.string().check(z.minLength(1))),
+  LOG_LEVEL: z._default(
+    z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']),
+    'info',
+  ),
+  PHOTO_DIR: z.optional(z.string()),
+  DIST_DIR: z.optional(z.string()),
   /** Connections in the request pool; PostgreSQL's max_connections must cover every process. */
-  DB_POOL_SIZE: z.coerce.number().int().min(2).max(200).default(10),
+  DB_POOL_SIZE: z._default(z.coerce.number().check(z.int(), z.gte(2), z.lte(200)), 10),
   /** Failed sign-ins allowed from one address (across all e-mails) in 15 minutes. */
-  SIGN_IN_FAILURES_PER_ADDRESS: z.coerce.number().int().min(1).max(10000).default(30),
+  SIGN_IN_FAILURES_PER_ADDRESS: z._default(
+    z.coerce.number().check(z.int(), z.gte(1), z.lte(10000)),
+    30,
+  ),
   /** Seconds a price-list import waits for its turn (two at once, one per supplier) before a 503. */
-  IMPORT_WAIT_SECONDS: z.coerce.number().min(0).max(600).default(20),
+  IMPORT_WAIT_SECONDS: z._default(z.coerce.number().check(z.gte(0), z.lte(600)), 20),
   /** How far the JavaScript heap may grow past the last full collection (%; 0: V8's own choice). */
-  HEAP_GROWING_PERCENT: z.coerce.number().int().min(0).max(300).default(50),
+  HEAP_GROWING_PERCENT: z._default(z.coerce.number().check(z.int(), z.gte(0), z.lte(300)), 50),
   /** Hours an uncommitted price-list preview (and its staged rows) is kept before it is swept. */
-  PRICE_LIST_PREVIEW_HOURS: z.coerce
-    .number()
-    .min(0.01)
-    .max(24 * 365)
-    .default(24),
+  PRICE_LIST_PREVIEW_HOURS: z._default(z.coerce.number().check(z.gte(0.01), z.lte(24 * 365)), 24),
 });
 
 export type Config = Readonly<z.infer<typeof schema>> & {

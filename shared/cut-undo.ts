@@ -1,7 +1,7 @@
 // Taking back "marked as cut". The mark locks the cylinder's readings and step and keeps the held
 // piston with this bore, so it is confirmed before it is made; a slip can be taken back by the
 // machinist who made it for a short while, and by the owner at any time with a reason.
-import { z } from 'zod';
+import * as z from './zod';
 
 import type { Role } from './session-types';
 import { allows } from './access';
@@ -9,15 +9,13 @@ import { allows } from './access';
 /** How long the machinist who marked the cut may take it back alone. */
 export const CUT_UNDO_MINUTES = 10;
 
-export const undoCutInput = z
-  .object({
-    reason: z
+export const undoCutInput = z.strictObject({
+  reason: z.optional(
+    z
       .string({ error: 'must be text' })
-      .trim()
-      .max(500, { message: 'at most 500 characters', abort: true })
-      .optional(),
-  })
-  .strict();
+      .check(z.trim(), z.maxLength(500, { message: 'at most 500 characters', abort: true })),
+  ),
+});
 export type UndoCutInput = z.output<typeof undoCutInput>;
 
 /** Who marked the cut and until when they may take it back alone (on the bore sheet). */

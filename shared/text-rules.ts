@@ -1,7 +1,7 @@
 // Text checks every schema builds on. Each one refuses an over-long value before any pattern looks
 // at it: zod runs a string's later checks even after its length check failed, unless that check
 // aborts, and a pattern over a megabyte of text can hold the server's only thread for seconds.
-import { z } from 'zod';
+import * as z from './zod';
 
 /** A length limit that stops the checks after it when it fails. */
 export function atMost(max: number, message = `at most ${max} characters`) {
@@ -17,11 +17,11 @@ export function hasLineBreak(text: string): boolean {
 
 /** A one-line text (a name, a title): trimmed, at most `max` characters, no line breaks. */
 export function singleLine(max: number, notText?: string) {
-  return z
-    .string(notText ? { error: notText } : undefined)
-    .trim()
-    .max(max, atMost(max))
-    .refine((v) => !hasLineBreak(v), 'must be one line (no line breaks)');
+  return z.string(notText ? { error: notText } : undefined).check(
+    z.trim(),
+    z.maxLength(max, atMost(max)),
+    z.refine((v) => !hasLineBreak(v), 'must be one line (no line breaks)'),
+  );
 }
 
 // RFC 5321 §4.5.3.1.3: a path holds at most 256 octets, so an address at most 254 characters.
@@ -43,8 +43,10 @@ export function isOneEmailAddress(text: string): boolean {
 export function emailAddress(max: number = MAX_EMAIL_LENGTH) {
   return z
     .string({ error: 'must be an e-mail address' })
-    .trim()
-    .toLowerCase()
-    .max(max, atMost(max))
-    .refine(isOneEmailAddress, 'is not one e-mail address (like orders@example.test)');
+    .check(
+      z.trim(),
+      z.toLowerCase(),
+      z.maxLength(max, atMost(max)),
+      z.refine(isOneEmailAddress, 'is not one e-mail address (like orders@example.test)'),
+    );
 }

@@ -1,5 +1,5 @@
 import type { Router } from 'express';
-import { z } from 'zod';
+import * as z from '../../shared/zod';
 import { route } from '../http/route';
 import { MIN_PASSWORD_LENGTH } from '../auth/passwords';
 import { changeOwnPassword, changeOwnPreferences } from '../users/users-service';
@@ -9,27 +9,27 @@ export function registerAccountRoutes(router: Router): void {
     method: 'patch',
     path: '/api/account',
     access: 'signed-in',
-    body: z
-      .object({
-        unit: z.enum(['mm', 'in']).optional(),
-        mailMode: z.enum(['instant', 'digest', 'none']).optional(),
-      })
-      .strict(),
+    body: z.strictObject({
+      unit: z.optional(z.enum(['mm', 'in'])),
+      mailMode: z.optional(z.enum(['instant', 'digest', 'none'])),
+    }),
     handler: ({ body, user }) => changeOwnPreferences(user.id, body),
   });
   route(router, {
     method: 'post',
     path: '/api/account/password',
     access: 'signed-in',
-    body: z
-      .object({
-        currentPassword: z.string().min(1, 'enter your current password').max(200),
-        newPassword: z
-          .string()
-          .min(MIN_PASSWORD_LENGTH, `must be at least ${MIN_PASSWORD_LENGTH} characters`)
-          .max(200),
-      })
-      .strict(),
+    body: z.strictObject({
+      currentPassword: z
+        .string()
+        .check(z.minLength(1, 'enter your current password'), z.maxLength(200)),
+      newPassword: z
+        .string()
+        .check(
+          z.minLength(MIN_PASSWORD_LENGTH, `must be at least ${MIN_PASSWORD_LENGTH} characters`),
+          z.maxLength(200),
+        ),
+    }),
     handler: async ({ body, user, req }) => {
       await changeOwnPassword(user.id, req.sessionID, body.currentPassword, body.newPassword);
       return undefined;

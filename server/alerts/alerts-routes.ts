@@ -1,6 +1,6 @@
 // Stock alerts, for the people who reorder: the buyer and the owner.
 import type { Router } from 'express';
-import { z } from 'zod';
+import * as z from '../../shared/zod';
 import { route } from '../http/route';
 import { idField } from '../../shared/api/common';
 import { alertsQuery } from '../../shared/api/alerts';

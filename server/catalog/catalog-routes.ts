@@ -1,7 +1,7 @@
 // Catalog routes: engine families, step series, the step ladder, exposure and parts. Everyone
 // signed in reads; owner and buyer change the catalog.
 import type { Router } from 'express';
-import { z } from 'zod';
+import * as z from '../../shared/zod';
 import { route } from '../http/route';
 import { idField, pageQuery } from '../../shared/api/common';
 import {
@@ -22,25 +22,25 @@ import { may } from '../../shared/access';
 /** A part's average cost is the shop's cost; its sale price is the list price everyone quotes. */
 const PART_MONEY: MoneyFields = { cost: ['averageCost'] };
 const idParams = z.object({ id: idField });
-const activeFilter = z
-  .enum(['true', 'false', 'all'], { error: 'must be true, false or all' })
-  .optional()
-  .transform((v) => (v === 'true' ? true : v === 'false' ? false : undefined));
+const activeFilter = z.pipe(
+  z.optional(z.enum(['true', 'false', 'all'], { error: 'must be true, false or all' })),
+  z.transform((v) => (v === 'true' ? true : v === 'false' ? false : undefined)),
+);
 
-const familiesQuery = pageQuery.extend({
-  sort: z.enum(FAMILY_SORTS, { error: `must be one of ${FAMILY_SORTS.join(', ')}` }).optional(),
+const familiesQuery = z.extend(pageQuery, {
+  sort: z.optional(z.enum(FAMILY_SORTS, { error: `must be one of ${FAMILY_SORTS.join(', ')}` })),
   active: activeFilter,
 });
 
-const partsQuery = pageQuery.extend({
-  sort: z.enum(PART_SORTS, { error: `must be one of ${PART_SORTS.join(', ')}` }).optional(),
-  familyId: idField.optional(),
-  stepId: idField.optional(),
-  kind: z.enum(PART_KINDS, { error: 'must be piston, rings, kit or other' }).optional(),
+const partsQuery = z.extend(pageQuery, {
+  sort: z.optional(z.enum(PART_SORTS, { error: `must be one of ${PART_SORTS.join(', ')}` })),
+  familyId: z.optional(idField),
+  stepId: z.optional(idField),
+  kind: z.optional(z.enum(PART_KINDS, { error: 'must be piston, rings, kit or other' })),
   active: activeFilter,
 });
 
-const exposureQuery = pageQuery.extend({ familyId: idField.optional() });
+const exposureQuery = z.extend(pageQuery, { familyId: z.optional(idField) });
 
 export function registerCatalogRoutes(router: Router): void {
   route(router, {

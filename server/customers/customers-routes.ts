@@ -2,7 +2,7 @@
 // create and edit customers and their cylinders; merging two records and erasing one are the
 // owner's. An export is everything the shop holds about the customer, as JSON or CSV.
 import type { Router } from 'express';
-import { z } from 'zod';
+import * as z from '../../shared/zod';
 import { route } from '../http/route';
 import { idField, pageQuery } from '../../shared/api/common';
 import type { MoneyFields } from '../../shared/money-visibility';
@@ -24,14 +24,12 @@ import { may } from '../../shared/access';
 const CUSTOMER_MONEY: MoneyFields = { sold: ['total'] };
 
 const idParams = z.object({ id: idField });
-const searchQuery = pageQuery.pick({ q: true, page: true, pageSize: true });
-const exportQuery = z
-  .object({
-    format: z
-      .enum(EXPORT_FORMATS, { error: `must be one of ${EXPORT_FORMATS.join(', ')}` })
-      .optional(),
-  })
-  .strict();
+const searchQuery = z.pick(pageQuery, { q: true, page: true, pageSize: true });
+const exportQuery = z.strictObject({
+  format: z.optional(
+    z.enum(EXPORT_FORMATS, { error: `must be one of ${EXPORT_FORMATS.join(', ')}` }),
+  ),
+});
 
 export function registerCustomersRoutes(router: Router): void {
   route(router, {

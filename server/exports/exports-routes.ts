@@ -1,7 +1,7 @@
 // CSV exports: the stock list and the price comparison for the people who buy and receive; a family's
 // step ladder for everyone who may read the ladder.
 import type { Router } from 'express';
-import { z } from 'zod';
+import * as z from '../../shared/zod';
 import { route } from '../http/route';
 import { idField } from '../../shared/api/common';
 import { sendCsv } from '../insights/insights-csv';
@@ -26,7 +26,7 @@ export function registerExportsRoutes(router: Router): void {
     method: 'get',
     path: '/api/exports/price-comparison.csv',
     access: may.exportStock,
-    query: z.object({ familyId: idField.optional() }).strict(),
+    query: z.strictObject({ familyId: z.optional(idField) }),
     handler: async ({ query, res }) =>
       sendCsv(res, await service.priceComparisonTable(query.familyId)),
   });

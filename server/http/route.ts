@@ -2,7 +2,7 @@
 // its input and one async handler. Routes registered any other way have no access declaration and
 // the route-matrix test fails on them; at run time a request that reaches no declared route is 404.
 import type { Request, Response, RequestHandler, Router } from 'express';
-import { z, type ZodType } from 'zod';
+import type * as z from '../../shared/zod';
 import type { Role } from '../../shared/session-types';
 import { BadRequest, Forbidden, Unauthorized } from '../errors';
 import type { ErrorDetail } from '../../shared/api/common';
@@ -25,9 +25,9 @@ export interface RouteSpec<B = unknown, Q = unknown, P = unknown> {
   method: Method;
   path: string;
   access: Access;
-  body?: ZodType<B>;
-  query?: ZodType<Q>;
-  params?: ZodType<P>;
+  body?: z.ZodMiniType<B>;
+  query?: z.ZodMiniType<Q>;
+  params?: z.ZodMiniType<P>;
   /** Middleware run after the access check and before validation (multer for uploads). */
   before?: RequestHandler[];
   /** Status for a returned value; default 200. */
@@ -44,9 +44,9 @@ export interface DeclaredRoute {
   method: Method;
   path: string;
   access: Access;
-  body?: ZodType;
-  query?: ZodType;
-  params?: ZodType;
+  body?: z.ZodMiniType;
+  query?: z.ZodMiniType;
+  params?: z.ZodMiniType;
   status?: number;
   money?: MoneyFields;
 }
@@ -70,7 +70,7 @@ function closestIssue(issue: Issue): Issue {
   return { ...inner, path: [...issue.path, ...inner.path] };
 }
 
-export function zodDetails(error: z.ZodError, where: string): ErrorDetail[] {
+export function zodDetails(error: z.core.$ZodError, where: string): ErrorDetail[] {
   return error.issues.map((raw) => {
     const issue = closestIssue(raw);
     return {
@@ -80,7 +80,7 @@ export function zodDetails(error: z.ZodError, where: string): ErrorDetail[] {
   });
 }
 
-function parseOrThrow<T>(schema: ZodType<T> | undefined, value: unknown, where: string): T {
+function parseOrThrow<T>(schema: z.ZodMiniType<T> | undefined, value: unknown, where: string): T {
   if (!schema) return value as T;
   const result = schema.safeParse(value ?? {});
   if (!result.success) {

@@ -5,7 +5,7 @@ import { tmpdir } from 'node:os';
 import { basename, extname, join } from 'node:path';
 import type { RequestHandler, Router } from 'express';
 import multer from 'multer';
-import { z } from 'zod';
+import * as z from '../../shared/zod';
 import { route, zodDetails } from '../http/route';
 import { idField, pageQuery } from '../../shared/api/common';
 import { BadRequest, UnsupportedMediaType } from '../errors';
@@ -24,12 +24,12 @@ export const MAX_UPLOAD_BYTES = 50 * 1024 * 1024;
 const ALLOWED_EXTENSIONS = ['.csv', '.tsv', '.txt'];
 
 const idParams = z.object({ id: idField });
-const progressQuery = z.object({ progress: idField.optional() }).strict();
-const importsQuery = pageQuery.pick({ page: true, pageSize: true }).extend({
-  supplierId: idField.optional(),
-  status: z
-    .enum(IMPORT_STATUSES, { error: `must be one of ${IMPORT_STATUSES.join(', ')}` })
-    .optional(),
+const progressQuery = z.strictObject({ progress: z.optional(idField) });
+const importsQuery = z.extend(z.pick(pageQuery, { page: true, pageSize: true }), {
+  supplierId: z.optional(idField),
+  status: z.optional(
+    z.enum(IMPORT_STATUSES, { error: `must be one of ${IMPORT_STATUSES.join(', ')}` }),
+  ),
 });
 
 const upload = multer({

@@ -2,7 +2,7 @@
 // exposure, supplier reliability), which is what ordering decisions rest on. Each table also comes
 // as CSV at the same path with ".csv".
 import type { Router } from 'express';
-import type { ZodType } from 'zod';
+import type * as z from '../../shared/zod';
 import type { Role } from '../../shared/session-types';
 import {
   emptyQuery,
@@ -27,7 +27,7 @@ function figure<Q, A, R>(
   router: Router,
   path: string,
   access: readonly Role[],
-  query: ZodType<Q>,
+  query: z.ZodMiniType<Q>,
   load: (query: Q) => Promise<A>,
   table: (answer: A) => CsvTable<R>,
 ): void {

@@ -4,7 +4,7 @@
 import type { Router } from 'express';
 import multer from 'multer';
 import { refuseLargerThan } from '../http/upload-limits';
-import { z } from 'zod';
+import * as z from '../../shared/zod';
 import { route } from '../http/route';
 import { idField, pageQuery } from '../../shared/api/common';
 import {
@@ -42,18 +42,18 @@ const cylinderParams = z.object({
   id: idField,
   n: z.coerce
     .number({ error: 'must be a cylinder number' })
-    .int('must be a whole number')
-    .min(1, 'cylinders are numbered from 1')
-    .max(24, 'at most 24'),
+    .check(
+      z.int('must be a whole number'),
+      z.gte(1, 'cylinders are numbered from 1'),
+      z.lte(24, 'at most 24'),
+    ),
 });
 const photoParams = z.object({ id: idField, photoId: idField });
 
 const CLOSED_STATES: JobState[] = ['handed_back', 'called_off'];
-const stateFilter = z
-  .string()
-  .max(200)
-  .optional()
-  .transform((text, ctx): JobState[] | undefined => {
+const stateFilter = z.pipe(
+  z.optional(z.string().check(z.maxLength(200))),
+  z.transform((text, ctx): JobState[] | undefined => {
     if (text === undefined || text.trim() === '' || text === 'all') return undefined;
     const states: JobState[] = [];
     for (const word of text.split(',').map((w) => w.trim())) {
@@ -61,27 +61,27 @@ const stateFilter = z
       else if (word === 'closed') states.push(...CLOSED_STATES);
       else if ((JOB_STATES as readonly string[]).includes(word)) states.push(word as JobState);
       else {
-        ctx.addIssue({
-          code: 'custom',
-          message: `"${word}" is not a job state; use open, closed, all or one of ${JOB_STATES.join(', ')}`,
-        });
-        return z.NEVER;
+        return z.refuse(
+          ctx,
+          `"${word}" is not a job state; use open, closed, all or one of ${JOB_STATES.join(', ')}`,
+        );
       }
     }
     return [...new Set(states)];
-  });
+  }),
+);
 
-const jobsQuery = pageQuery.extend({
+const jobsQuery = z.extend(pageQuery, {
   state: stateFilter,
-  sort: z.enum(JOB_SORTS, { error: `must be one of ${JOB_SORTS.join(', ')}` }).optional(),
-  familyId: idField.optional(),
-  waiting: z
-    .enum(['true', 'false'], { error: 'must be true or false' })
-    .optional()
-    .transform((v) => (v === undefined ? undefined : v === 'true')),
+  sort: z.optional(z.enum(JOB_SORTS, { error: `must be one of ${JOB_SORTS.join(', ')}` })),
+  familyId: z.optional(idField),
+  waiting: z.pipe(
+    z.optional(z.enum(['true', 'false'], { error: 'must be true or false' })),
+    z.transform((v) => (v === undefined ? undefined : v === 'true')),
+  ),
 });
 
-const proposalQuery = z.object({ stepId: idField.optional() }).strict();
+const proposalQuery = z.strictObject({ stepId: z.optional(idField) });
 
 const photoUpload = multer({
   storage: multer.memoryStorage(),
@@ -248,7 +248,7 @@ export function registerJobsRoutes(router: Router): void {
     method: 'post',
     path: '/api/holds/sweep',
     access: may.administer,
-    body: z.object({}).strict(),
+    body: z.strictObject({}),
     handler: ({ user }) => sweepExpiredHolds(user.id),
   });
 

@@ -1,6 +1,7 @@
 // The Mailbox route, for the owner: what the local SMTP server received.
 import type { Router } from 'express';
 import { route } from '../http/route';
+import * as z from '../../shared/zod';
 import { pageQuery } from '../../shared/api/common';
 import type { MailboxPageJson } from '../../shared/api/mail';
 import { mailboxPage } from './mailbox-service';
@@ -11,7 +12,7 @@ export function registerMailRoutes(router: Router): void {
     method: 'get',
     path: '/api/mailbox',
     access: may.administer,
-    query: pageQuery.omit({ sort: true, dir: true }),
+    query: z.omit(pageQuery, { sort: true, dir: true }),
     handler: ({ query }): Promise<MailboxPageJson> => mailboxPage(query),
   });
 }

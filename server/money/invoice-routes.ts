@@ -1,7 +1,7 @@
 // Invoice routes: every signed-in role reads the job's invoice and prints it; staff and the owner
 // correct one with a credit note (an issued invoice itself never changes).
 import type { Router } from 'express';
-import { z } from 'zod';
+import * as z from '../../shared/zod';
 import { route } from '../http/route';
 import { idField } from '../../shared/api/common';
 import { creditNoteInput } from '../../shared/api/money';

@@ -1,7 +1,7 @@
 // Money routes: the labour price list (the owner's), the job's estimate and the customer's approval
 // taken by staff. Everyone signed in reads; staff and the owner price and take approvals.
 import type { Router } from 'express';
-import { z } from 'zod';
+import * as z from '../../shared/zod';
 import { route } from '../http/route';
 import { idField } from '../../shared/api/common';
 import {
@@ -90,7 +90,7 @@ export function registerMoneyRoutes(router: Router): void {
     path: '/api/jobs/:id/estimate/send',
     access: may.takeMoney,
     params: idParams,
-    body: z.object({}).strict(),
+    body: z.strictObject({}),
     handler: ({ params, user }) => approvals.sendEstimate(user.id, params.id),
   });
   route(router, {

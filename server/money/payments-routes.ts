@@ -3,7 +3,7 @@
 // owner ask for and take money. The webhook has no session and no XSRF token: its signature is
 // the credential, checked on the raw body (app.ts keeps it raw).
 import type { Router } from 'express';
-import { z } from 'zod';
+import * as z from '../../shared/zod';
 import { route } from '../http/route';
 import { idField } from '../../shared/api/common';
 import { may } from '../../shared/access';

@@ -2,14 +2,14 @@
 // session, no XSRF cookie), so each address is rate-limited against guessing.
 import type { Router } from 'express';
 import { rateLimit } from 'express-rate-limit';
-import { z } from 'zod';
+import * as z from '../../shared/zod';
 import { route } from '../http/route';
 import { TooManyRequests } from '../errors';
 import * as publicPage from './public-service';
 import { answerByLink } from './approval-service';
 import { jobOfLink } from './public-links';
 
-const tokenParams = z.object({ token: z.string().max(200) });
+const tokenParams = z.object({ token: z.string().check(z.maxLength(200)) });
 
 function limiter(limit: number) {
   return rateLimit({
@@ -40,7 +40,7 @@ export function registerPublicRoutes(router: Router): void {
       access: 'public',
       before: [answers],
       params: tokenParams,
-      body: z.object({}).strict(),
+      body: z.strictObject({}),
       handler: async ({ params }) => answerByLink(await jobOfLink(params.token), answer),
     });
   }

@@ -1,12 +1,12 @@
 // The API description, generated from the same route declarations and zod schemas that validate
 // requests, so it cannot drift from what the server accepts.
-import { z, type ZodType } from 'zod';
+import * as z from '../../shared/zod';
 import { declaredRoutes, type DeclaredRoute } from '../http/route';
 import { MONEY_SEEN_BY } from '../../shared/money-visibility';
 
 type Json = Record<string, unknown>;
 
-function jsonSchema(schema: ZodType | undefined): Json | undefined {
+function jsonSchema(schema: z.ZodMiniType | undefined): Json | undefined {
   if (!schema) return undefined;
   try {
     return z.toJSONSchema(schema, { io: 'input', unrepresentable: 'any' }) as Json;

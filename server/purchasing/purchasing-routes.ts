@@ -2,7 +2,7 @@
 // receiving against them, and jobs waiting on an order line. Buyers and the owner buy; staff
 // receive; everyone may see what is on order; machinists may set a job to wait for a piston.
 import type { Router } from 'express';
-import { z } from 'zod';
+import * as z from '../../shared/zod';
 import { route } from '../http/route';
 import { idField } from '../../shared/api/common';
 import {
@@ -73,7 +73,7 @@ export function registerPurchasingRoutes(router: Router): void {
     method: 'get',
     path: '/api/reorder-defaults',
     access: may.buy,
-    query: z.object({ familyId: idField.optional() }),
+    query: z.object({ familyId: z.optional(idField) }),
     handler: ({ query }) => reorder.listDefaults(query.familyId),
   });
   route(router, {
@@ -162,13 +162,17 @@ export function registerPurchasingRoutes(router: Router): void {
     // By a scanned box's GTIN, or by the part being received (the one receiving page).
     query: z
       .object({
-        gtin: z.string().trim().min(1, 'scan or type a GTIN').max(40).optional(),
-        partId: idField.optional(),
+        gtin: z.optional(
+          z.string().check(z.trim(), z.minLength(1, 'scan or type a GTIN'), z.maxLength(40)),
+        ),
+        partId: z.optional(idField),
       })
-      .refine((q) => q.gtin !== undefined || q.partId !== undefined, {
-        message: 'scan or type a GTIN, or name the part',
-        path: ['gtin'],
-      }),
+      .check(
+        z.refine((q) => q.gtin !== undefined || q.partId !== undefined, {
+          message: 'scan or type a GTIN, or name the part',
+          path: ['gtin'],
+        }),
+      ),
     handler: ({ query }) =>
       query.gtin !== undefined
         ? openLines.openLinesForGtin(query.gtin)
@@ -197,7 +201,7 @@ export function registerPurchasingRoutes(router: Router): void {
     access: may.buy,
     money: ORDER_MONEY,
     params: idParams,
-    body: z.object({}).strict(),
+    body: z.strictObject({}),
     handler: ({ params, user }) => sendOrder(user.id, params.id),
   });
   route(router, {
@@ -206,7 +210,7 @@ export function registerPurchasingRoutes(router: Router): void {
     access: may.buy,
     money: ORDER_MONEY,
     params: idParams,
-    body: z.object({}).strict(),
+    body: z.strictObject({}),
     handler: ({ params, user }) => orders.cancelOrder(user.id, params.id),
   });
   route(router, {

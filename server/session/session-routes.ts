@@ -1,5 +1,5 @@
 import type { Router, Request } from 'express';
-import { z } from 'zod';
+import * as z from '../../shared/zod';
 import { route } from '../http/route';
 import { Unauthorized } from '../errors';
 import { setXsrfCookie } from '../auth/xsrf';
@@ -10,8 +10,15 @@ import type { SessionUser } from '../../shared/session-types';
 
 // The e-mail is normalised here, once: every counter and the account look-up see the same text.
 const signInBody = z.object({
-  email: z.string().max(320, atMost(320)).trim().toLowerCase().min(1, 'enter your e-mail'),
-  password: z.string().min(1, 'enter your password').max(200, atMost(200)),
+  email: z
+    .string()
+    .check(
+      z.maxLength(320, atMost(320)),
+      z.trim(),
+      z.toLowerCase(),
+      z.minLength(1, 'enter your e-mail'),
+    ),
+  password: z.string().check(z.minLength(1, 'enter your password'), z.maxLength(200, atMost(200))),
 });
 
 function logIn(req: Request, user: SessionUser): Promise<void> {

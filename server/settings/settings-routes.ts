@@ -1,5 +1,6 @@
 import type { Router } from 'express';
 import { route } from '../http/route';
+import * as z from '../../shared/zod';
 import { getSettings, saveSettings } from './settings-service';
 import { may } from '../../shared/access';
 import { shopSettingsSchema } from '../../shared/settings-schema';
@@ -15,7 +16,7 @@ export function registerSettingsRoutes(router: Router): void {
     method: 'patch',
     path: '/api/settings',
     access: may.administer,
-    body: shopSettingsSchema.partial().strict(),
+    body: z.partial(shopSettingsSchema),
     handler: ({ body, user }) => saveSettings(user.id, body),
   });
 }

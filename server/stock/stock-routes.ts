@@ -1,7 +1,7 @@
 // Stock routes: bins, receipts, adjustments, moves, scrapping and measuring pistons, units and the
 // ledger. Everyone signed in reads; each change names the roles that do it in the shop.
 import type { Router } from 'express';
-import { z } from 'zod';
+import * as z from '../../shared/zod';
 import { route } from '../http/route';
 import { idField, pageQuery } from '../../shared/api/common';
 import type { MoneyFields } from '../../shared/money-visibility';
@@ -26,24 +26,24 @@ const STOCK_MONEY: MoneyFields = { cost: ['unitCost', 'averageCost'], sold: ['sa
 
 const idParams = z.object({ id: idField });
 
-const unitsQuery = pageQuery.extend({
-  sort: z.enum(UNIT_SORTS, { error: `must be one of ${UNIT_SORTS.join(', ')}` }).optional(),
-  partId: idField.optional(),
-  familyId: idField.optional(),
-  stepId: idField.optional(),
-  binId: idField.optional(),
-  receiptId: idField.optional(),
-  status: z
-    .enum([...UNIT_STATUSES, 'on-shelf'], {
+const unitsQuery = z.extend(pageQuery, {
+  sort: z.optional(z.enum(UNIT_SORTS, { error: `must be one of ${UNIT_SORTS.join(', ')}` })),
+  partId: z.optional(idField),
+  familyId: z.optional(idField),
+  stepId: z.optional(idField),
+  binId: z.optional(idField),
+  receiptId: z.optional(idField),
+  status: z.optional(
+    z.enum([...UNIT_STATUSES, 'on-shelf'], {
       error: `must be one of ${UNIT_STATUSES.join(', ')} or on-shelf`,
-    })
-    .optional(),
+    }),
+  ),
 });
 
-const ledgerQuery = pageQuery.extend({
-  partId: idField.optional(),
-  unitId: idField.optional(),
-  kind: z.enum(LEDGER_KINDS, { error: `must be one of ${LEDGER_KINDS.join(', ')}` }).optional(),
+const ledgerQuery = z.extend(pageQuery, {
+  partId: z.optional(idField),
+  unitId: z.optional(idField),
+  kind: z.optional(z.enum(LEDGER_KINDS, { error: `must be one of ${LEDGER_KINDS.join(', ')}` })),
 });
 
 export function registerStockRoutes(router: Router): void {
@@ -109,7 +109,7 @@ export function registerStockRoutes(router: Router): void {
     path: '/api/stock/units/by-label/:label',
     access: 'signed-in',
     money: STOCK_MONEY,
-    params: z.object({ label: z.string().trim().min(1).max(40) }),
+    params: z.object({ label: z.string().check(z.trim(), z.minLength(1), z.maxLength(40)) }),
     handler: ({ params }) => service.unitByLabel(params.label),
   });
   route(router, {

@@ -1,7 +1,7 @@
 // Supplier routes: buyers and the owner keep suppliers and map their items to catalog parts; staff,
 // who bring price lists in, read them too.
 import type { Router } from 'express';
-import { z } from 'zod';
+import * as z from '../../shared/zod';
 import { route } from '../http/route';
 import { idField, pageQuery } from '../../shared/api/common';
 import {
@@ -18,25 +18,27 @@ import { may } from '../../shared/access';
 const idParams = z.object({ id: idField });
 const itemParams = z.object({ id: idField, itemId: idField });
 
-const booleanFilter = z
-  .enum(['true', 'false', 'all'], { error: 'must be true, false or all' })
-  .optional()
-  .transform((v) => (v === 'true' ? true : v === 'false' ? false : undefined));
+const booleanFilter = z.pipe(
+  z.optional(z.enum(['true', 'false', 'all'], { error: 'must be true, false or all' })),
+  z.transform((v) => (v === 'true' ? true : v === 'false' ? false : undefined)),
+);
 
-const suppliersQuery = pageQuery.extend({
-  sort: z.enum(SUPPLIER_SORTS, { error: `must be one of ${SUPPLIER_SORTS.join(', ')}` }).optional(),
+const suppliersQuery = z.extend(pageQuery, {
+  sort: z.optional(
+    z.enum(SUPPLIER_SORTS, { error: `must be one of ${SUPPLIER_SORTS.join(', ')}` }),
+  ),
 });
 
-const itemsQuery = pageQuery.extend({
-  sort: z.enum(ITEM_SORTS, { error: `must be one of ${ITEM_SORTS.join(', ')}` }).optional(),
+const itemsQuery = z.extend(pageQuery, {
+  sort: z.optional(z.enum(ITEM_SORTS, { error: `must be one of ${ITEM_SORTS.join(', ')}` })),
   mapped: booleanFilter,
   dropped: booleanFilter,
 });
 
-const historyQuery = pageQuery.pick({ page: true, pageSize: true });
+const historyQuery = z.pick(pageQuery, { page: true, pageSize: true });
 
-const unmappedQuery = pageQuery.pick({ q: true, page: true, pageSize: true }).extend({
-  supplierId: idField.optional(),
+const unmappedQuery = z.extend(z.pick(pageQuery, { q: true, page: true, pageSize: true }), {
+  supplierId: z.optional(idField),
 });
 
 export function registerSuppliersRoutes(router: Router): void {

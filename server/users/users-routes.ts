@@ -1,5 +1,5 @@
 import type { Router } from 'express';
-import { z } from 'zod';
+import * as z from '../../shared/zod';
 import { route } from '../http/route';
 import { idField, pageQuery } from '../../shared/api/common';
 import { ROLES } from '../../shared/session-types';
@@ -11,35 +11,34 @@ import { may } from '../../shared/access';
 const role = z.enum(ROLES as ['owner', 'buyer', 'machinist', 'staff']);
 const password = z
   .string()
-  .min(MIN_PASSWORD_LENGTH, `must be at least ${MIN_PASSWORD_LENGTH} characters`)
-  .max(200);
+  .check(
+    z.minLength(MIN_PASSWORD_LENGTH, `must be at least ${MIN_PASSWORD_LENGTH} characters`),
+    z.maxLength(200),
+  );
 
-const newUser = z
-  .object({
-    email: emailAddress(),
-    name: singleLine(120).pipe(z.string().min(1, 'enter a name')),
-    role,
-    password,
-  })
-  .strict();
+const newUser = z.strictObject({
+  email: emailAddress(),
+  name: z.pipe(singleLine(120), z.string().check(z.minLength(1, 'enter a name'))),
+  role,
+  password,
+});
 
 const userPatch = z
-  .object({
-    name: singleLine(120).pipe(z.string().min(1, 'enter a name')).optional(),
-    role: role.optional(),
-    active: z.boolean().optional(),
-    password: password.optional(),
+  .strictObject({
+    name: z.optional(z.pipe(singleLine(120), z.string().check(z.minLength(1, 'enter a name')))),
+    role: z.optional(role),
+    active: z.optional(z.boolean()),
+    password: z.optional(password),
   })
-  .strict()
-  .refine((p) => Object.keys(p).length > 0, 'nothing to change');
+  .check(z.refine((p) => Object.keys(p).length > 0, 'nothing to change'));
 
 export function registerUsersRoutes(router: Router): void {
   route(router, {
     method: 'get',
     path: '/api/users',
     access: may.administer,
-    query: pageQuery.extend({
-      sort: z.enum(['name', 'email', 'role', 'createdAt', 'active']).optional(),
+    query: z.extend(pageQuery, {
+      sort: z.optional(z.enum(['name', 'email', 'role', 'createdAt', 'active'])),
     }),
     handler: ({ query }) => getUsers(query),
   });

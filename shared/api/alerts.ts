@@ -1,6 +1,6 @@
 // What the alerts API accepts and answers: reorder alerts raised when a part's free stock falls to
 // its reorder point, and their acknowledgement.
-import { z } from 'zod';
+import * as z from '../zod';
 import { idField, pageNumber, pageSizeField } from './common';
 
 export const ALERT_KINDS = ['reorder_point'] as const;
@@ -10,8 +10,8 @@ export const ALERT_STATES = ['open', 'acknowledged', 'all'] as const;
 export type AlertState = (typeof ALERT_STATES)[number];
 
 export const alertsQuery = z.object({
-  state: z.enum(ALERT_STATES, { error: 'must be open, acknowledged or all' }).default('open'),
-  partId: idField.optional(),
+  state: z._default(z.enum(ALERT_STATES, { error: 'must be open, acknowledged or all' }), 'open'),
+  partId: z.optional(idField),
   page: pageNumber,
   pageSize: pageSizeField(),
 });

@@ -1,7 +1,7 @@
 // What the audit-trail API accepts and answers: every recorded change (stock, prices, reorder rules,
 // users, settings…) with who made it, when, and the record before and after. The owner browses it;
 // the query schema is shared so the page and the server refuse the same filters with the same words.
-import { z } from 'zod';
+import * as z from '../zod';
 import { atMost } from '../text-rules';
 import { calendarDay, pageNumber, pageSizeField, sortDir } from './common';
 
@@ -11,34 +11,43 @@ const NAME = /^[a-z][a-z0-9_.-]{0,59}$/;
 export const AUDIT_PAGE_SIZES = [25, 50, 100, 200] as const;
 
 export const auditQuery = z
-  .object({
-    entity: z
-      .string()
-      .trim()
-      .max(60, atMost(60))
-      .regex(NAME, 'must be an entity name such as part or user')
-      .optional(),
-    entityId: z.string().trim().min(1).max(100, 'at most 100 characters').optional(),
-    action: z
-      .string()
-      .trim()
-      .max(60, atMost(60))
-      .regex(NAME, 'must be an action name such as stock.receipt')
-      .optional(),
+  .strictObject({
+    entity: z.optional(
+      z
+        .string()
+        .check(
+          z.trim(),
+          z.maxLength(60, atMost(60)),
+          z.regex(NAME, 'must be an entity name such as part or user'),
+        ),
+    ),
+    entityId: z.optional(
+      z.string().check(z.trim(), z.minLength(1), z.maxLength(100, 'at most 100 characters')),
+    ),
+    action: z.optional(
+      z
+        .string()
+        .check(
+          z.trim(),
+          z.maxLength(60, atMost(60)),
+          z.regex(NAME, 'must be an action name such as stock.receipt'),
+        ),
+    ),
     /** Who made the change. */
-    user: z.string().uuid('must be a valid user id').optional(),
+    user: z.optional(z.string().check(z.uuid('must be a valid user id'))),
     /** First and last calendar day shown, in the shop's time zone, both included. */
-    from: calendarDay.optional(),
-    to: calendarDay.optional(),
-    dir: sortDir.default('desc'),
+    from: z.optional(calendarDay),
+    to: z.optional(calendarDay),
+    dir: z._default(sortDir, 'desc'),
     page: pageNumber,
     pageSize: pageSizeField(200),
   })
-  .strict()
-  .refine((q) => !q.from || !q.to || q.from <= q.to, {
-    message: 'must not be before the first day',
-    path: ['to'],
-  });
+  .check(
+    z.refine((q) => !q.from || !q.to || q.from <= q.to, {
+      message: 'must not be before the first day',
+      path: ['to'],
+    }),
+  );
 export type AuditQuery = z.output<typeof auditQuery>;
 
 export interface AuditActorJson {

@@ -1,7 +1,7 @@
 // What the catalog API accepts and answers: engine families, step series, parts and the step
 // ladder. The zod schemas are used by the server routes and by the Angular forms, so both refuse
 // the same input with the same words.
-import { z } from 'zod';
+import * as z from '../zod';
 import { normalizeGtin, gtinProblem } from '../gtin';
 import type { LengthJson } from '../lengths';
 import { idField, lengthField, moneyText, optionalLengthField } from './common';
@@ -21,20 +21,20 @@ export type PistonMaterial = (typeof PISTON_MATERIALS)[number];
  * A GTIN (EAN-13, UPC-A, GTIN-8 or GTIN-14) with a valid check digit, stored in its 14-digit form;
  * null or "" clears it.
  */
-export const gtinField = z
-  .string({ error: 'must be the digits under the barcode' })
-  .max(40, atMost(40))
-  .nullable()
-  .transform((text, ctx): string | null => {
+export const gtinField = z.pipe(
+  z.nullable(
+    z.string({ error: 'must be the digits under the barcode' }).check(z.maxLength(40, atMost(40))),
+  ),
+  z.transform((text, ctx): string | null => {
     if (text === null || text.trim() === '') return null;
     const problem = gtinProblem(text);
     const normal = problem ? null : normalizeGtin(text);
     if (problem || !normal) {
-      ctx.addIssue({ code: 'custom', message: problem ?? 'not a valid GTIN' });
-      return z.NEVER;
+      return z.refuse(ctx, problem ?? 'not a valid GTIN');
     }
     return normal;
-  });
+  }),
+);
 
 /** The shortest usual form of a stored 14-digit GTIN: UPC-A (12) or EAN-13 when the leading zeros allow. */
 export function displayGtin(gtin14: string): string {
@@ -43,8 +43,8 @@ export function displayGtin(gtin14: string): string {
   return gtin14;
 }
 
-const code = singleLine(24).pipe(z.string().min(1, 'enter a code'));
-const name = singleLine(120).pipe(z.string().min(1, 'enter a name'));
+const code = z.pipe(singleLine(24), z.string().check(z.minLength(1, 'enter a code')));
+const name = z.pipe(singleLine(120), z.string().check(z.minLength(1, 'enter a name')));
 const bore = lengthField({ max: 500_000_000 });
 const smallLength = lengthField({ allowZero: true, max: 10_000_000 });
 const optionalSmallLength = optionalLengthField({ allowZero: true, max: 10_000_000 });
@@ -53,106 +53,110 @@ const optionalSmallLength = optionalLengthField({ allowZero: true, max: 10_000_0
 const count = (min: number, max: number) =>
   z
     .number({ error: 'must be a whole number' })
-    .int('must be a whole number')
-    .min(min, `must be ${min} or more`)
-    .max(max, `at most ${max}`);
+    .check(
+      z.int('must be a whole number'),
+      z.gte(min, `must be ${min} or more`),
+      z.lte(max, `at most ${max}`),
+    );
 
-const ringGapFactor = z
-  .string({ error: 'must be a decimal such as 0.004' })
-  .trim()
-  .max(8, 'at most 5 decimals, such as 0.00450')
-  .regex(/^0?\.\d{1,5}$/, 'must be a decimal below 1 such as 0.004')
-  .refine((v) => Number(v) > 0 && Number(v) < 0.02, 'must be above 0 and below 0.02 of the bore');
+const ringGapFactor = z.string({ error: 'must be a decimal such as 0.004' }).check(
+  z.trim(),
+  z.maxLength(8, 'at most 5 decimals, such as 0.00450'),
+  z.regex(/^0?\.\d{1,5}$/, 'must be a decimal below 1 such as 0.004'),
+  z.refine((v) => Number(v) > 0 && Number(v) < 0.02, 'must be above 0 and below 0.02 of the bore'),
+);
 
-export const familyInput = z
-  .object({
-    code,
-    name,
-    strokeType: z.enum(STROKE_TYPES, { error: 'must be "two" or "four"' }),
-    cylinders: z.number({ error: 'must be a whole number' }).int().min(1).max(24),
-    cooling: z.enum(COOLING_TYPES, { error: 'must be "air" or "liquid"' }),
-    standardBore: bore,
-    stroke: bore,
-    clearanceMin: smallLength,
-    clearanceMax: smallLength,
-    honeAllowance: smallLength,
-    cleanup: smallLength,
-    maxOversize: smallLength,
-    stepSeriesId: idField,
-    maxTaper: optionalSmallLength.optional(),
-    maxOutOfRound: optionalSmallLength.optional(),
-    ringGapMin: optionalSmallLength.optional(),
-    ringGapMax: optionalSmallLength.optional(),
-    /** A clearance range of its own for forged pistons; both empty: the range above for every piston. */
-    forgedClearanceMin: optionalSmallLength.optional(),
-    forgedClearanceMax: optionalSmallLength.optional(),
-    /** Ring end gap per unit of bore (in per in, or mm per mm), e.g. "0.004". */
-    ringGapPerBore: ringGapFactor.optional(),
-    /** The hone's crosshatch, included angle in degrees. */
-    honeCrosshatch: z
+export const familyInput = z.strictObject({
+  code,
+  name,
+  strokeType: z.enum(STROKE_TYPES, { error: 'must be "two" or "four"' }),
+  cylinders: z.number({ error: 'must be a whole number' }).check(z.int(), z.gte(1), z.lte(24)),
+  cooling: z.enum(COOLING_TYPES, { error: 'must be "air" or "liquid"' }),
+  standardBore: bore,
+  stroke: bore,
+  clearanceMin: smallLength,
+  clearanceMax: smallLength,
+  honeAllowance: smallLength,
+  cleanup: smallLength,
+  maxOversize: smallLength,
+  stepSeriesId: idField,
+  maxTaper: z.optional(optionalSmallLength),
+  maxOutOfRound: z.optional(optionalSmallLength),
+  ringGapMin: z.optional(optionalSmallLength),
+  ringGapMax: z.optional(optionalSmallLength),
+  /** A clearance range of its own for forged pistons; both empty: the range above for every piston. */
+  forgedClearanceMin: z.optional(optionalSmallLength),
+  forgedClearanceMax: z.optional(optionalSmallLength),
+  /** Ring end gap per unit of bore (in per in, or mm per mm), e.g. "0.004". */
+  ringGapPerBore: z.optional(ringGapFactor),
+  /** The hone's crosshatch, included angle in degrees. */
+  honeCrosshatch: z.optional(
+    z
       .number({ error: 'must be a number of degrees' })
-      .min(10, 'at least 10°')
-      .max(90, 'at most 90°')
-      .optional(),
-    /** The stones, as the shop writes them ("coarse 280, plateau 400"). */
-    honeGrits: singleLine(120).optional(),
-    notes: z.string().max(2000).optional(),
-  })
-  .strict();
+      .check(z.gte(10, 'at least 10°'), z.lte(90, 'at most 90°')),
+  ),
+  /** The stones, as the shop writes them ("coarse 280, plateau 400"). */
+  honeGrits: z.optional(singleLine(120)),
+  notes: z.optional(z.string().check(z.maxLength(2000))),
+});
 export type FamilyInput = z.output<typeof familyInput>;
 
-export const familyPatch = familyInput
-  .partial()
-  .extend({ active: z.boolean().optional() })
-  .strict()
-  .refine((p) => Object.keys(p).length > 0, 'nothing to change');
+export const familyPatch = z
+  .extend(z.partial(familyInput), { active: z.optional(z.boolean()) })
+  .check(z.refine((p) => Object.keys(p).length > 0, 'nothing to change'));
 export type FamilyPatch = z.output<typeof familyPatch>;
 
-export const stepSeriesInput = z
-  .object({
-    code,
-    name,
-    unit: z.enum(['mm', 'in'], { error: 'must be "mm" or "in"' }),
-    /** Oversizes over the standard bore, ascending, in `unit` unless written with their own unit. */
-    offsets: z.array(z.string().max(30)).min(1, 'give at least one oversize').max(20),
-  })
-  .strict();
+export const stepSeriesInput = z.strictObject({
+  code,
+  name,
+  unit: z.enum(['mm', 'in'], { error: 'must be "mm" or "in"' }),
+  /** Oversizes over the standard bore, ascending, in `unit` unless written with their own unit. */
+  offsets: z
+    .array(z.string().check(z.maxLength(30)))
+    .check(z.minLength(1, 'give at least one oversize'), z.maxLength(20)),
+});
 export type StepSeriesInput = z.output<typeof stepSeriesInput>;
 
 const partFields = {
   kind: z.enum(PART_KINDS, { error: 'must be piston, rings, kit or other' }),
   sku: z
     .string()
-    .trim()
-    .min(1, 'enter our part number')
-    .max(40, atMost(40))
-    .regex(/^[A-Za-z0-9][A-Za-z0-9._/+-]*$/, 'letters, digits and . _ / + - only'),
-  familyId: idField.nullable().optional(),
-  stepId: idField.nullable().optional(),
-  description: singleLine(300).pipe(z.string().min(1, 'enter a description')),
-  material: z.enum(PISTON_MATERIALS, { error: 'must be cast or forged' }).nullable().optional(),
-  ringCount: count(1, 6).nullable().optional(),
-  pinDiameter: optionalLengthField({ max: 100_000_000 }).optional(),
-  gtin: gtinField.optional(),
-  salePrice: moneyText.optional(),
-  reorderPoint: count(0, 1_000_000).nullable().optional(),
-  orderUpTo: count(0, 1_000_000).nullable().optional(),
-  components: z
-    .array(z.object({ partId: idField, quantity: z.number().int().min(1).max(1000) }).strict())
-    .max(20)
-    .optional(),
+    .check(
+      z.trim(),
+      z.minLength(1, 'enter our part number'),
+      z.maxLength(40, atMost(40)),
+      z.regex(/^[A-Za-z0-9][A-Za-z0-9._/+-]*$/, 'letters, digits and . _ / + - only'),
+    ),
+  familyId: z.optional(z.nullable(idField)),
+  stepId: z.optional(z.nullable(idField)),
+  description: z.pipe(singleLine(300), z.string().check(z.minLength(1, 'enter a description'))),
+  material: z.optional(z.nullable(z.enum(PISTON_MATERIALS, { error: 'must be cast or forged' }))),
+  ringCount: z.optional(z.nullable(count(1, 6))),
+  pinDiameter: z.optional(optionalLengthField({ max: 100_000_000 })),
+  gtin: z.optional(gtinField),
+  salePrice: z.optional(moneyText),
+  reorderPoint: z.optional(z.nullable(count(0, 1_000_000))),
+  orderUpTo: z.optional(z.nullable(count(0, 1_000_000))),
+  components: z.optional(
+    z
+      .array(
+        z.strictObject({
+          partId: idField,
+          quantity: z.number().check(z.int(), z.gte(1), z.lte(1000)),
+        }),
+      )
+      .check(z.maxLength(20)),
+  ),
 };
 
-export const partInput = z.object(partFields).strict();
+export const partInput = z.strictObject(partFields);
 export type PartInput = z.output<typeof partInput>;
 
 // The kind of a part never changes: a piston with units on the shelf cannot become a ring set.
 const { kind: _kind, ...patchableFields } = partFields;
 export const partPatch = z
-  .object({ ...patchableFields, active: z.boolean().optional() })
-  .partial()
-  .strict()
-  .refine((p) => Object.keys(p).length > 0, 'nothing to change');
+  .partial(z.strictObject({ ...patchableFields, active: z.optional(z.boolean()) }))
+  .check(z.refine((p) => Object.keys(p).length > 0, 'nothing to change'));
 export type PartPatch = z.output<typeof partPatch>;
 
 // ---- Answers ----------------------------------------------------------------------------------

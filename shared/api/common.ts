@@ -1,7 +1,7 @@
 // What every feature's contract is built from: ids, paged lists, lengths, money, calendar days,
 // currencies and the error body. One copy each, so a list pages, a length reads and an error looks
 // the same whichever route it comes from, and the client reads errors in the shape the server sends.
-import { z } from 'zod';
+import * as z from '../zod';
 import { parseLength, type Nm, type ParseLengthOptions } from '../lengths';
 import { isCurrencyCode } from '../money';
 import { atMost } from '../text-rules';
@@ -9,7 +9,7 @@ import { atMost } from '../text-rules';
 // ---- Ids ---------------------------------------------------------------------------------------
 
 /** A record's id (a UUID), in a path, a query or a body. */
-export const idField = z.string().uuid('must be a valid id');
+export const idField = z.string().check(z.uuid('must be a valid id'));
 
 // ---- Paged lists -------------------------------------------------------------------------------
 
@@ -19,16 +19,17 @@ export interface Page<T> {
   total: number;
 }
 
-export const pageNumber = z.coerce.number().int().min(1).max(100000).default(1);
+export const pageNumber = z._default(z.coerce.number().check(z.int(), z.gte(1), z.lte(100000)), 1);
 /** Rows per page, 50 unless asked; `max` is what one answer may carry. */
-export const pageSizeField = (max = 500) => z.coerce.number().int().min(1).max(max).default(50);
+export const pageSizeField = (max = 500) =>
+  z._default(z.coerce.number().check(z.int(), z.gte(1), z.lte(max)), 50);
 export const sortDir = z.enum(['asc', 'desc'], { error: 'must be asc or desc' });
 
 /** The query string of a paged list: ?q&sort&dir&page&pageSize. */
 export const pageQuery = z.object({
-  q: z.string().max(200).optional(),
-  sort: z.string().max(40).optional(),
-  dir: sortDir.optional(),
+  q: z.optional(z.string().check(z.maxLength(200))),
+  sort: z.optional(z.string().check(z.maxLength(40))),
+  dir: z.optional(sortDir),
   page: pageNumber,
   pageSize: pageSizeField(),
 });
@@ -42,34 +43,33 @@ const LENGTH_HINT = 'must be text with its unit, for example "64.91 mm" or "2.55
 
 /** A length typed with its unit ("2.5555 in"), read into exact nanometres or refused with a reason. */
 export function lengthField(opts: ParseLengthOptions = {}) {
-  return z
-    .string({ error: LENGTH_HINT })
-    .max(MAX_LENGTH_TEXT, atMost(MAX_LENGTH_TEXT))
-    .transform((text, ctx): Nm => {
+  return z.pipe(
+    z.string({ error: LENGTH_HINT }).check(z.maxLength(MAX_LENGTH_TEXT, atMost(MAX_LENGTH_TEXT))),
+    z.transform((text, ctx): Nm => {
       const parsed = parseLength(text, opts);
       if (!parsed.ok) {
-        ctx.addIssue({ code: 'custom', message: parsed.message });
-        return z.NEVER;
+        return z.refuse(ctx, parsed.message);
       }
       return parsed.nm;
-    });
+    }),
+  );
 }
 
 /** A length that may be left out or cleared (null or ""): null means "not recorded". */
 export function optionalLengthField(opts: ParseLengthOptions = {}) {
-  return z
-    .string({ error: LENGTH_HINT })
-    .max(MAX_LENGTH_TEXT, atMost(MAX_LENGTH_TEXT))
-    .nullable()
-    .transform((text, ctx): Nm | null => {
+  return z.pipe(
+    z.nullable(
+      z.string({ error: LENGTH_HINT }).check(z.maxLength(MAX_LENGTH_TEXT, atMost(MAX_LENGTH_TEXT))),
+    ),
+    z.transform((text, ctx): Nm | null => {
       if (text === null || text.trim() === '') return null;
       const parsed = parseLength(text, opts);
       if (!parsed.ok) {
-        ctx.addIssue({ code: 'custom', message: parsed.message });
-        return z.NEVER;
+        return z.refuse(ctx, parsed.message);
       }
       return parsed.nm;
-    });
+    }),
+  );
 }
 
 // ---- Money and currencies ----------------------------------------------------------------------
@@ -77,22 +77,31 @@ export function optionalLengthField(opts: ParseLengthOptions = {}) {
 /** Money as exact decimal text, 0 or more, at most 4 decimals ("12.50"). */
 export const moneyText = z
   .string({ error: 'must be an amount written as text, e.g. "12.50"' })
-  .trim()
-  .max(20, atMost(20))
-  .regex(
-    /^\d{1,10}(\.\d{1,4})?$/,
-    'must be an amount, 0 or more, like "12.50" (at most 4 decimals)',
+  .check(
+    z.trim(),
+    z.maxLength(20, atMost(20)),
+    z.regex(
+      /^\d{1,10}(\.\d{1,4})?$/,
+      'must be an amount, 0 or more, like "12.50" (at most 4 decimals)',
+    ),
   );
 
 /** An ISO 4217 code, any case in, upper case out. */
 export const currencyCode = z
-  .string({ error: 'must be a three-letter ISO 4217 code, e.g. "EUR"' })
-  .trim()
-  .max(3, atMost(3, 'must be a three-letter ISO 4217 code, e.g. "EUR"'))
-  .transform((v) => v.toUpperCase())
-  .refine((v) => isCurrencyCode(v), {
-    message: 'is not an ISO 4217 currency code (e.g. EUR, USD, GBP)',
-  });
+  .pipe(
+    z
+      .string({ error: 'must be a three-letter ISO 4217 code, e.g. "EUR"' })
+      .check(
+        z.trim(),
+        z.maxLength(3, atMost(3, 'must be a three-letter ISO 4217 code, e.g. "EUR"')),
+      ),
+    z.transform((v) => v.toUpperCase()),
+  )
+  .check(
+    z.refine((v) => isCurrencyCode(v), {
+      message: 'is not an ISO 4217 currency code (e.g. EUR, USD, GBP)',
+    }),
+  );
 
 // ---- Calendar days -----------------------------------------------------------------------------
 
@@ -125,9 +134,11 @@ export function daysBetween(from: string, to: string): number {
  */
 export const calendarDay = z
   .string({ error: 'must be a date written YYYY-MM-DD' })
-  .trim()
-  .max(10, atMost(10, 'must be a date written YYYY-MM-DD'))
-  .refine(isCalendarDay, 'must be a real date written YYYY-MM-DD, e.g. "2026-03-31"');
+  .check(
+    z.trim(),
+    z.maxLength(10, atMost(10, 'must be a date written YYYY-MM-DD')),
+    z.refine(isCalendarDay, 'must be a real date written YYYY-MM-DD, e.g. "2026-03-31"'),
+  );
 
 // ---- The error body ----------------------------------------------------------------------------
 

@@ -1,7 +1,7 @@
 // What the customers API accepts and answers: the customer record, search at intake, merging two
 // records of one person, export and erasure, and the customer's cylinders with their bores. The
 // zod schemas serve the server routes and the Angular forms alike.
-import { z } from 'zod';
+import * as z from '../zod';
 import { idField } from './common';
 import type { LengthJson } from '../lengths';
 import type { JobState } from './jobs';
@@ -12,64 +12,72 @@ export const CUSTOMER_NAME_MAX = 120;
 /** What an erased customer's name reads as: no trace of the person, still a distinct row. */
 export const ERASED_NAME_PREFIX = 'Erased customer';
 
-export const customerName = singleLine(CUSTOMER_NAME_MAX, "enter the customer's name").pipe(
-  z.string().min(1, "enter the customer's name"),
+export const customerName = z.pipe(
+  singleLine(CUSTOMER_NAME_MAX, "enter the customer's name"),
+  z.string().check(z.minLength(1, "enter the customer's name")),
 );
 
 /** Left out: no change; "" or null: cleared. */
 const optionalText = (max: number) =>
-  z
-    .union([z.null(), z.string().trim().max(max, `at most ${max} characters`)])
-    .optional()
-    .transform((v) => (v === '' ? null : v));
+  z.pipe(
+    z.optional(
+      z.union([
+        z.null(),
+        z.string().check(z.trim(), z.maxLength(max, `at most ${max} characters`)),
+      ]),
+    ),
+    z.transform((v) => (v === '' ? null : v)),
+  );
 
-export const customerPhone = optionalText(40).refine(
-  (v) => v === null || v === undefined || /^[0-9+()\-./ ]{3,40}$/.test(v),
-  'digits, spaces and + ( ) - . / only',
+export const customerPhone = optionalText(40).check(
+  z.refine(
+    (v) => v === null || v === undefined || /^[0-9+()\-./ ]{3,40}$/.test(v),
+    'digits, spaces and + ( ) - . / only',
+  ),
 );
 
-export const customerEmail = optionalText(254)
-  .refine(
-    (v) => v === null || v === undefined || z.string().email().safeParse(v).success,
-    'is not an e-mail address',
-  )
-  .transform((v) => (typeof v === 'string' ? v.toLowerCase() : v));
+export const customerEmail = z.pipe(
+  optionalText(254).check(
+    z.refine(
+      (v) => v === null || v === undefined || z.string().check(z.email()).safeParse(v).success,
+      'is not an e-mail address',
+    ),
+  ),
+  z.transform((v) => (typeof v === 'string' ? v.toLowerCase() : v)),
+);
 
-const customerNotes = z.string().trim().max(2000, 'at most 2000 characters');
+const customerNotes = z.string().check(z.trim(), z.maxLength(2000, 'at most 2000 characters'));
 
-export const customerInput = z
-  .object({
-    name: customerName,
-    phone: customerPhone,
-    email: customerEmail,
-    acceptsEmail: z.boolean({ error: 'must be true or false' }).optional(),
-    notes: customerNotes.optional(),
-  })
-  .strict();
+export const customerInput = z.strictObject({
+  name: customerName,
+  phone: customerPhone,
+  email: customerEmail,
+  acceptsEmail: z.optional(z.boolean({ error: 'must be true or false' })),
+  notes: z.optional(customerNotes),
+});
 export type CustomerInput = z.output<typeof customerInput>;
 
-export const customerPatch = customerInput
-  .partial()
-  .strict()
-  .refine((p) => Object.values(p).some((v) => v !== undefined), 'nothing to change');
+export const customerPatch = z
+  .partial(customerInput)
+  .check(z.refine((p) => Object.values(p).some((v) => v !== undefined), 'nothing to change'));
 export type CustomerPatch = z.output<typeof customerPatch>;
 
-export const mergeInput = z.object({ fromId: idField }).strict();
+export const mergeInput = z.strictObject({ fromId: idField });
 
-export const eraseInput = z.object({}).strict();
+export const eraseInput = z.strictObject({});
 
-export const cylinderInput = z
-  .object({
-    mark: z
-      .string({ error: "enter the shop's mark for the cylinder" })
-      .trim()
-      .min(1, "enter the shop's mark for the cylinder")
-      .max(40, 'at most 40 characters')
-      .regex(/^[\x20-\x7e]+$/, 'letters, digits and plain punctuation only, so the tag can print'),
-    familyId: idField,
-    castNumber: optionalText(60),
-  })
-  .strict();
+export const cylinderInput = z.strictObject({
+  mark: z
+    .string({ error: "enter the shop's mark for the cylinder" })
+    .check(
+      z.trim(),
+      z.minLength(1, "enter the shop's mark for the cylinder"),
+      z.maxLength(40, 'at most 40 characters'),
+      z.regex(/^[\x20-\x7e]+$/, 'letters, digits and plain punctuation only, so the tag can print'),
+    ),
+  familyId: idField,
+  castNumber: optionalText(60),
+});
 export type CylinderInput = z.output<typeof cylinderInput>;
 
 export const EXPORT_FORMATS = ['json', 'csv'] as const;
@@ -192,16 +200,18 @@ export interface CustomerExportJson {
 
 export const NEAR_LAST_STEP_MAX = 3;
 
-export const nearLastStepQuery = z
-  .object({
-    within: z.coerce
+export const nearLastStepQuery = z.strictObject({
+  within: z._default(
+    z.coerce
       .number({ error: 'must be a whole number of steps' })
-      .int('must be a whole number of steps')
-      .min(0, 'must be 0 or more')
-      .max(NEAR_LAST_STEP_MAX, `at most ${NEAR_LAST_STEP_MAX}`)
-      .default(1),
-  })
-  .strict();
+      .check(
+        z.int('must be a whole number of steps'),
+        z.gte(0, 'must be 0 or more'),
+        z.lte(NEAR_LAST_STEP_MAX, `at most ${NEAR_LAST_STEP_MAX}`),
+      ),
+    1,
+  ),
+});
 export type NearLastStepQuery = z.output<typeof nearLastStepQuery>;
 
 export interface NearLastStepItemJson {

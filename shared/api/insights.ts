@@ -3,7 +3,7 @@
 // The query schemas are used by the server routes and by the Angular pages, so both refuse the same
 // input with the same words. Money is exact decimal text ("1234.50"); shares are fractions ("0.8125").
 import { DateTime } from 'luxon';
-import { z } from 'zod';
+import * as z from '../zod';
 import { calendarDay, daysBetween } from './common';
 import type { NeededPart } from '../part-needs';
 
@@ -27,7 +27,7 @@ export function defaultPeriod(
 }
 
 /** Both ends of a period or neither; the end not before the start; not longer than ten years. */
-function checkPeriod(q: { from?: string; to?: string }, ctx: z.RefinementCtx): void {
+function checkPeriod(q: { from?: string; to?: string }, ctx: z.core.$RefinementCtx): void {
   if ((q.from === undefined) !== (q.to === undefined)) {
     ctx.addIssue({
       code: 'custom',
@@ -54,74 +54,75 @@ function checkPeriod(q: { from?: string; to?: string }, ctx: z.RefinementCtx): v
 }
 
 /** A period of calendar days in the shop's time zone, both ends included; by default the last 12 months. */
-const periodShape = { from: calendarDay.optional(), to: calendarDay.optional() };
+const periodShape = { from: z.optional(calendarDay), to: z.optional(calendarDay) };
 
 export const SALES_GROUPS = ['family', 'step'] as const;
 export type SalesGroup = (typeof SALES_GROUPS)[number];
 
 /** "family,step" → the set asked for; order and repeats do not matter. */
-const byField = z
-  .string()
-  .trim()
-  .transform((text, ctx): SalesGroup[] => {
+const byField = z.pipe(
+  z.string().check(z.trim()),
+  z.transform((text, ctx): SalesGroup[] => {
     const parts = text
       .split(',')
       .map((p) => p.trim())
       .filter(Boolean);
     const bad = parts.filter((p) => !(SALES_GROUPS as readonly string[]).includes(p));
     if (bad.length || parts.length === 0) {
-      ctx.addIssue({
-        code: 'custom',
-        message: 'must be "family", "step" or "family,step"',
-      });
-      return z.NEVER;
+      return z.refuse(ctx, 'must be "family", "step" or "family,step"');
     }
     return SALES_GROUPS.filter((g) => parts.includes(g));
-  });
+  }),
+);
 
 export const salesQuery = z
-  .object({ ...periodShape, by: byField.default(['family', 'step']) })
-  .strict()
-  .superRefine(checkPeriod);
+  .strictObject({ ...periodShape, by: z._default(byField, ['family', 'step']) })
+  .check(z.superRefine(checkPeriod));
 export type SalesQuery = z.output<typeof salesQuery>;
 
-export const monthlyQuery = z.object(periodShape).strict().superRefine(checkPeriod);
+export const monthlyQuery = z.strictObject(periodShape).check(z.superRefine(checkPeriod));
 export type MonthlyQuery = z.output<typeof monthlyQuery>;
 
 export const TOP_SELLER_RANKS = ['units', 'revenue', 'margin'] as const;
 export type TopSellerRank = (typeof TOP_SELLER_RANKS)[number];
 
 export const topSellersQuery = z
-  .object({
+  .strictObject({
     ...periodShape,
-    rank: z
-      .enum(TOP_SELLER_RANKS, { error: 'must be "units", "revenue" or "margin"' })
-      .default('units'),
-    limit: z.coerce
-      .number({ error: 'must be a whole number' })
-      .int('must be a whole number')
-      .min(1, 'must be at least 1')
-      .max(100, 'at most 100')
-      .default(10),
+    rank: z._default(
+      z.enum(TOP_SELLER_RANKS, { error: 'must be "units", "revenue" or "margin"' }),
+      'units',
+    ),
+    limit: z._default(
+      z.coerce
+        .number({ error: 'must be a whole number' })
+        .check(
+          z.int('must be a whole number'),
+          z.gte(1, 'must be at least 1'),
+          z.lte(100, 'at most 100'),
+        ),
+      10,
+    ),
   })
-  .strict()
-  .superRefine(checkPeriod);
+  .check(z.superRefine(checkPeriod));
 export type TopSellersQuery = z.output<typeof topSellersQuery>;
 
 /** How many months back to look (dead stock, ABC, turnover). */
-export const monthsQuery = z
-  .object({
-    months: z.coerce
+export const monthsQuery = z.strictObject({
+  months: z._default(
+    z.coerce
       .number({ error: 'must be a whole number of months' })
-      .int('must be a whole number of months')
-      .min(1, 'must be at least 1 month')
-      .max(MAX_MONTHS, `at most ${MAX_MONTHS} months`)
-      .default(12),
-  })
-  .strict();
+      .check(
+        z.int('must be a whole number of months'),
+        z.gte(1, 'must be at least 1 month'),
+        z.lte(MAX_MONTHS, `at most ${MAX_MONTHS} months`),
+      ),
+    12,
+  ),
+});
 export type MonthsQuery = z.output<typeof monthsQuery>;
 
-export const emptyQuery = z.object({}).strict();
+export const emptyQuery = z.strictObject({});
 
 // ---- answers ----
 

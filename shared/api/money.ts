@@ -1,7 +1,7 @@
 // What the money API accepts and answers: labour prices, the job's estimate, the customer's approval,
 // payment requests and payments, and the invoice. Amounts are decimal text with the currency's
 // decimals ("123.40"); the zod schemas are used by the server routes and the Angular forms alike.
-import { z } from 'zod';
+import * as z from '../zod';
 import { singleLine } from '../text-rules';
 import { parseMoney } from '../money';
 
@@ -49,105 +49,96 @@ export const PAYMENT_METHOD_LABELS: Record<PaymentMethod, string> = {
 export const PUBLIC_LINK_DAYS = 60;
 
 /** An amount as text ("12.50", at most 2 decimals, not negative); a JSON number is read by its writing. */
-export const amountField = z
-  .union([z.string().max(20, 'at most 20 characters'), z.number()], {
+export const amountField = z.pipe(
+  z.union([z.string().check(z.maxLength(20, 'at most 20 characters')), z.number()], {
     error: 'must be an amount written as text, e.g. "12.50"',
-  })
-  .transform((v, ctx) => {
+  }),
+  z.transform((v, ctx) => {
     const parsed = parseMoney(String(v), { maxDecimals: 2 });
     if (!parsed.ok) {
-      ctx.addIssue({ code: 'custom', message: parsed.message });
-      return z.NEVER;
+      return z.refuse(ctx, parsed.message);
     }
     if (parsed.value.split('.')[0].length > 10) {
-      ctx.addIssue({ code: 'custom', message: 'is too large (at most 9999999999.99)' });
-      return z.NEVER;
+      return z.refuse(ctx, 'is too large (at most 9999999999.99)');
     }
     return parsed.value;
-  });
+  }),
+);
 
 /** A quantity more than 0, at most 3 decimals; text or a JSON number. */
-export const quantityField = z
-  .union([z.string().max(12), z.number().refine((n) => Number.isFinite(n), 'must be a number')])
-  .transform((v, ctx) => {
+export const quantityField = z.pipe(
+  z.union([
+    z.string().check(z.maxLength(12)),
+    z.number().check(z.refine((n) => Number.isFinite(n), 'must be a number')),
+  ]),
+  z.transform((v, ctx) => {
     const text = String(v).trim();
     if (!/^\d{1,5}(\.\d{1,3})?$/.test(text) || Number(text) === 0) {
-      ctx.addIssue({
-        code: 'custom',
-        message: 'must be a number more than 0 with at most 3 decimals, e.g. "2" or "1.5"',
-      });
-      return z.NEVER;
+      return z.refuse(
+        ctx,
+        'must be a number more than 0 with at most 3 decimals, e.g. "2" or "1.5"',
+      );
     }
     return text.replace(/^0+(?=\d)/, '');
-  });
+  }),
+);
 
-const positiveAmount = amountField.refine((v) => Number(v) > 0, 'must be more than 0');
+const positiveAmount = amountField.check(z.refine((v) => Number(v) > 0, 'must be more than 0'));
 const text = (max: number, what: string) =>
-  singleLine(max, `enter ${what}`).pipe(z.string().min(1, `enter ${what}`));
+  z.pipe(singleLine(max, `enter ${what}`), z.string().check(z.minLength(1, `enter ${what}`)));
 
-export const labourInput = z
-  .object({
-    name: text(80, 'a name'),
-    per: z.enum(LABOUR_PER, { error: 'must be cylinder or job' }),
-    price: amountField,
-    active: z.boolean().optional(),
-    proposeFor: z
-      .enum(PROPOSE_FOR, { error: `must be one of ${PROPOSE_FOR.join(', ')}` })
-      .optional(),
-  })
-  .strict();
+export const labourInput = z.strictObject({
+  name: text(80, 'a name'),
+  per: z.enum(LABOUR_PER, { error: 'must be cylinder or job' }),
+  price: amountField,
+  active: z.optional(z.boolean()),
+  proposeFor: z.optional(
+    z.enum(PROPOSE_FOR, { error: `must be one of ${PROPOSE_FOR.join(', ')}` }),
+  ),
+});
 export type LabourInput = z.output<typeof labourInput>;
-export const labourPatch = labourInput
-  .partial()
-  .strict()
-  .refine((p) => Object.values(p).some((v) => v !== undefined), 'nothing to change');
+export const labourPatch = z
+  .partial(labourInput)
+  .check(z.refine((p) => Object.values(p).some((v) => v !== undefined), 'nothing to change'));
 export type LabourPatch = z.output<typeof labourPatch>;
 
-export const lineInput = z
-  .object({
-    description: text(200, 'a description'),
-    quantity: quantityField,
-    unitPrice: amountField,
-  })
-  .strict();
+export const lineInput = z.strictObject({
+  description: text(200, 'a description'),
+  quantity: quantityField,
+  unitPrice: amountField,
+});
 export type LineInput = z.output<typeof lineInput>;
-export const linePatch = lineInput
-  .partial()
-  .strict()
-  .refine((p) => Object.values(p).some((v) => v !== undefined), 'nothing to change');
+export const linePatch = z
+  .partial(lineInput)
+  .check(z.refine((p) => Object.values(p).some((v) => v !== undefined), 'nothing to change'));
 export type LinePatch = z.output<typeof linePatch>;
 
-export const discountInput = z
-  .object({ amount: positiveAmount, reason: text(200, 'the reason for the discount') })
-  .strict();
+export const discountInput = z.strictObject({
+  amount: positiveAmount,
+  reason: text(200, 'the reason for the discount'),
+});
 export type DiscountInput = z.output<typeof discountInput>;
 
-export const approvalInput = z
-  .object({
-    note: z.string().trim().max(500, 'at most 500 characters').optional(),
-    how: z.enum(['counter', 'phone'], { error: 'must be counter or phone' }).optional(),
-  })
-  .strict();
+export const approvalInput = z.strictObject({
+  note: z.optional(z.string().check(z.trim(), z.maxLength(500, 'at most 500 characters'))),
+  how: z.optional(z.enum(['counter', 'phone'], { error: 'must be counter or phone' })),
+});
 export type ApprovalInput = z.output<typeof approvalInput>;
 
-export const paymentRequestInput = z
-  .object({
-    purpose: z.enum(PAYMENT_PURPOSES, { error: 'must be deposit or balance' }),
-    amount: positiveAmount.optional(),
-  })
-  .strict();
+export const paymentRequestInput = z.strictObject({
+  purpose: z.enum(PAYMENT_PURPOSES, { error: 'must be deposit or balance' }),
+  amount: z.optional(positiveAmount),
+});
 export type PaymentRequestInput = z.output<typeof paymentRequestInput>;
 
-export const counterPaymentInput = z
-  .object({
-    method: z.enum(COUNTER_METHODS, { error: 'must be cash, card or transfer' }),
-    amount: positiveAmount,
-    purpose: z.enum(PAYMENT_PURPOSES, { error: 'must be deposit or balance' }).optional(),
-  })
-  .strict();
+export const counterPaymentInput = z.strictObject({
+  method: z.enum(COUNTER_METHODS, { error: 'must be cash, card or transfer' }),
+  amount: positiveAmount,
+  purpose: z.optional(z.enum(PAYMENT_PURPOSES, { error: 'must be deposit or balance' })),
+});
 export type CounterPaymentInput = z.output<typeof counterPaymentInput>;
 
-export const refundInput = z.object({ reason: text(300, 'the reason for the refund') }).strict();
+export const refundInput = z.strictObject({ reason: text(300, 'the reason for the refund') });
 export type RefundInput = z.output<typeof refundInput>;
 
 // ---- Answers ----------------------------------------------------------------------------------
@@ -293,34 +284,35 @@ export interface InvoiceJson {
  * price). Lines are priced as the invoice's are (with or without tax, as the invoice says).
  */
 export const creditNoteInput = z
-  .object({
+  .strictObject({
     reason: text(300, 'the reason for the correction'),
-    lines: z
-      .array(lineInput, { error: 'must be a list of lines' })
-      .min(1, 'give at least one line')
-      .max(50, 'at most 50 lines')
-      .optional(),
-    amount: positiveAmount.optional(),
+    lines: z.optional(
+      z
+        .array(lineInput, { error: 'must be a list of lines' })
+        .check(z.minLength(1, 'give at least one line'), z.maxLength(50, 'at most 50 lines')),
+    ),
+    amount: z.optional(positiveAmount),
   })
-  .strict()
-  .superRefine((v, ctx) => {
-    if ((v.lines === undefined) === (v.amount === undefined)) {
-      ctx.addIssue({
-        code: 'custom',
-        path: [v.lines === undefined ? 'amount' : 'lines'],
-        message: 'give either lines or an amount (not both)',
-      });
-    }
-    for (const [i, line] of (v.lines ?? []).entries()) {
-      if (Number(line.unitPrice) <= 0) {
+  .check(
+    z.superRefine((v, ctx) => {
+      if ((v.lines === undefined) === (v.amount === undefined)) {
         ctx.addIssue({
           code: 'custom',
-          path: ['lines', i, 'unitPrice'],
-          message: 'must be more than 0 (a credit note takes money off)',
+          path: [v.lines === undefined ? 'amount' : 'lines'],
+          message: 'give either lines or an amount (not both)',
         });
       }
-    }
-  });
+      for (const [i, line] of (v.lines ?? []).entries()) {
+        if (Number(line.unitPrice) <= 0) {
+          ctx.addIssue({
+            code: 'custom',
+            path: ['lines', i, 'unitPrice'],
+            message: 'must be more than 0 (a credit note takes money off)',
+          });
+        }
+      }
+    }),
+  );
 export type CreditNoteInput = z.output<typeof creditNoteInput>;
 
 /** Where the job stands, in words for the customer (the public page). */

@@ -1,7 +1,7 @@
 // What the purchasing API accepts and answers: purchase orders, receiving against them, and jobs
 // waiting on an order line; reorder rules, suggestions, sourcing and exchange rates are in
 // reorder-api.ts, re-exported here so client and server import one module.
-import { z } from 'zod';
+import * as z from '../zod';
 import { skirtField, MAX_PISTONS_PER_RECEIPT } from './stock';
 import { type WaitingItemJson } from './suppliers';
 import { calendarDay, idField, moneyText, pageNumber, pageSizeField, sortDir } from './common';
@@ -21,96 +21,90 @@ export const MAX_ORDER_LINES = 200;
  */
 const unitPriceField = z.union([
   moneyText,
-  z
-    .number({ error: 'must be an amount written as text, e.g. "12.50"' })
-    .nonnegative('must not be negative')
-    .transform((n) => String(n))
-    .pipe(moneyText),
+  z.pipe(
+    z.pipe(
+      z
+        .number({ error: 'must be an amount written as text, e.g. "12.50"' })
+        .check(z.gte(0, 'must not be negative')),
+      z.transform((n) => String(n)),
+    ),
+    moneyText,
+  ),
 ]);
 
-export const orderLineInput = z
-  .object({
-    partId: idField,
-    quantity: z
-      .number({ error: 'must be a whole number' })
-      .int('must be a whole number')
-      .min(1, 'must be at least 1')
-      .max(10_000, 'at most 10000'),
-    unitPrice: unitPriceField,
-  })
-  .strict();
+export const orderLineInput = z.strictObject({
+  partId: idField,
+  quantity: z
+    .number({ error: 'must be a whole number' })
+    .check(
+      z.int('must be a whole number'),
+      z.gte(1, 'must be at least 1'),
+      z.lte(10_000, 'at most 10000'),
+    ),
+  unitPrice: unitPriceField,
+});
 
-export const orderInput = z
-  .object({
-    supplierId: idField,
-    lines: z
-      .array(orderLineInput)
-      .min(1, 'add at least one line')
-      .max(MAX_ORDER_LINES, `at most ${MAX_ORDER_LINES} lines`),
-    expectedOn: calendarDay.nullable().optional(),
-    notes: z.string().max(2000, 'at most 2000 characters').optional(),
-    /** What the supplier charges to ship it, in the order's currency; default: their usual. */
-    shipping: unitPriceField.optional(),
-  })
-  .strict();
+export const orderInput = z.strictObject({
+  supplierId: idField,
+  lines: z
+    .array(orderLineInput)
+    .check(
+      z.minLength(1, 'add at least one line'),
+      z.maxLength(MAX_ORDER_LINES, `at most ${MAX_ORDER_LINES} lines`),
+    ),
+  expectedOn: z.optional(z.nullable(calendarDay)),
+  notes: z.optional(z.string().check(z.maxLength(2000, 'at most 2000 characters'))),
+  /** What the supplier charges to ship it, in the order's currency; default: their usual. */
+  shipping: z.optional(unitPriceField),
+});
 export type OrderInput = z.output<typeof orderInput>;
 
-export const orderPatch = z
-  .object({
-    lines: orderInput.shape.lines.optional(),
-    expectedOn: calendarDay.nullable().optional(),
-    notes: z.string().max(2000, 'at most 2000 characters').optional(),
-    shipping: unitPriceField.optional(),
-  })
-  .strict();
+export const orderPatch = z.strictObject({
+  lines: z.optional(orderInput.shape.lines),
+  expectedOn: z.optional(z.nullable(calendarDay)),
+  notes: z.optional(z.string().check(z.maxLength(2000, 'at most 2000 characters'))),
+  shipping: z.optional(unitPriceField),
+});
 export type OrderPatch = z.output<typeof orderPatch>;
 
 export const ordersQuery = z.object({
-  q: z.string().max(200).optional(),
-  state: z.enum([...ORDER_STATES, 'open'], { error: 'must be an order state or open' }).optional(),
-  supplierId: idField.optional(),
-  sort: z.enum(['number', 'createdAt', 'expectedOn', 'supplier', 'state']).optional(),
-  dir: sortDir.optional(),
+  q: z.optional(z.string().check(z.maxLength(200))),
+  state: z.optional(z.enum([...ORDER_STATES, 'open'], { error: 'must be an order state or open' })),
+  supplierId: z.optional(idField),
+  sort: z.optional(z.enum(['number', 'createdAt', 'expectedOn', 'supplier', 'state'])),
+  dir: z.optional(sortDir),
   page: pageNumber,
   pageSize: pageSizeField(),
 });
 export type OrdersQuery = z.output<typeof ordersQuery>;
 
-export const draftsInput = z
-  .object({
-    /** Only these parts; all low parts when left out. */
-    partIds: z.array(idField).max(500).optional(),
-    familyId: idField.optional(),
-  })
-  .strict();
+export const draftsInput = z.strictObject({
+  /** Only these parts; all low parts when left out. */
+  partIds: z.optional(z.array(idField).check(z.maxLength(500))),
+  familyId: z.optional(idField),
+});
 export type DraftsInput = z.output<typeof draftsInput>;
 
-export const receiptLinesInput = z
-  .object({
-    lines: z
-      .array(
-        z
-          .object({
-            lineId: idField,
-            quantity: z
-              .number({ error: 'must be a whole number' })
-              .int('must be a whole number')
-              .min(1, 'must be at least 1')
-              .max(10_000),
-            units: z
-              .array(z.object({ skirt: skirtField.nullable().optional() }).strict())
-              .max(MAX_PISTONS_PER_RECEIPT)
-              .optional(),
-            binId: idField.optional(),
-          })
-          .strict(),
-      )
-      .min(1, 'receive at least one line')
-      .max(MAX_ORDER_LINES),
-    binId: idField.optional(),
-    note: z.string().trim().max(500).optional(),
-  })
-  .strict();
+export const receiptLinesInput = z.strictObject({
+  lines: z
+    .array(
+      z.strictObject({
+        lineId: idField,
+        quantity: z
+          .number({ error: 'must be a whole number' })
+          .check(z.int('must be a whole number'), z.gte(1, 'must be at least 1'), z.lte(10_000)),
+        units: z.optional(
+          z
+            .array(z.strictObject({ skirt: z.optional(z.nullable(skirtField)) }))
+            .check(z.maxLength(MAX_PISTONS_PER_RECEIPT)),
+        ),
+        binId: z.optional(idField),
+      }),
+    )
+    .check(z.minLength(1, 'receive at least one line'), z.maxLength(MAX_ORDER_LINES)),
+  binId: z.optional(idField),
+  note: z.optional(z.string().check(z.trim(), z.maxLength(500))),
+});
 export type ReceiptLinesInput = z.output<typeof receiptLinesInput>;
 
 export interface OrderLineJson {
@@ -240,22 +234,20 @@ export interface OpenLineJson {
 
 // ---- Jobs waiting on an order line --------------------------------------------------------------
 
-export const waitInput = z
-  .object({
-    jobId: idField,
-    cylinder: z.number().int().min(1).max(24),
-    lineId: idField,
-  })
-  .strict();
+export const waitInput = z.strictObject({
+  jobId: idField,
+  cylinder: z.number().check(z.int(), z.gte(1), z.lte(24)),
+  lineId: idField,
+});
 export type WaitInput = z.output<typeof waitInput>;
 
 export const waitsQuery = z.object({
-  jobId: idField.optional(),
-  lineId: idField.optional(),
-  active: z
-    .enum(['true', 'false'])
-    .optional()
-    .transform((v) => v !== 'false'),
+  jobId: z.optional(idField),
+  lineId: z.optional(idField),
+  active: z.pipe(
+    z.optional(z.enum(['true', 'false'])),
+    z.transform((v) => v !== 'false'),
+  ),
 });
 
 export interface WaitJson {

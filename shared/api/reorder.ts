@@ -1,6 +1,6 @@
 // What the purchasing API accepts and answers about reordering: reorder rules and defaults, the
 // computed suggestion with its figures, the reorder list, sourcing offers and exchange rates.
-import { z } from 'zod';
+import * as z from '../zod';
 import { atMost } from '../text-rules';
 import { calendarDay, currencyCode, idField, pageNumber, pageSizeField } from './common';
 import type { WaitingItemJson } from './suppliers';
@@ -8,26 +8,32 @@ import type { WaitingItemJson } from './suppliers';
 const count = (max = 1_000_000) =>
   z
     .number({ error: 'must be a whole number' })
-    .int('must be a whole number')
-    .min(0, 'must be 0 or more')
-    .max(max, `at most ${max}`);
+    .check(
+      z.int('must be a whole number'),
+      z.gte(0, 'must be 0 or more'),
+      z.lte(max, `at most ${max}`),
+    );
 
 // ---- Reorder rules -----------------------------------------------------------------------------
 
 export const reorderRuleInput = z
-  .object({
-    reorderPoint: count().nullable(),
-    orderUpTo: count().nullable(),
+  .strictObject({
+    reorderPoint: z.nullable(count()),
+    orderUpTo: z.nullable(count()),
   })
-  .strict()
-  .refine((r) => r.reorderPoint === null || r.orderUpTo === null || r.orderUpTo >= r.reorderPoint, {
-    message: 'must not be below the reorder point',
-    path: ['orderUpTo'],
-  })
-  .refine((r) => r.reorderPoint !== null || r.orderUpTo === null, {
-    message: 'set a reorder point first (an order-up-to level alone watches nothing)',
-    path: ['reorderPoint'],
-  });
+  .check(
+    z.refine(
+      (r) => r.reorderPoint === null || r.orderUpTo === null || r.orderUpTo >= r.reorderPoint,
+      {
+        message: 'must not be below the reorder point',
+        path: ['orderUpTo'],
+      },
+    ),
+    z.refine((r) => r.reorderPoint !== null || r.orderUpTo === null, {
+      message: 'set a reorder point first (an order-up-to level alone watches nothing)',
+      path: ['reorderPoint'],
+    }),
+  );
 export type ReorderRuleInput = z.output<typeof reorderRuleInput>;
 
 export const RULE_SOURCES = ['part', 'step', 'family', 'none'] as const;
@@ -42,18 +48,19 @@ export interface ReorderRuleJson {
 }
 
 export const reorderDefaultInput = z
-  .object({
+  .strictObject({
     familyId: idField,
-    stepId: idField.nullable(),
+    stepId: z.nullable(idField),
     kind: z.enum(['piston', 'rings'], { error: 'must be piston or rings' }),
     reorderPoint: count(),
     orderUpTo: count(),
   })
-  .strict()
-  .refine((r) => r.orderUpTo >= r.reorderPoint, {
-    message: 'must not be below the reorder point',
-    path: ['orderUpTo'],
-  });
+  .check(
+    z.refine((r) => r.orderUpTo >= r.reorderPoint, {
+      message: 'must not be below the reorder point',
+      path: ['orderUpTo'],
+    }),
+  );
 export type ReorderDefaultInput = z.output<typeof reorderDefaultInput>;
 
 export interface ReorderDefaultJson {
@@ -69,18 +76,16 @@ export interface ReorderDefaultJson {
 }
 
 export const reorderSuggestionQuery = z.object({
-  windowDays: z.coerce
-    .number()
-    .int()
-    .min(14, 'at least 14 days')
-    .max(730, 'at most 730 days')
-    .default(180),
-  leadDays: z.coerce.number().int().min(0).max(365).optional(),
-  serviceLevel: z.coerce
-    .number()
-    .min(0.5, 'at least 0.5 (50%)')
-    .max(0.999, 'at most 0.999 (99.9%)')
-    .optional(),
+  windowDays: z._default(
+    z.coerce.number().check(z.int(), z.gte(14, 'at least 14 days'), z.lte(730, 'at most 730 days')),
+    180,
+  ),
+  leadDays: z.optional(z.coerce.number().check(z.int(), z.gte(0), z.lte(365))),
+  serviceLevel: z.optional(
+    z.coerce
+      .number()
+      .check(z.gte(0.5, 'at least 0.5 (50%)'), z.lte(0.999, 'at most 0.999 (99.9%)')),
+  ),
 });
 export type ReorderSuggestionQuery = z.output<typeof reorderSuggestionQuery>;
 
@@ -116,13 +121,13 @@ export interface ReorderSuggestionJson {
 }
 
 export const reorderListQuery = z.object({
-  q: z.string().max(200).optional(),
-  familyId: idField.optional(),
+  q: z.optional(z.string().check(z.maxLength(200))),
+  familyId: z.optional(idField),
   /** Only parts at or below their reorder point, counting what is on order. */
-  low: z
-    .enum(['true', 'false'], { error: 'must be true or false' })
-    .optional()
-    .transform((v) => v !== 'false'),
+  low: z.pipe(
+    z.optional(z.enum(['true', 'false'], { error: 'must be true or false' })),
+    z.transform((v) => v !== 'false'),
+  ),
   page: pageNumber,
   pageSize: pageSizeField(),
 });
@@ -154,21 +159,23 @@ export interface ReorderLineJson {
 
 export const sourcingQuery = z
   .object({
-    familyId: idField.optional(),
-    stepId: idField.optional(),
-    partId: idField.optional(),
-    neededBy: calendarDay.optional(),
+    familyId: z.optional(idField),
+    stepId: z.optional(idField),
+    partId: z.optional(idField),
+    neededBy: z.optional(calendarDay),
     /** Units wanted: the shipping share is spread over them. */
-    quantity: z.coerce.number().int().min(1).max(10_000).default(1),
+    quantity: z._default(z.coerce.number().check(z.int(), z.gte(1), z.lte(10_000)), 1),
   })
-  .refine((q) => Boolean(q.partId) !== Boolean(q.familyId && q.stepId), {
-    message: 'give either partId, or familyId and stepId',
-    path: ['partId'],
-  })
-  .refine((q) => !(q.familyId && !q.stepId) && !(q.stepId && !q.familyId), {
-    message: 'familyId and stepId go together',
-    path: ['stepId'],
-  });
+  .check(
+    z.refine((q) => Boolean(q.partId) !== Boolean(q.familyId && q.stepId), {
+      message: 'give either partId, or familyId and stepId',
+      path: ['partId'],
+    }),
+    z.refine((q) => !(q.familyId && !q.stepId) && !(q.stepId && !q.familyId), {
+      message: 'familyId and stepId go together',
+      path: ['stepId'],
+    }),
+  );
 export type SourcingQuery = z.output<typeof sourcingQuery>;
 
 export interface OfferJson {
@@ -219,19 +226,17 @@ export interface SourcingJson {
   waiting: WaitingItemJson[];
 }
 
-export const rateInput = z
-  .object({
-    rate: z
-      .string({ error: 'must be a rate written as text, e.g. "0.9215"' })
-      .trim()
-      .max(20, atMost(20))
-      .regex(
-        /^\d{1,6}(\.\d{1,8})?$/,
-        'must be a positive number like "0.9215" (at most 8 decimals)',
-      )
-      .refine((v) => Number(v) > 0, 'must be above 0'),
-  })
-  .strict();
+export const rateInput = z.strictObject({
+  rate: z.string({ error: 'must be a rate written as text, e.g. "0.9215"' }).check(
+    z.trim(),
+    z.maxLength(20, atMost(20)),
+    z.regex(
+      /^\d{1,6}(\.\d{1,8})?$/,
+      'must be a positive number like "0.9215" (at most 8 decimals)',
+    ),
+    z.refine((v) => Number(v) > 0, 'must be above 0'),
+  ),
+});
 
 export const currencyParam = z.object({ currency: currencyCode });
 

@@ -1,6 +1,6 @@
 // What the stock API accepts and answers: bins, receipts, adjustments, moves, scrapping, measuring,
 // piston units and the ledger. Shared by the server routes and the Angular forms.
-import { z } from 'zod';
+import * as z from '../zod';
 import { atMost, singleLine } from '../text-rules';
 import type { UnitStatus } from './catalog';
 import { idField, lengthField, moneyText } from './common';
@@ -28,39 +28,42 @@ export const MAX_PISTONS_PER_RECEIPT = 500;
 
 /** A measured piston skirt diameter: a piston is never larger than 500 mm across. */
 export const skirtField = lengthField({ max: 500_000_000 });
-const reason = z.string().trim().min(1, 'give a reason').max(500, 'at most 500 characters');
+const reason = z
+  .string()
+  .check(z.trim(), z.minLength(1, 'give a reason'), z.maxLength(500, 'at most 500 characters'));
 
-export const binInput = z
-  .object({
-    code: z
-      .string()
-      .trim()
-      .min(1, 'enter a bin code')
-      .max(32, atMost(32))
-      .regex(/^[A-Za-z0-9][A-Za-z0-9._/-]*$/, 'letters, digits and . _ / - only, e.g. "A-03-2"'),
-    name: singleLine(120).optional(),
-  })
-  .strict();
+export const binInput = z.strictObject({
+  code: z
+    .string()
+    .check(
+      z.trim(),
+      z.minLength(1, 'enter a bin code'),
+      z.maxLength(32, atMost(32)),
+      z.regex(/^[A-Za-z0-9][A-Za-z0-9._/-]*$/, 'letters, digits and . _ / - only, e.g. "A-03-2"'),
+    ),
+  name: z.optional(singleLine(120)),
+});
 export type BinInput = z.output<typeof binInput>;
 
-export const receiptInput = z
-  .object({
-    partId: idField,
-    quantity: z
-      .number({ error: 'must be a whole number' })
-      .int('must be a whole number')
-      .min(1, 'must be at least 1')
-      .max(MAX_STOCK_QUANTITY, `at most ${MAX_STOCK_QUANTITY} in one receipt`),
-    binId: idField,
-    unitCost: moneyText,
-    note: z.string().trim().max(500).optional(),
-    /** Pistons only: one entry per piston; leave out skirt (or null) for "to measure". */
-    units: z
-      .array(z.object({ skirt: skirtField.nullable().optional() }).strict())
-      .max(MAX_PISTONS_PER_RECEIPT)
-      .optional(),
-  })
-  .strict();
+export const receiptInput = z.strictObject({
+  partId: idField,
+  quantity: z
+    .number({ error: 'must be a whole number' })
+    .check(
+      z.int('must be a whole number'),
+      z.gte(1, 'must be at least 1'),
+      z.lte(MAX_STOCK_QUANTITY, `at most ${MAX_STOCK_QUANTITY} in one receipt`),
+    ),
+  binId: idField,
+  unitCost: moneyText,
+  note: z.optional(z.string().check(z.trim(), z.maxLength(500))),
+  /** Pistons only: one entry per piston; leave out skirt (or null) for "to measure". */
+  units: z.optional(
+    z
+      .array(z.strictObject({ skirt: z.optional(z.nullable(skirtField)) }))
+      .check(z.maxLength(MAX_PISTONS_PER_RECEIPT)),
+  ),
+});
 export type ReceiptInput = z.output<typeof receiptInput>;
 
 /**
@@ -68,45 +71,45 @@ export type ReceiptInput = z.output<typeof receiptInput>;
  * line's count and the order move on, its price is the cost), or, with no line, one nobody
  * ordered at the cost typed.
  */
-export const deskReceiptInput = receiptInput
-  .extend({ unitCost: moneyText.optional(), orderLineId: idField.optional() })
-  .strict()
-  .superRefine((v, ctx) => {
-    if (!v.orderLineId && v.unitCost === undefined) {
-      ctx.addIssue({
-        code: 'custom',
-        path: ['unitCost'],
-        message: 'give the unit cost paid, or the order line it came on',
-      });
-    }
-  });
+export const deskReceiptInput = z
+  .extend(receiptInput, { unitCost: z.optional(moneyText), orderLineId: z.optional(idField) })
+  .check(
+    z.superRefine((v, ctx) => {
+      if (!v.orderLineId && v.unitCost === undefined) {
+        ctx.addIssue({
+          code: 'custom',
+          path: ['unitCost'],
+          message: 'give the unit cost paid, or the order line it came on',
+        });
+      }
+    }),
+  );
 export type DeskReceiptInput = z.output<typeof deskReceiptInput>;
 
-export const adjustmentInput = z
-  .object({
-    partId: idField,
-    quantity: z
-      .number({ error: 'must be a whole number' })
-      .int('must be a whole number')
-      .min(-MAX_STOCK_QUANTITY)
-      .max(MAX_STOCK_QUANTITY)
-      .refine((q) => q !== 0, 'must not be 0: give the change, + to add, - to take away'),
-    reason,
-  })
-  .strict();
+export const adjustmentInput = z.strictObject({
+  partId: idField,
+  quantity: z.number({ error: 'must be a whole number' }).check(
+    z.int('must be a whole number'),
+    z.gte(-MAX_STOCK_QUANTITY),
+    z.lte(MAX_STOCK_QUANTITY),
+    z.refine((q) => q !== 0, 'must not be 0: give the change, + to add, - to take away'),
+  ),
+  reason,
+});
 export type AdjustmentInput = z.output<typeof adjustmentInput>;
 
 export const moveInput = z
-  .object({ unitId: idField.optional(), partId: idField.optional(), toBinId: idField })
-  .strict()
-  .refine((m) => (m.unitId ? 1 : 0) + (m.partId ? 1 : 0) === 1, {
-    message: 'give either unitId (one piston) or partId (a counted part)',
-    path: ['unitId'],
-  });
+  .strictObject({ unitId: z.optional(idField), partId: z.optional(idField), toBinId: idField })
+  .check(
+    z.refine((m) => (m.unitId ? 1 : 0) + (m.partId ? 1 : 0) === 1, {
+      message: 'give either unitId (one piston) or partId (a counted part)',
+      path: ['unitId'],
+    }),
+  );
 export type MoveInput = z.output<typeof moveInput>;
 
-export const scrapInput = z.object({ reason }).strict();
-export const measureInput = z.object({ skirt: skirtField }).strict();
+export const scrapInput = z.strictObject({ reason });
+export const measureInput = z.strictObject({ skirt: skirtField });
 
 // ---- Answers ----------------------------------------------------------------------------------
 

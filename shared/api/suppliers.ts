@@ -1,6 +1,6 @@
 // What the suppliers and price-list import API accepts and answers. The zod schemas serve the server
 // routes and the Angular forms alike.
-import { z } from 'zod';
+import * as z from '../zod';
 import { currencyCode, idField, moneyText } from './common';
 import type { LengthJson } from '../lengths';
 import { emailAddress, singleLine } from '../text-rules';
@@ -10,24 +10,31 @@ import { emailAddress, singleLine } from '../text-rules';
 const email = emailAddress(200);
 
 export const supplierInput = z.strictObject({
-  name: singleLine(120).pipe(z.string().min(1, 'enter a name')),
-  email: z.union([email, z.literal('').transform(() => null), z.null()]).optional(),
+  name: z.pipe(singleLine(120), z.string().check(z.minLength(1, 'enter a name'))),
+  email: z.optional(
+    z.union([
+      email,
+      z.pipe(
+        z.literal(''),
+        z.transform(() => null),
+      ),
+      z.null(),
+    ]),
+  ),
   currency: currencyCode,
   leadDays: z
     .number({ error: 'must be a whole number of days' })
-    .int('must be whole days')
-    .min(0)
-    .max(365),
-  contacts: z.string().max(2000, 'at most 2000 characters').optional(),
-  minOrder: moneyText.optional(),
-  shippingCost: moneyText.optional(),
-  notes: z.string().max(4000, 'at most 4000 characters').optional(),
-  active: z.boolean().optional(),
+    .check(z.int('must be whole days'), z.gte(0), z.lte(365)),
+  contacts: z.optional(z.string().check(z.maxLength(2000, 'at most 2000 characters'))),
+  minOrder: z.optional(moneyText),
+  shippingCost: z.optional(moneyText),
+  notes: z.optional(z.string().check(z.maxLength(4000, 'at most 4000 characters'))),
+  active: z.optional(z.boolean()),
 });
 export type SupplierInput = z.input<typeof supplierInput>;
 export type SupplierData = z.output<typeof supplierInput>;
 
-export const supplierPatch = supplierInput.partial();
+export const supplierPatch = z.partial(supplierInput);
 export type SupplierPatch = z.output<typeof supplierPatch>;
 
 export const SUPPLIER_SORTS = ['name', 'currency', 'leadDays', 'items', 'lastImport'] as const;
@@ -112,7 +119,7 @@ export interface WaitingItemJson {
 }
 
 export const itemMappingInput = z.strictObject({
-  partId: idField.nullable(),
+  partId: z.nullable(idField),
 });
 
 // ---- Price-list imports ------------------------------------------------------------------------
@@ -146,15 +153,15 @@ export type MappingJson = Record<MappingFieldName, string | null> & { sizeUnit: 
 
 /** A column mapping as the client sends it: field → column name (or null), and the size unit. */
 export const mappingInput = z.strictObject({
-  sku: z.string().max(200).nullable(),
-  description: z.string().max(200).nullable().default(null),
-  size: z.string().max(200).nullable().default(null),
-  oversize: z.string().max(200).nullable().default(null),
-  price: z.string().max(200).nullable(),
-  available: z.string().max(200).nullable().default(null),
-  leadDays: z.string().max(200).nullable().default(null),
-  gtin: z.string().max(200).nullable().default(null),
-  currency: z.string().max(200).nullable().default(null),
+  sku: z.nullable(z.string().check(z.maxLength(200))),
+  description: z._default(z.nullable(z.string().check(z.maxLength(200))), null),
+  size: z._default(z.nullable(z.string().check(z.maxLength(200))), null),
+  oversize: z._default(z.nullable(z.string().check(z.maxLength(200))), null),
+  price: z.nullable(z.string().check(z.maxLength(200))),
+  available: z._default(z.nullable(z.string().check(z.maxLength(200))), null),
+  leadDays: z._default(z.nullable(z.string().check(z.maxLength(200))), null),
+  gtin: z._default(z.nullable(z.string().check(z.maxLength(200))), null),
+  currency: z._default(z.nullable(z.string().check(z.maxLength(200))), null),
   sizeUnit: z.enum(['mm', 'in'], { error: 'must be mm or in' }),
 });
 
@@ -266,5 +273,5 @@ export interface ImportProgressJson {
 
 export const commitInput = z.strictObject({
   /** A full list marks items it no longer holds as dropped; a partial list (false) leaves them. */
-  dropMissing: z.boolean().default(true),
+  dropMissing: z._default(z.boolean(), true),
 });

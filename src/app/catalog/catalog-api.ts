@@ -17,7 +17,7 @@ import type {
 } from '../../../shared/api/catalog';
 import type { Page } from '../../../shared/api/common';
 import { queryParams } from '../core/query-params';
-import type { z } from 'zod';
+import type * as z from '../../../shared/zod';
 
 /** A family as the form sends it: lengths as typed, each with its unit. */
 export type FamilyBody = z.input<typeof familyInput>;

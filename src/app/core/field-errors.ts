@@ -1,5 +1,5 @@
 import type { AbstractControl, ValidationErrors, ValidatorFn } from '@angular/forms';
-import type { ZodType } from 'zod';
+import type * as z from '../../../shared/zod';
 
 import { apiErrorBody, apiFieldErrors, apiUnplacedMessage, detailSentence } from './api-error';
 
@@ -47,7 +47,7 @@ export function controlError(control: AbstractControl | null, what = 'a value'):
  * Checks a control with the server's own zod rule for that field, at every keystroke, so the form
  * refuses what the server would and says it in the same words (as `schema`, a sentence).
  */
-export function schemaValidator(rule: ZodType): ValidatorFn {
+export function schemaValidator(rule: z.ZodMiniType): ValidatorFn {
   return (control: AbstractControl): ValidationErrors | null => {
     const checked = rule.safeParse(control.value);
     if (checked.success) return null;

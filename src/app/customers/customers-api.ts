@@ -10,7 +10,7 @@ import type {
   CylinderDetailJson,
 } from '../../../shared/api/customers';
 import type { Page } from '../../../shared/api/common';
-import type { z } from 'zod';
+import type * as z from '../../../shared/zod';
 import { queryParams } from '../core/query-params';
 
 /** A customer's fields as a form sends them (the changed ones when editing). */

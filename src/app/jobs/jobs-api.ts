@@ -23,7 +23,7 @@ import type {
 } from '../../../shared/api/jobs';
 import type { UnitJson } from '../../../shared/api/stock';
 import type { Page } from '../../../shared/api/common';
-import type { z } from 'zod';
+import type * as z from '../../../shared/zod';
 import { queryParams } from '../core/query-params';
 
 export interface JobListQuery {

@@ -27,7 +27,7 @@ import type {
 import type { SupplierJson } from '../../../shared/api/suppliers';
 import type { Page } from '../../../shared/api/common';
 import { queryParams } from '../core/query-params';
-import type { z } from 'zod';
+import type * as z from '../../../shared/zod';
 
 const id = encodeURIComponent;
 

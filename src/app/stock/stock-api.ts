@@ -20,7 +20,7 @@ import type {
 import type { OpenLineJson } from '../../../shared/api/purchasing';
 import type { Page } from '../../../shared/api/common';
 import { queryParams } from '../core/query-params';
-import type { z } from 'zod';
+import type * as z from '../../../shared/zod';
 
 /** A delivery as the receive page sends it; skirts typed with their unit, null for "to measure". */
 export type ReceiptBody = z.input<typeof deskReceiptInput>;

@@ -12,7 +12,7 @@ import type {
 } from '../../../shared/api/suppliers';
 import type { Page } from '../../../shared/api/common';
 import { queryParams } from '../core/query-params';
-import type { z } from 'zod';
+import type * as z from '../../../shared/zod';
 
 /** A supplier as the form sends it. */
 export type SupplierBody = z.input<typeof supplierInput>;
