@@ -127,6 +127,19 @@ export class HttpSession {
     }
   }
 
+  /** The answer's status and body (parsed when it is JSON, else its text) and how long it took. */
+  private async timed(res: Response, started: number): Promise<TimedResponse> {
+    this.remember(res);
+    const text = await res.text();
+    let parsed: unknown = text;
+    try {
+      parsed = text ? JSON.parse(text) : null;
+    } catch {
+      /* not JSON: keep the text */
+    }
+    return { status: res.status, body: parsed, ms: performance.now() - started };
+  }
+
   async request(
     method: string,
     path: string,
@@ -145,15 +158,7 @@ export class HttpSession {
       body: body === undefined ? undefined : JSON.stringify(body),
       signal: AbortSignal.timeout(opts.timeoutMs ?? 30_000),
     });
-    this.remember(res);
-    const text = await res.text();
-    let parsed: unknown = text;
-    try {
-      parsed = text ? JSON.parse(text) : null;
-    } catch {
-      /* not JSON: keep the text */
-    }
-    return { status: res.status, body: parsed, ms: performance.now() - started };
+    return this.timed(res, started);
   }
 
   /** A multipart upload (a price list), the way the browser's file input sends it. */
@@ -178,15 +183,7 @@ export class HttpSession {
       body: form,
       signal: AbortSignal.timeout(opts.timeoutMs ?? 120_000),
     });
-    this.remember(res);
-    const text = await res.text();
-    let parsed: unknown = text;
-    try {
-      parsed = text ? JSON.parse(text) : null;
-    } catch {
-      /* not JSON */
-    }
-    return { status: res.status, body: parsed, ms: performance.now() - started };
+    return this.timed(res, started);
   }
 
   get(path: string, opts?: { timeoutMs?: number }) {
