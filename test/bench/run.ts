@@ -1,12 +1,15 @@
 // npm run bench: speed and memory figures as JSON lines, each beside its physical limit measured in
 // the same run. Everything happens on 127.0.0.1 in a throwaway PostgreSQL cluster with generated
 // data; the run stops by itself (a watchdog ends it after 45 minutes) and removes what it made.
-//   node --import tsx test/bench/run.ts [group…] [--scale N]
+//   node --import tsx test/bench/run.ts [group…] [--scale N] [--keep DIR]
 //   groups: lists holds import client start (default all; with --scale above 1, default lists: the
 //   figures that depend on how much the shop holds)
+//   --keep DIR: the cluster and its generated shop stay in DIR after the run, and a later run with
+//   the same DIR and scale starts them again (new migrations applied) instead of generating anew,
+//   which at ×10 takes minutes of both cores.
 import { spawnSync } from 'node:child_process';
 import os from 'node:os';
-import { mkdtempSync, rmSync } from 'node:fs';
+import { existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import path from 'node:path';
 import pg from 'pg';
 import {
@@ -25,7 +28,7 @@ import { startServer, type ServerProcess } from '../drills/support';
 import { clientBench } from './client-bench';
 import { coldStart } from './cold-start';
 import { figure, figuresOnlyOnStdout, say, skipped } from './emit';
-import { generateShop } from './generate';
+import { generateShop, type BenchShop } from './generate';
 import { holdsBench } from './holds-bench';
 import { importBench } from './import-bench';
 import { latencyBench } from './latency-bench';
@@ -38,6 +41,7 @@ async function main() {
   figuresOnlyOnStdout();
   const args = process.argv.slice(2);
   const scale = scaleFrom(args);
+  const keep = keepFrom(args);
   const asked = args.filter((a): a is Group => (GROUPS as readonly string[]).includes(a));
   const groups = new Set<Group>(asked.length ? asked : scale > 1 ? ['lists'] : GROUPS);
   const started = Date.now();
@@ -50,6 +54,7 @@ async function main() {
     if (cluster) stopCluster(cluster, 'fast');
     if (tmp) rmSync(tmp, { recursive: true, force: true });
   };
+  const kept = keep ? keptShop(keep, scale) : null;
   // A deeper shop takes longer to generate: five more minutes for each step of scale.
   const watchdogMs = WATCHDOG_MS + (scale - 1) * 5 * 60_000;
   const watchdog = setTimeout(() => {
@@ -62,14 +67,17 @@ async function main() {
     const runAs = runAsUser();
     tmp = mkdtempSync('/tmp/stepstock-bench-');
     if (runAs) spawnSync('chown', [runAs, tmp]);
+    if (keep) mkdirSync(keep, { recursive: true });
     // A durable cluster (fsync on), like a shop's: commit latency is part of what a hold costs.
     cluster = {
       binDir: ensurePostgresInstalled(),
       runAs,
-      dataDir: path.join(tmp, 'pg'),
+      dataDir: path.join(keep ?? tmp, 'pg'),
       port: await freePort(),
     };
-    say(`throwaway PostgreSQL on 127.0.0.1:${cluster.port}`);
+    say(
+      `${keep ? `kept PostgreSQL in ${keep}` : 'throwaway PostgreSQL'} on 127.0.0.1:${cluster.port}`,
+    );
     initCluster(cluster);
     await startCluster(cluster);
     const url = ensureDatabase(cluster, 'stepstock_bench');
@@ -85,18 +93,8 @@ async function main() {
       cpus: os.cpus().length,
     });
     figure({ name: 'bench.scale', value: scale, unit: '×' });
-    say(
-      `generating the bench shop: ${(100_000 * scale).toLocaleString('en')} piston units, ` +
-        `${(1_000_000 * scale).toLocaleString('en')} ledger rows…`,
-    );
-    const client = new pg.Client({ connectionString: url });
-    await client.connect();
-    const genStart = Date.now();
-    const shop = await generateShop(client, scale);
-    await client.end();
-    say(
-      `generated ${shop.units} units and ${shop.ledgerRows} ledger rows in ${((Date.now() - genStart) / 1000).toFixed(1)} s`,
-    );
+    const shop = kept ?? (await generate(url, scale));
+    if (keep && !kept) writeFileSync(path.join(keep, SHOP_FILE), JSON.stringify({ scale, shop }));
 
     if (groups.has('lists') || groups.has('holds')) {
       server = await startServer(url, { LOG_LEVEL: 'warn' });
@@ -122,6 +120,53 @@ async function main() {
     clearTimeout(watchdog);
     await cleanup();
   }
+}
+
+async function generate(url: string, scale: number): Promise<BenchShop> {
+  say(
+    `generating the bench shop: ${(100_000 * scale).toLocaleString('en')} piston units, ` +
+      `${(1_000_000 * scale).toLocaleString('en')} ledger rows…`,
+  );
+  const client = new pg.Client({ connectionString: url });
+  await client.connect();
+  const genStart = Date.now();
+  const shop = await generateShop(client, scale);
+  await client.end();
+  say(
+    `generated ${shop.units} units and ${shop.ledgerRows} ledger rows in ${((Date.now() - genStart) / 1000).toFixed(1)} s`,
+  );
+  return shop;
+}
+
+/** Beside a kept cluster: the scale it was generated at and the ids the figures need. */
+const SHOP_FILE = 'bench-shop.json';
+
+/** `--keep DIR`: where the cluster stays between runs (an absolute or relative folder). */
+function keepFrom(args: string[]): string | null {
+  const at = args.indexOf('--keep');
+  if (at === -1) return null;
+  const dir = args[at + 1];
+  if (!dir || dir.startsWith('--')) throw new Error('--keep wants a folder to keep the cluster in');
+  return path.resolve(dir);
+}
+
+/** The shop generated earlier in `dir`, or null when there is none yet. */
+function keptShop(dir: string, scale: number): BenchShop | null {
+  const file = path.join(dir, SHOP_FILE);
+  if (!existsSync(file)) {
+    if (existsSync(path.join(dir, 'pg'))) {
+      throw new Error(
+        `${dir} holds a cluster but no ${SHOP_FILE}: its generation did not finish; remove the folder`,
+      );
+    }
+    return null;
+  }
+  const saved = JSON.parse(readFileSync(file, 'utf8')) as { scale: number; shop: BenchShop };
+  if (saved.scale !== scale) {
+    throw new Error(`${dir} holds a shop generated at --scale ${saved.scale}, not ${scale}`);
+  }
+  say(`reusing the ×${scale} shop kept in ${dir} (not generated again)`);
+  return saved.shop;
 }
 
 /** `--scale N`: N times the bench shop's units, ledger and jobs (a whole number from 1 to 20). */
