@@ -289,35 +289,67 @@ export interface LadderUnitRow {
   bin_code: string | null;
 }
 
+/** The columns of a ladder unit, from piston_units `u`. */
+const UNIT_COLUMNS = 'u.id, u.part_id, u.label, u.skirt_nm, u.status, u.bin_id';
+
 /**
  * The family's pistons on the shelf (free or held), at most `perStep` of each step: the measured
- * free ones nearest the step's nominal bore first, then those still to measure, then held ones;
- * with how many the step has in all. Shown smallest measured first, "to measure" last. A family
- * can hold thousands of pistons; the ladder shows a handful per step and pages the rest.
+ * free ones nearest the step's nominal bore first, then those still to measure, then held ones.
+ * Shown smallest measured first, "to measure" last. A family can hold thousands of pistons; the
+ * ladder shows a handful per step (the step's count of them all is its pistons' on hand) and pages
+ * the rest.
+ *
+ * Each part's candidates are read from its indexes, never its whole shelf: the `perStep` nearest
+ * at or above the nominal bore (skirt, then label, ascending) and the `perStep` nearest below it
+ * (skirt descending, label ascending), which between them hold every free measured piston that can
+ * rank among the nearest `perStep` (any piston ranked before one of them on its side is nearer, or
+ * as near with a smaller label); then the first `perStep` to measure and the first `perStep` held.
  */
 export async function familyShelfUnits(
   familyId: string,
   perStep: number,
   k: Knex = db,
-): Promise<(LadderUnitRow & { step_total: number })[]> {
-  const result = await k.raw<{ rows: (LadderUnitRow & { step_total: number })[] }>(
-    `SELECT id, part_id, step_id, label, skirt_nm, status, bin_id, bin_code, step_total
-       FROM (SELECT u.id, u.part_id, p.step_id, u.label, u.skirt_nm, u.status, u.bin_id,
-                    b.code AS bin_code,
-                    count(*) OVER (PARTITION BY p.step_id)::int AS step_total,
-                    row_number() OVER (
-                      PARTITION BY p.step_id
-                      ORDER BY u.status = 'held', u.skirt_nm IS NULL,
-                               abs(u.skirt_nm::bigint - (f.standard_bore_nm + s.offset_nm)), u.label
-                    ) AS nearness
-               FROM piston_units u
-               JOIN parts p ON p.id = u.part_id
-               JOIN engine_families f ON f.id = p.family_id
-               JOIN series_steps s ON s.id = p.step_id
-               LEFT JOIN bins b ON b.id = u.bin_id
-              WHERE p.family_id = :familyId AND u.status IN ('free', 'held')) shelf
+): Promise<LadderUnitRow[]> {
+  const result = await k.raw<{ rows: LadderUnitRow[] }>(
+    `WITH family_parts AS (
+       SELECT p.id, p.step_id, (f.standard_bore_nm + s.offset_nm)::bigint AS nominal
+         FROM parts p
+         JOIN engine_families f ON f.id = p.family_id
+         JOIN series_steps s ON s.id = p.step_id
+        WHERE p.family_id = :familyId
+     ), candidates AS (
+       SELECT fp.step_id, fp.nominal, c.*
+         FROM family_parts fp
+        CROSS JOIN LATERAL (
+          (SELECT ${UNIT_COLUMNS} FROM piston_units u
+            WHERE u.part_id = fp.id AND u.status = 'free' AND u.skirt_nm >= fp.nominal
+            ORDER BY u.skirt_nm, u.label LIMIT :perStep)
+          UNION ALL
+          (SELECT ${UNIT_COLUMNS} FROM piston_units u
+            WHERE u.part_id = fp.id AND u.status = 'free' AND u.skirt_nm < fp.nominal
+            ORDER BY u.skirt_nm DESC, u.label LIMIT :perStep)
+          UNION ALL
+          (SELECT ${UNIT_COLUMNS} FROM piston_units u
+            WHERE u.part_id = fp.id AND u.status = 'free' AND u.skirt_nm IS NULL
+            ORDER BY u.label LIMIT :perStep)
+          UNION ALL
+          (SELECT ${UNIT_COLUMNS} FROM piston_units u
+            WHERE u.part_id = fp.id AND u.status = 'held'
+            ORDER BY u.skirt_nm IS NULL, abs(u.skirt_nm::bigint - fp.nominal), u.label
+            LIMIT :perStep)) c
+     ), shelf AS (
+       SELECT c.*, row_number() OVER (
+                PARTITION BY c.step_id
+                ORDER BY c.status = 'held', c.skirt_nm IS NULL, abs(c.skirt_nm::bigint - c.nominal),
+                         c.label
+              ) AS nearness
+         FROM candidates c
+     )
+     SELECT shelf.id, shelf.part_id, shelf.step_id, shelf.label, shelf.skirt_nm, shelf.status,
+            shelf.bin_id, b.code AS bin_code
+       FROM shelf LEFT JOIN bins b ON b.id = shelf.bin_id
       WHERE nearness <= :perStep
-      ORDER BY skirt_nm ASC NULLS LAST, label ASC`,
+      ORDER BY shelf.skirt_nm ASC NULLS LAST, shelf.label ASC`,
     { familyId, perStep },
   );
   return result.rows;

@@ -49,8 +49,10 @@ export async function ladder(familyId: string, k: Knex = db): Promise<LadderJson
     k,
   );
 
+  const level = (stepId: string, kind: 'piston' | 'rings') =>
+    levels.find((x) => x.step_id === stepId && x.kind === kind);
   const counts = (stepId: string, kind: 'piston' | 'rings', free: number) => {
-    const l = levels.find((x) => x.step_id === stepId && x.kind === kind);
+    const l = level(stepId, kind);
     const ordered = onOrder.find((x) => x.step_id === stepId && x.kind === kind)?.quantity ?? 0;
     return { onHand: l?.on_hand ?? 0, held: l?.held ?? 0, free, onOrder: ordered };
   };
@@ -79,15 +81,12 @@ export async function ladder(familyId: string, k: Knex = db): Promise<LadderJson
       kitsFree,
       nothingFree: missing.length > 0,
       missing,
-      ...shownUnits(units.filter((u) => u.step_id === step.step_id)),
+      // Every piston on the shelf is free or held, so the step's on hand counts them all.
+      units: units.filter((u) => u.step_id === step.step_id).map(unitJson),
+      unitsTotal: level(step.step_id, 'piston')?.on_hand ?? 0,
     };
   });
   return { family: familyJson(row), steps: ladderSteps };
-}
-
-function shownUnits(rows: (repo.LadderUnitRow & { step_total: number })[]) {
-  const total = rows[0]?.step_total ?? 0;
-  return { units: rows.map(unitJson), unitsTotal: total };
 }
 
 /** All of one step's pistons on the shelf, paged, for "show them all" under a step. */
