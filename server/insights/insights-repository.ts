@@ -8,11 +8,9 @@
 import type { Knex } from 'knex';
 import { db } from '../db/knex';
 import { ISSUED_CTE, ISSUED_MARGIN, issuedBindings, type PeriodArgs } from './sales-sums';
+import { movedCte } from './moves-sums';
 
 export type { PeriodArgs } from './sales-sums';
-
-/** The cost of one issue row (aliases l = stock_ledger, p = parts). */
-const COST = `coalesce(l.unit_cost, p.average_cost)`;
 
 export interface SalesRowDb {
   family_id: string | null;
@@ -158,7 +156,8 @@ export interface StockValueDb {
  * :months months.
  * Inventory turnover = cost of goods issued ÷ average inventory at cost, the average being
  * (opening + closing) ÷ 2. The opening value is rebuilt from the ledger by the cost-flow identity
- * closing = opening + Σ(signed quantity × unit cost) over the window's movements.
+ * closing = opening + Σ(signed quantity × unit cost) over the window's movements, read from the
+ * sums kept beside the ledger (moves-sums.ts).
  */
 export async function stockValue(months: number, k: Knex = db): Promise<StockValueDb[]> {
   const result = await k.raw<{ rows: StockValueDb[] }>(
@@ -171,13 +170,13 @@ export async function stockValue(months: number, k: Knex = db): Promise<StockVal
         FROM part_levels pl
         JOIN parts p ON p.id = pl.part_id
        GROUP BY p.family_id
-    ), moves AS (
+    ), ${movedCte('(SELECT start FROM win)')}, moves AS (
       SELECT p.family_id,
-             sum(l.quantity * ${COST}) AS net_in,
-             sum(CASE WHEN l.kind = 'issue' THEN -l.quantity * ${COST} ELSE 0 END) AS cost_of_issues
-        FROM stock_ledger l
-        JOIN parts p ON p.id = l.part_id
-       WHERE l.quantity <> 0 AND l.at >= (SELECT start FROM win)
+             sum(m.value_known + m.quantity_cost_unknown * p.average_cost) AS net_in,
+             sum(m.issue_cost_known + m.issue_quantity_cost_unknown * p.average_cost)
+               AS cost_of_issues
+        FROM moved m
+        JOIN parts p ON p.id = m.part_id
        GROUP BY p.family_id
     ), fam AS (
       SELECT k.family_id, coalesce(c.on_hand, 0) AS on_hand, coalesce(c.value, 0) AS value,
