@@ -1,6 +1,6 @@
 // The bench layout on a tablet, in the browser on the demo shop: a touch screen held upright
 // (800 × 1280) and on its side (1280 × 800). Every control a finger presses on the job bench and the
-// cylinder page is at least 48 px each way (the 48 dp touch target of Material Design's
+// cylinder page and the bore sheet is at least 48 px each way (the 48 dp touch target of Material Design's
 // accessibility guidance; WCAG 2.2's 2.5.8 asks for 24 CSS px at the least), the readings open the
 // number pad, the bore-to size is large, the cautions stay in view, and next/previous walks the
 // job's cylinders. The desk browser keeps the desk layout.
@@ -178,6 +178,29 @@ describe('the bench on a tablet', () => {
       await page
         .getByRole('heading', { name: new RegExp(`^Cylinder ${job.n} of`), level: 1 })
         .waitFor();
+    });
+  }
+
+  for (const view of TABLET) {
+    it(`when the bore sheet opens on a tablet held ${view.name}, then every control is a finger's size and the sizes read at arm's length`, async () => {
+      const page = tablet.page;
+      await page.setViewportSize({ width: view.width, height: view.height });
+      const job = await heldCylinder();
+      await page.goto(`${env.baseUrl}/jobs/${job.job_id}/cylinders/${job.n}/sheet`);
+      await benchOn(page, 'app-bore-sheet-page section.page');
+      await page.getByRole('heading', { level: 1, name: /^Bore sheet · / }).waitFor();
+      // The pass ticks are on screen for an open, uncut cylinder; they are measured with the rest.
+      await page.getByRole('button', { name: 'Pass 1 done', exact: true }).waitFor();
+      const found = await targets(page, 'app-bore-sheet-page section.page');
+      expect(found.count).toBeGreaterThan(6);
+      expect(found.small).toEqual([]);
+      // The sizes for the bar, at least 24 px (common practice, no source).
+      const size = (await page.evaluate(
+        `parseFloat(getComputedStyle(document.querySelector('table.sizes tr.key td.num')).fontSize)`,
+      )) as number;
+      expect(size).toBeGreaterThanOrEqual(24);
+      await screenshot(page, `tablet-bore-sheet-${view.width}x${view.height}`);
+      expect(await seriousA11yViolations(page)).toEqual([]);
     });
   }
 

@@ -26,6 +26,7 @@ import { JobsApi, type CylinderChanges } from './jobs-api';
 import { PassTicks } from './pass-ticks';
 import { WaitingEntries } from './waiting-entries';
 import { ShopDatePipe } from '../core/shop-date-pipe';
+import { BenchMode, BenchModeToggle } from '../ui/bench-mode';
 import { ListState } from '../ui/list-state';
 import { loadEach } from '../ui/load';
 import { allows } from '../../../shared/access';
@@ -37,6 +38,7 @@ import { allows } from '../../../shared/access';
 @Component({
   selector: 'app-bore-sheet-page',
   imports: [
+    BenchModeToggle,
     ShopDatePipe,
     LengthPipe,
     ListState,
@@ -60,6 +62,8 @@ export class BoreSheetPage {
   private readonly queue = inject(BenchQueue);
   /** Offline, sizes after honing wait on the tablet; the cut needs the server. */
   protected readonly online = inject(OfflineStatus).online;
+  /** On a tablet at the machine: a finger's targets and type read at arm's length. */
+  protected readonly bench = inject(BenchMode);
 
   readonly id = input.required<string>();
   readonly n = input.required<string>();
