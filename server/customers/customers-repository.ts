@@ -265,9 +265,9 @@ export async function findCylinder(id: string, k: Knex = db): Promise<CylinderRo
 export async function findCylinderByMark(
   mark: string,
   k: Knex = db,
-): Promise<{ id: string; customer_id: string } | undefined> {
+): Promise<{ id: string; customer_id: string; mark: string } | undefined> {
   return k('cylinders')
-    .select('id', 'customer_id')
+    .select('id', 'customer_id', 'mark')
     .whereRaw('lower(mark) = lower(?)', [mark.trim()])
     .first();
 }

@@ -10,6 +10,7 @@ import {
   customerInput,
   customerPatch,
   cylinderInput,
+  cylinderMarkQuery,
   eraseInput,
   EXPORT_FORMATS,
   mergeInput,
@@ -118,6 +119,13 @@ export function registerCustomersRoutes(router: Router): void {
     body: cylinderInput,
     status: 201,
     handler: ({ params, body, user }) => cylinders.addCylinder(user.id, params.id, body),
+  });
+  route(router, {
+    method: 'get',
+    path: '/api/cylinders',
+    access: 'signed-in',
+    query: cylinderMarkQuery,
+    handler: ({ query }) => cylinders.cylindersByMark(query.mark),
   });
   route(router, {
     method: 'get',

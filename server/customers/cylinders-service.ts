@@ -12,6 +12,7 @@ import { lengthJsonToNm, toLengthJson, type Nm } from '../../shared/lengths';
 import type {
   BoreJson,
   CustomerCylinderJson,
+  CylinderByMarkJson,
   CylinderDetailJson,
   CylinderInput,
   NearLastStepAnswer,
@@ -275,5 +276,13 @@ export async function nearLastStep(within: number, k: Conn = db): Promise<NearLa
     items,
     sleevesToExpect: items.filter((i) => i.stepsLeft === 0).length,
     lastStepNext: items.filter((i) => i.stepsLeft === 1).length,
+  };
+}
+
+/** The cylinder a scanned tag names, found by its exact mark (case aside); none is an empty list. */
+export async function cylindersByMark(mark: string, k: Conn = db): Promise<CylinderByMarkJson> {
+  const found = await repo.findCylinderByMark(mark, k);
+  return {
+    items: found ? [{ id: found.id, mark: found.mark, customerId: found.customer_id }] : [],
   };
 }

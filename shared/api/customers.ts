@@ -82,6 +82,17 @@ export type CylinderInput = z.output<typeof cylinderInput>;
 
 export const EXPORT_FORMATS = ['json', 'csv'] as const;
 
+/** The cylinder whose tag was scanned (camera or keyboard-wedge scanner): its exact mark. */
+export const cylinderMarkQuery = z.strictObject({
+  mark: z
+    .string({ error: "enter the shop's mark from the cylinder's tag" })
+    .check(
+      z.trim(),
+      z.minLength(1, "enter the shop's mark from the cylinder's tag"),
+      z.maxLength(40, 'at most 40 characters'),
+    ),
+});
+
 // ---- Answers ----------------------------------------------------------------------------------
 
 export interface CustomerListItemJson {
@@ -157,6 +168,11 @@ export interface CylinderStepJson {
   finishedBore: LengthJson;
   /** Past the largest oversize the wall allows. */
   pastWall: boolean;
+}
+
+/** The cylinder carrying a mark (none or one: a mark is on one cylinder of the shop only). */
+export interface CylinderByMarkJson {
+  items: { id: string; mark: string; customerId: string }[];
 }
 
 /** The cylinder page: the cylinder, its bores and the family's ladder to draw them against. */

@@ -87,6 +87,7 @@ const EXPECTED: Record<string, Access> = {
   'POST /api/customers/:id/erase': OWNER,
   'GET /api/customers/:id/cylinders': ALL,
   'POST /api/customers/:id/cylinders': ['owner', 'machinist', 'staff'],
+  'GET /api/cylinders': ALL,
   'GET /api/cylinders/:id': ALL,
   // Insights: the owner sees everything; the buyer the stock side. Each table also as CSV.
   'GET /api/insights/sales': OWNER,

@@ -8,6 +8,9 @@ import { MatTableModule } from '@angular/material/table';
 import { Router, RouterLink } from '@angular/router';
 
 import type { CustomerListItemJson } from '../../../shared/api/customers';
+import { apiErrorMessage } from '../core/api-error';
+import { Notifier } from '../core/notifier';
+import { CameraScanButton } from '../ui/camera-scan';
 import { PagedList } from '../ui/paged-list';
 import { CustomersApi } from './customers-api';
 import { ListState } from '../ui/list-state';
@@ -15,10 +18,15 @@ import { ListState } from '../ui/list-state';
 /** The search decides the order (names that start with the text, then recent customers). */
 const SORTABLE = ['relevance'] as const;
 
-/** Every customer on record, found by name, phone or e-mail; a row opens the customer's page. */
+/**
+ * Every customer on record, found by name, phone or e-mail; a row opens the customer's page. A
+ * cylinder's tag, scanned with the camera or a keyboard-wedge scanner (it types the mark and
+ * Enter), opens that cylinder's page.
+ */
 @Component({
   selector: 'app-customer-list',
   imports: [
+    CameraScanButton,
     ListState,
     MatButtonModule,
     MatFormFieldModule,
@@ -35,6 +43,7 @@ const SORTABLE = ['relevance'] as const;
 export class CustomerList {
   private readonly api = inject(CustomersApi);
   private readonly router = inject(Router);
+  private readonly notifier = inject(Notifier);
 
   protected readonly columns = ['name', 'phone', 'email'];
   protected readonly pageSizes = [25, 50, 100];
@@ -46,5 +55,25 @@ export class CustomerList {
 
   protected open(customer: CustomerListItemJson): void {
     void this.router.navigate(['/customers', customer.id]);
+  }
+
+  /** Read by the camera: a cylinder's tag opens the cylinder, anything else is searched for. */
+  protected onScanned(text: string): void {
+    this.list.onSearch(text);
+    this.openTag(text);
+  }
+
+  /** The whole text is a cylinder's mark (a tag scanned, or typed and Enter): open that cylinder. */
+  protected openTag(text: string): void {
+    const mark = text.trim();
+    if (!mark) return;
+    this.api.cylinderByMark(mark).subscribe({
+      next: (cylinder) => {
+        if (cylinder) {
+          void this.router.navigate(['/customers', cylinder.customerId, 'cylinders', cylinder.id]);
+        }
+      },
+      error: (error: unknown) => void this.notifier.error(apiErrorMessage(error)),
+    });
   }
 }

@@ -7,6 +7,7 @@ import type {
   CustomerJson,
   CustomerListItemJson,
   customerPatch,
+  CylinderByMarkJson,
   CylinderDetailJson,
 } from '../../../shared/api/customers';
 import type { Page } from '../../../shared/api/common';
@@ -62,6 +63,13 @@ export class CustomersApi {
     body: { mark: string; familyId: string; castNumber?: string | null },
   ): Observable<CustomerCylinderJson> {
     return this.http.post<CustomerCylinderJson>(`/api/customers/${id}/cylinders`, body);
+  }
+
+  /** The cylinder whose tag carries this mark, if any (a scanned tag, or a mark typed whole). */
+  cylinderByMark(mark: string): Observable<CylinderByMarkJson['items'][number] | null> {
+    return this.http
+      .get<CylinderByMarkJson>('/api/cylinders', { params: queryParams({ mark }) })
+      .pipe(map((r) => r.items[0] ?? null));
   }
 
   cylinder(id: string): Observable<CylinderDetailJson> {
