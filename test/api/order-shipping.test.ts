@@ -2,7 +2,8 @@
 // plus its share, by value, by count or not at all as the shop sets it. Worked by hand.
 import { db } from '../../server/db/knex';
 import { saveSettings } from '../../server/settings/settings-service';
-import { closeTestApp, signedIn, signedInClients, uniq } from '../support/api';
+import { closeTestApp, signedIn, signedInClients } from '../support/api';
+import { makeSupplier } from '../support/purchasing-fixtures';
 import { makeBin, makeFamily, makePart, type Family } from '../support/jobs-fixtures';
 
 const { owner, buyer, staff } = signedInClients({ owner: 'mm', buyer: 'mm', staff: 'mm' });
@@ -16,19 +17,15 @@ beforeAll(async () => {
 afterAll(closeTestApp);
 
 async function sentOrder(shipping?: string) {
-  const name = uniq('Supplier');
-  const supplier = await buyer.post('/api/suppliers', {
-    name,
-    email: `${name.toLowerCase()}@example.test`,
+  const supplier = await makeSupplier(buyer, {
     currency: 'EUR',
     leadDays: 5,
     shippingCost: '10.00',
   });
-  expect(supplier.status).toBe(201);
   const a = await makePart(owner, family, '+0.010 in', 'rings');
   const b = await makePart(owner, family, '+0.020 in', 'rings');
   const order = await buyer.post('/api/purchase-orders', {
-    supplierId: supplier.body.id,
+    supplierId: supplier.id,
     lines: [
       { partId: a, quantity: 2, unitPrice: '40.00' },
       { partId: b, quantity: 1, unitPrice: '20.00' },

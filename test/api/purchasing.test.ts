@@ -8,6 +8,7 @@ import { saveSettings } from '../../server/settings/settings-service';
 import { armFault, disarmFaults } from '../../server/testing-faults';
 import { gtinCheckDigit } from '../../shared/gtin';
 import { closeTestApp, everyRoleSignedIn, uniq } from '../support/api';
+import { makeSupplier } from '../support/purchasing-fixtures';
 import { localMailbox } from '../support/mailbox';
 import { familyAndBin, makeJob, makePart, receivePistons } from '../support/jobs-fixtures';
 
@@ -39,25 +40,6 @@ function addDays(iso: string, days: number): string {
   const d = new Date(`${iso}T00:00:00Z`);
   d.setUTCDate(d.getUTCDate() + days);
   return d.toISOString().slice(0, 10);
-}
-
-async function makeSupplier(opts: {
-  currency: string;
-  leadDays: number;
-  shippingCost: string;
-  email?: string | null;
-}): Promise<{ id: string; name: string; email: string | null }> {
-  const name = uniq('Supplier');
-  const email = opts.email === undefined ? `${name.toLowerCase()}@example.test` : opts.email;
-  const res = await buyer.post('/api/suppliers', {
-    name,
-    email,
-    currency: opts.currency,
-    leadDays: opts.leadDays,
-    shippingCost: opts.shippingCost,
-  });
-  expect(res.status).toBe(201);
-  return { id: res.body.id, name, email };
 }
 
 /** What a supplier's price list offers for a part (brought in by an import in real use). */
@@ -110,8 +92,8 @@ describe('GET /api/sourcing', () => {
 
   beforeAll(async () => {
     part = await makePart(owner, family, '+0.020 in', 'piston');
-    near = await makeSupplier({ currency: 'EUR', leadDays: 5, shippingCost: '10.00' });
-    far = await makeSupplier({ currency: 'USD', leadDays: 20, shippingCost: '20.00' });
+    near = await makeSupplier(buyer, { currency: 'EUR', leadDays: 5, shippingCost: '10.00' });
+    far = await makeSupplier(buyer, { currency: 'USD', leadDays: 20, shippingCost: '20.00' });
     await offer(near.id, part, '50.00', 'EUR', 3);
     await offer(far.id, part, '40.00', 'USD', null);
   });
@@ -196,7 +178,7 @@ describe('purchase orders, receiving and waiting jobs', () => {
   beforeAll(async () => {
     part = await makePart(owner, family, '+0.030 in', 'piston');
     expect((await owner.patch(`/api/parts/${part}`, { gtin })).status).toBe(200);
-    supplier = await makeSupplier({ currency: 'USD', leadDays: 12, shippingCost: '15.00' });
+    supplier = await makeSupplier(buyer, { currency: 'USD', leadDays: 12, shippingCost: '15.00' });
     await offer(supplier.id, part, '38.00', 'USD', 10);
   });
 
@@ -298,7 +280,7 @@ describe('purchase orders, receiving and waiting jobs', () => {
   });
 
   it('when a supplier has no ordering address, then sending is 409', async () => {
-    const silent = await makeSupplier({
+    const silent = await makeSupplier(buyer, {
       currency: 'EUR',
       leadDays: 3,
       shippingCost: '0',
@@ -511,8 +493,8 @@ describe('purchase orders, receiving and waiting jobs', () => {
 
 describe('POST /api/purchase-orders/drafts', () => {
   it('when parts are at their reorder point, then drafts go to the best supplier with the quantity up to the order-up-to level', async () => {
-    const cheap = await makeSupplier({ currency: 'EUR', leadDays: 4, shippingCost: '0' });
-    const dear = await makeSupplier({ currency: 'EUR', leadDays: 4, shippingCost: '0' });
+    const cheap = await makeSupplier(buyer, { currency: 'EUR', leadDays: 4, shippingCost: '0' });
+    const dear = await makeSupplier(buyer, { currency: 'EUR', leadDays: 4, shippingCost: '0' });
     const low = await makePart(owner, family, '+0.040 in', 'piston');
     const nobody = await makePart(owner, family, '+0.040 in', 'rings');
     await offer(cheap.id, low, '30.00', 'EUR', null);
@@ -543,8 +525,8 @@ describe('POST /api/purchase-orders/drafts', () => {
 
 describe('drafts that differ from the suggestion', () => {
   it('when the cheapest supplier says it has 3 of the 6 suggested and nobody has all 6, then 3 go to it, 3 to the next, and the page is told why', async () => {
-    const cheap = await makeSupplier({ currency: 'EUR', leadDays: 4, shippingCost: '0' });
-    const next = await makeSupplier({ currency: 'EUR', leadDays: 4, shippingCost: '0' });
+    const cheap = await makeSupplier(buyer, { currency: 'EUR', leadDays: 4, shippingCost: '0' });
+    const next = await makeSupplier(buyer, { currency: 'EUR', leadDays: 4, shippingCost: '0' });
     const part = await makePart(owner, family, '+0.030 in', 'piston');
     await offer(cheap.id, part, '30.00', 'EUR', 3);
     await offer(next.id, part, '34.00', 'EUR', 4);
@@ -583,7 +565,7 @@ describe('drafts that differ from the suggestion', () => {
   });
 
   it('when the only supplier says it has 2 of 5, then 2 are drafted and 3 are named as not covered', async () => {
-    const only = await makeSupplier({ currency: 'EUR', leadDays: 4, shippingCost: '0' });
+    const only = await makeSupplier(buyer, { currency: 'EUR', leadDays: 4, shippingCost: '0' });
     const part = await makePart(owner, family, '+0.030 in', 'rings');
     await offer(only.id, part, '12.00', 'EUR', 2);
     await buyer.put(`/api/parts/${part}/reorder-rule`, { reorderPoint: 1, orderUpTo: 5 });
@@ -599,7 +581,7 @@ describe('drafts that differ from the suggestion', () => {
 
 describe('parts nobody offers, and the mapping queue', () => {
   it('when an unmapped supplier item has the part as a suggestion, then sourcing and the drafts name it as waiting to be mapped', async () => {
-    const supplier = await makeSupplier({ currency: 'EUR', leadDays: 4, shippingCost: '0' });
+    const supplier = await makeSupplier(buyer, { currency: 'EUR', leadDays: 4, shippingCost: '0' });
     const part = await makePart(owner, family, '+0.040 in', 'piston');
     const sku = (await owner.get(`/api/parts/${part}`)).body.sku as string;
     // Same SKU as ours: the queue suggests this part first (an SKU match is near certain).

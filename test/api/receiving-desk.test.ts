@@ -3,7 +3,8 @@
 // receipt at the cost typed. Both go through POST /api/stock/receipts.
 import { db } from '../../server/db/knex';
 import { saveSettings } from '../../server/settings/settings-service';
-import { closeTestApp, signedInClients, uniq } from '../support/api';
+import { closeTestApp, signedInClients } from '../support/api';
+import { makeSupplier } from '../support/purchasing-fixtures';
 import { familyAndBin, makePart } from '../support/jobs-fixtures';
 
 const { owner, buyer, staff } = signedInClients({ owner: 'mm', buyer: 'mm', staff: 'mm' });
@@ -16,17 +17,13 @@ beforeAll(async () => {
   await saveSettings(null, { timeZone: 'UTC', homeCurrency: 'EUR' });
   piston = await makePart(owner, family, '+0.020 in', 'piston');
   rings = await makePart(owner, family, '+0.020 in', 'rings');
-  const name = uniq('Supplier');
-  const supplier = await buyer.post('/api/suppliers', {
-    name,
-    email: `${name.toLowerCase()}@example.test`,
+  const supplier = await makeSupplier(buyer, {
     currency: 'EUR',
     leadDays: 7,
     shippingCost: '0.00',
   });
-  expect(supplier.status).toBe(201);
   const draft = await buyer.post('/api/purchase-orders', {
-    supplierId: supplier.body.id,
+    supplierId: supplier.id,
     lines: [
       { partId: piston, quantity: 2, unitPrice: '38.00' },
       { partId: rings, quantity: 4, unitPrice: '11.50' },

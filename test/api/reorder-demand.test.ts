@@ -4,6 +4,7 @@
 import { db } from '../../server/db/knex';
 import { saveSettings } from '../../server/settings/settings-service';
 import { closeTestApp, signedInClients, uniq } from '../support/api';
+import { makeSupplier } from '../support/purchasing-fixtures';
 import { familyAndBin, makeJob, makePart, receivePistons } from '../support/jobs-fixtures';
 
 const { owner, buyer } = signedInClients({ owner: 'mm', buyer: 'mm' });
@@ -33,17 +34,9 @@ async function supplierOffering(
   leadDays: number,
   shippingCost = '0.00',
 ): Promise<string> {
-  const name = uniq('Supplier');
-  const res = await buyer.post('/api/suppliers', {
-    name,
-    email: `${name.toLowerCase()}@example.test`,
-    currency: 'EUR',
-    leadDays,
-    shippingCost,
-  });
-  expect(res.status).toBe(201);
+  const supplier = await makeSupplier(buyer, { currency: 'EUR', leadDays, shippingCost });
   await db('supplier_items').insert({
-    supplier_id: res.body.id,
+    supplier_id: supplier.id,
     sku: uniq('SI').toUpperCase(),
     description: 'Piston as listed by the supplier',
     part_id: partId,
@@ -51,7 +44,7 @@ async function supplierOffering(
     currency: 'EUR',
     available: 10,
   });
-  return res.body.id as string;
+  return supplier.id;
 }
 
 /** An order sent `sentDaysAgo` days ago and delivered `took` days later. */

@@ -7,6 +7,7 @@ import request from 'supertest';
 import { db } from '../../server/db/knex';
 import { startServer } from '../drills/support';
 import { Client, closeTestApp, makeUser, signedIn, testApp, uniq } from '../support/api';
+import { makeSupplier } from '../support/purchasing-fixtures';
 import { startLocalSmtp } from '../../server/mail/fake-smtp';
 import { createMailWorker } from '../../server/mail/mail-worker';
 import { makeFamily, makeJob, makePart } from '../support/jobs-fixtures';
@@ -191,19 +192,11 @@ describe('V5.1.3 / V7.4.1 a purchase order whose mail cannot go is left as it wa
     const owner = await signedIn('owner');
     const family = await makeFamily(owner);
     const part = await makePart(owner, family, '+0.010 in', 'piston');
-    const name = uniq('Supplier');
-    const made = await buyer.post('/api/suppliers', {
-      name,
-      email: `${name.toLowerCase()}@example.test`,
-      currency: 'EUR',
-      leadDays: 5,
-      shippingCost: '0',
-    });
-    expect(made.status).toBe(201);
+    const made = await makeSupplier(buyer, { currency: 'EUR', leadDays: 5, shippingCost: '0' });
     // An address kept from before addresses were checked on input: written behind the API's back.
-    await db('suppliers').where({ id: made.body.id }).update({ email });
+    await db('suppliers').where({ id: made.id }).update({ email });
     const order = await buyer.post('/api/purchase-orders', {
-      supplierId: made.body.id,
+      supplierId: made.id,
       lines: [{ partId: part, quantity: 1, unitPrice: '40.00' }],
     });
     expect(order.status).toBe(201);
