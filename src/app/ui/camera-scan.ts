@@ -14,7 +14,6 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatDialog, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
-import type { DecodeHintType } from '@zxing/library';
 
 /** What to tell the person when the camera cannot be used, in words, with what still works. */
 export function cameraProblem(error: unknown, secure: boolean, hasMediaDevices: boolean): string {
@@ -113,18 +112,13 @@ export class CameraScanDialog {
     }
     try {
       // Loaded only when a person asks for the camera: the reader is not needed anywhere else.
-      const [{ BrowserMultiFormatReader }, { BarcodeFormat, DecodeHintType: Hint }] =
-        await Promise.all([import('@zxing/browser'), import('@zxing/library')]);
-      // Our labels are Code 128 only; asking for that one format reads faster and misreads less.
-      const hints = new Map<DecodeHintType, unknown>([
-        [Hint.POSSIBLE_FORMATS, [BarcodeFormat.CODE_128]],
-      ]);
-      const reader = new BrowserMultiFormatReader(hints);
-      const controls = await reader.decodeFromConstraints(
+      // Our labels are Code 128 only; reading that one format is faster and misreads less.
+      const { scanCode128 } = await import('./code128-scan');
+      const controls = await scanCode128(
         { video: { facingMode: { ideal: 'environment' } }, audio: false },
         video,
-        (result) => {
-          const text = result?.getText().trim();
+        (read) => {
+          const text = read.trim();
           if (text) {
             this.release();
             this.dialogRef.close(text);
