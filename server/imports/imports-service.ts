@@ -196,6 +196,7 @@ export async function previewPriceList(
     }
 
     await repo.markProgress(trx, progressToken, 'comparing');
+    await repo.analyzeStaging(trx);
     const comparison = await repo.compare(trx, id, supplierId);
     const changes = await repo.priceChanges(trx, id, supplierId, LARGEST_CHANGES);
     const sample = await repo.firstStaged(trx, id, SAMPLE_ROWS);
@@ -362,18 +363,21 @@ export async function commitImport(
         await repo.updateImport(trx, imp.id, { status: 'duplicate', duplicate_of: original.id });
         return duplicateAnswer(original.id, original.committed_at);
       }
-      const staged = await repo.countStaged(trx, imp.id);
+      const { staged, ...comparison } = await repo.applyStaged(
+        trx,
+        imp.id,
+        imp.supplier_id,
+        opts.dropMissing,
+      );
+      // Rolled back with everything the statement wrote: a list the database lost (unlogged staging
+      // rows are emptied by a crash) is asked for again rather than applied in part.
       if (staged !== Number(imp.counts.ok)) {
         throw new Conflict(
           `The staged rows of this import are incomplete (${staged} of ${imp.counts.ok}); upload the file again.`,
         );
       }
-
-      const comparison = await repo.compare(trx, imp.id, imp.supplier_id);
       const counts = countsJson({ ...imp.counts, ...comparison });
-      await repo.applyStaged(trx, imp.id, imp.supplier_id);
       faultPoint('imports.commit.midway');
-      if (opts.dropMissing) await repo.markDropped(trx, imp.id, imp.supplier_id);
       await repo.rememberMapping(trx, imp.supplier_id, imp.mapping, imp.headers, user.id);
       await repo.clearStaging(trx, imp.id);
       await repo.updateImport(trx, imp.id, {

@@ -4,6 +4,7 @@ import { spawnSync } from 'node:child_process';
 import { writeFileSync } from 'node:fs';
 import path from 'node:path';
 import { figure, say } from './emit';
+import type { StatementTime } from './import-worker';
 
 const ROWS = 100_000;
 const REPO = path.resolve(__dirname, '..', '..');
@@ -29,6 +30,25 @@ interface WorkerResult {
   maxRssMb: number;
   previewMs?: number;
   commitMs?: number;
+  statements?: StatementTime[];
+}
+
+/**
+ * Where an import's time went, on stderr: each statement of 5 ms or more, and each stretch of 5 ms
+ * or more between statements (time in Node: reading and checking the file while its rows stream
+ * into the staging COPY, which Knex does not see, or building the answer).
+ */
+function sayTimeline(name: string, statements: StatementTime[]): void {
+  let end = 0;
+  for (const s of [...statements].sort((a, b) => a.at - b.at)) {
+    if (s.at - end >= 5) say(`${name}   ${ms(s.at - end)} between statements (Node, COPY)`);
+    if (s.ms >= 5) say(`${name}   ${ms(s.ms)} ${s.sql}`);
+    end = Math.max(end, s.at + s.ms);
+  }
+}
+
+function ms(n: number): string {
+  return `${String(Math.round(n)).padStart(6)} ms`;
 }
 
 function worker(args: string[], databaseUrl: string): WorkerResult {
@@ -58,6 +78,8 @@ export async function importBench(opts: {
   writeList(first, 0);
   writeList(second, 37);
   const idle = worker(['idle', first], opts.databaseUrl);
+  const parsed = worker(['parse', first], opts.databaseUrl);
+  say(`reading and checking ${parsed.rows} rows alone (no database): ${ms(parsed.ms)}`);
   for (const [name, file] of [
     ['import.first', first],
     ['import.reimport', second],
@@ -66,6 +88,7 @@ export async function importBench(opts: {
     const product = worker(['service', file, opts.supplierId, opts.userId], opts.databaseUrl);
     say(`${name}: the same rows through COPY and one upsert`);
     const raw = worker(['raw', file], opts.databaseUrl);
+    sayTimeline(name, product.statements ?? []);
     if (product.rows !== ROWS || raw.rows !== ROWS) {
       throw new Error(`${name}: expected ${ROWS} rows, service ${product.rows}, raw ${raw.rows}`);
     }

@@ -3,12 +3,54 @@
 //   raw      the physical limit: COPY the same file into a staging table, then one
 //            INSERT … SELECT … ON CONFLICT DO UPDATE into a bare items table
 //   idle     nothing: the memory of node and tsx alone, to read the others against
-// Prints one JSON line: { rows, ms, maxRssMb }. DATABASE_URL names the bench database.
+//   parse    the product's reading and checking of the file alone, nothing written (where the
+//            preview's own JavaScript time goes; run it under node --cpu-prof for a profile)
+// Prints one JSON line: { rows, ms, maxRssMb, statements? }. DATABASE_URL names the bench database.
 import { createReadStream } from 'node:fs';
 import { stat } from 'node:fs/promises';
 import { pipeline } from 'node:stream/promises';
+import type { Knex } from 'knex';
 import pg from 'pg';
 import { from as copyFrom } from 'pg-copy-streams';
+
+const MAPPING = {
+  sku: 'sku',
+  description: 'description',
+  size: 'size_mm',
+  oversize: 'oversize_mm',
+  price: 'price',
+  available: 'available',
+  leadDays: null,
+  gtin: null,
+  currency: 'currency',
+  sizeUnit: 'mm',
+} as const;
+
+export interface StatementTime {
+  /** The statement's first words, collapsed. */
+  sql: string;
+  /** Milliseconds from the start of the import to the statement being sent. */
+  at: number;
+  ms: number;
+}
+
+/** Every statement the import sends through Knex, with when it was sent and how long it took. */
+function clockStatements(knex: Knex, started: number): StatementTime[] {
+  const open = new Map<string, { sql: string; at: number }>();
+  const done: StatementTime[] = [];
+  type Query = { __knexQueryUid: string; sql: string };
+  knex.on('query', (q: Query) => {
+    open.set(q.__knexQueryUid, { sql: q.sql, at: performance.now() - started });
+  });
+  knex.on('query-response', (_response: unknown, q: Query) => {
+    const o = open.get(q.__knexQueryUid);
+    if (!o) return;
+    open.delete(q.__knexQueryUid);
+    const sql = o.sql.replace(/\s+/g, ' ').trim().slice(0, 110);
+    done.push({ sql, at: Math.round(o.at), ms: Math.round(performance.now() - started - o.at) });
+  });
+  return done;
+}
 
 async function service(file: string, supplierId: string, userId: string) {
   const { previewPriceList, commitImport } = await import('../../server/imports/imports-service');
@@ -21,22 +63,12 @@ async function service(file: string, supplierId: string, userId: string) {
     unit: 'mm' as const,
   };
   const started = performance.now();
+  const statements = clockStatements(db, started);
   const preview = await previewPriceList({
     user,
     supplierId,
     file: { path: file, originalName: 'bench-list.csv', size: (await stat(file)).size },
-    mapping: {
-      sku: 'sku',
-      description: 'description',
-      size: 'size_mm',
-      oversize: 'oversize_mm',
-      price: 'price',
-      available: 'available',
-      leadDays: null,
-      gtin: null,
-      currency: 'currency',
-      sizeUnit: 'mm',
-    },
+    mapping: { ...MAPPING },
   });
   if (!('importId' in preview) || preview.status !== 'previewed') {
     throw new Error(`preview did not stage the list: ${JSON.stringify(preview).slice(0, 300)}`);
@@ -46,7 +78,18 @@ async function service(file: string, supplierId: string, userId: string) {
   const ms = performance.now() - started;
   if (committed.status !== 'committed') throw new Error(`commit answered ${committed.status}`);
   await db.destroy();
-  return { rows: Number(preview.counts.ok), ms, previewMs, commitMs: ms - previewMs };
+  return { rows: Number(preview.counts.ok), ms, previewMs, commitMs: ms - previewMs, statements };
+}
+
+async function parseOnly(file: string) {
+  const { detectFileFormat } = await import('../../server/imports/detect-format');
+  const { readPriceListBatches } = await import('../../server/imports/parse-price-list');
+  const started = performance.now();
+  const { format } = await detectFileFormat(file);
+  const counts = { rows: 0, ok: 0, errors: 0, warnings: 0 };
+  const options = { format, mapping: { ...MAPPING }, defaultCurrency: 'EUR' };
+  for await (const batch of readPriceListBatches(file, options, counts)) void batch;
+  return { rows: counts.ok, ms: performance.now() - started };
 }
 
 async function raw(file: string) {
@@ -77,14 +120,12 @@ async function raw(file: string) {
 
 async function main() {
   const [mode, file, supplierId, userId] = process.argv.slice(2);
-  let result: { rows: number; ms: number; previewMs?: number; commitMs?: number } = {
-    rows: 0,
-    ms: 0,
-  };
+  let result: object = { rows: 0, ms: 0 };
   if (mode === 'service') result = await service(file, supplierId, userId);
   else if (mode === 'raw') result = await raw(file);
+  else if (mode === 'parse') result = await parseOnly(file);
   else if (mode !== 'idle')
-    throw new Error('usage: import-worker.ts service|raw|idle FILE [SUPPLIER USER]');
+    throw new Error('usage: import-worker.ts service|raw|parse|idle FILE [SUPPLIER USER]');
   // resourceUsage().maxRSS is in kilobytes.
   const maxRssMb = process.resourceUsage().maxRSS / 1024;
   process.stdout.write(`${JSON.stringify({ ...result, maxRssMb })}\n`);
