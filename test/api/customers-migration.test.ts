@@ -1,41 +1,30 @@
 // The migration that turns each job's typed customer into a customer record, run on a database
 // of its own: jobs written the old way before it, customers after it, plain text again after down.
-import { randomUUID } from 'node:crypto';
-import type { Knex } from 'knex';
-import { createDb, db } from '../../server/db/knex';
 import { migrationConfig } from '../../server/db/migrate';
+import { scratchDatabase } from '../support/scratch-database';
 
 const MIGRATION = '20261202151500_customers.ts';
-const dbName = `mig_${randomUUID().slice(0, 8)}`;
-let scratch: Knex;
+const scratch = scratchDatabase('mig');
 
 beforeAll(async () => {
-  await db.raw(`CREATE DATABASE ${dbName}`);
-  const url = new URL(process.env.DATABASE_URL as string);
-  url.pathname = `/${dbName}`;
-  scratch = createDb(url.toString());
   // Up to the migration just before this one.
   for (;;) {
-    const [, pending] = (await scratch.migrate.list(migrationConfig)) as [
+    const [, pending] = (await scratch.db.migrate.list(migrationConfig)) as [
       unknown,
       { file: string }[],
     ];
     if (pending.length === 0 || pending[0].file === MIGRATION) break;
-    await scratch.migrate.up(migrationConfig);
+    await scratch.db.migrate.up(migrationConfig);
   }
 });
 
-afterAll(async () => {
-  await scratch.destroy();
-  await db.raw(`DROP DATABASE IF EXISTS ${dbName}`);
-  await db.destroy();
-});
-
 it('when existing jobs carry typed customers, then up makes one customer per person and links every job; down gives the text back', async () => {
-  const [series] = await scratch('step_series')
+  const [series] = await scratch
+    .db('step_series')
     .insert({ code: 'MIG', name: 'Migration test', unit: 'mm', custom: true })
     .returning('id');
-  const [family] = await scratch('engine_families')
+  const [family] = await scratch
+    .db('engine_families')
     .insert({
       code: 'MIG-1',
       name: 'Invented migration single',
@@ -60,19 +49,21 @@ it('when existing jobs carry typed customers, then up makes one customer per per
     { customer_name: 'Perpetua Vane', customer_phone: '555 0162', customer_email: null },
     { customer_name: 'Lorcan Abbey', customer_phone: null, customer_email: 'Lorcan@Example.test' },
   ];
-  const jobs = await scratch('jobs')
+  const jobs = await scratch
+    .db('jobs')
     .insert(typed.map((t) => ({ ...t, family_id: family.id, cylinders: 1 })))
     .returning(['id', 'customer_name']);
 
-  await scratch.migrate.up({ ...migrationConfig, name: MIGRATION });
+  await scratch.db.migrate.up({ ...migrationConfig, name: MIGRATION });
 
-  const customers = await scratch('customers').orderBy(['name', 'phone']);
+  const customers = await scratch.db('customers').orderBy(['name', 'phone']);
   expect(customers.map((c) => [c.name, c.phone, c.email])).toEqual([
     ['Lorcan Abbey', null, 'lorcan@example.test'],
     ['Perpetua Vane', '555 0161', null],
     ['Perpetua Vane', '555 0162', null],
   ]);
-  const linked = await scratch('jobs')
+  const linked = await scratch
+    .db('jobs')
     .whereIn(
       'id',
       jobs.map((j) => j.id),
@@ -83,14 +74,17 @@ it('when existing jobs carry typed customers, then up makes one customer per per
   expect(byJob.get(jobs[0].id)).toBe(byJob.get(jobs[1].id));
   expect(byJob.get(jobs[0].id)).not.toBe(byJob.get(jobs[2].id));
   // From here a job's customer fields are the customer's.
-  await scratch('customers')
+  await scratch
+    .db('customers')
     .where({ id: byJob.get(jobs[3].id) })
     .update({ phone: '555 0163' });
-  expect((await scratch('jobs').where({ id: jobs[3].id }).first()).customer_phone).toBe('555 0163');
+  expect((await scratch.db('jobs').where({ id: jobs[3].id }).first()).customer_phone).toBe(
+    '555 0163',
+  );
 
-  await scratch.migrate.down({ ...migrationConfig, name: MIGRATION });
-  expect(await scratch.schema.hasTable('customers')).toBe(false);
-  expect(await scratch.schema.hasColumn('jobs', 'customer_id')).toBe(false);
-  const back = await scratch('jobs').where({ id: jobs[3].id }).first();
+  await scratch.db.migrate.down({ ...migrationConfig, name: MIGRATION });
+  expect(await scratch.db.schema.hasTable('customers')).toBe(false);
+  expect(await scratch.db.schema.hasColumn('jobs', 'customer_id')).toBe(false);
+  const back = await scratch.db('jobs').where({ id: jobs[3].id }).first();
   expect([back.customer_name, back.customer_phone]).toEqual(['Lorcan Abbey', '555 0163']);
 });

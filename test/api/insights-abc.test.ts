@@ -1,40 +1,28 @@
 // ABC classes from the SQL, on a database of its own so that no other test's issues change the
 // total, checked against the figures worked by hand below (not against shared/abc.ts).
-import { randomUUID } from 'node:crypto';
-import type { Knex } from 'knex';
-import { createDb, db } from '../../server/db/knex';
 import { migrateLatest } from '../../server/db/migrate';
 import { abc } from '../../server/insights/insights-service';
+import { scratchDatabase } from '../support/scratch-database';
 
-const dbName = `abc_${randomUUID().slice(0, 8)}`;
-let scratch: Knex;
+const scratch = scratchDatabase('abc');
 
 beforeAll(async () => {
-  await db.raw(`CREATE DATABASE ${dbName}`);
-  const url = new URL(process.env.DATABASE_URL as string);
-  url.pathname = `/${dbName}`;
-  scratch = createDb(url.toString());
-  await migrateLatest(scratch);
-});
-
-afterAll(async () => {
-  await scratch.destroy();
-  await db.raw(`DROP DATABASE IF EXISTS ${dbName}`);
-  await db.destroy();
+  await migrateLatest(scratch.db);
 });
 
 /** A part whose issues in the last year are worth `value` at cost, and one issued before then. */
 async function partIssued(sku: string, value: string, whenAgo = '1 month'): Promise<string> {
-  const [part] = await scratch('parts')
+  const [part] = await scratch
+    .db('parts')
     .insert({ kind: 'other', sku, description: `Sundry ${sku}` })
     .returning('id');
-  await scratch('stock_ledger').insert([
+  await scratch.db('stock_ledger').insert([
     {
       part_id: part.id,
       kind: 'receipt',
       quantity: 10,
       unit_cost: value,
-      at: scratch.raw(`now() - interval '14 months'`),
+      at: scratch.db.raw(`now() - interval '14 months'`),
     },
     {
       part_id: part.id,
@@ -42,7 +30,7 @@ async function partIssued(sku: string, value: string, whenAgo = '1 month'): Prom
       quantity: -1,
       unit_cost: value,
       sale_price: value,
-      at: scratch.raw(`now() - interval '${whenAgo}'`),
+      at: scratch.db.raw(`now() - interval '${whenAgo}'`),
     },
   ]);
   return part.id as string;
@@ -75,7 +63,7 @@ describe('ABC classes (Pareto 80/15/5)', () => {
     }
     const old = await partIssued('OLD', '9000', '13 months');
 
-    const answer = await abc(12, scratch);
+    const answer = await abc(12, scratch.db);
     const bySku = answer.items.map((i) => [i.sku, i.class, i.value, i.share, i.cumulative]);
     expect(bySku).toEqual([
       ['P1', 'A', '5000.00', '0.5000', '0.5000'],
