@@ -9,7 +9,6 @@ import {
 import { MatButtonModule } from '@angular/material/button';
 import { MatCardModule } from '@angular/material/card';
 import { MatFormFieldModule } from '@angular/material/form-field';
-import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatRadioChange, MatRadioModule } from '@angular/material/radio';
 
@@ -21,7 +20,9 @@ import { Notifier } from '../core/notifier';
 import { newPasswordValidators, repeatMatches } from '../core/password-validators';
 import { ROLE_LABELS } from '../core/role-labels';
 import { Session } from '../core/session';
+import { NewPasswordFields } from '../ui/new-password-fields';
 import { AccountApi } from './account-api';
+import { FormAlert } from '../ui/form-alert';
 
 /** 2.5555 in is exactly 64.9097 mm (1 in = 25.4 mm): a bore that reads cleanly in both units. */
 const SAMPLE_BORE: LengthJson = { mm: '64.9097', in: '2.5555' };
@@ -30,12 +31,13 @@ const SAMPLE_BORE: LengthJson = { mm: '64.9097', in: '2.5555' };
 @Component({
   selector: 'app-account-page',
   imports: [
+    FormAlert,
     LengthPipe,
     MatButtonModule,
     MatCardModule,
     MatFormFieldModule,
-    MatIconModule,
     MatInputModule,
+    NewPasswordFields,
     MatRadioModule,
     ReactiveFormsModule,
   ],

@@ -1,18 +1,19 @@
 import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
-import { MatDialogModule, MatDialogRef } from '@angular/material/dialog';
+import { MatDialogModule } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
-import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
-import { MatTooltipModule } from '@angular/material/tooltip';
 
 import { PASSWORD_MIN_LENGTH, ROLES, type Role } from '../../../shared/session-types';
 import { apiErrorBody, apiErrorMessage, apiFieldErrors } from '../core/api-error';
 import { newPasswordValidators } from '../core/password-validators';
 import { ROLE_LABELS, ROLE_SUMMARIES } from '../core/role-labels';
 import { UsersApi, type UserRow } from './users-api';
+import { DialogSave } from '../ui/dialog-save';
+import { RevealPassword } from '../ui/reveal-password';
+import { FormAlert } from '../ui/form-alert';
 
 const FIELDS = ['name', 'email', 'role', 'password'] as const;
 type Field = (typeof FIELDS)[number];
@@ -25,21 +26,20 @@ function isField(name: string): name is Field {
 @Component({
   selector: 'app-user-add-dialog',
   imports: [
-    MatTooltipModule,
+    FormAlert,
     MatButtonModule,
     MatDialogModule,
     MatFormFieldModule,
-    MatIconModule,
     MatInputModule,
     MatSelectModule,
     ReactiveFormsModule,
+    RevealPassword,
   ],
   templateUrl: './user-add-dialog.html',
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class UserAddDialog {
   private readonly api = inject(UsersApi);
-  private readonly dialogRef = inject<MatDialogRef<UserAddDialog, UserRow>>(MatDialogRef);
 
   protected readonly roles = ROLES;
   protected readonly roleLabels = ROLE_LABELS;
@@ -54,40 +54,29 @@ export class UserAddDialog {
     role: this.fb.control<Role | ''>('', Validators.required),
     password: ['', newPasswordValidators],
   });
-  protected readonly busy = signal(false);
-  protected readonly problem = signal('');
+  protected readonly save = new DialogSave<UserRow>();
   /** Messages the server attached to single fields, shown under each field. */
   protected readonly serverErrors = signal<Partial<Record<Field, string>>>({});
-  protected readonly showPassword = signal(false);
 
   protected submit(): void {
-    if (this.busy()) return;
-    if (this.form.invalid) {
-      this.form.markAllAsTouched();
-      return;
-    }
     const value = this.form.getRawValue();
-    if (!value.role) return; // unreachable: the role control is required
-    this.busy.set(true);
-    this.problem.set('');
-    this.serverErrors.set({});
-    this.api
-      .create({
-        name: value.name.trim(),
-        email: value.email.trim(),
-        role: value.role,
-        password: value.password,
-      })
-      .subscribe({
-        next: (user) => this.dialogRef.close(user),
-        error: (error: unknown) => {
-          this.busy.set(false);
-          this.showServerErrors(error);
-        },
-      });
+    this.save.submit(
+      this.form,
+      () => {
+        this.serverErrors.set({});
+        return this.api.create({
+          name: value.name.trim(),
+          email: value.email.trim(),
+          role: value.role as Role, // sent only when the form is valid, and the role is required
+          password: value.password,
+        });
+      },
+      { failed: (error) => this.showServerErrors(error) },
+    );
   }
 
-  private showServerErrors(error: unknown): void {
+  /** Puts the server's words under the fields they name; answers the sentence to show above. */
+  private showServerErrors(error: unknown): string {
     const fields = Object.entries(apiFieldErrors(error));
     const known: Partial<Record<Field, string>> = {};
     for (const [field, message] of fields) {
@@ -102,6 +91,6 @@ export class UserAddDialog {
     // details about fields this form does not have are spelled out in it.
     const allPlaced = fields.every(([field]) => isField(field));
     const summary = apiErrorBody(error)?.error.message;
-    this.problem.set(allPlaced && summary ? summary : apiErrorMessage(error));
+    return allPlaced && summary ? summary : apiErrorMessage(error);
   }
 }

@@ -28,6 +28,7 @@ import { StepSeriesDialog } from './step-series-dialog';
 import { schemaValidator } from '../core/field-errors';
 import { loadIntoForm } from '../ui/load';
 import { ListState } from '../ui/list-state';
+import { FormAlert } from '../ui/form-alert';
 
 /** The length fields, in form order, with what each one means at the bench. */
 const LENGTHS = [
@@ -111,6 +112,7 @@ function rule(field: keyof typeof familyInput.shape) {
 @Component({
   selector: 'app-family-form',
   imports: [
+    FormAlert,
     ListState,
     MatButtonModule,
     MatButtonToggleModule,

@@ -38,6 +38,7 @@ import { KIND_LABELS } from './part-words';
 import { debounced, loadEach, loadIntoForm } from '../ui/load';
 import { ListState } from '../ui/list-state';
 import { familySteps } from './family-steps';
+import { FormAlert } from '../ui/form-alert';
 
 interface Component_ {
   partId: string;
@@ -53,6 +54,7 @@ interface Component_ {
 @Component({
   selector: 'app-part-form',
   imports: [
+    FormAlert,
     ListState,
     MatTooltipModule,
     LengthPipe,

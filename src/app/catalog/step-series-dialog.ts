@@ -1,9 +1,8 @@
 import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
-import { MatDialogModule, MatDialogRef } from '@angular/material/dialog';
+import { MatDialogModule } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
-import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
 
@@ -17,8 +16,9 @@ import {
   StepSeriesError,
   type StepDef,
 } from '../../../shared/step-series';
-import { apiErrorMessage } from '../core/api-error';
 import { CatalogApi } from './catalog-api';
+import { DialogSave } from '../ui/dialog-save';
+import { FormAlert } from '../ui/form-alert';
 
 interface Preset {
   label: string;
@@ -56,10 +56,10 @@ const PRESETS: Preset[] = [
 @Component({
   selector: 'app-step-series-dialog',
   imports: [
+    FormAlert,
     MatButtonModule,
     MatDialogModule,
     MatFormFieldModule,
-    MatIconModule,
     MatInputModule,
     MatSelectModule,
     ReactiveFormsModule,
@@ -68,11 +68,7 @@ const PRESETS: Preset[] = [
     <h2 mat-dialog-title>New step series</h2>
     <form [formGroup]="form" (ngSubmit)="submit()" novalidate>
       <mat-dialog-content class="dialog-form">
-        @if (problem()) {
-          <div class="form-alert" role="alert">
-            <mat-icon>error</mat-icon><span>{{ problem() }}</span>
-          </div>
-        }
+        <app-form-alert [message]="save.problem()" />
         <p class="presets">
           Start from:
           @for (p of presets; track p.code) {
@@ -110,7 +106,7 @@ const PRESETS: Preset[] = [
       </mat-dialog-content>
       <mat-dialog-actions align="end">
         <button mat-button type="button" mat-dialog-close>Cancel</button>
-        <button mat-flat-button type="submit" [disabled]="busy()">Add series</button>
+        <button mat-flat-button type="submit" [disabled]="save.busy()">Add series</button>
       </mat-dialog-actions>
     </form>
   `,
@@ -131,7 +127,6 @@ const PRESETS: Preset[] = [
 })
 export class StepSeriesDialog {
   private readonly api = inject(CatalogApi);
-  private readonly dialogRef = inject<MatDialogRef<StepSeriesDialog, StepSeriesJson>>(MatDialogRef);
   private readonly fb = inject(NonNullableFormBuilder);
 
   protected readonly presets = PRESETS;
@@ -141,8 +136,7 @@ export class StepSeriesDialog {
     unit: this.fb.control<'mm' | 'in'>('mm'),
     offsets: ['', Validators.required],
   });
-  protected readonly busy = signal(false);
-  protected readonly problem = signal('');
+  protected readonly save = new DialogSave<StepSeriesJson>();
   protected readonly offsetsError = signal('');
   protected readonly preview = signal<string[]>([]);
 
@@ -191,27 +185,16 @@ export class StepSeriesDialog {
   }
 
   protected submit(): void {
-    if (this.busy()) return;
-    if (this.form.invalid || !this.check()) {
-      this.form.markAllAsTouched();
-      return;
-    }
+    // The offsets are read again first: a series they do not make marks the field invalid.
+    this.check();
     const value = this.form.getRawValue();
-    this.busy.set(true);
-    this.problem.set('');
-    this.api
-      .createStepSeries({
+    this.save.submit(this.form, () =>
+      this.api.createStepSeries({
         code: value.code.trim(),
         name: value.name.trim(),
         unit: value.unit,
         offsets: this.offsetList(),
-      })
-      .subscribe({
-        next: (series) => this.dialogRef.close(series),
-        error: (error: unknown) => {
-          this.busy.set(false);
-          this.problem.set(apiErrorMessage(error));
-        },
-      });
+      }),
+    );
   }
 }

@@ -7,15 +7,12 @@ import {
   output,
   signal,
 } from '@angular/core';
-import { MatAutocompleteModule } from '@angular/material/autocomplete';
-import { MatFormFieldModule } from '@angular/material/form-field';
-import { MatIconModule } from '@angular/material/icon';
-import { MatInputModule } from '@angular/material/input';
 import { map } from 'rxjs';
 
 import type { CustomerListItemJson } from '../../../shared/api/customers';
 import { CustomersApi } from './customers-api';
 import { debounced, loadEach } from '../ui/load';
+import { SearchField } from '../ui/search-field';
 
 type Found = { items: CustomerListItemJson[]; message: string };
 
@@ -28,50 +25,28 @@ export const SEARCH_MIN = 2;
  */
 @Component({
   selector: 'app-customer-search',
-  imports: [MatAutocompleteModule, MatFormFieldModule, MatIconModule, MatInputModule],
+  imports: [SearchField],
   template: `
-    <mat-form-field appearance="outline" class="search" subscriptSizing="dynamic">
-      <mat-label>{{ label() }}</mat-label>
-      <mat-icon matPrefix>person_search</mat-icon>
-      <input
-        matInput
-        type="search"
-        autocomplete="off"
-        [value]="text()"
-        [matAutocomplete]="auto"
-        (input)="onType($any($event.target).value)"
-      />
-      <mat-autocomplete
-        #auto="matAutocomplete"
-        [displayWith]="blank"
-        (optionSelected)="choose($event.option.value)"
-      >
-        @for (c of shown().items; track c.id) {
-          <mat-option [value]="c">
-            <strong>{{ c.name }}</strong>
-            @if (c.phone) {
-              · {{ c.phone }}
-            }
-            @if (c.email) {
-              · {{ c.email }}
-            }
-          </mat-option>
+    <app-search-field
+      [label]="label()"
+      icon="person_search"
+      hint="Name, phone or e-mail; two letters are enough"
+      [text]="text()"
+      [items]="shown().items"
+      [problem]="shown().message"
+      (typed)="onType($event)"
+      (chosen)="choose($event)"
+    >
+      <ng-template let-c>
+        <strong>{{ c.name }}</strong>
+        @if (c.phone) {
+          · {{ c.phone }}
         }
-      </mat-autocomplete>
-      @if (shown().message) {
-        <mat-hint class="problem">{{ shown().message }}</mat-hint>
-      } @else {
-        <mat-hint>Name, phone or e-mail; two letters are enough</mat-hint>
-      }
-    </mat-form-field>
-  `,
-  styles: `
-    .search {
-      width: 100%;
-    }
-    .problem {
-      color: var(--mat-sys-error);
-    }
+        @if (c.email) {
+          · {{ c.email }}
+        }
+      </ng-template>
+    </app-search-field>
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
@@ -84,8 +59,6 @@ export class CustomerSearch {
   readonly picked = output<CustomerListItemJson>();
 
   protected readonly text = signal('');
-  /** The field empties once a customer is picked: the pick shows beside it. */
-  protected readonly blank = (): string => '';
 
   private readonly q = debounced(this.text, 150);
   private readonly results = loadEach(

@@ -22,11 +22,19 @@ import type {
 } from '../../../shared/api/suppliers';
 import { apiErrorMessage } from '../core/api-error';
 import { ImportsApi } from './imports-api';
+import { FormAlert } from '../ui/form-alert';
 
 /** Applies a read price list, all of it or nothing, showing what the server is doing meanwhile. */
 @Component({
   selector: 'app-import-commit',
-  imports: [FormsModule, MatButtonModule, MatCheckboxModule, MatIconModule, MatProgressBarModule],
+  imports: [
+    FormAlert,
+    FormsModule,
+    MatButtonModule,
+    MatCheckboxModule,
+    MatIconModule,
+    MatProgressBarModule,
+  ],
   template: `
     <div class="commit" aria-live="polite">
       <mat-checkbox [(ngModel)]="fullList" [disabled]="busy()">
@@ -52,12 +60,7 @@ import { ImportsApi } from './imports-api';
         <mat-progress-bar mode="indeterminate" aria-label="Applying the price list" />
         <p class="muted">{{ phaseText() }}</p>
       }
-      @if (problem()) {
-        <div class="form-alert" role="alert">
-          <mat-icon>error</mat-icon>
-          <span>{{ problem() }}</span>
-        </div>
-      }
+      <app-form-alert [message]="problem()" />
     </div>
   `,
   styles: `

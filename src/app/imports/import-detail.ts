@@ -1,5 +1,4 @@
 import { ChangeDetectionStrategy, Component, inject, input } from '@angular/core';
-import { MatIconModule } from '@angular/material/icon';
 import { RouterLink } from '@angular/router';
 
 import type { CommitJson, DuplicateJson, ImportStatus } from '../../../shared/api/suppliers';
@@ -10,11 +9,12 @@ import { STATUS_WORDS } from './import-words';
 import { ShopDatePipe } from '../core/shop-date-pipe';
 import { loadById } from '../ui/load';
 import { ListState } from '../ui/list-state';
+import { FormAlert } from '../ui/form-alert';
 
 /** One list from the log: what it held and changed; a list read but not applied can be applied here. */
 @Component({
   selector: 'app-import-detail',
-  imports: [ListState, ShopDatePipe, ImportCommit, ImportPreview, MatIconModule, RouterLink],
+  imports: [FormAlert, ListState, ShopDatePipe, ImportCommit, ImportPreview, RouterLink],
   template: `
     <section class="page">
       <nav class="crumbs no-print" aria-label="Breadcrumb">
@@ -38,12 +38,7 @@ import { ListState } from '../ui/list-state';
             on {{ e.committedAt | shopDate: 'datetime' }} by {{ e.committedBy?.name ?? '—' }}
           }
         </p>
-        @if (e.failure) {
-          <div class="form-alert" role="alert">
-            <mat-icon>error</mat-icon>
-            <span>{{ e.failure }}</span>
-          </div>
-        }
+        <app-form-alert [message]="e.failure" />
         <app-import-preview [preview]="e" />
         @if (e.status === 'previewed' || e.status === 'failed') {
           <app-import-commit [preview]="e" (committed)="onCommitted($event)" />

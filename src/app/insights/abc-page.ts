@@ -1,17 +1,13 @@
 import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
-import { MatButtonToggleModule } from '@angular/material/button-toggle';
-import { Router } from '@angular/router';
 
 import type { AbcClass } from '../../../shared/api/insights';
-import { DataTable } from '../ui/data-table';
-import { TableColumn, titleOf } from '../ui/table-column';
-import { InsightChart } from './insight-chart';
+import { titleOf } from '../ui/table-column';
 import { loadEach } from '../ui/load';
-import { InsightPanel } from './insight-panel';
+import type { Choice } from './choice-toggles';
+import { addressSetter, INSIGHT_PAGE_PARTS, monthsFrom, MONTH_TOGGLES } from './insight-page';
 import { InsightsApi } from './insights-api';
 import { paretoChart } from './insights-charts';
 import { formatAmount, formatCount, formatShare } from './insights-format';
-import { MONTH_CHOICES, monthsFrom } from './stock-page';
 
 const CLASS_MEANING: Record<AbcClass, string> = {
   A: 'The few parts that carry about 80 % of the value: count them often, never run out.',
@@ -19,21 +15,27 @@ const CLASS_MEANING: Record<AbcClass, string> = {
   C: 'The long tail, the last 5 %: order in bulk, rarely.',
 };
 
+const CLASS_TOGGLES: readonly Choice<AbcClass | 'all'>[] = [
+  { value: 'all', label: 'All' },
+  ...(['A', 'B', 'C'] as const).map((c) => ({ value: c, label: c })),
+];
+
 /** ABC classes: parts ranked by the value that went out at cost, with the Pareto split 80/15/5. */
 @Component({
   selector: 'app-abc-page',
-  imports: [InsightChart, InsightPanel, MatButtonToggleModule, DataTable, TableColumn],
+  imports: [INSIGHT_PAGE_PARTS],
   templateUrl: './abc-page.html',
   styleUrl: './abc-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class AbcPage {
   private readonly api = inject(InsightsApi);
-  private readonly router = inject(Router);
+  protected readonly setAddress = addressSetter();
 
   readonly months = input<string>();
   protected readonly window = computed(() => monthsFrom(this.months()));
-  protected readonly choices = MONTH_CHOICES;
+  protected readonly monthToggles = MONTH_TOGGLES;
+  protected readonly classToggles = CLASS_TOGGLES;
   protected readonly only = signal<AbcClass | 'all'>('all');
 
   protected readonly abc = loadEach(this.window, (m) => this.api.abc(m));
@@ -56,13 +58,5 @@ export class AbcPage {
 
   protected money(text: string, currency: string): string {
     return formatAmount(text, currency);
-  }
-
-  protected setMonths(months: number): void {
-    void this.router.navigate([], {
-      queryParams: { months },
-      queryParamsHandling: 'merge',
-      replaceUrl: true,
-    });
   }
 }

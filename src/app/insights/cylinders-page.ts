@@ -1,14 +1,12 @@
 import { ChangeDetectionStrategy, Component, computed, inject, input } from '@angular/core';
-import { MatButtonToggleModule } from '@angular/material/button-toggle';
-import { Router, RouterLink } from '@angular/router';
+import { RouterLink } from '@angular/router';
 
 import { NEAR_LAST_STEP_MAX } from '../../../shared/api/customers';
 import { LengthPipe } from '../core/length-pipe';
-import { DataTable } from '../ui/data-table';
-import { TableColumn } from '../ui/table-column';
-import { InsightChart } from './insight-chart';
 import { loadEach } from '../ui/load';
-import { InsightPanel } from './insight-panel';
+import type { Choice } from './choice-toggles';
+import type { HeadlineFigure } from './headline-figures';
+import { addressSetter, INSIGHT_PAGE_PARTS } from './insight-page';
 import { InsightsApi } from './insights-api';
 import { formatCount } from './insights-format';
 import { nearLastStepChart } from './near-last-step-chart';
@@ -26,27 +24,21 @@ export function withinFrom(value: string | undefined): number {
  */
 @Component({
   selector: 'app-cylinders-page',
-  imports: [
-    ShopDatePipe,
-    InsightChart,
-    InsightPanel,
-    LengthPipe,
-    MatButtonToggleModule,
-    DataTable,
-    TableColumn,
-    RouterLink,
-  ],
+  imports: [INSIGHT_PAGE_PARTS, LengthPipe, RouterLink, ShopDatePipe],
   templateUrl: './cylinders-page.html',
   styleUrl: './cylinders-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class CylindersPage {
   private readonly api = inject(InsightsApi);
-  private readonly router = inject(Router);
+  protected readonly setAddress = addressSetter();
 
   readonly within = input<string>();
   protected readonly steps = computed(() => withinFrom(this.within()));
-  protected readonly choices = [0, 1, 2, 3];
+  protected readonly withinToggles: readonly Choice<number>[] = [0, 1, 2, 3].map((n) => ({
+    value: n,
+    label: n === 0 ? 'None left' : 'At most ' + n,
+  }));
 
   protected readonly near = loadEach(this.steps, (w) => this.api.nearLastStep(w));
   protected readonly chart = computed(() => {
@@ -56,14 +48,13 @@ export class CylindersPage {
   protected readonly csv = computed(() =>
     this.api.csvUrl('cylinders-near-last-step', { within: this.steps() }),
   );
+  protected readonly headline = computed((): HeadlineFigure[] => {
+    const answer = this.near.value();
+    if (!answer) return [];
+    return [
+      { label: 'Sleeves to expect', figure: formatCount(answer.sleevesToExpect) },
+      { label: 'One step left', figure: formatCount(answer.lastStepNext) },
+    ];
+  });
   protected readonly columns = ['mark', 'customer', 'family', 'last', 'left'];
-  protected readonly count = formatCount;
-
-  protected setWithin(within: number): void {
-    void this.router.navigate([], {
-      queryParams: { within },
-      queryParamsHandling: 'merge',
-      replaceUrl: true,
-    });
-  }
 }

@@ -1,18 +1,14 @@
 import { ChangeDetectionStrategy, Component, computed, inject, input } from '@angular/core';
-import { MatButtonToggleModule } from '@angular/material/button-toggle';
-import { Router } from '@angular/router';
 
 import type { ExposureItem } from '../../../shared/api/insights';
 import { waitingForWords, type NeededPart } from '../../../shared/part-needs';
-import { DataTable } from '../ui/data-table';
-import { TableColumn, titleOf } from '../ui/table-column';
-import { InsightChart } from './insight-chart';
+import { titleOf } from '../ui/table-column';
 import { loadEach } from '../ui/load';
-import { InsightPanel } from './insight-panel';
+import type { HeadlineFigure } from './headline-figures';
+import { addressSetter, INSIGHT_PAGE_PARTS, monthsFrom, MONTH_TOGGLES } from './insight-page';
 import { InsightsApi } from './insights-api';
 import { exposureChart, supplierChart } from './insights-charts';
 import { formatCount, formatShare } from './insights-format';
-import { MONTH_CHOICES, monthsFrom } from './stock-page';
 
 /**
  * Where the shop ran short: steps asked for with no measured piston or ring set free, the jobs that waited and
@@ -20,18 +16,18 @@ import { MONTH_CHOICES, monthsFrom } from './stock-page';
  */
 @Component({
   selector: 'app-exposure-page',
-  imports: [InsightChart, InsightPanel, MatButtonToggleModule, DataTable, TableColumn],
+  imports: [INSIGHT_PAGE_PARTS],
   templateUrl: './exposure-page.html',
   styleUrl: './exposure-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class ExposurePage {
   private readonly api = inject(InsightsApi);
-  private readonly router = inject(Router);
+  protected readonly setAddress = addressSetter();
 
   readonly months = input<string>();
   protected readonly window = computed(() => monthsFrom(this.months()));
-  protected readonly choices = MONTH_CHOICES;
+  protected readonly monthToggles = MONTH_TOGGLES;
 
   protected readonly exposure = loadEach(this.window, (m) => this.api.exposure(m));
   protected readonly suppliers = loadEach(this.window, (m) => this.api.supplierReliability(m));
@@ -44,9 +40,14 @@ export class ExposurePage {
     const answer = this.suppliers.value();
     return answer && answer.items.length ? supplierChart(answer) : null;
   });
-  protected readonly totals = computed(() => ({
-    steps: this.exposure.value()?.items.length ?? 0,
-  }));
+  protected readonly headline = computed((): HeadlineFigure[] => {
+    const answer = this.exposure.value();
+    if (!answer) return [];
+    return [
+      { label: 'Steps that ran short', figure: formatCount(answer.items.length) },
+      { label: 'Jobs waiting for parts now', figure: formatCount(answer.jobsWaitingNow) },
+    ];
+  });
 
   protected readonly shortColumns = ['step', 'parts', 'times', 'jobs', 'days', 'waiting'];
   protected readonly supplierColumns = [
@@ -75,13 +76,5 @@ export class ExposurePage {
   /** Days with one decimal, "32.0" rather than "32", so the column lines up. */
   protected days(value: number): string {
     return value.toFixed(1);
-  }
-
-  protected setMonths(months: number): void {
-    void this.router.navigate([], {
-      queryParams: { months },
-      queryParamsHandling: 'merge',
-      replaceUrl: true,
-    });
   }
 }

@@ -1,17 +1,14 @@
 import { ChangeDetectionStrategy, Component, computed, inject, input } from '@angular/core';
-import { Router, RouterLink } from '@angular/router';
+import { RouterLink } from '@angular/router';
 
-import { DataTable } from '../ui/data-table';
-import { TableColumn } from '../ui/table-column';
-import { InsightChart } from './insight-chart';
 import { loadEach } from '../ui/load';
-import { InsightPanel } from './insight-panel';
-import { InsightsApi, type DayRange } from './insights-api';
+import type { HeadlineFigure } from './headline-figures';
+import { addressSetter, INSIGHT_PAGE_PARTS, periodFrom } from './insight-page';
+import { InsightsApi } from './insights-api';
 import { formatAmount, formatCount, formatShare } from './insights-format';
 import { revenueChart } from './money-charts';
 import { ShopDatePipe } from '../core/shop-date-pipe';
 import { PeriodPicker } from './period-picker';
-import { periodFrom } from './sales-page';
 import { JOB_STATE_LABELS, type JobState } from '../../../shared/api/jobs';
 import type { RevenueMonth, EstimateMonth } from '../../../shared/api/insights';
 
@@ -24,22 +21,14 @@ type CountKey = keyof Pick<EstimateMonth, 'sent' | 'approved' | 'declined' | 'wa
  */
 @Component({
   selector: 'app-money-page',
-  imports: [
-    DataTable,
-    InsightChart,
-    InsightPanel,
-    PeriodPicker,
-    RouterLink,
-    ShopDatePipe,
-    TableColumn,
-  ],
+  imports: [INSIGHT_PAGE_PARTS, PeriodPicker, RouterLink, ShopDatePipe],
   templateUrl: './money-page.html',
   styleUrl: './money-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class MoneyPage {
   private readonly api = inject(InsightsApi);
-  private readonly router = inject(Router);
+  protected readonly setAddress = addressSetter();
 
   /** Bound from the address by the router. */
   readonly from = input<string>();
@@ -57,6 +46,24 @@ export class MoneyPage {
     () => this.api.depositsHeld(),
   );
 
+  /** Each figure once its own answer is in. */
+  protected readonly headline = computed((): HeadlineFigure[] => {
+    const figures: HeadlineFigure[] = [];
+    const r = this.revenue.value();
+    if (r)
+      figures.push({
+        label: 'Invoiced in the period',
+        figure: this.money(r.totals.invoiced, r.currency),
+      });
+    const e = this.estimates.value();
+    if (e)
+      figures.push({ label: 'Estimates approved', figure: formatShare(e.totals.approvalRate) });
+    const o = this.owed.value();
+    if (o) figures.push({ label: 'Owed now', figure: this.money(o.totalBalance, o.currency) });
+    const h = this.held.value();
+    if (h) figures.push({ label: 'Deposits held', figure: this.money(h.totalHeld, h.currency) });
+    return figures;
+  });
   protected readonly chart = computed(() => {
     const answer = this.revenue.value();
     return answer && answer.totals.invoices > 0 ? revenueChart(answer) : null;
@@ -121,13 +128,5 @@ export class MoneyPage {
 
   protected stateLabel(state: string): string {
     return JOB_STATE_LABELS[state as JobState] ?? state;
-  }
-
-  protected setPeriod(period: DayRange): void {
-    void this.router.navigate([], {
-      queryParams: { from: period.from, to: period.to },
-      queryParamsHandling: 'merge',
-      replaceUrl: true,
-    });
   }
 }

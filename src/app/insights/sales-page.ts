@@ -1,14 +1,11 @@
 import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
-import { MatButtonToggleModule } from '@angular/material/button-toggle';
-import { Router } from '@angular/router';
 
-import { defaultPeriod, type TopSellerRank } from '../../../shared/api/insights';
-import { DataTable } from '../ui/data-table';
-import { TableColumn, titleOf } from '../ui/table-column';
-import { InsightChart } from './insight-chart';
+import type { TopSellerRank } from '../../../shared/api/insights';
+import { titleOf } from '../ui/table-column';
 import { loadEach } from '../ui/load';
-import { InsightPanel } from './insight-panel';
-import { InsightsApi, type DayRange } from './insights-api';
+import type { HeadlineFigure } from './headline-figures';
+import { addressSetter, FIGURE_TOGGLES, INSIGHT_PAGE_PARTS, periodFrom } from './insight-page';
+import { InsightsApi } from './insights-api';
 import {
   NO_FAMILY,
   monthlyChart,
@@ -19,33 +16,18 @@ import {
 import { formatAmount, formatCount, formatShare } from './insights-format';
 import { ShopDatePipe } from '../core/shop-date-pipe';
 import { PeriodPicker } from './period-picker';
-import { isCalendarDay } from '../../../shared/api/common';
-
-/** The period in the address (?from&to), or the last twelve months. */
-export function periodFrom(from: string | undefined, to: string | undefined): DayRange {
-  if (from && to && isCalendarDay(from) && isCalendarDay(to) && from <= to) return { from, to };
-  return defaultPeriod(Intl.DateTimeFormat().resolvedOptions().timeZone);
-}
 
 /** What sells: units, revenue and margin by family and step, month by month, and the best sellers. */
 @Component({
   selector: 'app-sales-page',
-  imports: [
-    InsightChart,
-    InsightPanel,
-    MatButtonToggleModule,
-    DataTable,
-    TableColumn,
-    PeriodPicker,
-    ShopDatePipe,
-  ],
+  imports: [INSIGHT_PAGE_PARTS, PeriodPicker, ShopDatePipe],
   templateUrl: './sales-page.html',
   styleUrl: './sales-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class SalesPage {
   private readonly api = inject(InsightsApi);
-  private readonly router = inject(Router);
+  protected readonly setAddress = addressSetter();
 
   /** Bound from the address by the router. */
   readonly from = input<string>();
@@ -75,16 +57,28 @@ export class SalesPage {
     const answer = this.top.value();
     return answer ? topSellersChart(answer) : null;
   });
-  protected readonly marginShare = computed(() => {
-    const totals = this.sales.value()?.totals;
-    if (!totals || Number(totals.revenue) === 0) return null;
-    return String(Number(totals.margin) / Number(totals.revenue));
+  protected readonly headline = computed((): HeadlineFigure[] => {
+    const answer = this.sales.value();
+    if (!answer) return [];
+    const { units, revenue, margin } = answer.totals;
+    return [
+      { label: 'Units sold', figure: formatCount(units) },
+      { label: 'Revenue', figure: this.money(revenue, answer.currency) },
+      { label: 'Margin', figure: this.money(margin, answer.currency) },
+      {
+        label: 'Margin on revenue',
+        figure: formatShare(
+          Number(revenue) === 0 ? null : String(Number(margin) / Number(revenue)),
+        ),
+      },
+    ];
   });
 
   protected readonly salesColumns = ['family', 'units', 'revenue', 'margin'];
   protected readonly monthColumns = ['month', 'units', 'revenue', 'margin'];
   protected readonly topColumns = ['part', 'units', 'revenue', 'margin'];
   protected readonly noFamily = NO_FAMILY;
+  protected readonly figureToggles = FIGURE_TOGGLES;
 
   protected readonly csv = computed(() => {
     const p = this.period();
@@ -101,13 +95,4 @@ export class SalesPage {
   protected readonly count = formatCount;
   protected readonly familyTitle = titleOf('familyName');
   protected readonly partTitle = titleOf('description');
-  protected readonly share = formatShare;
-
-  protected setPeriod(period: DayRange): void {
-    void this.router.navigate([], {
-      queryParams: { from: period.from, to: period.to },
-      queryParamsHandling: 'merge',
-      replaceUrl: true,
-    });
-  }
 }

@@ -30,6 +30,7 @@ import { BenchMode, BenchModeToggle } from '../ui/bench-mode';
 import { ListState } from '../ui/list-state';
 import { loadEach } from '../ui/load';
 import { allows } from '../../../shared/access';
+import { FormAlert } from '../ui/form-alert';
 
 /**
  * The sheet that goes to the boring machine: every size worked out from the held piston, the
@@ -39,6 +40,7 @@ import { allows } from '../../../shared/access';
   selector: 'app-bore-sheet-page',
   imports: [
     BenchModeToggle,
+    FormAlert,
     ShopDatePipe,
     LengthPipe,
     ListState,

@@ -4,75 +4,14 @@ import { TestBed } from '@angular/core/testing';
 import type { JobJson } from '../../../shared/api/jobs';
 import { Notifier } from '../core/notifier';
 import { setUpHttpTest, signIn } from '../testing/http-test';
+import { jobJson } from '../testing/job-fixtures';
 import { CylinderPage } from './cylinder-page';
 
 const JOB_ID = '0b6f7b52-4c1e-4d7e-9b0a-3f2d8c1e5a77';
 
-// An invented air-cooled single: standard bore 2.5170 in, clean-up 0.0030 in, up to +0.040 in,
-// taper limit 0.0040 in. Lengths as the API sends them: both units, exact (1 in = 25.4 mm).
-const JOB: JobJson = {
-  id: JOB_ID,
-  number: 'CY-2612-0042',
-  state: 'booked_in',
-  customerId: 'c1',
-  customerName: 'Odile Farrant',
-  customerPhone: null,
-  customerEmail: null,
-  family: {
-    id: 'f1',
-    code: 'TS-64',
-    name: 'Invented single',
-    cylinders: 1,
-    standardBore: { mm: '63.9318', in: '2.5170' },
-    clearance: { min: { mm: '0.0381', in: '0.0015' }, max: { mm: '0.0635', in: '0.0025' } },
-    honeAllowance: { mm: '0.0508', in: '0.0020' },
-    cleanup: { mm: '0.0762', in: '0.0030' },
-    maxOversize: { mm: '1.016', in: '0.0400' },
-    maxTaper: { mm: '0.1016', in: '0.0040' },
-    maxOutOfRound: { mm: '0.0508', in: '0.0020' },
-    ringGap: { min: null, max: null },
-  },
-  cylinders: 1,
-  askedFor: '',
-  dueDate: null,
-  overdue: false,
-  waitingForParts: false,
-  waitingFor: [],
-  pistonsHeld: 0,
-  cylindersCut: 0,
-  awaitingApproval: false,
-  notes: '',
-  notifyCustomer: true,
-  createdBy: null,
-  createdAt: '2026-12-01T09:00:00.000Z',
-  updatedAt: '2026-12-01T09:00:00.000Z',
-  stateChangedAt: '2026-12-01T09:00:00.000Z',
-  closedAt: null,
-  cylinderDetails: [
-    {
-      n: 1,
-      cylinder: null,
-      readings: [],
-      wear: null,
-      warnings: [],
-      measuredAt: null,
-      step: null,
-      clearance: null,
-      piston: null,
-      rings: [],
-      cutAt: null,
-      measuredAfterHone: null,
-      ringGap: null,
-      ringGapOk: null,
-      honedFit: null,
-      ringGapSuggested: null,
-      ringGapCheck: null,
-    },
-  ],
-  holds: [],
-  photos: [],
-  events: [],
-};
+// The invented air-cooled single of the fixtures: standard bore 2.5170 in, clean-up 0.0030 in, up to
+// +0.040 in, taper limit 0.0040 in, one cylinder not read yet.
+const JOB: JobJson = jobJson({ id: JOB_ID, number: 'CY-2612-0042' });
 
 describe('CylinderPage', () => {
   let http: HttpTestingController;

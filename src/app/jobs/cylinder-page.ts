@@ -50,6 +50,7 @@ import { WaitingEntries } from './waiting-entries';
 import { BenchMode, BenchModeToggle } from '../ui/bench-mode';
 import { ListState } from '../ui/list-state';
 import { loadById, loadEach } from '../ui/load';
+import { FormAlert } from '../ui/form-alert';
 
 type CellKey = `${Depth}-${Axis}`;
 interface Cell {
@@ -85,6 +86,7 @@ interface Preview {
 @Component({
   selector: 'app-cylinder-page',
   imports: [
+    FormAlert,
     BenchCard,
     BenchModeToggle,
     CylinderPast,

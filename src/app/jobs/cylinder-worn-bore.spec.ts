@@ -9,6 +9,7 @@ import type {
 } from '../../../shared/api/jobs';
 import type { LengthJson, LengthUnit } from '../../../shared/lengths';
 import { setUpHttpTest, signIn } from '../testing/http-test';
+import { cylinderJson, INVENTED_SINGLE, jobJson, L } from '../testing/job-fixtures';
 import { CylinderPage } from './cylinder-page';
 
 // A bore worn well past the first steps: every step below the one that cleans up has a negative
@@ -19,7 +20,6 @@ import { CylinderPage } from './cylinder-page';
 // exactly (NIST SP 811, appendix B).
 
 const JOB_ID = '5d0c8a3e-2b61-4f0e-9d7a-6c4b1e2f3a90';
-const L = (mm: string, inch: string): LengthJson => ({ mm, in: inch });
 
 interface Case {
   title: string;
@@ -36,20 +36,7 @@ const INCH: Case = {
   title: 'an inch user and an inch family worn 0.030 in over standard',
   unit: 'in',
   // Invented air-cooled single: standard 2.5170 in, clean-up 0.0030 in, steps of 0.010 in.
-  family: {
-    id: 'f-in',
-    code: 'TS-64',
-    name: 'Invented single',
-    cylinders: 1,
-    standardBore: L('63.9318', '2.5170'),
-    clearance: { min: L('0.0381', '0.0015'), max: L('0.0635', '0.0025') },
-    honeAllowance: L('0.0508', '0.0020'),
-    cleanup: L('0.0762', '0.0030'),
-    maxOversize: L('1.016', '0.0400'),
-    maxTaper: L('0.1016', '0.0040'),
-    maxOutOfRound: L('0.0508', '0.0020'),
-    ringGap: { min: null, max: null },
-  },
+  family: { ...INVENTED_SINGLE, id: 'f-in' },
   // 2.5170 + 0.030 = 2.5470 in.
   largest: L('64.6938', '2.5470'),
   steps: [
@@ -139,9 +126,7 @@ const MM: Case = {
 
 function cylinder(c: Case, stepId: string | null): CylinderJson {
   const step = c.steps.find((s) => s.id === stepId) ?? null;
-  return {
-    n: 1,
-    cylinder: null,
+  return cylinderJson({
     readings: [{ depth: 'top', axis: 'pin', diameter: c.largest, unit: c.unit }],
     wear: {
       largest: c.largest,
@@ -149,53 +134,21 @@ function cylinder(c: Case, stepId: string | null): CylinderJson {
       outOfRound: L('0.000', '0.0000'),
       overStandard: null,
     },
-    warnings: [],
     measuredAt: '2026-12-02T09:00:00.000Z',
     step: step ? { id: step.id, label: step.label, nominalBore: step.finished } : null,
-    clearance: null,
-    piston: null,
-    rings: [],
-    cutAt: null,
-    measuredAfterHone: null,
-    ringGap: null,
-    ringGapOk: null,
-    honedFit: null,
-    ringGapSuggested: null,
-    ringGapCheck: null,
-  };
+  });
 }
 
 function job(c: Case, stepId: string | null): JobJson {
-  return {
+  return jobJson({
     id: JOB_ID,
     number: 'CY-2612-0077',
-    state: 'booked_in',
     customerId: 'c-ismay',
     customerName: 'Ismay Tarrow',
-    customerPhone: null,
-    customerEmail: null,
     family: c.family,
-    cylinders: 1,
-    askedFor: '',
-    dueDate: null,
-    overdue: false,
-    waitingForParts: false,
-    waitingFor: [],
-    pistonsHeld: 0,
-    cylindersCut: 0,
-    awaitingApproval: false,
-    notes: '',
-    notifyCustomer: true,
-    createdBy: null,
     createdAt: '2026-12-02T08:00:00.000Z',
-    updatedAt: '2026-12-02T08:00:00.000Z',
-    stateChangedAt: '2026-12-02T08:00:00.000Z',
-    closedAt: null,
     cylinderDetails: [cylinder(c, stepId)],
-    holds: [],
-    photos: [],
-    events: [],
-  };
+  });
 }
 
 function recommendation(c: Case, chosen: string | null): RecommendationJson {

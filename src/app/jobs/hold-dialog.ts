@@ -18,6 +18,7 @@ import { Session } from '../core/session';
 import { StockApi } from '../stock/stock-api';
 import { CameraScanButton } from '../ui/camera-scan';
 import { JobsApi } from './jobs-api';
+import { FormAlert } from '../ui/form-alert';
 
 export interface HoldDialogData {
   jobId: string;
@@ -35,6 +36,7 @@ type Loaded = { ok: true; proposal: ProposalJson } | { ok: false; message: strin
 @Component({
   selector: 'app-hold-dialog',
   imports: [
+    FormAlert,
     CameraScanButton,
     LengthPipe,
     MatButtonModule,

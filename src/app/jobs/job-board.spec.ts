@@ -1,35 +1,9 @@
 import { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
 
-import type { JobListItemJson, JobState } from '../../../shared/api/jobs';
 import { setUpHttpTest, signIn } from '../testing/http-test';
+import { jobListItem } from '../testing/job-fixtures';
 import { JobBoard } from './job-board';
-
-function job(
-  number: string,
-  state: JobState,
-  extra: Partial<JobListItemJson> = {},
-): JobListItemJson {
-  return {
-    id: number,
-    number,
-    state,
-    customerId: `c-${number}`,
-    customerName: `Customer of ${number}`,
-    family: { id: 'f1', code: 'TS-64', name: 'Invented single' },
-    cylinders: 1,
-    askedFor: '',
-    dueDate: null,
-    overdue: false,
-    waitingForParts: false,
-    waitingFor: [],
-    pistonsHeld: 0,
-    cylindersCut: 0,
-    awaitingApproval: false,
-    createdAt: '2026-12-01T09:00:00.000Z',
-    ...extra,
-  };
-}
 
 describe('JobBoard', () => {
   let http: HttpTestingController;
@@ -52,14 +26,14 @@ describe('JobBoard', () => {
     expect(request.request.params.get('sort')).toBe('due');
     request.flush({
       items: [
-        job('CY-2612-0007', 'gauged', {
+        jobListItem('CY-2612-0007', 'gauged', {
           dueDate: '2026-11-28',
           overdue: true,
           waitingForParts: true,
           waitingFor: ['rings'],
         }),
-        job('CY-2612-0003', 'booked_in', { dueDate: '2026-12-02' }),
-        job('CY-2612-0001', 'booked_in'),
+        jobListItem('CY-2612-0003', 'booked_in', { dueDate: '2026-12-02' }),
+        jobListItem('CY-2612-0001', 'booked_in'),
       ],
       total: 3,
     });
@@ -104,7 +78,10 @@ describe('JobBoard', () => {
     http
       .expectOne((r) => r.url === '/api/jobs')
       .flush({
-        items: [job('CY-2612-0010', 'at_the_hone'), job('CY-2612-0011', 'booked_in')],
+        items: [
+          jobListItem('CY-2612-0010', 'at_the_hone'),
+          jobListItem('CY-2612-0011', 'booked_in'),
+        ],
         total: 2,
       });
     await fixture.whenStable();

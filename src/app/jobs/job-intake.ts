@@ -36,6 +36,7 @@ import { IntakeCylinders } from './intake-cylinders';
 import { Session } from '../core/session';
 import { dayOf } from '../core/shop-date-adapter';
 import { JobsApi, type NewJob } from './jobs-api';
+import { FormAlert } from '../ui/form-alert';
 
 const FIELDS = ['customerId', 'familyId', 'cylinders', 'askedFor', 'dueDate', 'notes'] as const;
 type Field = (typeof FIELDS)[number];
@@ -60,6 +61,7 @@ type Families = { ok: true; items: FamilyJson[] } | { ok: false; message: string
 @Component({
   selector: 'app-job-intake',
   imports: [
+    FormAlert,
     CustomerSearch,
     IntakeCustomerForm,
     IntakeCylinders,

@@ -9,6 +9,7 @@ import { controlError, placeApiErrors } from '../core/field-errors';
 import { Notifier } from '../core/notifier';
 import { MoneyApi } from './money-api';
 import { AMOUNT_PATTERN, formatAmount } from './money-words';
+import { FormAlert } from '../ui/form-alert';
 
 /**
  * A correction of an issued invoice: the invoice itself never changes, a credit note takes an
@@ -18,6 +19,7 @@ import { AMOUNT_PATTERN, formatAmount } from './money-words';
 @Component({
   selector: 'app-credit-note-form',
   imports: [
+    FormAlert,
     MatButtonModule,
     MatFormFieldModule,
     MatIconModule,
@@ -52,11 +54,7 @@ import { AMOUNT_PATTERN, formatAmount } from './money-words';
           <button mat-flat-button type="submit" [disabled]="busy()">Issue credit note</button>
           <button mat-button type="button" (click)="open.set(false)">Cancel</button>
         </div>
-        @if (error(); as message) {
-          <div class="form-alert" role="alert">
-            <mat-icon>error</mat-icon><span>{{ message }}</span>
-          </div>
-        }
+        <app-form-alert [message]="error()" />
       </form>
     }
   `,

@@ -1,11 +1,11 @@
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { HttpTestingController } from '@angular/common/http/testing';
 import { Component, signal } from '@angular/core';
 import { TestBed } from '@angular/core/testing';
 
 import type { EstimateJson } from '../../../shared/api/money';
 import type { Role } from '../../../shared/session-types';
-import { Session } from '../core/session';
+import { setUpHttpTest, signIn } from '../testing/http-test';
+import { BORE_LINE, estimateJson } from '../testing/money-fixtures';
 import { EstimatePanel } from './estimate-panel';
 import type { MoneyJob } from './money-words';
 
@@ -19,18 +19,9 @@ const JOB: MoneyJob = {
 // Invented figures worked by hand: 2 × 55.00 = 110.00 and 1 × 12.00 = 12.00; subtotal 122.00; tax
 // at 20 % on the subtotal 24.40; total 146.40.
 function estimate(extra: Partial<EstimateJson> = {}): EstimateJson {
-  return {
-    state: 'draft',
+  return estimateJson({
     lines: [
-      {
-        id: 'l1',
-        kind: 'labour',
-        description: 'Bore one cylinder',
-        quantity: '2',
-        unitPrice: '55.00',
-        total: '110.00',
-        fromJob: true,
-      },
+      BORE_LINE,
       {
         id: 'l2',
         kind: 'other',
@@ -44,16 +35,8 @@ function estimate(extra: Partial<EstimateJson> = {}): EstimateJson {
     subtotal: '122.00',
     tax: '24.40',
     total: '146.40',
-    currency: 'EUR',
-    taxRate: '20',
-    pricesIncludeTax: false,
-    version: 1,
-    sentAt: null,
-    decidedAt: null,
-    approval: null,
-    approvedVersion: null,
     ...extra,
-  };
+  });
 }
 
 @Component({
@@ -69,16 +52,12 @@ describe('EstimatePanel', () => {
   let http: HttpTestingController;
 
   async function render(role: Role, body: EstimateJson, job: MoneyJob = JOB) {
-    TestBed.configureTestingModule({
-      providers: [provideHttpClient(), provideHttpClientTesting()],
-    });
-    http = TestBed.inject(HttpTestingController);
-    const loading = TestBed.inject(Session).load();
-    http.expectOne('/api/session').flush({
-      user: { id: 'u1', email: 'p@example.test', name: 'Tamsin Reedbank', role, unit: 'mm' },
-      shop: { name: 'Hollin Brook Bore Works', locale: 'en-GB', timeZone: 'UTC', currency: 'EUR' },
-    });
-    await loading;
+    ({ http } = setUpHttpTest());
+    await signIn(
+      http,
+      { id: 'u1', email: 'p@example.test', name: 'Tamsin Reedbank', role, unit: 'mm' },
+      { name: 'Hollin Brook Bore Works', locale: 'en-GB', timeZone: 'UTC', currency: 'EUR' },
+    );
     const fixture = TestBed.createComponent(Host);
     fixture.componentInstance.job.set(job);
     fixture.detectChanges();

@@ -29,6 +29,7 @@ import {
   roundingRule,
   standingText,
 } from './money-words';
+import { FormAlert } from '../ui/form-alert';
 
 /**
  * The job's estimate on the job page: its lines and totals, the rule behind the sums, where it
@@ -38,6 +39,7 @@ import {
 @Component({
   selector: 'app-estimate-panel',
   imports: [
+    FormAlert,
     ListState,
     MatButtonModule,
     MatButtonToggleModule,

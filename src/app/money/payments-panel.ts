@@ -24,6 +24,7 @@ import { ListState } from '../ui/list-state';
 import { loadEach } from '../ui/load';
 import { MoneyApi } from './money-api';
 import { AMOUNT_PATTERN, formatAmount, sameJobVersion, type MoneyJob } from './money-words';
+import { FormAlert } from '../ui/form-alert';
 
 export const PAYMENT_STATE_WORDS = { open: 'Waiting', paid: 'Paid', refunded: 'Paid back' };
 export const PURPOSE_LABELS: Record<PaymentPurpose, string> = {
@@ -39,6 +40,7 @@ export const PURPOSE_LABELS: Record<PaymentPurpose, string> = {
 @Component({
   selector: 'app-payments-panel',
   imports: [
+    FormAlert,
     ListState,
     MatButtonModule,
     MatFormFieldModule,

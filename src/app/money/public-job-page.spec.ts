@@ -1,8 +1,9 @@
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
 
 import type { EstimateJson, PublicJobJson } from '../../../shared/api/money';
+import { setUpHttpTest } from '../testing/http-test';
+import { estimateJson } from '../testing/money-fixtures';
 import { PublicJobPage } from './public-job-page';
 
 const TOKEN = 'q7VdL2mXk9PzR4tYb8NcW1sJh6GfA3eU0oKiMnBvC5x';
@@ -18,32 +19,7 @@ function page(estimate: Partial<EstimateJson> = {}, extra: Partial<PublicJobJson
       stateText: 'Measured. The bores are measured; the pistons are being chosen to fit them.',
       cylinders: 2,
     },
-    estimate: {
-      state: 'sent',
-      lines: [
-        {
-          id: 'l1',
-          kind: 'labour',
-          description: 'Bore one cylinder',
-          quantity: '2',
-          unitPrice: '55.00',
-          total: '110.00',
-          fromJob: true,
-        },
-      ],
-      subtotal: '110.00',
-      tax: '22.00',
-      total: '132.00',
-      currency: 'EUR',
-      taxRate: '20',
-      pricesIncludeTax: false,
-      version: 1,
-      sentAt: '2026-12-03T09:00:00.000Z',
-      decidedAt: null,
-      approval: null,
-      approvedVersion: null,
-      ...estimate,
-    },
+    estimate: estimateJson({ state: 'sent', sentAt: '2026-12-03T09:00:00.000Z', ...estimate }),
     payments: [],
     ...extra,
   };
@@ -54,10 +30,7 @@ describe('PublicJobPage', () => {
   let http: HttpTestingController;
 
   async function render(answer: PublicJobJson | 404) {
-    TestBed.configureTestingModule({
-      providers: [provideHttpClient(), provideHttpClientTesting()],
-    });
-    http = TestBed.inject(HttpTestingController);
+    ({ http } = setUpHttpTest());
     const fixture = TestBed.createComponent(PublicJobPage);
     fixture.componentRef.setInput('token', TOKEN);
     fixture.detectChanges();

@@ -22,6 +22,7 @@ import { apiErrorMessage } from '../core/api-error';
 import { EstimateTable } from './estimate-table';
 import { MoneyApi } from './money-api';
 import { formatAmount, roundingRule } from './money-words';
+import { FormAlert } from '../ui/form-alert';
 
 type View =
   | { kind: 'loading' }
@@ -38,7 +39,7 @@ const PURPOSE_WORDS = { deposit: 'deposit', balance: 'balance' } as const;
  */
 @Component({
   selector: 'app-public-job-page',
-  imports: [EstimateTable, MatButtonModule, MatIconModule, MatProgressBarModule],
+  imports: [FormAlert, EstimateTable, MatButtonModule, MatIconModule, MatProgressBarModule],
   templateUrl: './public-job-page.html',
   styleUrl: './public-job-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,

@@ -20,6 +20,7 @@ import { Notifier } from '../core/notifier';
 import { Session } from '../core/session';
 import { dayOf } from '../core/shop-date-adapter';
 import { PurchasingApi } from './purchasing-api';
+import { FormAlert } from '../ui/form-alert';
 
 type LineGroup = FormGroup<{
   part: FormControl<PartJson | string | null>;
@@ -33,6 +34,7 @@ const MONEY = /^\d{1,10}(\.\d{1,4})?$/;
 @Component({
   selector: 'app-order-form',
   imports: [
+    FormAlert,
     MatTooltipModule,
     MatAutocompleteModule,
     MatButtonModule,

@@ -2,9 +2,9 @@ import {
   ChangeDetectionStrategy,
   Component,
   computed,
-  effect,
   inject,
   input,
+  linkedSignal,
   signal,
 } from '@angular/core';
 import { FormsModule } from '@angular/forms';
@@ -19,8 +19,10 @@ import type { OrderJson, OrderLineJson, WaitCandidateJson } from '../../../share
 import { apiErrorMessage, apiFieldErrors, apiUnplacedMessage } from '../core/api-error';
 import { Notifier } from '../core/notifier';
 import { Session } from '../core/session';
+import { loadById } from '../ui/load';
 import { PurchasingApi } from './purchasing-api';
 import { ShopDatePipe } from '../core/shop-date-pipe';
+import { FormAlert } from '../ui/form-alert';
 
 interface LineEdit {
   quantity: number;
@@ -34,6 +36,7 @@ interface LineEdit {
 @Component({
   selector: 'app-order-page',
   imports: [
+    FormAlert,
     ShopDatePipe,
     FormsModule,
     MatButtonModule,
@@ -54,10 +57,18 @@ export class OrderPage {
 
   readonly id = input.required<string>();
 
-  protected readonly order = signal<OrderJson | null>(null);
-  protected readonly loadError = signal('');
+  protected readonly loaded = loadById(this.id, (id) => this.api.order(id));
+  protected readonly order = this.loaded.value;
   protected readonly busy = signal(false);
-  protected readonly edits = signal<Record<string, LineEdit>>({});
+  /** What is typed into each line, from each order as it arrives. */
+  protected readonly edits = linkedSignal<Record<string, LineEdit>>(() =>
+    Object.fromEntries(
+      (this.order()?.lines ?? []).map((l) => [
+        l.id,
+        { quantity: l.quantity, unitPrice: l.unitPrice ?? '' },
+      ]),
+    ),
+  );
   protected readonly candidates = signal<Record<string, WaitCandidateJson[]>>({});
 
   protected readonly canOrder = computed(() => this.session.may('buy'));
@@ -70,25 +81,6 @@ export class OrderPage {
   protected readonly closed = computed(() =>
     ['all_in', 'called_off'].includes(this.order()?.state ?? ''),
   );
-
-  constructor() {
-    effect(() => this.load(this.id()));
-  }
-
-  protected load(id: string = this.id()): void {
-    this.api.order(id).subscribe({
-      next: (order) => {
-        this.loadError.set('');
-        this.order.set(order);
-        this.edits.set(
-          Object.fromEntries(
-            order.lines.map((l) => [l.id, { quantity: l.quantity, unitPrice: l.unitPrice ?? '' }]),
-          ),
-        );
-      },
-      error: (e: unknown) => this.loadError.set(apiErrorMessage(e)),
-    });
-  }
 
   protected edit(line: OrderLineJson): LineEdit {
     return this.edits()[line.id] ?? { quantity: line.quantity, unitPrice: line.unitPrice ?? '' };
@@ -105,12 +97,12 @@ export class OrderPage {
       () => {
         this.busy.set(false);
         void this.notifier.success(done);
-        this.load();
+        this.loaded.reload();
       },
       (e: unknown) => {
         this.busy.set(false);
         void this.notifier.error(apiErrorMessage(e));
-        this.load();
+        this.loaded.reload();
       },
     );
   }
@@ -133,7 +125,7 @@ export class OrderPage {
       next: () => {
         this.busy.set(false);
         void this.notifier.success('Changes saved.');
-        this.load();
+        this.loaded.reload();
       },
       error: (e: unknown) => {
         this.busy.set(false);

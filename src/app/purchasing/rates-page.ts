@@ -2,7 +2,6 @@ import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@a
 import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
-import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 
@@ -15,15 +14,16 @@ import { RowActions } from '../ui/row-actions';
 import { TableColumn, TableEmpty } from '../ui/table-column';
 import { PurchasingApi } from './purchasing-api';
 import { ShopDatePipe } from '../core/shop-date-pipe';
+import { FormAlert } from '../ui/form-alert';
 
 /** The rates the owner keeps to land foreign prices in the home currency; buyers read them. */
 @Component({
   selector: 'app-rates-page',
   imports: [
+    FormAlert,
     ShopDatePipe,
     MatButtonModule,
     MatFormFieldModule,
-    MatIconModule,
     MatInputModule,
     MatProgressBarModule,
     DataTable,

@@ -5,7 +5,9 @@ import {
   effect,
   inject,
   input,
+  linkedSignal,
   signal,
+  untracked,
 } from '@angular/core';
 import { FormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
@@ -18,12 +20,14 @@ import { RouterLink } from '@angular/router';
 import { normalizeGtin } from '../../../shared/gtin';
 import { parseLength } from '../../../shared/lengths';
 import type { OrderJson, OrderLineJson, OrderReceiptJson } from '../../../shared/api/purchasing';
-import { apiErrorMessage, apiFieldErrors, apiUnplacedMessage } from '../core/api-error';
+import { apiFieldErrors, apiUnplacedMessage } from '../core/api-error';
 import { LengthPipe } from '../core/length-pipe';
 import { Notifier } from '../core/notifier';
 import { Session } from '../core/session';
 import { lengthText, otherUnitHint } from '../ui/length-input';
+import { loadById } from '../ui/load';
 import { PurchasingApi } from './purchasing-api';
+import { FormAlert } from '../ui/form-alert';
 
 interface LineEntry {
   quantity: number;
@@ -38,6 +42,7 @@ interface LineEntry {
 @Component({
   selector: 'app-receive-order',
   imports: [
+    FormAlert,
     FormsModule,
     LengthPipe,
     MatButtonModule,
@@ -61,9 +66,12 @@ export class ReceiveOrder {
   readonly lineId = input<string>();
 
   protected readonly unit = this.session.unit;
-  protected readonly order = signal<OrderJson | null>(null);
-  protected readonly loadError = signal('');
-  protected readonly entries = signal<Record<string, LineEntry>>({});
+  protected readonly loaded = loadById(this.id, (id) => this.api.order(id));
+  protected readonly order = this.loaded.value;
+  /** What is counted in on each line: nothing yet for each order as it arrives. */
+  protected readonly entries = linkedSignal<Record<string, LineEntry>>(() =>
+    Object.fromEntries((this.order()?.lines ?? []).map((l) => [l.id, { quantity: 0, skirts: [] }])),
+  );
   protected readonly highlighted = signal<string | null>(null);
   protected readonly scanMessage = signal('');
   protected readonly saving = signal(false);
@@ -77,20 +85,14 @@ export class ReceiveOrder {
   );
 
   constructor() {
-    effect(() => this.load(this.id()));
-  }
-
-  private load(id: string): void {
-    this.api.order(id).subscribe({
-      next: (order) => {
-        this.order.set(order);
-        this.entries.set(
-          Object.fromEntries(order.lines.map((l) => [l.id, { quantity: 0, skirts: [] }])),
-        );
-        const start = this.lineId();
-        if (start) this.pick(order.lines.find((l) => l.id === start) ?? null);
-      },
-      error: (e: unknown) => this.loadError.set(apiErrorMessage(e)),
+    // The line to start with is picked once, when the order first arrives (not after a receipt).
+    let started = false;
+    effect(() => {
+      const order = this.order();
+      const start = this.lineId();
+      if (!order || started) return;
+      started = true;
+      if (start) untracked(() => this.pick(order.lines.find((l) => l.id === start) ?? null));
     });
   }
 
@@ -176,10 +178,7 @@ export class ReceiveOrder {
       next: (result) => {
         this.saving.set(false);
         this.result.set(result);
-        this.order.set(result.order);
-        this.entries.set(
-          Object.fromEntries(result.order.lines.map((l) => [l.id, { quantity: 0, skirts: [] }])),
-        );
+        this.loaded.set(result.order);
         void this.notifier.success(
           `Received ${result.units.length || 'the'} item${result.units.length === 1 ? '' : 's'} against ${order.number}.`,
         );

@@ -2,7 +2,6 @@ import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/cor
 import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
-import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
@@ -15,6 +14,7 @@ import { DataTable } from '../ui/data-table';
 import { RowActions } from '../ui/row-actions';
 import { TableColumn, TableEmpty } from '../ui/table-column';
 import { PurchasingApi } from './purchasing-api';
+import { FormAlert } from '../ui/form-alert';
 
 /**
  * Reorder points a family's parts start from: one per step, or one for every step of the family.
@@ -23,9 +23,9 @@ import { PurchasingApi } from './purchasing-api';
 @Component({
   selector: 'app-reorder-defaults-page',
   imports: [
+    FormAlert,
     MatButtonModule,
     MatFormFieldModule,
-    MatIconModule,
     MatInputModule,
     MatProgressBarModule,
     MatSelectModule,

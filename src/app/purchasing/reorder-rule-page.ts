@@ -16,6 +16,7 @@ import type {
 import { apiErrorMessage, apiFieldErrors } from '../core/api-error';
 import { Notifier } from '../core/notifier';
 import { PurchasingApi } from './purchasing-api';
+import { FormAlert } from '../ui/form-alert';
 
 const whole = [Validators.min(0), Validators.max(1_000_000), Validators.pattern(/^\d+$/)];
 
@@ -26,6 +27,7 @@ const whole = [Validators.min(0), Validators.max(1_000_000), Validators.pattern(
 @Component({
   selector: 'app-reorder-rule-page',
   imports: [
+    FormAlert,
     MatButtonModule,
     MatFormFieldModule,
     MatIconModule,

@@ -10,16 +10,16 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { Router, RouterLink } from '@angular/router';
 import type { DateTime } from 'luxon';
-import { catchError, map, of } from 'rxjs';
+import { catchError, map, of, tap } from 'rxjs';
 
 import type { LadderStepJson } from '../../../shared/api/catalog';
-import type { SourcingJson } from '../../../shared/api/purchasing';
-import { apiErrorMessage } from '../core/api-error';
 import { dayOf } from '../core/shop-date-adapter';
 import { DataTable } from '../ui/data-table';
+import { loadEach } from '../ui/load';
 import { TableColumn, TableEmpty } from '../ui/table-column';
 import { PurchasingApi } from './purchasing-api';
 import { ShopDatePipe } from '../core/shop-date-pipe';
+import { FormAlert } from '../ui/form-alert';
 
 /**
  * Who still has a part, or the pistons of a family's step: every supplier's offer landed here in
@@ -29,6 +29,7 @@ import { ShopDatePipe } from '../core/shop-date-pipe';
 @Component({
   selector: 'app-sourcing-page',
   imports: [
+    FormAlert,
     ShopDatePipe,
     FormsModule,
     MatButtonModule,
@@ -75,13 +76,36 @@ export class SourcingPage {
     return dayOf(value) ?? '';
   }
 
-  protected readonly result = signal<SourcingJson | null>(null);
-  protected readonly loading = signal(false);
-  protected readonly error = signal('');
+  /** The offers for what the address asks about: a part, or a family's step; none until given. */
+  protected readonly offers = loadEach(
+    () => {
+      const partId = this.partId();
+      const familyId = this.familyId();
+      const stepId = this.stepId();
+      if (!partId && !(familyId && stepId)) return null;
+      return {
+        ...(partId ? { partId } : { familyId, stepId }),
+        quantity: Math.max(1, Number(this.quantity() ?? 1) || 1),
+        neededBy: this.neededBy() || undefined,
+      };
+    },
+    (q) =>
+      this.api.sourcing(q).pipe(
+        tap((r) => {
+          // Opened for one part (from Reorder): show its family and step, so the form says what
+          // is being looked at and Find can be pressed again.
+          if (r.part?.familyId && !this.chosenFamily) {
+            this.chosenFamily = r.part.familyId;
+            this.chosenStep = r.part.stepId ?? '';
+            this.loadSteps(r.part.familyId);
+          }
+        }),
+      ),
+  );
 
   constructor() {
+    // The form shows what the address asks for.
     effect(() => {
-      const partId = this.partId();
       const familyId = this.familyId();
       const stepId = this.stepId();
       this.wanted = Math.max(1, Number(this.quantity() ?? 1) || 1);
@@ -91,7 +115,6 @@ export class SourcingPage {
         this.chosenStep = stepId ?? '';
         this.loadSteps(familyId);
       }
-      if (partId || (familyId && stepId)) this.fetch({ partId, familyId, stepId });
     });
   }
 
@@ -117,7 +140,7 @@ export class SourcingPage {
 
   /** Puts the choice in the address, so the page can be bookmarked and the back button works. */
   protected look(): void {
-    const part = this.result()?.part;
+    const part = this.offers.value()?.part;
     const samePart =
       part &&
       this.partId() === part.id &&
@@ -146,34 +169,5 @@ export class SourcingPage {
       queryParams: { quantity: this.wanted, neededBy: this.byDate || null },
       queryParamsHandling: 'merge',
     });
-  }
-
-  private fetch(q: { partId?: string; familyId?: string; stepId?: string }): void {
-    this.loading.set(true);
-    this.error.set('');
-    this.api
-      .sourcing({
-        ...(q.partId ? { partId: q.partId } : { familyId: q.familyId, stepId: q.stepId }),
-        quantity: this.wanted,
-        neededBy: this.byDate || undefined,
-      })
-      .subscribe({
-        next: (r) => {
-          this.loading.set(false);
-          // Opened for one part (from Reorder): show its family and step, so the form says what
-          // is being looked at and Find can be pressed again.
-          if (r.part?.familyId && !this.chosenFamily) {
-            this.chosenFamily = r.part.familyId;
-            this.chosenStep = r.part.stepId ?? '';
-            this.loadSteps(r.part.familyId);
-          }
-          this.result.set(r);
-        },
-        error: (e: unknown) => {
-          this.loading.set(false);
-          this.result.set(null);
-          this.error.set(apiErrorMessage(e));
-        },
-      });
   }
 }

@@ -1,25 +1,25 @@
 import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
-import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
+import { MAT_DIALOG_DATA, MatDialogModule } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
-import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 
 import type { PartJson } from '../../../shared/api/catalog';
 import type { StockChangeJson } from '../../../shared/api/stock';
-import { apiErrorMessage } from '../core/api-error';
 import { PartPicker } from './part-picker';
 import { StockApi } from './stock-api';
+import { DialogSave } from '../ui/dialog-save';
+import { FormAlert } from '../ui/form-alert';
 
 /** Corrects a counted part's on-hand after a count (+ found, − missing), with the reason. */
 @Component({
   selector: 'app-adjust-dialog',
   imports: [
+    FormAlert,
     MatButtonModule,
     MatDialogModule,
     MatFormFieldModule,
-    MatIconModule,
     MatInputModule,
     PartPicker,
     ReactiveFormsModule,
@@ -28,11 +28,7 @@ import { StockApi } from './stock-api';
     <h2 mat-dialog-title>Correct a count</h2>
     <form [formGroup]="form" (ngSubmit)="submit()" novalidate>
       <mat-dialog-content class="dialog-form">
-        @if (problem()) {
-          <div class="form-alert" role="alert">
-            <mat-icon>error</mat-icon><span>{{ problem() }}</span>
-          </div>
-        }
+        <app-form-alert [message]="save.problem()" />
         @if (part(); as p) {
           <p>
             <strong>{{ p.sku }}</strong> {{ p.description }}<br />
@@ -67,7 +63,7 @@ import { StockApi } from './stock-api';
         <button
           mat-flat-button
           type="submit"
-          [disabled]="busy() || !part() || part()?.kind === 'piston'"
+          [disabled]="save.busy() || !part() || part()?.kind === 'piston'"
         >
           Save
         </button>
@@ -83,7 +79,6 @@ import { StockApi } from './stock-api';
 })
 export class AdjustDialog {
   private readonly api = inject(StockApi);
-  private readonly dialogRef = inject<MatDialogRef<AdjustDialog, StockChangeJson>>(MatDialogRef);
   protected readonly data = inject<PartJson | null>(MAT_DIALOG_DATA, { optional: true });
 
   private readonly fb = inject(NonNullableFormBuilder);
@@ -96,27 +91,14 @@ export class AdjustDialog {
     ]),
     reason: ['', [Validators.required, Validators.maxLength(500)]],
   });
-  protected readonly busy = signal(false);
-  protected readonly problem = signal('');
+  protected readonly save = new DialogSave<StockChangeJson>();
 
   protected submit(): void {
     const part = this.part();
-    if (this.busy() || !part) return;
-    if (this.form.invalid) {
-      this.form.markAllAsTouched();
-      return;
-    }
+    if (!part) return;
     const v = this.form.getRawValue();
-    this.busy.set(true);
-    this.problem.set('');
-    this.api
-      .adjust({ partId: part.id, quantity: Number(v.quantity), reason: v.reason.trim() })
-      .subscribe({
-        next: (change) => this.dialogRef.close(change),
-        error: (error: unknown) => {
-          this.busy.set(false);
-          this.problem.set(apiErrorMessage(error));
-        },
-      });
+    this.save.submit(this.form, () =>
+      this.api.adjust({ partId: part.id, quantity: Number(v.quantity), reason: v.reason.trim() }),
+    );
   }
 }

@@ -11,6 +11,7 @@ import { apiErrorMessage } from '../core/api-error';
 import { Barcode } from '../ui/barcode';
 import { labelLayout, LabelLayoutToggle } from '../ui/label-layout';
 import { StockApi } from './stock-api';
+import { FormAlert } from '../ui/form-alert';
 
 type Loaded =
   { state: 'loading' } | { state: 'ok'; bins: BinJson[] } | { state: 'error'; message: string };
@@ -22,6 +23,7 @@ type Loaded =
 @Component({
   selector: 'app-bin-labels',
   imports: [
+    FormAlert,
     Barcode,
     LabelLayoutToggle,
     MatButtonModule,
@@ -48,11 +50,7 @@ type Loaded =
       @if (loaded().state === 'loading') {
         <mat-progress-bar mode="indeterminate" aria-label="Loading bins" />
       }
-      @if (error(); as message) {
-        <div class="form-alert" role="alert">
-          <mat-icon>error</mat-icon><span>{{ message }}</span>
-        </div>
-      }
+      <app-form-alert [message]="error()" />
       @if (loaded().state === 'ok' && bins().length === 0) {
         <p class="empty">No bins to label. Add bins first.</p>
       }

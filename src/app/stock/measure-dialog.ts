@@ -1,27 +1,28 @@
 import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
-import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
+import { MAT_DIALOG_DATA, MatDialogModule } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
-import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 
 import type { StockChangeJson, UnitJson } from '../../../shared/api/stock';
-import { apiErrorMessage, apiFieldErrors } from '../core/api-error';
+import { apiFieldErrors } from '../core/api-error';
 import { LengthPipe } from '../core/length-pipe';
 import { Session } from '../core/session';
 import { lengthText, lengthValidator, otherUnitHint } from '../ui/length-input';
 import { StockApi } from './stock-api';
+import { DialogSave } from '../ui/dialog-save';
+import { FormAlert } from '../ui/form-alert';
 
 /** Records a piston's measured skirt diameter; closes with the change. */
 @Component({
   selector: 'app-measure-dialog',
   imports: [
+    FormAlert,
     LengthPipe,
     MatButtonModule,
     MatDialogModule,
     MatFormFieldModule,
-    MatIconModule,
     MatInputModule,
     ReactiveFormsModule,
   ],
@@ -29,11 +30,7 @@ import { StockApi } from './stock-api';
     <h2 mat-dialog-title>Measure {{ unit.label }}</h2>
     <form [formGroup]="form" (ngSubmit)="submit()" novalidate>
       <mat-dialog-content class="dialog-form">
-        @if (problem()) {
-          <div class="form-alert" role="alert">
-            <mat-icon>error</mat-icon><span>{{ problem() }}</span>
-          </div>
-        }
+        <app-form-alert [message]="save.problem()" />
         <p>
           {{ unit.sku }} · {{ unit.stepLabel }}
           @if (unit.nominalBore) {
@@ -63,7 +60,7 @@ import { StockApi } from './stock-api';
       </mat-dialog-content>
       <mat-dialog-actions align="end">
         <button mat-button type="button" mat-dialog-close>Cancel</button>
-        <button mat-flat-button type="submit" [disabled]="busy()">Save size</button>
+        <button mat-flat-button type="submit" [disabled]="save.busy()">Save size</button>
       </mat-dialog-actions>
     </form>
   `,
@@ -76,7 +73,6 @@ import { StockApi } from './stock-api';
 })
 export class MeasureDialog {
   private readonly api = inject(StockApi);
-  private readonly dialogRef = inject<MatDialogRef<MeasureDialog, StockChangeJson>>(MatDialogRef);
   protected readonly unit = inject<UnitJson>(MAT_DIALOG_DATA);
   protected readonly session = inject(Session);
 
@@ -86,8 +82,7 @@ export class MeasureDialog {
       [Validators.required, lengthValidator(() => this.session.unit(), { max: 500_000_000 })],
     ],
   });
-  protected readonly busy = signal(false);
-  protected readonly problem = signal('');
+  protected readonly save = new DialogSave<StockChangeJson>();
   private readonly serverError = signal('');
 
   protected hint(): string {
@@ -102,25 +97,22 @@ export class MeasureDialog {
   }
 
   protected submit(): void {
-    if (this.busy()) return;
-    if (this.form.invalid) {
-      this.form.markAllAsTouched();
-      return;
-    }
-    this.busy.set(true);
-    this.problem.set('');
-    const skirt = lengthText(this.form.getRawValue().skirt, this.session.unit());
-    this.api.measure(this.unit.id, skirt).subscribe({
-      next: (change) => this.dialogRef.close(change),
-      error: (error: unknown) => {
-        this.busy.set(false);
-        const field = apiFieldErrors(error)['skirt'];
-        if (field) {
-          this.serverError.set(field);
-          this.form.controls.skirt.setErrors({ server: field });
-        }
-        this.problem.set(apiErrorMessage(error));
+    this.save.submit(
+      this.form,
+      () =>
+        this.api.measure(
+          this.unit.id,
+          lengthText(this.form.getRawValue().skirt, this.session.unit()),
+        ),
+      {
+        failed: (error) => {
+          const field = apiFieldErrors(error)['skirt'];
+          if (field) {
+            this.serverError.set(field);
+            this.form.controls.skirt.setErrors({ server: field });
+          }
+        },
       },
-    });
+    );
   }
 }

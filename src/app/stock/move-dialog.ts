@@ -1,16 +1,16 @@
-import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
-import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
+import { MAT_DIALOG_DATA, MatDialogModule } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
-import { MatIconModule } from '@angular/material/icon';
 import { MatSelectModule } from '@angular/material/select';
 import { catchError, map, of } from 'rxjs';
 
 import type { BinJson, StockChangeJson } from '../../../shared/api/stock';
-import { apiErrorMessage } from '../core/api-error';
 import { StockApi } from './stock-api';
+import { DialogSave } from '../ui/dialog-save';
+import { FormAlert } from '../ui/form-alert';
 
 /** What moves: one piston (by its unit) or all of a counted part. */
 export interface MoveTarget {
@@ -25,10 +25,10 @@ export interface MoveTarget {
 @Component({
   selector: 'app-move-dialog',
   imports: [
+    FormAlert,
     MatButtonModule,
     MatDialogModule,
     MatFormFieldModule,
-    MatIconModule,
     MatSelectModule,
     ReactiveFormsModule,
   ],
@@ -36,11 +36,7 @@ export interface MoveTarget {
     <h2 mat-dialog-title>Move {{ data.name }}</h2>
     <form [formGroup]="form" (ngSubmit)="submit()" novalidate>
       <mat-dialog-content class="dialog-form">
-        @if (problem()) {
-          <div class="form-alert" role="alert">
-            <mat-icon>error</mat-icon><span>{{ problem() }}</span>
-          </div>
-        }
+        <app-form-alert [message]="save.problem()" />
         <mat-form-field appearance="outline">
           <mat-label>To bin</mat-label>
           <mat-select formControlName="toBinId" required>
@@ -61,7 +57,7 @@ export interface MoveTarget {
       </mat-dialog-content>
       <mat-dialog-actions align="end">
         <button mat-button type="button" mat-dialog-close>Cancel</button>
-        <button mat-flat-button type="submit" [disabled]="busy()">Move</button>
+        <button mat-flat-button type="submit" [disabled]="save.busy()">Move</button>
       </mat-dialog-actions>
     </form>
   `,
@@ -69,7 +65,6 @@ export interface MoveTarget {
 })
 export class MoveDialog {
   private readonly api = inject(StockApi);
-  private readonly dialogRef = inject<MatDialogRef<MoveDialog, StockChangeJson>>(MatDialogRef);
   protected readonly data = inject<MoveTarget>(MAT_DIALOG_DATA);
 
   protected readonly form = inject(NonNullableFormBuilder).group({
@@ -82,27 +77,13 @@ export class MoveDialog {
     ),
     { initialValue: [] as BinJson[] },
   );
-  protected readonly busy = signal(false);
-  protected readonly problem = signal('');
+  protected readonly save = new DialogSave<StockChangeJson>();
 
   protected submit(): void {
-    if (this.busy()) return;
-    if (this.form.invalid) {
-      this.form.markAllAsTouched();
-      return;
-    }
-    this.busy.set(true);
-    this.problem.set('');
     const toBinId = this.form.getRawValue().toBinId;
     const body = this.data.unitId
       ? { unitId: this.data.unitId, toBinId }
       : { partId: this.data.partId, toBinId };
-    this.api.move(body).subscribe({
-      next: (change) => this.dialogRef.close(change),
-      error: (error: unknown) => {
-        this.busy.set(false);
-        this.problem.set(apiErrorMessage(error));
-      },
-    });
+    this.save.submit(this.form, () => this.api.move(body));
   }
 }

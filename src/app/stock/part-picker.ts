@@ -8,15 +8,12 @@ import {
   signal,
 } from '@angular/core';
 import { toObservable, toSignal } from '@angular/core/rxjs-interop';
-import { MatAutocompleteModule } from '@angular/material/autocomplete';
-import { MatFormFieldModule } from '@angular/material/form-field';
-import { MatIconModule } from '@angular/material/icon';
-import { MatInputModule } from '@angular/material/input';
 import { debounce, map, timer } from 'rxjs';
 
 import type { PartJson } from '../../../shared/api/catalog';
 import { StockApi } from './stock-api';
 import { loadEach } from '../ui/load';
+import { SearchField } from '../ui/search-field';
 
 type Found = { parts: PartJson[]; message: string; text: string; scan: boolean };
 
@@ -26,44 +23,26 @@ type Found = { parts: PartJson[]; message: string; text: string; scan: boolean }
  */
 @Component({
   selector: 'app-part-picker',
-  imports: [MatAutocompleteModule, MatFormFieldModule, MatIconModule, MatInputModule],
+  imports: [SearchField],
   template: `
-    <mat-form-field appearance="outline" class="picker" subscriptSizing="dynamic">
-      <mat-label>{{ label() }}</mat-label>
-      <mat-icon matPrefix>barcode_scanner</mat-icon>
-      <input
-        matInput
-        type="search"
-        autocomplete="off"
-        [value]="text()"
-        [matAutocomplete]="auto"
-        (input)="onType($any($event.target).value)"
-        (keydown.enter)="onEnter($event)"
-      />
-      <mat-autocomplete #auto="matAutocomplete" (optionSelected)="choose($event.option.value)">
-        @for (p of found().parts; track p.id) {
-          <mat-option [value]="p">
-            <strong>{{ p.sku }}</strong> — {{ p.description }}
-            @if (p.stepLabel) {
-              · {{ p.stepLabel }}
-            }
-          </mat-option>
+    <app-search-field
+      [label]="label()"
+      icon="barcode_scanner"
+      hint="Part number or words, or scan the box's barcode"
+      [text]="text()"
+      [items]="found().parts"
+      [problem]="found().message"
+      (typed)="onType($event)"
+      (entered)="onEnter($event)"
+      (chosen)="choose($event)"
+    >
+      <ng-template let-p>
+        <strong>{{ p.sku }}</strong> — {{ p.description }}
+        @if (p.stepLabel) {
+          · {{ p.stepLabel }}
         }
-      </mat-autocomplete>
-      @if (found().message) {
-        <mat-hint class="problem">{{ found().message }}</mat-hint>
-      } @else {
-        <mat-hint>Part number or words, or scan the box's barcode</mat-hint>
-      }
-    </mat-form-field>
-  `,
-  styles: `
-    .picker {
-      width: 100%;
-    }
-    .problem {
-      color: var(--mat-sys-error);
-    }
+      </ng-template>
+    </app-search-field>
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,
 })

@@ -45,6 +45,7 @@ import { Session } from '../core/session';
 import { lengthText, lengthValidator, otherUnitHint } from '../ui/length-input';
 import { PartPicker } from './part-picker';
 import { StockApi } from './stock-api';
+import { FormAlert } from '../ui/form-alert';
 
 type UnitRow = FormGroup<{ skirt: FormControl<string>; toMeasure: FormControl<boolean> }>;
 
@@ -63,6 +64,7 @@ const NO_ORDER = '';
 @Component({
   selector: 'app-receive-page',
   imports: [
+    FormAlert,
     ShopDatePipe,
     LengthPipe,
     MatButtonModule,

@@ -1,23 +1,23 @@
-import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
-import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
+import { MAT_DIALOG_DATA, MatDialogModule } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
-import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 
 import type { StockChangeJson, UnitJson } from '../../../shared/api/stock';
-import { apiErrorMessage } from '../core/api-error';
 import { StockApi } from './stock-api';
+import { DialogSave } from '../ui/dialog-save';
+import { FormAlert } from '../ui/form-alert';
 
 /** Writes a piston off (damaged, dropped, missing at a count), with the reason on record. */
 @Component({
   selector: 'app-scrap-dialog',
   imports: [
+    FormAlert,
     MatButtonModule,
     MatDialogModule,
     MatFormFieldModule,
-    MatIconModule,
     MatInputModule,
     ReactiveFormsModule,
   ],
@@ -25,11 +25,7 @@ import { StockApi } from './stock-api';
     <h2 mat-dialog-title>Scrap {{ unit.label }}?</h2>
     <form [formGroup]="form" (ngSubmit)="submit()" novalidate>
       <mat-dialog-content class="dialog-form">
-        @if (problem()) {
-          <div class="form-alert" role="alert">
-            <mat-icon>error</mat-icon><span>{{ problem() }}</span>
-          </div>
-        }
+        <app-form-alert [message]="save.problem()" />
         <p>It leaves stock for good; the ledger keeps who did it and why.</p>
         <mat-form-field appearance="outline">
           <mat-label>Reason</mat-label>
@@ -40,7 +36,7 @@ import { StockApi } from './stock-api';
       </mat-dialog-content>
       <mat-dialog-actions align="end">
         <button mat-button type="button" mat-dialog-close>Keep it</button>
-        <button mat-flat-button type="submit" class="danger" [disabled]="busy()">Scrap</button>
+        <button mat-flat-button type="submit" class="danger" [disabled]="save.busy()">Scrap</button>
       </mat-dialog-actions>
     </form>
   `,
@@ -54,29 +50,16 @@ import { StockApi } from './stock-api';
 })
 export class ScrapDialog {
   private readonly api = inject(StockApi);
-  private readonly dialogRef = inject<MatDialogRef<ScrapDialog, StockChangeJson>>(MatDialogRef);
   protected readonly unit = inject<UnitJson>(MAT_DIALOG_DATA);
 
   protected readonly form = inject(NonNullableFormBuilder).group({
     reason: ['', [Validators.required, Validators.maxLength(500)]],
   });
-  protected readonly busy = signal(false);
-  protected readonly problem = signal('');
+  protected readonly save = new DialogSave<StockChangeJson>();
 
   protected submit(): void {
-    if (this.busy()) return;
-    if (this.form.invalid) {
-      this.form.markAllAsTouched();
-      return;
-    }
-    this.busy.set(true);
-    this.problem.set('');
-    this.api.scrap(this.unit.id, this.form.getRawValue().reason.trim()).subscribe({
-      next: (change) => this.dialogRef.close(change),
-      error: (error: unknown) => {
-        this.busy.set(false);
-        this.problem.set(apiErrorMessage(error));
-      },
-    });
+    this.save.submit(this.form, () =>
+      this.api.scrap(this.unit.id, this.form.getRawValue().reason.trim()),
+    );
   }
 }

@@ -8,7 +8,6 @@ import {
 import { MatButtonModule } from '@angular/material/button';
 import { MatCheckboxModule } from '@angular/material/checkbox';
 import { MatFormFieldModule } from '@angular/material/form-field';
-import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { Router, RouterLink } from '@angular/router';
 
@@ -19,6 +18,7 @@ import { SuppliersApi, type SupplierBody } from './suppliers-api';
 import { schemaValidator } from '../core/field-errors';
 import { loadIntoForm } from '../ui/load';
 import { ListState } from '../ui/list-state';
+import { FormAlert } from '../ui/form-alert';
 
 /** The server's own rule for one supplier field. */
 function rule(field: keyof typeof supplierInput.shape) {
@@ -29,11 +29,11 @@ function rule(field: keyof typeof supplierInput.shape) {
 @Component({
   selector: 'app-supplier-form',
   imports: [
+    FormAlert,
     ListState,
     MatButtonModule,
     MatCheckboxModule,
     MatFormFieldModule,
-    MatIconModule,
     MatInputModule,
     ReactiveFormsModule,
     RouterLink,

@@ -6,23 +6,25 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
-import { MatTooltipModule } from '@angular/material/tooltip';
 import { ActivatedRoute, Router } from '@angular/router';
 
 import { apiErrorBody, apiErrorMessage } from '../api-error';
 import { Session } from '../session';
+import { RevealPassword } from '../../ui/reveal-password';
+import { FormAlert } from '../../ui/form-alert';
 
 /** The page a signed-out person lands on; after signing in they go back where they were headed. */
 @Component({
   selector: 'app-sign-in',
   imports: [
-    MatTooltipModule,
+    FormAlert,
     MatButtonModule,
     MatFormFieldModule,
     MatIconModule,
     MatInputModule,
     MatProgressBarModule,
     ReactiveFormsModule,
+    RevealPassword,
   ],
   templateUrl: './sign-in.html',
   styleUrl: './sign-in.scss',
@@ -39,7 +41,6 @@ export class SignIn {
   });
   protected readonly busy = signal(false);
   protected readonly problem = signal('');
-  protected readonly showPassword = signal(false);
 
   protected submit(): void {
     if (this.busy()) return;
