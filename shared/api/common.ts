@@ -72,6 +72,20 @@ export function optionalLengthField(opts: ParseLengthOptions = {}) {
   );
 }
 
+// ---- Parts in reports ---------------------------------------------------------------------------
+
+/** The part a report line is about: its SKU and words, its kind, and its family and step if any. */
+export interface PartLineJson {
+  partId: string;
+  sku: string;
+  description: string;
+  kind: string;
+  familyId: string | null;
+  familyCode: string | null;
+  stepId: string | null;
+  stepLabel: string | null;
+}
+
 // ---- Money and currencies ----------------------------------------------------------------------
 
 /** Money as exact decimal text, 0 or more, at most 4 decimals ("12.50"). */

@@ -66,15 +66,16 @@ export const mergeInput = z.strictObject({ fromId: idField });
 
 export const eraseInput = z.strictObject({});
 
+/** A cylinder's mark as typed or scanned: trimmed, 1 to 40 characters; `missing` when there is none. */
+const markText = (missing: string) =>
+  z
+    .string({ error: missing })
+    .check(z.trim(), z.minLength(1, missing), z.maxLength(40, 'at most 40 characters'));
+
 export const cylinderInput = z.strictObject({
-  mark: z
-    .string({ error: "enter the shop's mark for the cylinder" })
-    .check(
-      z.trim(),
-      z.minLength(1, "enter the shop's mark for the cylinder"),
-      z.maxLength(40, 'at most 40 characters'),
-      z.regex(/^[\x20-\x7e]+$/, 'letters, digits and plain punctuation only, so the tag can print'),
-    ),
+  mark: markText("enter the shop's mark for the cylinder").check(
+    z.regex(/^[\x20-\x7e]+$/, 'letters, digits and plain punctuation only, so the tag can print'),
+  ),
   familyId: idField,
   castNumber: optionalText(60),
 });
@@ -84,13 +85,7 @@ export const EXPORT_FORMATS = ['json', 'csv'] as const;
 
 /** The cylinder whose tag was scanned (camera or keyboard-wedge scanner): its exact mark. */
 export const cylinderMarkQuery = z.strictObject({
-  mark: z
-    .string({ error: "enter the shop's mark from the cylinder's tag" })
-    .check(
-      z.trim(),
-      z.minLength(1, "enter the shop's mark from the cylinder's tag"),
-      z.maxLength(40, 'at most 40 characters'),
-    ),
+  mark: markText("enter the shop's mark from the cylinder's tag"),
 });
 
 // ---- Answers ----------------------------------------------------------------------------------

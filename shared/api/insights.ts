@@ -4,7 +4,7 @@
 // input with the same words. Money is exact decimal text ("1234.50"); shares are fractions ("0.8125").
 import { DateTime } from 'luxon';
 import * as z from '../zod';
-import { calendarDay, daysBetween } from './common';
+import { calendarDay, daysBetween, type PartLineJson } from './common';
 import type { NeededPart } from '../part-needs';
 
 /** Longest period one request may cover: ten years of months is already more than any chart shows. */
@@ -175,15 +175,7 @@ export interface MonthlyAnswer {
   currency: string;
 }
 
-export interface TopSeller {
-  partId: string;
-  sku: string;
-  description: string;
-  kind: string;
-  familyId: string | null;
-  familyCode: string | null;
-  stepId: string | null;
-  stepLabel: string | null;
+export interface TopSeller extends PartLineJson {
   units: number;
   revenue: string;
   margin: string;
@@ -225,19 +217,11 @@ export interface StockValueAnswer {
   currency: string;
 }
 
-export interface DeadStockItem {
-  partId: string;
+export interface DeadStockItem extends PartLineJson {
   onHand: number;
   /** Value of the free units (on hand less held) at average cost. */
   value: string;
   lastIssuedAt: string | null;
-  sku: string;
-  description: string;
-  kind: string;
-  familyId: string | null;
-  familyCode: string | null;
-  stepId: string | null;
-  stepLabel: string | null;
   held: number;
   lastReceivedAt: string | null;
 }

@@ -2,7 +2,14 @@
 // computed suggestion with its figures, the reorder list, sourcing offers and exchange rates.
 import * as z from '../zod';
 import { atMost } from '../text-rules';
-import { calendarDay, currencyCode, idField, pageNumber, pageSizeField } from './common';
+import {
+  calendarDay,
+  currencyCode,
+  idField,
+  pageNumber,
+  pageSizeField,
+  type PartLineJson,
+} from './common';
 import type { WaitingItemJson } from './suppliers';
 
 const count = (max = 1_000_000) =>
@@ -133,15 +140,7 @@ export const reorderListQuery = z.object({
 });
 export type ReorderListQuery = z.output<typeof reorderListQuery>;
 
-export interface ReorderLineJson {
-  partId: string;
-  sku: string;
-  description: string;
-  kind: string;
-  familyId: string | null;
-  familyCode: string | null;
-  stepId: string | null;
-  stepLabel: string | null;
+export interface ReorderLineJson extends PartLineJson {
   onHand: number;
   held: number;
   free: number;
