@@ -1,13 +1,12 @@
-// Sessions live in PostgreSQL (connect-pg-simple) so any number of server processes can serve one
-// database. The cookie is HttpOnly and SameSite=Lax; it rolls on every request and expires after the
-// idle timeout.
+// Sessions live in PostgreSQL (connect-pg-simple's table, read with the signed-in user by
+// session-store.ts) so any number of server processes can serve one database. The cookie is
+// HttpOnly and SameSite=Lax; it rolls on every request and expires after the idle timeout.
 import session from 'express-session';
-import connectPgSimple from 'connect-pg-simple';
 import pg from 'pg';
 import { config } from '../config';
+import { createSessionStore } from './session-store';
 
 export function sessionMiddleware(databaseUrl = config.databaseUrl) {
-  const PgStore = connectPgSimple(session);
   const pool = new pg.Pool({
     connectionString: databaseUrl,
     max: 5,
@@ -15,10 +14,7 @@ export function sessionMiddleware(databaseUrl = config.databaseUrl) {
   });
   // A dropped connection must not crash the process; the next query reconnects.
   pool.on('error', () => undefined);
-  const store = new PgStore({
-    pool,
-    tableName: 'sessions',
-    createTableIfMissing: false,
+  const store = createSessionStore(pool, {
     pruneSessionInterval: config.NODE_ENV === 'test' ? false : 15 * 60,
   });
   throttleTouches(store);

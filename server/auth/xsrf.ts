@@ -82,10 +82,12 @@ function exempt(req: Request): boolean {
 
 export const xsrfGuard: RequestHandler = (req, res, next) => {
   const cookie = readCookie(req, XSRF_COOKIE);
-  if (!cookie || !validToken(req, cookie)) setXsrfCookie(res);
+  const cookieValid = cookie !== undefined && validToken(req, cookie);
+  if (!cookieValid) setXsrfCookie(res);
   if (SAFE.has(req.method) || !req.path.startsWith('/api/') || exempt(req)) return next();
   const header = req.get(XSRF_HEADER);
-  if (!header || !cookie || header !== cookie || !validToken(req, header)) {
+  // The header must be the cookie's own token, and that token valid for this session (checked once).
+  if (!header || header !== cookie || !cookieValid) {
     // A session that ended (idle timeout, signed out elsewhere) leaves the page a token bound to
     // it: say so, so the page asks the person to sign in rather than to reload.
     if (!req.user && readCookie(req, 'stepstock.sid')) {

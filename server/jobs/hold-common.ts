@@ -30,8 +30,12 @@ export function proposedJson(row: repo.FreeUnitRow): ProposedUnitJson {
   };
 }
 
-export async function requireHoldJob(trx: Conn, jobId: string, mode: 'share' | 'change') {
-  const job = await jobsRepo.lockJob(trx, jobId, mode);
+export async function requireHoldJob(
+  trx: Conn,
+  jobId: string,
+  mode: 'share' | 'change',
+): Promise<repo.HoldJobRow> {
+  const job = await repo.lockJobForHolds(trx, jobId, mode);
   if (!job) throw new NotFound('That job');
   if (!isOpenState(job.state)) {
     throw new Conflict(
@@ -42,7 +46,11 @@ export async function requireHoldJob(trx: Conn, jobId: string, mode: 'share' | '
   return job;
 }
 
-export async function requireCylinderRow(trx: Conn, job: jobsRepo.JobRow, n: number) {
+export async function requireCylinderRow(
+  trx: Conn,
+  job: { id: string; number: string; cylinders: number },
+  n: number,
+) {
   if (n > job.cylinders) {
     throw new NotFound(`Cylinder ${n} of job ${job.number} (it has ${job.cylinders})`);
   }

@@ -1,5 +1,6 @@
-// The pistons and counted parts a hold claims or gives back, and the free stock at a step that a
-// proposal reads. Row locks and conditional UPDATEs decide who gets a unit; see holds-service.ts.
+// The pistons and counted parts a hold reads or gives back, and the free stock at a step that a
+// proposal reads. The claim itself is part of the hold's one write (stock-movements.ts's
+// unitHoldCtes): a conditional UPDATE decides who gets a unit; see holds-service.ts.
 import type { Knex } from 'knex';
 import { db } from '../db/knex';
 import type { PartKind } from '../../shared/api/catalog';
@@ -111,10 +112,6 @@ export function partsByIds(ids: string[], k: Knex = db): Promise<HoldPartRow[]> 
   return holdParts(k).whereIn('p.id', ids);
 }
 
-/**
- * Claims a free piston for a job: the one statement that decides who gets a unit. Returns nothing
- * when the unit was not free (someone else was first, or it left the shelf).
- */
 /** Moves a held unit's marks to another job or cylinder (the unit stays held). */
 export async function remarkUnit(
   trx: Knex,
@@ -153,23 +150,6 @@ export async function issueUnit(trx: Knex, unitId: string): Promise<boolean> {
     .update({ status: 'issued', hold_expires_at: null, updated_at: trx.fn.now() })
     .where({ id: unitId, status: 'held' });
   return count === 1;
-}
-
-/**
- * Sets counted parts aside: held grows only while enough are free. Nothing is returned when fewer
- * than `quantity` are free (the CHECK on part_levels would refuse it anyway).
- */
-export async function reserveCount(
-  trx: Knex,
-  partId: string,
-  quantity: number,
-): Promise<{ on_hand: number; held: number } | undefined> {
-  const [row] = await trx('part_levels')
-    .update({ held: trx.raw('held + ?', [quantity]), updated_at: trx.fn.now() })
-    .where({ part_id: partId })
-    .whereRaw('on_hand - held >= ?', [quantity])
-    .returning<{ on_hand: number; held: number }[]>(['on_hand', 'held']);
-  return row;
 }
 
 export async function freeCount(partId: string, k: Knex = db): Promise<number> {

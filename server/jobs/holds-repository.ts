@@ -5,8 +5,10 @@
 import type { Knex } from 'knex';
 import { db } from '../db/knex';
 
-// The units and counted parts a hold claims, and the free stock a proposal reads: a file of their own.
+// The units and counted parts a hold claims, and the free stock a proposal reads, and the three
+// statements of placing a hold: files of their own.
 export * from './hold-units-repository';
+export * from './hold-place-repository';
 
 export type ReleaseReason = 'released' | 'moved' | 'expired' | 'cancelled' | 'issued';
 

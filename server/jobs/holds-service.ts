@@ -1,32 +1,26 @@
 // Holding parts for a cylinder before it is cut. A hold is, in one transaction: the unit claimed
 // with a conditional UPDATE (or the ring sets counted aside while enough are free), part_levels
 // held + n (guarded by its CHECK), a ledger 'reservation' row, the hold row, a note on the job and
-// the audit trail. Whoever loses a race for a piston gets 409 not_available and the next best free
-// piston of the same step. Releasing is in hold-release.ts, moving in hold-move.ts, the expiry
-// sweep in hold-expiry.ts; whether a part may be held at all is shared/hold-rules.ts.
+// the audit trail. In SQL that is BEGIN, the job locked, one read of all the rules and the answer
+// need, one write of all of it (hold-place-repository.ts) and COMMIT. Whoever loses a race for a
+// piston gets 409 not_available and the next best free piston of the same step. Releasing is in
+// hold-release.ts, moving in hold-move.ts, the expiry sweep in hold-expiry.ts; whether a part may
+// be held at all is shared/hold-rules.ts.
 import { randomUUID } from 'node:crypto';
 import type { Knex } from 'knex';
 import { db } from '../db/knex';
 import { logger } from '../logger';
-import { recordAudit } from '../audit/audit';
 import { BadRequest, Conflict, NotAvailable, NotFound } from '../errors';
 import { faultPoint } from '../testing-faults';
-import { getSettings } from '../settings/settings-service';
+import { settingsFromStored } from '../settings/settings-service';
 import { formatLength, type LengthUnit } from '../../shared/lengths';
 import { stepNominalBore } from '../../shared/step-series';
 import type { HoldInput, HoldJson, ProposedUnitJson } from '../../shared/api/jobs';
 import { whyNotHoldable, type HoldTarget } from '../../shared/hold-rules';
 import * as repo from './holds-repository';
 import * as jobsRepo from './jobs-repository';
-import {
-  DAY_MS,
-  holdOut,
-  proposedJson,
-  refuse,
-  requireCylinderRow,
-  requireHoldJob,
-} from './hold-common';
-import { advanceState } from './job-state';
+import { DAY_MS, proposedJson, refuse, requireHoldJob } from './hold-common';
+import { movesForward, stateNote } from './job-state';
 import { holdJson } from './jobs-json';
 import { recordShortage } from '../insights/insights-service';
 import { isCheckViolation, isUniqueViolation } from '../db/pg-errors';
@@ -45,7 +39,7 @@ const UNIT_STATUS_WORDS: Record<repo.HoldUnitRow['status'], string> = {
 /** The next best free piston after a lost race: same step, skirt nearest the step's nominal. */
 async function nextBest(
   k: Conn,
-  unit: repo.HoldUnitRow,
+  unit: { id: string; step_id: string | null },
   familyId: string,
 ): Promise<ProposedUnitJson | null> {
   if (!unit.step_id) return null;
@@ -83,43 +77,35 @@ export async function placeHold(
     // the pool is busy, and a hold that is already committed must never end up answered with a
     // "try again" because a second connection could not be had in time.
     return await k.transaction(async (trx) => {
-      const settings = await getSettings(trx);
-      const days =
-        input.expiresInDays === undefined ? settings.holdExpiryDays : input.expiresInDays;
-      const expiresAt = days === null ? null : new Date(Date.now() + days * DAY_MS);
       // The job row is locked for a state change from the start, so the job can move on to
       // parts-set-aside in this same transaction; holds on different jobs never wait here.
       const job = await requireHoldJob(trx, jobId, 'change');
-      const cylinder = await requireCylinderRow(trx, job, input.cylinder);
-      if (cylinder.cut_at) {
-        throw new Conflict(`Cylinder ${cylinder.n} of job ${job.number} is already cut.`);
+      if (input.cylinder > job.cylinders) {
+        throw new NotFound(
+          `Cylinder ${input.cylinder} of job ${job.number} (it has ${job.cylinders})`,
+        );
       }
-      let held: repo.HoldRow | null = null;
-      if (input.unitId) {
-        held = await holdUnit(trx, {
-          actorId,
-          job,
-          cylinder,
-          unitId: input.unitId,
-          holdId,
-          expiresAt,
-          unit,
-        });
-      } else if (input.partId) {
-        await holdCounted(trx, {
-          actorId,
-          job,
-          cylinder,
-          partId: input.partId,
-          quantity: input.quantity ?? 1,
-          holdId,
-          expiresAt,
-        });
+      const place = await repo.readHoldPlace(trx, {
+        jobId: job.id,
+        cylinder: input.cylinder,
+        unitId: input.unitId ?? null,
+        partId: input.unitId ? null : (input.partId ?? null),
+      });
+      if (!place) throw new NotFound(`Cylinder ${input.cylinder} of job ${job.number}`);
+      if (place.cut) {
+        throw new Conflict(`Cylinder ${place.n} of job ${job.number} is already cut.`);
       }
+      const days =
+        input.expiresInDays === undefined
+          ? settingsFromStored(place.settings).holdExpiryDays
+          : input.expiresInDays;
+      const expiresAt = days === null ? null : new Date(Date.now() + days * DAY_MS);
+      const c = { actorId, job, place, holdId, expiresAt };
+      const held = input.unitId
+        ? await holdUnit(trx, { ...c, unit })
+        : await holdCounted(trx, { ...c, quantity: input.quantity ?? 1 });
       faultPoint('holds.place.afterLedger');
-      // Once every cylinder with a step has its piston, a job at booked-in or gauged moves on.
-      await advanceState(trx, job, 'parts_set_aside', actorId);
-      return held ? holdJson(held) : holdOut(holdId, trx);
+      return holdJson(held);
     });
   } catch (e) {
     // Nothing free at that step: noted for Ran short after the rollback, so the note survives.
@@ -152,155 +138,199 @@ async function noteShortage(actorId: string, jobId: string, input: HoldInput): P
   });
 }
 
-function holdTarget(job: jobsRepo.JobRow, cylinder: jobsRepo.CylinderRow): HoldTarget {
+function holdTarget(job: repo.HoldJobRow, place: repo.HoldPlaceRow): HoldTarget {
   return {
     jobNumber: job.number,
     familyId: job.family_id,
-    cylinder: cylinder.n,
-    chosenStepId: cylinder.chosen_step_id,
-    chosenStepLabel: cylinder.step_label,
+    cylinder: place.n,
+    chosenStepId: place.chosen_step_id,
+    chosenStepLabel: place.chosen_step_label,
   };
 }
 
 interface HoldContext {
   actorId: string;
-  job: jobsRepo.JobRow;
-  cylinder: jobsRepo.CylinderRow;
+  job: repo.HoldJobRow;
+  place: repo.HoldPlaceRow;
   holdId: string;
   expiresAt: Date | null;
 }
 
+/**
+ * The job's move to parts-set-aside when this hold leaves every cylinder with a step its piston
+ * (the same rule as job-state.ts's advanceState, counted from the rows read before the write).
+ */
+function advanceAfterHold(
+  job: repo.HoldJobRow,
+  place: repo.HoldPlaceRow,
+  after: { stepped: boolean; pistonHeld: boolean },
+): repo.HoldNotes['advance'] {
+  const to = 'parts_set_aside';
+  if (!movesForward(job.state, to)) return null;
+  const toBore = place.others_to_bore + (after.stepped ? 1 : 0);
+  const withoutPiston = place.others_without_piston + (after.stepped && !after.pistonHeld ? 1 : 0);
+  if (toBore === 0 || withoutPiston > 0) return null;
+  return { state: to, text: stateNote(job.state, to) };
+}
+
+function holdReason(job: repo.HoldJobRow, place: repo.HoldPlaceRow): string {
+  return `held for job ${job.number}, cylinder ${place.n}`;
+}
+
 /** Holds one measured piston; returns the hold as the answer shows it, from the rows already read. */
-async function holdUnit(
-  trx: Conn,
-  c: HoldContext & { unitId: string; unit: LengthUnit },
-): Promise<repo.HoldRow> {
-  const { job, cylinder } = c;
-  const piston = await repo.holdUnit({ id: c.unitId }, trx);
-  if (!piston) throw new NotFound('That piston unit');
+async function holdUnit(trx: Conn, c: HoldContext & { unit: LengthUnit }): Promise<repo.HoldRow> {
+  const { job, place } = c;
+  if (!place.unit_id || !place.part_id) throw new NotFound('That piston unit');
+  const label = place.unit_label as string;
   refuse(
     whyNotHoldable(
       {
-        name: piston.label,
+        name: label,
         kind: 'piston',
-        familyId: piston.family_id,
-        stepId: piston.step_id,
-        stepLabel: piston.step_label,
-        measured: piston.skirt_nm !== null,
+        familyId: place.family_id,
+        stepId: place.step_id,
+        stepLabel: place.step_label,
+        measured: place.skirt_nm !== null,
         byUnit: true,
       },
-      holdTarget(job, cylinder),
+      holdTarget(job, place),
     ),
   );
-  const skirtNm = piston.skirt_nm as number;
-  const existing = await repo.activePistonHold(trx, job.id, cylinder.n);
-  if (existing) {
-    if (existing.unit_id === piston.id) {
-      throw new Conflict(`${piston.label} is already held for cylinder ${cylinder.n} of this job.`);
+  const skirtNm = place.skirt_nm as number;
+  if (place.piston_hold_unit_id) {
+    if (place.piston_hold_unit_id === place.unit_id) {
+      throw new Conflict(`${label} is already held for cylinder ${place.n} of this job.`);
     }
-    throw new Conflict(
-      `Cylinder ${cylinder.n} already has a piston held; release or move it first.`,
-    );
+    throw new Conflict(`Cylinder ${place.n} already has a piston held; release or move it first.`);
   }
 
-  let claimed: { partId: string; createdAt: Date } | null;
+  // Holding a piston settles the step when none was chosen yet.
+  const settleStepId = !place.chosen_step_id && place.step_id ? place.step_id : null;
+  let written: { createdAt: Date; levelRows: number } | null;
   try {
-    claimed = await moves.claimUnitForHold(trx, {
-      unitId: piston.id,
-      holdId: c.holdId,
-      jobId: job.id,
-      cylinder: cylinder.n,
-      expiresAt: c.expiresAt,
-      userId: c.actorId,
-      reason: `held for job ${job.number}, cylinder ${cylinder.n}`,
-    });
+    written = await repo.writeHold(
+      trx,
+      moves.unitHoldCtes(place.unit_id, {
+        holdId: c.holdId,
+        jobId: job.id,
+        cylinder: place.n,
+        expiresAt: c.expiresAt,
+        userId: c.actorId,
+        reason: holdReason(job, place),
+      }),
+      {
+        jobId: job.id,
+        cylinder: place.n,
+        holdId: c.holdId,
+        userId: c.actorId,
+        settleStepId,
+        text: `Held ${label} (${place.step_label ?? ''}, skirt ${formatLength(skirtNm, c.unit)}) for cylinder ${place.n}.`,
+        audit: {
+          jobId: job.id,
+          cylinder: place.n,
+          unitId: place.unit_id,
+          partId: place.part_id,
+          expiresAt: c.expiresAt,
+        },
+        advance: advanceAfterHold(job, place, {
+          stepped: Boolean(place.chosen_step_id ?? settleStepId),
+          pistonHeld: true,
+        }),
+      },
+    );
   } catch (e) {
     if (isCheckViolation(e)) {
-      throw new NotAvailable(`${piston.label} cannot be held: its part has nothing free on hand.`);
+      throw new NotAvailable(`${label} cannot be held: its part has nothing free on hand.`);
     }
     throw e;
   }
-  if (!claimed) {
-    const now = await repo.holdUnit({ id: piston.id }, trx);
-    const status = now?.status ?? piston.status;
-    throw new NotAvailable(
-      `${piston.label} is no longer free: it is ${UNIT_STATUS_WORDS[status]}.`,
-      { nextBest: await nextBest(trx, piston, job.family_id) },
-    );
+  if (!written) {
+    const now = await repo.holdUnit({ id: place.unit_id }, trx);
+    const status = now?.status ?? place.unit_status ?? 'free';
+    throw new NotAvailable(`${label} is no longer free: it is ${UNIT_STATUS_WORDS[status]}.`, {
+      nextBest: await nextBest(trx, { id: place.unit_id, step_id: place.step_id }, job.family_id),
+    });
   }
-  // Holding a piston settles the step when none was chosen yet.
-  if (!cylinder.chosen_step_id && piston.step_id) {
-    await jobsRepo.updateCylinder(trx, job.id, cylinder.n, { chosen_step_id: piston.step_id });
-  }
-  await jobsRepo.insertEvent(trx, {
-    jobId: job.id,
-    userId: c.actorId,
-    kind: 'hold',
-    text: `Held ${piston.label} (${piston.step_label ?? ''}, skirt ${formatLength(skirtNm, c.unit)}) for cylinder ${cylinder.n}.`,
-  });
-  await recordAudit(trx, {
-    userId: c.actorId,
-    action: 'hold.create',
-    entity: 'hold',
-    entityId: c.holdId,
-    after: {
-      jobId: job.id,
-      cylinder: cylinder.n,
-      unitId: piston.id,
-      partId: piston.part_id,
-      expiresAt: c.expiresAt,
-    },
-  });
+  // Every part has its levels row; a claim without one would leave held and the ledger apart.
+  if (written.levelRows !== 1) throw new Error(`part_levels row missing for part ${place.part_id}`);
   return {
     id: c.holdId,
     job_id: job.id,
     job_number: job.number,
-    cylinder: cylinder.n,
-    part_id: piston.part_id,
-    sku: piston.sku,
+    cylinder: place.n,
+    part_id: place.part_id,
+    sku: place.sku as string,
     kind: 'piston',
-    description: piston.description,
-    step_id: piston.step_id,
-    step_label: piston.step_label,
-    unit_id: piston.id,
-    unit_label: piston.label,
-    skirt_nm: piston.skirt_nm,
-    material: piston.material,
-    bin_code: piston.bin_code,
+    description: place.description as string,
+    step_id: place.step_id,
+    step_label: place.step_label,
+    unit_id: place.unit_id,
+    unit_label: label,
+    skirt_nm: place.skirt_nm,
+    material: place.material,
+    bin_code: place.bin_code,
     quantity: 1,
     expires_at: c.expiresAt,
-    created_at: claimed.createdAt,
+    created_at: written.createdAt,
     released_at: null,
     release_reason: null,
   };
 }
 
+/** Sets counted parts aside (ring sets, sundries); returns the hold as the answer shows it. */
 async function holdCounted(
   trx: Conn,
-  c: HoldContext & { partId: string; quantity: number },
-): Promise<void> {
-  const { job, cylinder } = c;
-  const part = await repo.holdPart(c.partId, trx);
-  if (!part) {
+  c: HoldContext & { quantity: number },
+): Promise<repo.HoldRow> {
+  const { job, place } = c;
+  if (!place.part_id) {
     throw new BadRequest('partId: no part has this id.', [
       { field: 'partId', message: 'no part has this id' },
     ]);
   }
+  const part = {
+    id: place.part_id,
+    sku: place.sku as string,
+    description: place.description as string,
+  };
   refuse(
     whyNotHoldable(
       {
         name: part.sku,
-        kind: part.kind,
-        familyId: part.family_id,
-        stepId: part.step_id,
-        stepLabel: part.step_label,
+        kind: place.kind as NonNullable<repo.HoldPlaceRow['kind']>,
+        familyId: place.family_id,
+        stepId: place.step_id,
+        stepLabel: place.step_label,
         byUnit: false,
       },
-      holdTarget(job, cylinder),
+      holdTarget(job, place),
     ),
   );
-  const reserved = await repo.reserveCount(trx, part.id, c.quantity);
-  if (!reserved) {
+  const written = await repo.writeHold(
+    trx,
+    moves.countedHoldCtes(part.id, c.quantity, {
+      holdId: c.holdId,
+      jobId: job.id,
+      cylinder: place.n,
+      expiresAt: c.expiresAt,
+      userId: c.actorId,
+      reason: holdReason(job, place),
+    }),
+    {
+      jobId: job.id,
+      cylinder: place.n,
+      holdId: c.holdId,
+      userId: c.actorId,
+      settleStepId: null,
+      text: `Held ${c.quantity === 1 ? '' : `${c.quantity} × `}${part.sku} (${part.description}) for cylinder ${place.n}.`,
+      audit: { jobId: job.id, cylinder: place.n, partId: part.id, quantity: c.quantity },
+      advance: advanceAfterHold(job, place, {
+        stepped: place.chosen_step_id !== null,
+        pistonHeld: place.piston_hold_unit_id !== null,
+      }),
+    },
+  );
+  if (!written) {
     const free = await repo.freeCount(part.id, trx);
     throw new NotAvailable(
       free === 0
@@ -309,40 +339,26 @@ async function holdCounted(
       { nextBest: null, free },
     );
   }
-  await repo.insertHold(trx, {
+  return {
     id: c.holdId,
     job_id: job.id,
-    cylinder: cylinder.n,
+    job_number: job.number,
+    cylinder: place.n,
     part_id: part.id,
+    sku: part.sku,
+    kind: place.kind as repo.HoldRow['kind'],
+    description: part.description,
+    step_id: place.step_id,
+    step_label: place.step_label,
     unit_id: null,
+    unit_label: null,
+    skirt_nm: null,
+    material: place.material,
+    bin_code: place.bin_code,
     quantity: c.quantity,
     expires_at: c.expiresAt,
-    created_by: c.actorId,
-  });
-  await moves.insertLedger(trx, [
-    {
-      user_id: c.actorId,
-      part_id: part.id,
-      unit_id: null,
-      kind: 'reservation',
-      quantity: 0,
-      held_delta: c.quantity,
-      job_id: job.id,
-      reason: `held for job ${job.number}, cylinder ${cylinder.n}`,
-      ref: c.holdId,
-    },
-  ]);
-  await jobsRepo.insertEvent(trx, {
-    jobId: job.id,
-    userId: c.actorId,
-    kind: 'hold',
-    text: `Held ${c.quantity === 1 ? '' : `${c.quantity} × `}${part.sku} (${part.description}) for cylinder ${cylinder.n}.`,
-  });
-  await recordAudit(trx, {
-    userId: c.actorId,
-    action: 'hold.create',
-    entity: 'hold',
-    entityId: c.holdId,
-    after: { jobId: job.id, cylinder: cylinder.n, partId: part.id, quantity: c.quantity },
-  });
+    created_at: written.createdAt,
+    released_at: null,
+    release_reason: null,
+  };
 }

@@ -25,6 +25,16 @@ export async function whyNotReadyToCut(trx: Conn, jobId: string): Promise<string
   return null;
 }
 
+/** Whether a job may move from `from` to `to` by itself: it is open and it would go forward. */
+export function movesForward(from: JobState, to: JobState): boolean {
+  return isOpenState(from) && JOB_STATES.indexOf(from) < JOB_STATES.indexOf(to);
+}
+
+/** The note a state change leaves on the job. */
+export function stateNote(from: JobState, to: JobState): string {
+  return `${JOB_STATE_LABELS[from]} → ${JOB_STATE_LABELS[to]}.`;
+}
+
 /** Moves an open job forward by itself (after readings, holds or a cut); never backward. */
 export async function advanceState(
   trx: Conn,
@@ -32,8 +42,7 @@ export async function advanceState(
   to: JobState,
   userId: string | null,
 ): Promise<void> {
-  const order = (s: JobState) => JOB_STATES.indexOf(s);
-  if (!isOpenState(job.state) || order(job.state) >= order(to)) return;
+  if (!movesForward(job.state, to)) return;
   if ((to === 'parts_set_aside' || to === 'on_the_bar') && (await whyNotReadyToCut(trx, job.id))) {
     return;
   }
@@ -42,7 +51,7 @@ export async function advanceState(
     jobId: job.id,
     userId,
     kind: 'state',
-    text: `${JOB_STATE_LABELS[job.state]} → ${JOB_STATE_LABELS[to]}.`,
+    text: stateNote(job.state, to),
   });
 }
 

@@ -14,8 +14,12 @@ import {
 // The schema and defaults live in shared/ so the settings form checks each field as it is typed.
 
 export async function getSettings(q: Knex = db): Promise<ShopSettings> {
-  const stored = (await repo.readShopSettings(q)) as Partial<ShopSettings> | null;
-  return { ...DEFAULT_SETTINGS, ...(stored ?? {}) };
+  return settingsFromStored(await repo.readShopSettings(q));
+}
+
+/** The settings from their stored value (read by a caller's own query), defaults filling gaps. */
+export function settingsFromStored(stored: Record<string, unknown> | null): ShopSettings {
+  return { ...DEFAULT_SETTINGS, ...((stored as Partial<ShopSettings> | null) ?? {}) };
 }
 
 export async function saveSettings(

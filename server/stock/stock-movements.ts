@@ -65,27 +65,34 @@ export async function insertLedger(k: Knex, rows: NewLedgerRow[]): Promise<numbe
   return inserted.map((r) => Number(r.id));
 }
 
+/** Part of one SQL statement: its text with named bindings (`:name`), their values, and a name for this text. */
+export interface SqlPart {
+  name: string;
+  sql: string;
+  bindings: Record<string, unknown>;
+}
+
+/** What a hold sets aside, for whom, and the ledger's reason. */
+export interface HoldStock {
+  holdId: string;
+  jobId: string;
+  cylinder: number;
+  expiresAt: Date | null;
+  userId: string | null;
+  reason: string;
+}
+
 /**
- * A measured piston set aside for a job, as one statement (data-modifying CTEs, so one round trip
- * and one snapshot): the unit claimed only while it is still free, its part's held + 1 (the
- * levels' CHECK refuses more held than on hand), the hold row and the ledger's reservation row.
- * Returns null, with nothing written, when the unit was no longer free: someone else won it.
+ * The stock half of holding one measured piston, as data-modifying CTEs for the hold's one
+ * statement (one round trip, one snapshot): the unit claimed only while it is still free, its
+ * part's held + 1 (the levels' CHECK refuses more held than on hand), the hold row and the
+ * ledger's reservation row. Defines `hold(created_at)`, empty with nothing written when the unit
+ * was no longer free (someone else won it), and `levels(part_id)`, the level rows changed.
  */
-export async function claimUnitForHold(
-  k: Knex,
-  c: {
-    unitId: string;
-    holdId: string;
-    jobId: string;
-    cylinder: number;
-    expiresAt: Date | null;
-    userId: string | null;
-    reason: string;
-  },
-): Promise<{ partId: string; createdAt: Date } | null> {
-  type Row = { part_id: string | null; created_at: Date | null; level_rows: number };
-  const result = await k.raw<{ rows: Row[] }>(
-    `WITH claimed AS (
+export function unitHoldCtes(unitId: string, c: HoldStock): SqlPart {
+  return {
+    name: 'unit',
+    sql: `claimed AS (
        UPDATE piston_units
           SET status = 'held', held_for_job_id = :jobId, held_cylinder = :cylinder,
               hold_id = :holdId, hold_expires_at = :expiresAt, updated_at = now()
@@ -102,23 +109,42 @@ export async function claimUnitForHold(
      ), ledger AS (
        INSERT INTO stock_ledger (user_id, part_id, unit_id, kind, quantity, held_delta, job_id, reason, ref)
        SELECT :userId, part_id, id, 'reservation', 0, 1, :jobId, :reason, :holdId FROM claimed
-       RETURNING id
-     )
-     SELECT (SELECT part_id FROM claimed) AS part_id, (SELECT created_at FROM hold) AS created_at,
-            (SELECT count(*) FROM levels)::int AS level_rows`,
-    {
-      unitId: c.unitId,
-      holdId: c.holdId,
-      jobId: c.jobId,
-      cylinder: c.cylinder,
-      expiresAt: c.expiresAt,
-      userId: c.userId,
-      reason: c.reason,
-    },
-  );
-  const row = result.rows[0];
-  if (!row?.part_id || !row.created_at) return null;
-  // Every part has its levels row; a claim without one would leave held and the ledger apart.
-  if (row.level_rows !== 1) throw new Error(`part_levels row missing for part ${row.part_id}`);
-  return { partId: row.part_id, createdAt: row.created_at };
+     )`,
+    bindings: { ...holdBindings(c), unitId },
+  };
+}
+
+/**
+ * The stock half of setting counted parts aside (ring sets, sundries), as CTEs like
+ * unitHoldCtes: held + n only while at least n are free, the hold row and the reservation row.
+ * `hold` is empty, with nothing written, when fewer than n are free.
+ */
+export function countedHoldCtes(partId: string, quantity: number, c: HoldStock): SqlPart {
+  return {
+    name: 'counted',
+    sql: `levels AS (
+       UPDATE part_levels SET held = held + :quantity, updated_at = now()
+        WHERE part_id = :partId AND on_hand - held >= :quantity
+       RETURNING part_id
+     ), hold AS (
+       INSERT INTO holds (id, job_id, cylinder, part_id, unit_id, quantity, expires_at, created_by)
+       SELECT :holdId, :jobId, :cylinder, part_id, NULL, :quantity, :expiresAt, :userId FROM levels
+       RETURNING created_at
+     ), ledger AS (
+       INSERT INTO stock_ledger (user_id, part_id, unit_id, kind, quantity, held_delta, job_id, reason, ref)
+       SELECT :userId, part_id, NULL, 'reservation', 0, :quantity, :jobId, :reason, :holdId FROM levels
+     )`,
+    bindings: { ...holdBindings(c), partId, quantity },
+  };
+}
+
+function holdBindings(c: HoldStock): Record<string, unknown> {
+  return {
+    holdId: c.holdId,
+    jobId: c.jobId,
+    cylinder: c.cylinder,
+    expiresAt: c.expiresAt,
+    userId: c.userId,
+    reason: c.reason,
+  };
 }

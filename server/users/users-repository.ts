@@ -16,7 +16,9 @@ export interface UserRow {
   updated_at: Date;
 }
 
-export function toSessionUser(row: UserRow): SessionUser {
+export function toSessionUser(
+  row: Pick<UserRow, 'id' | 'email' | 'name' | 'role' | 'unit'>,
+): SessionUser {
   return { id: row.id, email: row.email, name: row.name, role: row.role, unit: row.unit };
 }
 

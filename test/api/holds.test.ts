@@ -1,6 +1,7 @@
 // Holding parts for a cylinder: the proposal, holds by unit and by count, releasing and moving,
 // the race for the last free piston, and the expiry sweep. After every change the ledger, the
 // levels and the units must tell the same story.
+import pg from 'pg';
 import { db } from '../../server/db/knex';
 import { saveSettings } from '../../server/settings/settings-service';
 import { closeTestApp } from '../support/api';
@@ -333,6 +334,61 @@ describe('the race for the last free piston', () => {
       }),
     );
     expect(far.id).not.toBe(near.id);
+  });
+});
+
+describe('what placing a hold asks of the database', () => {
+  it('when a piston is held, then the session and its user are one read, and the hold is BEGIN, the job lock, one read, one write and COMMIT', async () => {
+    const fam = await makeFamily(owner);
+    const piston = await makePart(owner, fam, '+0.020 in', 'piston');
+    const [unit] = await receivePistons(owner, piston, bin.id, ['2.5362 in']);
+    const job = await makeJob(staff, fam.id);
+    // The session's once-a-minute touch happens on this request, not on the hold's.
+    expect((await machinist.get('/api/session')).status).toBe(200);
+    const statements: string[] = [];
+    const onQuery = (q: { sql: string }) => statements.push(q.sql);
+    // The session store has its own pg pool; Knex's connections never go through Pool.query.
+    const storeQueries = jest.spyOn(pg.Pool.prototype, 'query');
+    db.on('query', onQuery);
+    let holdId = '';
+    let storeSql: string[] = [];
+    try {
+      const res = await machinist.post(`/api/jobs/${job.id}/holds`, {
+        cylinder: 1,
+        unitId: unit.id,
+      });
+      expect(res.status).toBe(201);
+      expect(res.body.jobNumber).toBe(job.number);
+      holdId = res.body.id;
+    } finally {
+      db.off('query', onQuery);
+      storeSql = storeQueries.mock.calls.map((call) => {
+        const query = call[0] as unknown;
+        return typeof query === 'string' ? query : String((query as { text?: string }).text);
+      });
+      storeQueries.mockRestore();
+    }
+    expect(storeSql).toHaveLength(1);
+    expect(storeSql[0]).toMatch(/FROM sessions s\s+LEFT JOIN users u/);
+    expect(
+      statements.map((sql) => sql.trim().split(/\s+/)[0].replace(';', '').toUpperCase()),
+    ).toEqual(['BEGIN', 'SELECT', 'SELECT', 'WITH', 'COMMIT']);
+    expect(statements.join('\n')).not.toMatch(/from "?users"?/i);
+    // The one write did everything: the step settled, the notes, the audit row, the state.
+    // (The job's first note is its intake's.)
+    const notes = (await db('job_events').where({ job_id: job.id }).orderBy('id')).slice(-2);
+    expect(notes.map((e: { kind: string }) => e.kind)).toEqual(['hold', 'state']);
+    expect(notes[0].text).toMatch(/^Held .* for cylinder 1\.$/);
+    expect(notes[1].text).toBe('Booked in → Parts set aside.');
+    const audit = await db('audit_events').where({ entity: 'hold', entity_id: holdId });
+    expect(audit).toEqual([
+      expect.objectContaining({
+        action: 'hold.create',
+        after: expect.objectContaining({ jobId: job.id, cylinder: 1, unitId: unit.id }),
+      }),
+    ]);
+    expect((await db('jobs').where({ id: job.id }).first()).state).toBe('parts_set_aside');
+    await expectConsistent(piston);
   });
 });
 

@@ -49,6 +49,25 @@ describe('sign-in and sign-out', () => {
     expect((await new Client().signIn(user)).status).toBe(401);
   });
 
+  it("when the owner changes a signed-in person's role and length unit, then that person's very next request has both", async () => {
+    const owner = await signedIn('owner');
+    const person = new Client();
+    const user = await makeUser('staff');
+    expect((await person.signIn(user)).status).toBe(200);
+    expect((await person.get('/api/session')).body.user).toMatchObject({
+      role: 'staff',
+      unit: 'mm',
+    });
+    expect((await person.get('/api/reorder')).status).toBe(403);
+    await db('users').where({ id: user.id }).update({ unit: 'in' });
+    expect((await owner.patch(`/api/users/${user.id}`, { role: 'buyer' })).status).toBe(200);
+    expect((await person.get('/api/session')).body.user).toMatchObject({
+      role: 'buyer',
+      unit: 'in',
+    });
+    expect((await person.get('/api/reorder')).status).toBe(200);
+  });
+
   it('when sign-in fails ten times for one account and address, then the next attempt is throttled with 429', async () => {
     const user = await makeUser('buyer');
     const client = new Client();
