@@ -1,12 +1,20 @@
 import { ChangeDetectionStrategy, Component, input, signal } from '@angular/core';
+import type { ChartData, ChartOptions, ChartType } from 'chart.js';
 import { BaseChartDirective } from 'ng2-charts';
 
 import { chartFontReady } from './chart-setup';
-import type { BarChart } from './insights-charts';
+
+/** What a chart view draws: the figures, their look, and the sentence that says what they show. */
+export interface DrawnChart<T extends ChartType> {
+  data: ChartData<T, (number | null)[], string>;
+  options: ChartOptions<T>;
+  summary: string;
+}
 
 /**
- * One chart on a canvas. The canvas is drawn only once our font can be used on it, and carries a
- * sentence saying what it shows (a canvas has no text of its own for a screen reader).
+ * One chart on a canvas (bars by default, `type="line"` for a line chart). The canvas is drawn
+ * only once our font can be used on it, and carries a sentence saying what it shows (a canvas has
+ * no text of its own for a screen reader).
  */
 @Component({
   selector: 'app-insight-chart',
@@ -16,7 +24,7 @@ import type { BarChart } from './insights-charts';
       @if (fontReady()) {
         <canvas
           baseChart
-          type="bar"
+          [type]="type()"
           role="img"
           [attr.aria-label]="chart().summary"
           [data]="chart().data"
@@ -49,7 +57,8 @@ import type { BarChart } from './insights-charts';
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class InsightChart {
-  readonly chart = input.required<BarChart>();
+  readonly type = input<'bar' | 'line'>('bar');
+  readonly chart = input.required<DrawnChart<ChartType>>();
   readonly height = input(320);
 
   protected readonly fontReady = signal(false);
