@@ -72,6 +72,15 @@ export function optionalLengthField(opts: ParseLengthOptions = {}) {
   );
 }
 
+// ---- Counts of pieces ----------------------------------------------------------------------------
+
+/** How many pieces (ordered, received): a whole number from 1 to `max`; `tooMany` says why not more. */
+export function pieceCount(max: number, tooMany?: string) {
+  return z
+    .number({ error: 'must be a whole number' })
+    .check(z.int('must be a whole number'), z.gte(1, 'must be at least 1'), z.lte(max, tooMany));
+}
+
 // ---- Parts in reports ---------------------------------------------------------------------------
 
 /** The part a report line is about: its SKU and words, its kind, and its family and step if any. */

@@ -4,7 +4,15 @@
 import * as z from '../zod';
 import { skirtField, MAX_PISTONS_PER_RECEIPT } from './stock';
 import { type WaitingItemJson } from './suppliers';
-import { calendarDay, idField, moneyText, pageNumber, pageSizeField, sortDir } from './common';
+import {
+  calendarDay,
+  idField,
+  moneyText,
+  pageNumber,
+  pageSizeField,
+  pieceCount,
+  sortDir,
+} from './common';
 import type { LengthJson } from '../lengths';
 import { ORDER_STATES, type OrderState } from './order-states';
 
@@ -34,13 +42,7 @@ const unitPriceField = z.union([
 
 export const orderLineInput = z.strictObject({
   partId: idField,
-  quantity: z
-    .number({ error: 'must be a whole number' })
-    .check(
-      z.int('must be a whole number'),
-      z.gte(1, 'must be at least 1'),
-      z.lte(10_000, 'at most 10000'),
-    ),
+  quantity: pieceCount(10_000, 'at most 10000'),
   unitPrice: unitPriceField,
 });
 
@@ -90,9 +92,7 @@ export const receiptLinesInput = z.strictObject({
     .array(
       z.strictObject({
         lineId: idField,
-        quantity: z
-          .number({ error: 'must be a whole number' })
-          .check(z.int('must be a whole number'), z.gte(1, 'must be at least 1'), z.lte(10_000)),
+        quantity: pieceCount(10_000),
         units: z.optional(
           z
             .array(z.strictObject({ skirt: z.optional(z.nullable(skirtField)) }))

@@ -3,7 +3,7 @@
 import * as z from '../zod';
 import { atMost, singleLine } from '../text-rules';
 import type { UnitStatus } from './catalog';
-import { idField, lengthField, moneyText } from './common';
+import { idField, lengthField, moneyText, pieceCount } from './common';
 import type { LengthJson } from '../lengths';
 import type { OrderState } from './order-states';
 
@@ -47,13 +47,7 @@ export type BinInput = z.output<typeof binInput>;
 
 export const receiptInput = z.strictObject({
   partId: idField,
-  quantity: z
-    .number({ error: 'must be a whole number' })
-    .check(
-      z.int('must be a whole number'),
-      z.gte(1, 'must be at least 1'),
-      z.lte(MAX_STOCK_QUANTITY, `at most ${MAX_STOCK_QUANTITY} in one receipt`),
-    ),
+  quantity: pieceCount(MAX_STOCK_QUANTITY, `at most ${MAX_STOCK_QUANTITY} in one receipt`),
   binId: idField,
   unitCost: moneyText,
   note: z.optional(z.string().check(z.trim(), z.maxLength(500))),
