@@ -3,11 +3,7 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
 import { MatMenuModule } from '@angular/material/menu';
-import { MatPaginatorModule } from '@angular/material/paginator';
 import { MatSelectChange, MatSelectModule } from '@angular/material/select';
-import { MatSortModule } from '@angular/material/sort';
-import { MatTableModule } from '@angular/material/table';
-import { MatTooltipModule } from '@angular/material/tooltip';
 
 import { ROLES, type Role } from '../../../shared/session-types';
 import { apiErrorMessage } from '../core/api-error';
@@ -19,7 +15,10 @@ import { UserAddDialog } from './user-add-dialog';
 import { UsersApi, type UserRow, type UserSortField } from './users-api';
 import { ShopDatePipe } from '../core/shop-date-pipe';
 import { PagedList } from '../ui/paged-list';
+import { RowMenu } from '../ui/row-menu';
+import { DataTable } from '../ui/data-table';
 import { ListState } from '../ui/list-state';
+import { TableActions, TableColumn, TableEmpty } from '../ui/table-column';
 
 const SORTABLE: UserSortField[] = ['name', 'email', 'role', 'createdAt'];
 
@@ -27,16 +26,17 @@ const SORTABLE: UserSortField[] = ['name', 'email', 'role', 'createdAt'];
 @Component({
   selector: 'app-user-list',
   imports: [
+    DataTable,
     ListState,
-    MatTooltipModule,
+    TableActions,
+    TableColumn,
+    TableEmpty,
+    RowMenu,
     ShopDatePipe,
     MatButtonModule,
     MatIconModule,
     MatMenuModule,
-    MatPaginatorModule,
     MatSelectModule,
-    MatSortModule,
-    MatTableModule,
   ],
   templateUrl: './user-list.html',
   styleUrl: './user-list.scss',
@@ -51,7 +51,8 @@ export class UserList {
   protected readonly columns = ['name', 'email', 'role', 'active', 'createdAt', 'actions'];
   protected readonly roles = ROLES;
   protected readonly roleLabels = ROLE_LABELS;
-  protected readonly pageSizes = [25, 50, 100];
+  /** Someone whose sign-in is switched off keeps a row, shaded. */
+  protected readonly rowLook = (user: UserRow): string => (user.active ? '' : 'shaded');
 
   /** A saved change replaces its row (list.rows) without reloading the page. */
   protected readonly list = new PagedList<UserRow, UserSortField>({

@@ -1,12 +1,6 @@
 import { ChangeDetectionStrategy, Component, computed, effect, inject, input } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
-import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
-import { MatInputModule } from '@angular/material/input';
-import { MatPaginatorModule } from '@angular/material/paginator';
-import { MatSelectModule } from '@angular/material/select';
-import { MatSortModule } from '@angular/material/sort';
-import { MatTableModule } from '@angular/material/table';
 import { Router, RouterLink } from '@angular/router';
 import { map } from 'rxjs';
 
@@ -17,8 +11,11 @@ import { CatalogApi } from './catalog-api';
 import { looksScanned } from '../ui/scan';
 import { KIND_LABELS } from './part-words';
 import { PagedList } from '../ui/paged-list';
-import { ListState } from '../ui/list-state';
 import { familySteps } from './family-steps';
+import { DataTable } from '../ui/data-table';
+import { ListState } from '../ui/list-state';
+import { TableColumn, TableEmpty } from '../ui/table-column';
+import { choicesOf, FilterSelect, SearchField, type Choice } from '../ui/list-fields';
 
 const PART_SORT = ['sku', 'description', 'kind', 'family', 'onHand', 'free', 'salePrice'] as const;
 type PartSort = (typeof PART_SORT)[number];
@@ -33,15 +30,14 @@ type ScannedPage = Page<PartJson> & { q: string };
 @Component({
   selector: 'app-part-list',
   imports: [
+    DataTable,
     ListState,
+    TableColumn,
+    TableEmpty,
+    SearchField,
+    FilterSelect,
     MatButtonModule,
-    MatFormFieldModule,
     MatIconModule,
-    MatInputModule,
-    MatPaginatorModule,
-    MatSelectModule,
-    MatSortModule,
-    MatTableModule,
     RouterLink,
   ],
   templateUrl: './part-list.html',
@@ -67,9 +63,10 @@ export class PartList {
     'free',
     'salePrice',
   ];
-  protected readonly kinds = PART_KINDS;
-  protected readonly kindLabels = KIND_LABELS;
-  protected readonly pageSizes = [25, 50, 100];
+  protected readonly kinds: Choice[] = [
+    { value: '', label: 'All kinds' },
+    ...choicesOf(PART_KINDS, (kind) => KIND_LABELS[kind]),
+  ];
   protected readonly canEdit = computed(() => this.session.may('editCatalog'));
 
   protected readonly list = new PagedList<PartJson, PartSort, PartFilters, ScannedPage>({
@@ -82,8 +79,14 @@ export class PartList {
   });
 
   private readonly choices = familySteps(this.api, () => this.list.filters().familyId);
-  protected readonly families = this.choices.families;
-  protected readonly steps = this.choices.steps;
+  protected readonly familyChoices = computed(() => [
+    { value: '', label: 'All families' },
+    ...this.choices.families().map((f) => ({ value: f.id, label: `${f.code} — ${f.name}` })),
+  ]);
+  protected readonly stepChoices = computed(() => [
+    { value: '', label: 'All steps' },
+    ...this.choices.steps().map((s) => ({ value: s.id, label: s.label })),
+  ]);
 
   private scanned = '';
 

@@ -1,10 +1,4 @@
 import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
-import { MatButtonModule } from '@angular/material/button';
-import { MatFormFieldModule } from '@angular/material/form-field';
-import { MatIconModule } from '@angular/material/icon';
-import { MatInputModule } from '@angular/material/input';
-import { MatPaginatorModule } from '@angular/material/paginator';
-import { MatTableModule } from '@angular/material/table';
 import { Router, RouterLink } from '@angular/router';
 
 import type { CustomerListItemJson } from '../../../shared/api/customers';
@@ -13,7 +7,10 @@ import { Notifier } from '../core/notifier';
 import { CameraScanButton } from '../ui/camera-scan';
 import { PagedList } from '../ui/paged-list';
 import { CustomersApi } from './customers-api';
+import { DataTable } from '../ui/data-table';
 import { ListState } from '../ui/list-state';
+import { TableColumn, TableEmpty } from '../ui/table-column';
+import { SearchField } from '../ui/list-fields';
 
 /** The search decides the order (names that start with the text, then recent customers). */
 const SORTABLE = ['relevance'] as const;
@@ -26,14 +23,12 @@ const SORTABLE = ['relevance'] as const;
 @Component({
   selector: 'app-customer-list',
   imports: [
-    CameraScanButton,
+    DataTable,
     ListState,
-    MatButtonModule,
-    MatFormFieldModule,
-    MatIconModule,
-    MatInputModule,
-    MatPaginatorModule,
-    MatTableModule,
+    TableColumn,
+    TableEmpty,
+    SearchField,
+    CameraScanButton,
     RouterLink,
   ],
   templateUrl: './customer-list.html',
@@ -46,7 +41,6 @@ export class CustomerList {
   private readonly notifier = inject(Notifier);
 
   protected readonly columns = ['name', 'phone', 'email'];
-  protected readonly pageSizes = [25, 50, 100];
 
   protected readonly list = new PagedList<CustomerListItemJson, (typeof SORTABLE)[number]>({
     sortable: SORTABLE,

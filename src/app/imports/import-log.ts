@@ -1,8 +1,6 @@
 import { ChangeDetectionStrategy, Component, inject, input } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
-import { MatPaginatorModule } from '@angular/material/paginator';
-import { MatTableModule } from '@angular/material/table';
 import { Router, RouterLink } from '@angular/router';
 
 import type { ImportLogEntryJson, ImportStatus } from '../../../shared/api/suppliers';
@@ -10,18 +8,21 @@ import { ImportsApi } from './imports-api';
 import { STATUS_WORDS } from './import-words';
 import { ShopDatePipe } from '../core/shop-date-pipe';
 import { PagedList } from '../ui/paged-list';
+import { DataTable } from '../ui/data-table';
 import { ListState } from '../ui/list-state';
+import { TableColumn, TableEmpty } from '../ui/table-column';
 
 /** Every price list brought in: who, when, which file, for which supplier, and what it changed. */
 @Component({
   selector: 'app-import-log',
   imports: [
+    DataTable,
     ListState,
+    TableColumn,
+    TableEmpty,
     ShopDatePipe,
     MatButtonModule,
     MatIconModule,
-    MatPaginatorModule,
-    MatTableModule,
     RouterLink,
   ],
   templateUrl: './import-log.html',

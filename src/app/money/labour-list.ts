@@ -6,7 +6,6 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
-import { MatTableModule } from '@angular/material/table';
 import { MatTooltipModule } from '@angular/material/tooltip';
 
 import {
@@ -21,10 +20,12 @@ import { apiErrorMessage } from '../core/api-error';
 import { controlError, placeApiErrors } from '../core/field-errors';
 import { Notifier } from '../core/notifier';
 import { Session } from '../core/session';
-import { ListState } from '../ui/list-state';
 import { loadEach } from '../ui/load';
 import { MoneyApi } from './money-api';
 import { AMOUNT_PATTERN, formatAmount } from './money-words';
+import { DataTable } from '../ui/data-table';
+import { ListState } from '../ui/list-state';
+import { TableColumn, TableEmpty } from '../ui/table-column';
 
 export const PER_LABELS: Record<LabourPer, string> = {
   cylinder: 'Per cylinder',
@@ -38,14 +39,16 @@ export const PER_LABELS: Record<LabourPer, string> = {
 @Component({
   selector: 'app-labour-list',
   imports: [
+    DataTable,
+    ListState,
+    TableColumn,
+    TableEmpty,
     MatButtonModule,
     MatCheckboxModule,
     MatFormFieldModule,
     MatIconModule,
     MatInputModule,
-    ListState,
     MatSelectModule,
-    MatTableModule,
     MatTooltipModule,
     ReactiveFormsModule,
   ],
@@ -64,6 +67,8 @@ export class LabourList {
   protected readonly proposeLabels = PROPOSE_FOR_LABELS;
   protected readonly money = formatAmount;
   protected readonly columns = ['name', 'per', 'price', 'proposeFor', 'active', 'actions'];
+  /** An operation no longer offered keeps its row, in greyed words. */
+  protected readonly rowLook = (item: LabourOperationJson): string => (item.active ? '' : 'faded');
 
   protected readonly loaded = loadEach(
     () => 'all',

@@ -1,12 +1,6 @@
 import { ChangeDetectionStrategy, Component, computed, inject } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
-import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
-import { MatInputModule } from '@angular/material/input';
-import { MatPaginatorModule } from '@angular/material/paginator';
-import { MatSelectModule } from '@angular/material/select';
-import { MatSortModule } from '@angular/material/sort';
-import { MatTableModule } from '@angular/material/table';
 import { Router, RouterLink } from '@angular/router';
 
 import {
@@ -19,7 +13,10 @@ import { Session } from '../core/session';
 import { PurchasingApi } from './purchasing-api';
 import { ShopDatePipe } from '../core/shop-date-pipe';
 import { PagedList } from '../ui/paged-list';
+import { DataTable } from '../ui/data-table';
 import { ListState } from '../ui/list-state';
+import { TableColumn, TableEmpty } from '../ui/table-column';
+import { choicesOf, FilterSelect, SearchField, type Choice } from '../ui/list-fields';
 
 type OrderFilters = { state: OrderState | 'open' | '' };
 const SORTABLE = ['number', 'createdAt', 'expectedOn', 'supplier', 'state'] as const;
@@ -28,16 +25,15 @@ const SORTABLE = ['number', 'createdAt', 'expectedOn', 'supplier', 'state'] as c
 @Component({
   selector: 'app-order-list',
   imports: [
+    DataTable,
     ListState,
+    TableColumn,
+    TableEmpty,
+    SearchField,
+    FilterSelect,
     ShopDatePipe,
     MatButtonModule,
-    MatFormFieldModule,
     MatIconModule,
-    MatInputModule,
-    MatPaginatorModule,
-    MatSelectModule,
-    MatSortModule,
-    MatTableModule,
     RouterLink,
   ],
   templateUrl: './order-list.html',
@@ -50,9 +46,11 @@ export class OrderList {
   private readonly session = inject(Session);
 
   protected readonly columns = ['number', 'supplier', 'state', 'expectedOn', 'lines', 'total'];
-  protected readonly pageSizes = [25, 50, 100];
-  protected readonly states = ORDER_STATES;
-  protected readonly stateLabels = ORDER_STATE_LABELS;
+  protected readonly states: Choice[] = [
+    { value: '', label: 'Any' },
+    { value: 'open', label: 'Still to come in' },
+    ...choicesOf(ORDER_STATES, (state) => ORDER_STATE_LABELS[state]),
+  ];
   protected readonly canOrder = computed(() => this.session.may('buy'));
   protected readonly canReceive = computed(() => this.session.may('receiveStock'));
 

@@ -1,11 +1,7 @@
 import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
-import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
-import { MatInputModule } from '@angular/material/input';
-import { MatPaginatorModule } from '@angular/material/paginator';
 import { MatSlideToggleModule } from '@angular/material/slide-toggle';
-import { MatTableModule } from '@angular/material/table';
 import { MatTooltipModule } from '@angular/material/tooltip';
 import { RouterLink } from '@angular/router';
 
@@ -14,7 +10,10 @@ import { apiErrorMessage } from '../core/api-error';
 import { Notifier } from '../core/notifier';
 import { PurchasingApi } from './purchasing-api';
 import { PagedList } from '../ui/paged-list';
+import { DataTable } from '../ui/data-table';
 import { ListState } from '../ui/list-state';
+import { TableActions, TableColumn, TableEmpty } from '../ui/table-column';
+import { SearchField } from '../ui/list-fields';
 
 const SOURCE_WORDS: Record<RuleSource, string> = {
   part: 'its own rule',
@@ -30,15 +29,16 @@ const SOURCE_WORDS: Record<RuleSource, string> = {
 @Component({
   selector: 'app-reorder-list',
   imports: [
+    DataTable,
     ListState,
+    TableActions,
+    TableColumn,
+    TableEmpty,
+    SearchField,
     MatTooltipModule,
     MatButtonModule,
-    MatFormFieldModule,
     MatIconModule,
-    MatInputModule,
-    MatPaginatorModule,
     MatSlideToggleModule,
-    MatTableModule,
     RouterLink,
   ],
   templateUrl: './reorder-list.html',
@@ -50,7 +50,6 @@ export class ReorderList {
   private readonly notifier = inject(Notifier);
 
   protected readonly columns = ['part', 'free', 'rule', 'suggested', 'actions'];
-  protected readonly pageSizes = [25, 50, 100];
   protected readonly list = new PagedList<ReorderLineJson, never, { low: boolean }>({
     pageSize: 50,
     filters: { low: true },

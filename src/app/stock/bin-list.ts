@@ -5,8 +5,6 @@ import { MatCheckboxModule } from '@angular/material/checkbox';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
-import { MatPaginatorModule } from '@angular/material/paginator';
-import { MatTableModule } from '@angular/material/table';
 import { RouterLink } from '@angular/router';
 
 import type { BinJson } from '../../../shared/api/stock';
@@ -15,21 +13,26 @@ import { Notifier } from '../core/notifier';
 import { CameraScanButton } from '../ui/camera-scan';
 import { StockApi } from './stock-api';
 import { PagedList } from '../ui/paged-list';
+import { DataTable } from '../ui/data-table';
 import { ListState } from '../ui/list-state';
+import { TableColumn, TableEmpty } from '../ui/table-column';
+import { SearchField } from '../ui/list-fields';
 
 /** The shop's bins: add one, see what is in each, and print bin labels. */
 @Component({
   selector: 'app-bin-list',
   imports: [
-    CameraScanButton,
+    DataTable,
     ListState,
+    TableColumn,
+    TableEmpty,
+    SearchField,
+    CameraScanButton,
     MatButtonModule,
     MatCheckboxModule,
     MatFormFieldModule,
     MatIconModule,
     MatInputModule,
-    MatPaginatorModule,
-    MatTableModule,
     ReactiveFormsModule,
     RouterLink,
   ],

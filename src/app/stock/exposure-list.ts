@@ -1,10 +1,5 @@
 import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
-import { MatButtonModule } from '@angular/material/button';
-import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
-import { MatInputModule } from '@angular/material/input';
-import { MatPaginatorModule } from '@angular/material/paginator';
-import { MatTableModule } from '@angular/material/table';
 import { RouterLink } from '@angular/router';
 
 import type { ExposureItemJson } from '../../../shared/api/catalog';
@@ -12,7 +7,10 @@ import { emptyStepWords } from '../../../shared/part-needs';
 import { LengthPipe } from '../core/length-pipe';
 import { StockApi } from './stock-api';
 import { PagedList } from '../ui/paged-list';
+import { DataTable } from '../ui/data-table';
 import { ListState } from '../ui/list-state';
+import { TableColumn, TableEmpty } from '../ui/table-column';
+import { SearchField } from '../ui/list-fields';
 
 /**
  * Shop-wide: every step of every family with no free piston or no free ring set (the server's one
@@ -21,14 +19,13 @@ import { ListState } from '../ui/list-state';
 @Component({
   selector: 'app-exposure-list',
   imports: [
+    DataTable,
     ListState,
+    TableColumn,
+    TableEmpty,
+    SearchField,
     LengthPipe,
-    MatButtonModule,
-    MatFormFieldModule,
     MatIconModule,
-    MatInputModule,
-    MatPaginatorModule,
-    MatTableModule,
     RouterLink,
   ],
   templateUrl: './exposure-list.html',

@@ -1,11 +1,7 @@
 import { ChangeDetectionStrategy, Component, computed, inject, input } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
-import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
-import { MatPaginatorModule } from '@angular/material/paginator';
-import { MatSelectModule } from '@angular/material/select';
-import { MatTableModule } from '@angular/material/table';
 import { RouterLink } from '@angular/router';
 
 import type { PartDetailJson, PartJson } from '../../../shared/api/catalog';
@@ -24,7 +20,10 @@ import { KIND_WORDS } from './stock-words';
 import { ShopDatePipe } from '../core/shop-date-pipe';
 import { loadById } from '../ui/load';
 import { PagedList } from '../ui/paged-list';
+import { DataTable } from '../ui/data-table';
 import { ListState } from '../ui/list-state';
+import { TableColumn, TableEmpty } from '../ui/table-column';
+import { choicesOf, FilterSelect, type Choice } from '../ui/list-fields';
 
 type LedgerFilters = { partId: string; unitId: string; kind: LedgerKind | '' };
 
@@ -32,14 +31,14 @@ type LedgerFilters = { partId: string; unitId: string; kind: LedgerKind | '' };
 @Component({
   selector: 'app-ledger-list',
   imports: [
+    DataTable,
     ListState,
+    TableColumn,
+    TableEmpty,
+    FilterSelect,
     ShopDatePipe,
     MatButtonModule,
-    MatFormFieldModule,
     MatIconModule,
-    MatPaginatorModule,
-    MatSelectModule,
-    MatTableModule,
     RouterLink,
   ],
   templateUrl: './ledger-list.html',
@@ -67,8 +66,10 @@ export class LedgerList {
     'who',
     'reason',
   ];
-  protected readonly kinds = LEDGER_KINDS;
-  protected readonly kindWords = KIND_WORDS;
+  protected readonly kinds: Choice[] = [
+    { value: '', label: 'All movements' },
+    ...choicesOf(LEDGER_KINDS, (kind) => KIND_WORDS[kind]),
+  ];
   protected readonly canAdjust = computed(() => this.session.may('adjustStock'));
   protected readonly canMove = computed(() => this.session.may('receiveStock'));
 

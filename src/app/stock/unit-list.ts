@@ -1,15 +1,8 @@
 import { ChangeDetectionStrategy, Component, computed, inject, input } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
-import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
-import { MatInputModule } from '@angular/material/input';
 import { MatMenuModule } from '@angular/material/menu';
-import { MatPaginatorModule } from '@angular/material/paginator';
-import { MatSelectModule } from '@angular/material/select';
-import { MatSortModule } from '@angular/material/sort';
-import { MatTableModule } from '@angular/material/table';
-import { MatTooltipModule } from '@angular/material/tooltip';
 import { RouterLink } from '@angular/router';
 import { Observable } from 'rxjs';
 
@@ -26,9 +19,14 @@ import { StockApi } from './stock-api';
 import { STATUS_LABELS } from './stock-words';
 import { ShopDatePipe } from '../core/shop-date-pipe';
 import { PagedList } from '../ui/paged-list';
+import { RowMenu } from '../ui/row-menu';
+import { DataTable } from '../ui/data-table';
 import { ListState } from '../ui/list-state';
+import { TableActions, TableColumn, TableEmpty } from '../ui/table-column';
+import { choicesOf, FilterSelect, SearchField, type Choice } from '../ui/list-fields';
 
 type StatusFilter = UnitStatus | 'on-shelf' | '';
+const STATUSES: readonly UnitStatus[] = ['free', 'held', 'issued', 'returned', 'scrapped'];
 const UNIT_SORT = ['label', 'sku', 'skirt', 'status', 'bin', 'receivedAt'] as const;
 type UnitSort = (typeof UNIT_SORT)[number];
 type UnitFilters = { partId: string; binId: string; status: StatusFilter };
@@ -37,20 +35,20 @@ type UnitFilters = { partId: string; binId: string; status: StatusFilter };
 @Component({
   selector: 'app-unit-list',
   imports: [
-    CameraScanButton,
+    DataTable,
     ListState,
-    MatTooltipModule,
+    TableActions,
+    TableColumn,
+    TableEmpty,
+    SearchField,
+    FilterSelect,
+    CameraScanButton,
+    RowMenu,
     ShopDatePipe,
     LengthPipe,
     MatButtonModule,
-    MatFormFieldModule,
     MatIconModule,
-    MatInputModule,
     MatMenuModule,
-    MatPaginatorModule,
-    MatSelectModule,
-    MatSortModule,
-    MatTableModule,
     RouterLink,
   ],
   templateUrl: './unit-list.html',
@@ -69,10 +67,13 @@ export class UnitList {
   readonly status = input<string>();
   readonly binId = input<string>();
 
-  protected readonly columns = ['label', 'part', 'skirt', 'status', 'bin', 'receivedAt', 'actions'];
-  protected readonly statusLabels = STATUS_LABELS;
-  protected readonly statuses: UnitStatus[] = ['free', 'held', 'issued', 'returned', 'scrapped'];
-  protected readonly pageSizes = [25, 50, 100];
+  /** The part's column is named 'sku': its header sorts by part number, as the server calls it. */
+  protected readonly columns = ['label', 'sku', 'skirt', 'status', 'bin', 'receivedAt', 'actions'];
+  protected readonly statuses: Choice[] = [
+    { value: 'on-shelf', label: 'On the shelf (free or held)' },
+    ...choicesOf(STATUSES, (status) => STATUS_LABELS[status].text),
+    { value: '', label: 'Any status' },
+  ];
 
   protected readonly canMove = computed(() => this.session.may('receiveStock'));
   protected readonly canScrap = computed(() => this.session.may('scrapUnits'));

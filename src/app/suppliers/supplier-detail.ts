@@ -1,13 +1,7 @@
 import { ChangeDetectionStrategy, Component, computed, inject, input } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
-import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
-import { MatInputModule } from '@angular/material/input';
-import { MatPaginatorModule } from '@angular/material/paginator';
-import { MatSelectModule } from '@angular/material/select';
-import { MatSortModule } from '@angular/material/sort';
-import { MatTableModule } from '@angular/material/table';
 import { RouterLink } from '@angular/router';
 
 import { formatMoney } from '../../../shared/money';
@@ -19,7 +13,10 @@ import { SuppliersApi } from './suppliers-api';
 import { ShopDatePipe } from '../core/shop-date-pipe';
 import { PagedList } from '../ui/paged-list';
 import { loadById } from '../ui/load';
+import { DataTable } from '../ui/data-table';
 import { ListState } from '../ui/list-state';
+import { TableActions, TableColumn, TableEmpty } from '../ui/table-column';
+import { FilterSelect, SearchField, type Choice } from '../ui/list-fields';
 
 const SORTABLE = ['sku', 'description', 'size', 'price', 'available', 'updated'] as const;
 type ItemSort = (typeof SORTABLE)[number];
@@ -31,17 +28,17 @@ type ItemFilters = { supplierId: string; mapped: Listed; dropped: Listed };
 @Component({
   selector: 'app-supplier-detail',
   imports: [
+    DataTable,
     ListState,
+    TableActions,
+    TableColumn,
+    TableEmpty,
+    SearchField,
+    FilterSelect,
     ShopDatePipe,
     LengthPipe,
     MatButtonModule,
-    MatFormFieldModule,
     MatIconModule,
-    MatInputModule,
-    MatPaginatorModule,
-    MatSelectModule,
-    MatSortModule,
-    MatTableModule,
     RouterLink,
   ],
   templateUrl: './supplier-detail.html',
@@ -65,8 +62,17 @@ export class SupplierDetail {
     'part',
     'actions',
   ];
-  protected readonly pageSizes = [25, 50, 100];
   protected readonly canEdit = computed(() => this.session.may('editSuppliers'));
+  protected readonly mapped: Choice[] = [
+    { value: 'all', label: 'All items' },
+    { value: 'true', label: 'Mapped' },
+    { value: 'false', label: 'Not mapped yet' },
+  ];
+  protected readonly dropped: Choice[] = [
+    { value: 'false', label: 'Still listed' },
+    { value: 'true', label: 'Dropped from the list' },
+    { value: 'all', label: 'Both' },
+  ];
 
   protected readonly supplier = loadById(this.id, (id) => this.api.supplier(id));
   protected readonly items = new PagedList<SupplierItemJson, ItemSort, ItemFilters>({

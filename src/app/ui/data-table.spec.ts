@@ -4,7 +4,7 @@ import type { PageEvent } from '@angular/material/paginator';
 import type { Sort } from '@angular/material/sort';
 
 import { DataTable, type TablePages } from './data-table';
-import { TableColumn, TableEmpty, titleOf } from './table-column';
+import { TableActions, TableColumn, TableEmpty, titleOf } from './table-column';
 
 interface Part {
   sku: string;
@@ -83,6 +83,23 @@ class FiguresHost {
   readonly rows = PARTS;
 }
 
+@Component({
+  imports: [DataTable, TableActions, TableColumn],
+  template: `
+    <app-data-table caption="Parts" [columns]="['sku', 'actions']" [rows]="rows" [rowClass]="look">
+      <ng-template tableColumn="sku" header="Part" let-p>{{ p.sku }}</ng-template>
+      <ng-template tableActions let-p
+        ><button type="button">Count {{ p.sku }}</button></ng-template
+      >
+    </app-data-table>
+  `,
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+class ActionsHost {
+  readonly rows = PARTS;
+  readonly look = (p: Part) => (p.onHand > 10 ? 'faded' : '');
+}
+
 function texts(root: HTMLElement, selector: string): string[] {
   return Array.from(root.querySelectorAll(selector)).map((e) => (e.textContent ?? '').trim());
 }
@@ -145,6 +162,24 @@ describe('DataTable', () => {
       const empty = root.querySelector('td.empty');
       expect(empty?.textContent?.trim()).toBe('Nothing on the shelf.');
       expect(empty?.getAttribute('colspan')).toBe('3');
+    });
+  });
+
+  describe('the row buttons and row looks', () => {
+    it('when the buttons are a tableActions template, then they are the actions column, named for screen readers and left off paper', async () => {
+      const fixture = TestBed.createComponent(ActionsHost);
+      await fixture.whenStable();
+      const root = fixture.nativeElement as HTMLElement;
+      expect(texts(root, 'th')).toEqual(['Part', 'Actions']);
+      expect(root.querySelector('th.mat-column-actions .visually-hidden')?.textContent).toBe(
+        'Actions',
+      );
+      expect(texts(root, 'td.mat-column-actions')).toEqual(['Count QX-100', 'Count QX-200']);
+      const cell = root.querySelector('td.mat-column-actions');
+      expect(cell?.classList.contains('actions')).toBe(true);
+      expect(cell?.classList.contains('no-print')).toBe(true);
+      const rows = Array.from(root.querySelectorAll('tr.mat-mdc-row'));
+      expect(rows.map((r) => r.classList.contains('faded'))).toEqual([false, true]);
     });
   });
 

@@ -13,7 +13,7 @@ import { MatPaginatorModule, type PageEvent } from '@angular/material/paginator'
 import { MatSortModule, type Sort } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
 
-import { TableColumn, TableEmpty } from './table-column';
+import { TableActions, TableColumn, TableEmpty, type ColumnDef } from './table-column';
 
 /** A server-paged list as the table reads it (`PagedList` is one). */
 export interface TablePages<Row = unknown> {
@@ -69,7 +69,12 @@ export class DataTable {
   readonly open = output<Row>();
   readonly sortChange = output<Sort>();
 
-  protected readonly defs = contentChildren(TableColumn);
+  private readonly columnDefs = contentChildren(TableColumn);
+  private readonly actions = contentChild(TableActions);
+  protected readonly defs = computed<readonly ColumnDef[]>(() => {
+    const actions = this.actions();
+    return actions ? [...this.columnDefs(), actions] : this.columnDefs();
+  });
   protected readonly empty = contentChild(TableEmpty);
   protected readonly pageSizes = [25, 50, 100];
   protected readonly shownRows = computed(() => this.list()?.rows() ?? this.rows());
