@@ -70,8 +70,9 @@ import { FormAlert } from '../ui/form-alert';
       </mat-dialog-actions>
     </form>
   `,
+  // p.note, not .note as in the measure dialog: see ui/list-fields.ts on identical inline styles
   styles: `
-    .note {
+    p.note {
       color: var(--mat-sys-on-surface-variant);
     }
   `,

@@ -16,11 +16,8 @@ import { MatIconModule } from '@angular/material/icon';
     }
   `,
   // No box of its own: the alert sits in the form's layout as if written there.
-  styles: `
-    :host {
-      display: contents;
-    }
-  `,
+  // (a host style, not an inline stylesheet: see ui/list-fields.ts on identical inline styles)
+  host: { style: 'display: contents' },
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class FormAlert {

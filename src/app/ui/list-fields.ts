@@ -10,13 +10,9 @@ import type { Filters } from './paged-list';
 // drives a `PagedList` (or anything shaped like one) and takes a field's room in the row
 // (`.filters` in `_list-page.scss`), so a page writes one line where it wrote a form field.
 
-/** Each field's host is the box in the page's layout; the form field fills it. */
-const FIELD_BOX = `
-  :host {
-    display: inline-flex;
-    flex-direction: column;
-  }
-`;
+// Each field's host is the box in the page's layout and the form field fills it. The two fields
+// write that box each in their own way on purpose: @angular/build 21.2 never exits `ng build`
+// when two components carry byte-identical inline styles (it finishes the bundle, then hangs).
 
 /** What the search reads and drives: a `PagedList`, or anything else with search text. */
 export interface Searched {
@@ -47,15 +43,14 @@ export interface Searched {
       />
     </mat-form-field>
   `,
-  styles: [
-    FIELD_BOX,
-    `
-      :host {
-        min-width: min(360px, 100%);
-        flex: 1 1 320px;
-      }
-    `,
-  ],
+  styles: `
+    :host {
+      display: inline-flex;
+      flex-direction: column;
+      min-width: min(360px, 100%);
+      flex: 1 1 320px;
+    }
+  `,
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class SearchField {
@@ -111,7 +106,7 @@ export interface Filtered {
       </mat-select>
     </mat-form-field>
   `,
-  styles: FIELD_BOX,
+  host: { style: 'display: inline-flex; flex-direction: column' },
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class FilterSelect {
