@@ -173,8 +173,16 @@ function advanceAfterHold(
   return { state: to, text: stateNote(job.state, to) };
 }
 
-function holdReason(job: repo.HoldJobRow, place: repo.HoldPlaceRow): string {
-  return `held for job ${job.number}, cylinder ${place.n}`;
+/** The stock half's hold and reservation fields, the same for a measured piston and counted parts. */
+function holdStock(c: HoldContext): moves.HoldStock {
+  return {
+    holdId: c.holdId,
+    jobId: c.job.id,
+    cylinder: c.place.n,
+    expiresAt: c.expiresAt,
+    userId: c.actorId,
+    reason: `held for job ${c.job.number}, cylinder ${c.place.n}`,
+  };
 }
 
 /** Holds one measured piston; returns the hold as the answer shows it, from the rows already read. */
@@ -208,36 +216,25 @@ async function holdUnit(trx: Conn, c: HoldContext & { unit: LengthUnit }): Promi
   const settleStepId = !place.chosen_step_id && place.step_id ? place.step_id : null;
   let written: { createdAt: Date; levelRows: number } | null;
   try {
-    written = await repo.writeHold(
-      trx,
-      moves.unitHoldCtes(place.unit_id, {
-        holdId: c.holdId,
+    written = await repo.writeHold(trx, moves.unitHoldCtes(place.unit_id, holdStock(c)), {
+      jobId: job.id,
+      cylinder: place.n,
+      holdId: c.holdId,
+      userId: c.actorId,
+      settleStepId,
+      text: `Held ${label} (${place.step_label ?? ''}, skirt ${formatLength(skirtNm, c.unit)}) for cylinder ${place.n}.`,
+      audit: {
         jobId: job.id,
         cylinder: place.n,
+        unitId: place.unit_id,
+        partId: place.part_id,
         expiresAt: c.expiresAt,
-        userId: c.actorId,
-        reason: holdReason(job, place),
-      }),
-      {
-        jobId: job.id,
-        cylinder: place.n,
-        holdId: c.holdId,
-        userId: c.actorId,
-        settleStepId,
-        text: `Held ${label} (${place.step_label ?? ''}, skirt ${formatLength(skirtNm, c.unit)}) for cylinder ${place.n}.`,
-        audit: {
-          jobId: job.id,
-          cylinder: place.n,
-          unitId: place.unit_id,
-          partId: place.part_id,
-          expiresAt: c.expiresAt,
-        },
-        advance: advanceAfterHold(job, place, {
-          stepped: Boolean(place.chosen_step_id ?? settleStepId),
-          pistonHeld: true,
-        }),
       },
-    );
+      advance: advanceAfterHold(job, place, {
+        stepped: Boolean(place.chosen_step_id ?? settleStepId),
+        pistonHeld: true,
+      }),
+    });
   } catch (e) {
     if (isCheckViolation(e)) {
       throw new NotAvailable(`${label} cannot be held: its part has nothing free on hand.`);
@@ -308,14 +305,7 @@ async function holdCounted(
   );
   const written = await repo.writeHold(
     trx,
-    moves.countedHoldCtes(part.id, c.quantity, {
-      holdId: c.holdId,
-      jobId: job.id,
-      cylinder: place.n,
-      expiresAt: c.expiresAt,
-      userId: c.actorId,
-      reason: holdReason(job, place),
-    }),
+    moves.countedHoldCtes(part.id, c.quantity, holdStock(c)),
     {
       jobId: job.id,
       cylinder: place.n,
