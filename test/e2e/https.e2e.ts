@@ -19,27 +19,9 @@ beforeAll(async () => {
   dir = mkdtempSync(path.join(os.tmpdir(), 'stepstock-tls-'));
   const certFile = path.join(dir, 'cert.pem');
   const keyFile = path.join(dir, 'key.pem');
-  execFileSync(
-    'openssl',
-    [
-      'req',
-      '-x509',
-      '-newkey',
-      'rsa:2048',
-      '-nodes',
-      '-days',
-      '1',
-      '-subj',
-      '/CN=127.0.0.1',
-      '-addext',
-      'subjectAltName=IP:127.0.0.1',
-      '-keyout',
-      keyFile,
-      '-out',
-      certFile,
-    ],
-    { stdio: 'ignore' },
-  );
+  execFileSync('openssl', selfSigned('/CN=127.0.0.1', keyFile, certFile, 'IP:127.0.0.1'), {
+    stdio: 'ignore',
+  });
   cert = readFileSync(certFile);
   database = await demoDatabase();
   server = await startServer(database.url, { TLS_CERT: certFile, TLS_KEY: keyFile });
@@ -78,23 +60,11 @@ describe('HTTPS from Stepstock itself', () => {
   });
 
   it('when a client does not trust the certificate, then it gets no answer', async () => {
-    const other = execFileSync(
-      'openssl',
-      [
-        'req',
-        '-x509',
-        '-newkey',
-        'rsa:2048',
-        '-nodes',
-        '-days',
-        '1',
-        '-subj',
-        '/CN=elsewhere',
-        '-keyout',
-        '/dev/null',
-      ],
-      { encoding: 'utf8', stdio: ['ignore', 'pipe', 'ignore'] },
-    );
+    // No -out: openssl writes the certificate to stdout.
+    const other = execFileSync('openssl', selfSigned('/CN=elsewhere', '/dev/null'), {
+      encoding: 'utf8',
+      stdio: ['ignore', 'pipe', 'ignore'],
+    });
     await expect(httpsGet(`${server.url}/api/health`, Buffer.from(other))).rejects.toThrow();
   });
 
@@ -103,3 +73,13 @@ describe('HTTPS from Stepstock itself', () => {
     expect(res === null || res.status === 400).toBe(true);
   });
 });
+
+/** openssl's arguments for a throwaway self-signed certificate of one day (to stdout without certFile). */
+function selfSigned(subject: string, keyFile: string, certFile?: string, altName?: string): string[] {
+  return [
+    ...['req', '-x509', '-newkey', 'rsa:2048', '-nodes', '-days', '1', '-subj', subject],
+    ...(altName ? ['-addext', `subjectAltName=${altName}`] : []),
+    ...['-keyout', keyFile],
+    ...(certFile ? ['-out', certFile] : []),
+  ];
+}

@@ -19,21 +19,26 @@ const EVERYONE = [
   '/account',
 ];
 
+/** The buying pages the owner and the buyer both have. */
+const BUYING = [
+  '/stock/receive',
+  '/stock/bins',
+  '/alerts',
+  '/purchasing/reorder',
+  '/purchasing/sourcing',
+  '/suppliers',
+  '/suppliers/unmapped',
+  '/imports/new',
+  '/imports',
+  '/purchasing/rates',
+];
+
 /** Each role's pages: every entry of its navigation. */
 const PAGES: Record<DemoRole, string[]> = {
   owner: [
     ...EVERYONE,
     '/jobs/new',
-    '/stock/receive',
-    '/stock/bins',
-    '/alerts',
-    '/purchasing/reorder',
-    '/purchasing/sourcing',
-    '/suppliers',
-    '/suppliers/unmapped',
-    '/imports/new',
-    '/imports',
-    '/purchasing/rates',
+    ...BUYING,
     '/insights/sales',
     '/insights/money',
     '/insights/stock',
@@ -46,16 +51,7 @@ const PAGES: Record<DemoRole, string[]> = {
   ],
   buyer: [
     ...EVERYONE,
-    '/stock/receive',
-    '/stock/bins',
-    '/alerts',
-    '/purchasing/reorder',
-    '/purchasing/sourcing',
-    '/suppliers',
-    '/suppliers/unmapped',
-    '/imports/new',
-    '/imports',
-    '/purchasing/rates',
+    ...BUYING,
     '/insights/stock',
     '/insights/abc',
     '/insights/exposure',
