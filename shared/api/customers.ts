@@ -190,19 +190,7 @@ export interface CustomerExportJson {
   exportedAt: string;
   customer: CustomerJson;
   cylinders: CustomerCylinderJson[];
-  jobs: {
-    id: string;
-    number: string;
-    state: JobState;
-    familyCode: string;
-    cylinders: number;
-    askedFor: string;
-    notes: string;
-    dueDate: string | null;
-    notifyCustomer: boolean;
-    createdAt: string;
-    closedAt: string | null;
-  }[];
+  jobs: (Omit<CustomerJobJson, 'money'> & { notes: string; notifyCustomer: boolean })[];
   /** E-mail the shop queued to the customer's address. */
   mail: { template: string; status: string; createdAt: string }[];
 }

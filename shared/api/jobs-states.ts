@@ -1,20 +1,10 @@
 // A job's states and the fixed lists the jobs contract names: reading depths and axes, photo limits.
 import type { Axis, Depth } from '../bore-wear';
 
-/** A job's states in workshop order; the last two close the job. */
-export const JOB_STATES = [
-  'booked_in',
-  'gauged',
-  'parts_set_aside',
-  'on_the_bar',
-  'at_the_hone',
-  'ready_to_go',
-  'handed_back',
-  'called_off',
-] as const;
-export type JobState = (typeof JOB_STATES)[number];
-
-/** States a person may move a job between; handing back and calling off have their own commands. */
+/**
+ * States a person may move a job between, in workshop order; handing back and calling off have their
+ * own commands.
+ */
 export const OPEN_STATES = [
   'booked_in',
   'gauged',
@@ -22,8 +12,12 @@ export const OPEN_STATES = [
   'on_the_bar',
   'at_the_hone',
   'ready_to_go',
-] as const satisfies readonly JobState[];
+] as const;
 export type OpenState = (typeof OPEN_STATES)[number];
+
+/** A job's states in workshop order; the last two close the job. */
+export const JOB_STATES = [...OPEN_STATES, 'handed_back', 'called_off'] as const;
+export type JobState = (typeof JOB_STATES)[number];
 
 export const JOB_STATE_LABELS: Record<JobState, string> = {
   booked_in: 'Booked in',

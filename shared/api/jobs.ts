@@ -9,6 +9,7 @@ import type { StepAlternative } from '../bore-choice';
 export * from './jobs-states';
 export * from './jobs-inputs';
 import type { JobState } from './jobs-states';
+import type { FamilyJson } from './catalog';
 
 // ---- Answers ----------------------------------------------------------------------------------
 
@@ -110,20 +111,22 @@ export interface JobEventJson {
   userName: string | null;
 }
 
-export interface JobFamilyJson {
-  id: string;
-  code: string;
-  name: string;
-  cylinders: number;
-  standardBore: LengthJson;
-  clearance: { min: LengthJson; max: LengthJson };
-  honeAllowance: LengthJson;
-  cleanup: LengthJson;
-  maxOversize: LengthJson;
-  maxTaper: LengthJson | null;
-  maxOutOfRound: LengthJson | null;
-  ringGap: { min: LengthJson | null; max: LengthJson | null };
-}
+/** The family as a job shows it: what its bore sheet and readings are checked against. */
+export type JobFamilyJson = Pick<
+  FamilyJson,
+  | 'id'
+  | 'code'
+  | 'name'
+  | 'cylinders'
+  | 'standardBore'
+  | 'clearance'
+  | 'honeAllowance'
+  | 'cleanup'
+  | 'maxOversize'
+  | 'maxTaper'
+  | 'maxOutOfRound'
+  | 'ringGap'
+>;
 
 export interface JobListItemJson {
   id: string;
