@@ -1,6 +1,7 @@
 // Streams a supplier's price list from disk into validated rows and row errors: file stream → iconv-lite
-// decoder → csv-parse (strict RFC 4180 quoting, one column count for every row) → row validation. Rows
-// come out as they are read, so a caller writing them in batches never holds the whole file in memory.
+// decoder (Windows-1252 only) → csv-parse (strict RFC 4180 quoting, one column count for every row) → row
+// checks. Rows come out as they are read, so a caller writing them in batches never holds the whole file in
+// memory.
 import { createReadStream } from 'node:fs';
 import { pipeline } from 'node:stream';
 import iconv from 'iconv-lite';
@@ -8,7 +9,7 @@ import { parse, type CsvError, type InfoRecord, type Options } from 'csv-parse';
 import { BadRequest } from '../errors';
 import type { DetectedFormat } from './detect-format';
 import { resolveMapping } from './propose-mapping';
-import { validateRow, type PriceListRow, type RowIssue, type RowContext } from './validate-row';
+import { RowChecker, type PriceListRow, type RowIssue } from './validate-row';
 import type { MappingJson } from '../../shared/api/suppliers';
 
 export type { PriceListRow, RowIssue } from './validate-row';
@@ -93,6 +94,8 @@ export async function* readPriceListChunks(
 
   const parserOptions: Options<ParsedRecord, string[]> = {
     delimiter: format.delimiter,
+    // A UTF-8 byte-order mark before the header is not part of the first column's name.
+    bom: format.encoding !== 'windows-1252',
     record_delimiter: ['\r\n', '\n', '\r'],
     from_line: format.headerLine,
     relax_column_count: false,
@@ -133,16 +136,21 @@ export async function* readPriceListChunks(
   // The typings only let on_record return a row of strings; ours returns the row with its line.
   const parser = parse(parserOptions as unknown as Options);
 
-  const decoder = iconv.decodeStream(format.encoding === 'windows-1252' ? 'win1252' : 'utf8');
   // pipeline() destroys every stream when one fails, so a read error surfaces in the loop below.
-  pipeline(createReadStream(path), decoder, parser, () => undefined);
+  if (format.encoding === 'windows-1252') {
+    pipeline(createReadStream(path), iconv.decodeStream('win1252'), parser, () => undefined);
+  } else {
+    // csv-parse splits bytes and decodes each field as UTF-8 itself (a byte that is not UTF-8 becomes
+    // U+FFFD, as a decoder in front would make it), so UTF-8 is not decoded twice.
+    pipeline(createReadStream(path), parser, () => undefined);
+  }
 
-  const context: RowContext = {
+  const checker = new RowChecker({
     format,
     mapping,
     columns,
     defaultCurrency: options.defaultCurrency,
-  };
+  });
   // SKU → its first line, negative when that row had errors: a plain number per SKU rather than
   // an object keeps a list of hundreds of thousands of SKUs small in memory.
   const seen = new Map<string, number>();
@@ -165,10 +173,10 @@ export async function* readPriceListChunks(
       headerSeen = true; // the header line itself
       return;
     }
-    if (record.every((cell) => cell.trim() === '')) return; // a spreadsheet's padded blank row
+    if (isBlank(record)) return; // a spreadsheet's padded blank row
 
     counts.rows++;
-    const result = validateRow(record, line, context);
+    const result = checker.check(record, line);
     for (const warning of result.warnings) {
       counts.warnings++;
       out.push({ kind: 'warning', issue: warning });
@@ -296,11 +304,20 @@ function emptyBatch(): PriceListBatch {
   return { rows: [], errors: [], warnings: [], retracted: [], skippedSkus: [] };
 }
 
+function isBlank(record: string[]): boolean {
+  for (const cell of record) if (cell.trim() !== '') return false;
+  return true;
+}
+
+const NO_BREAKS = { breaks: 0, crlf: 0 };
+
 /** Line breaks inside a record's quoted fields (CRLF counted once, and apart as `crlf`). */
 function lineBreaksIn(record: string[]): { breaks: number; crlf: number } {
   let breaks = 0;
   let crlf = 0;
   for (const cell of record) {
+    // Almost no cell holds a line break: the native search skips those without a loop per character.
+    if (cell.indexOf('\n') < 0 && cell.indexOf('\r') < 0) continue;
     for (let i = 0; i < cell.length; i++) {
       const ch = cell.charCodeAt(i);
       if (ch === 10) breaks++;
@@ -310,7 +327,7 @@ function lineBreaksIn(record: string[]): { breaks: number; crlf: number } {
       }
     }
   }
-  return { breaks, crlf };
+  return breaks === 0 && crlf === 0 ? NO_BREAKS : { breaks, crlf };
 }
 
 /** A fault that leaves the rest of the file unreadable: the whole list is refused. */

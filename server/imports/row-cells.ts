@@ -1,20 +1,8 @@
 // Reading one cell of a price-list row: a size or oversize in either unit, a price with its currency,
 // stock, lead time and GTIN, each with the reason when it cannot be read. validate-row.ts puts a row
 // together from them.
-import {
-  parseLength,
-  NM_PER_MM,
-  type LengthUnit,
-  type Nm,
-  type ParseLengthOptions,
-  type ParsedLength,
-} from '../../shared/lengths';
-import {
-  isCurrencyCode,
-  parseMoney,
-  type ParseMoneyOptions,
-  type ParsedMoney,
-} from '../../shared/money';
+import { parseLength, NM_PER_MM, type LengthUnit, type Nm } from '../../shared/lengths';
+import { isCurrencyCode, parseMoney } from '../../shared/money';
 import { gtinProblem, normalizeGtin } from '../../shared/gtin';
 import type { DetectedFormat } from './detect-format';
 import { lengthDigits, readNumberCell } from './number-text';
@@ -62,162 +50,115 @@ const WEEK_WORDS = new Set([
   'semaine',
 ]);
 
-// A list repeats the same few sizes and prices thousands of times; both readers are pure, so their
-// answers are kept for the texts seen most recently (cleared when full, to bound the memory).
-const CACHE_LIMIT = 5000;
-const lengthCache = new Map<string, ParsedLength>();
-const moneyCache = new Map<string, ParsedMoney>();
-
-function cachedLength(text: string, opts: ParseLengthOptions): ParsedLength {
-  const key = `${text}|${opts.defaultUnit}|${opts.allowZero}|${opts.max}`;
-  let hit = lengthCache.get(key);
-  if (!hit) {
-    if (lengthCache.size >= CACHE_LIMIT) lengthCache.clear();
-    hit = parseLength(text, opts);
-    lengthCache.set(key, hit);
-  }
-  return hit;
+/**
+ * What reading one cell gave: its value (null for an empty cell or one that cannot be read), and the
+ * reason when it cannot be read, or a warning that goes with the value. A reading depends only on the
+ * cell's text and the list's settings, so validate-row.ts keeps the readings of texts seen before.
+ */
+export interface CellReading<T> {
+  value: T | null;
+  error: string | null;
+  warning: string | null;
 }
 
-function cachedMoney(text: string, opts: ParseMoneyOptions): ParsedMoney {
-  const key = `${text}|${opts.decimalComma}|${opts.maxDecimals}`;
-  let hit = moneyCache.get(key);
-  if (!hit) {
-    if (moneyCache.size >= CACHE_LIMIT) moneyCache.clear();
-    hit = parseMoney(text, opts);
-    moneyCache.set(key, hit);
-  }
-  return hit;
+const EMPTY: CellReading<never> = { value: null, error: null, warning: null };
+
+function value<T>(v: T, warning: string | null = null): CellReading<T> {
+  return { value: v, error: null, warning };
 }
 
+function refused(message: string): CellReading<never> {
+  return { value: null, error: message, warning: null };
+}
+
+/** A length cell: nanometres and the unit it was read in, or why it is not a length. */
 export function readLengthCell(
   raw: string,
   unit: LengthUnit,
   format: DetectedFormat,
   what: string,
   opts: { allowZero: boolean; max: Nm; min?: Nm },
-  fail: (m: string) => void,
-): { nm: Nm; unit: LengthUnit } | null {
+): { nm: Nm; unit: LengthUnit } | string {
   const shown = raw.trim();
   const read = readNumberCell(raw);
-  if (!read.ok) {
-    fail(`The ${what} ${read.message}.`);
-    return null;
-  }
+  if (!read.ok) return `The ${what} ${read.message}.`;
   const { run, negative, before, after } = read.cell;
-  if (negative) {
-    fail(`The ${what} "${shown}" is negative.`);
-    return null;
-  }
+  if (negative) return `The ${what} "${shown}" is negative.`;
   if (before !== '' && !/^[Øø⌀]$/.test(before)) {
-    fail(`The ${what} "${shown}" is not a length: unexpected "${before}" before the number.`);
-    return null;
+    return `The ${what} "${shown}" is not a length: unexpected "${before}" before the number.`;
   }
   const digits = lengthDigits(run, format.decimal);
-  if (typeof digits !== 'string') {
-    fail(`The ${what} "${shown}" ${digits.problem}.`);
-    return null;
-  }
-  const parsed = cachedLength(`${digits} ${after}`.trim(), {
+  if (typeof digits !== 'string') return `The ${what} "${shown}" ${digits.problem}.`;
+  const parsed = parseLength(`${digits} ${after}`.trim(), {
     defaultUnit: unit,
     allowZero: opts.allowZero,
     max: opts.max,
   });
-  if (!parsed.ok) {
-    fail(`The ${what} "${shown}": ${parsed.message}`);
-    return null;
-  }
+  if (!parsed.ok) return `The ${what} "${shown}": ${parsed.message}`;
   if (opts.min !== undefined && parsed.nm < opts.min) {
-    fail(
+    return (
       `The ${what} "${shown}" reads as ${digits} ${parsed.unit}, smaller than any piston: ` +
-        `is the column in ${parsed.unit === 'mm' ? 'inches' : 'millimetres'}?`,
+      `is the column in ${parsed.unit === 'mm' ? 'inches' : 'millimetres'}?`
     );
-    return null;
   }
   return { nm: parsed.nm, unit: parsed.unit };
 }
 
-export function readSize(
-  raw: string,
-  unit: LengthUnit,
-  format: DetectedFormat,
-  fail: (m: string) => void,
-  warn: (m: string) => void,
-): Nm | null {
-  if (raw.trim() === '') return null;
-  let tooLarge = false;
-  const length = readLengthCell(
-    raw,
-    unit,
-    format,
-    'size',
-    { allowZero: false, max: MAX_SIZE_NM, min: MIN_SIZE_NM },
-    (m) => {
-      tooLarge = m.includes('at most');
-      fail(
-        tooLarge
-          ? `${m} A piston that large is not plausible: is the column in ${unit === 'in' ? 'millimetres' : 'inches'}?`
-          : m,
-      );
-    },
-  );
-  if (length && length.unit !== unit) {
-    warn(
-      `The size "${raw.trim()}" is in ${length.unit} while the column is set to ${unit}; the unit written in the cell is used.`,
+export function readSize(raw: string, unit: LengthUnit, format: DetectedFormat): CellReading<Nm> {
+  if (raw.trim() === '') return EMPTY;
+  const length = readLengthCell(raw, unit, format, 'size', {
+    allowZero: false,
+    max: MAX_SIZE_NM,
+    min: MIN_SIZE_NM,
+  });
+  if (typeof length === 'string') {
+    return refused(
+      length.includes('at most')
+        ? `${length} A piston that large is not plausible: is the column in ${unit === 'in' ? 'millimetres' : 'inches'}?`
+        : length,
     );
   }
-  return length?.nm ?? null;
+  return value(
+    length.nm,
+    length.unit === unit
+      ? null
+      : `The size "${raw.trim()}" is in ${length.unit} while the column is set to ${unit}; the unit written in the cell is used.`,
+  );
 }
 
 export function readOversize(
   raw: string,
   unit: LengthUnit,
   format: DetectedFormat,
-  fail: (m: string) => void,
-): Nm | null {
+): CellReading<Nm> {
   const text = raw.trim();
-  if (text === '') return null;
-  if (STANDARD_WORDS.has(text.toLowerCase())) return 0;
-  const length = readLengthCell(
-    text,
-    unit,
-    format,
-    'oversize',
-    { allowZero: true, max: MAX_OVERSIZE_NM },
-    (m) =>
-      fail(
-        m.includes('at most')
-          ? `${m} No oversize step is that large: is this the size column, or the wrong unit?`
-          : m,
-      ),
+  if (text === '') return EMPTY;
+  if (STANDARD_WORDS.has(text.toLowerCase())) return value(0);
+  const length = readLengthCell(text, unit, format, 'oversize', {
+    allowZero: true,
+    max: MAX_OVERSIZE_NM,
+  });
+  if (typeof length !== 'string') return value(length.nm);
+  return refused(
+    length.includes('at most')
+      ? `${length} No oversize step is that large: is this the size column, or the wrong unit?`
+      : length,
   );
-  return length?.nm ?? null;
 }
 
 export function readPrice(
   raw: string,
   format: DetectedFormat,
   dollarIsDefault: boolean,
-  fail: (m: string) => void,
-): { value: string; currency: string | null } | null {
+): CellReading<{ value: string; currency: string | null }> {
   const shown = raw.trim();
-  if (shown === '') {
-    fail('The price is empty.');
-    return null;
-  }
+  if (shown === '') return refused('The price is empty.');
   const read = readNumberCell(raw);
-  if (!read.ok) {
-    fail(`The price ${read.message}.`);
-    return null;
-  }
+  if (!read.ok) return refused(`The price ${read.message}.`);
   const { run, negative, before, after } = read.cell;
-  if (negative) {
-    fail(`The price "${shown}" is negative.`);
-    return null;
-  }
+  if (negative) return refused(`The price "${shown}" is negative.`);
   if (before !== '' && after !== '') {
-    fail(`The price "${shown}" has text on both sides of the number.`);
-    return null;
+    return refused(`The price "${shown}" has text on both sides of the number.`);
   }
   const affix = before || after;
   let currency: string | null = null;
@@ -225,123 +166,101 @@ export function readPrice(
     if (CURRENCY_SYMBOLS[affix]) currency = CURRENCY_SYMBOLS[affix];
     else if (affix === '$') {
       if (!dollarIsDefault) {
-        fail(
+        return refused(
           `The price "${shown}" uses "$", which several currencies share; write the code (USD, CAD…).`,
         );
-        return null;
       }
       currency = 'USD';
     } else if (/^[A-Za-z]{3}$/.test(affix)) {
       if (!isCurrencyCode(affix.toUpperCase())) {
-        fail(`The price "${shown}" names "${affix}", which is not an ISO 4217 currency code.`);
-        return null;
+        return refused(
+          `The price "${shown}" names "${affix}", which is not an ISO 4217 currency code.`,
+        );
       }
       currency = affix.toUpperCase();
     } else {
-      fail(`The price "${shown}" is not a number: unexpected "${affix}".`);
-      return null;
+      return refused(`The price "${shown}" is not a number: unexpected "${affix}".`);
     }
   }
-  const money = cachedMoney(run, { decimalComma: format.decimal === ',', maxDecimals: 4 });
-  if (!money.ok) {
-    fail(`The price "${shown}": ${money.message}`);
-    return null;
-  }
+  const money = parseMoney(run, { decimalComma: format.decimal === ',', maxDecimals: 4 });
+  if (!money.ok) return refused(`The price "${shown}": ${money.message}`);
   // parseMoney answers plain digits with an optional fraction ("1234.5"), so text is enough here.
   const [whole, fraction = ''] = money.value.split('.');
   if (/^0*$/.test(whole) && /^0*$/.test(fraction)) {
-    fail('The price is zero; leave the row out or give its price.');
-    return null;
+    return refused('The price is zero; leave the row out or give its price.');
   }
   if (whole.replace(/^0+(?=\d)/, '').length > MAX_PRICE_DIGITS) {
-    fail(
+    return refused(
       `The price "${shown}" is too large (at most ${MAX_PRICE_DIGITS} digits before the decimals).`,
     );
-    return null;
   }
-  return { value: `${whole}.${fraction.padEnd(2, '0')}`, currency };
+  return value({ value: `${whole}.${fraction.padEnd(2, '0')}`, currency });
 }
 
-export function readAvailable(
-  raw: string,
-  format: DetectedFormat,
-  fail: (m: string) => void,
-  warn: (m: string) => void,
-): number | null {
+export function readAvailable(raw: string, format: DetectedFormat): CellReading<number> {
   const shown = raw.trim();
-  if (shown === '') return null;
+  if (shown === '') return EMPTY;
   const read = readNumberCell(raw);
-  if (!read.ok) {
-    fail(`The available quantity ${read.message}.`);
-    return null;
-  }
+  if (!read.ok) return refused(`The available quantity ${read.message}.`);
   const { run, negative, before, after } = read.cell;
   // Suppliers write "> 50" or "50+" for "plenty": read it as the number given, which is a lower bound.
   const atLeast = before === '>' || before === '>=' || after === '+';
-  if (negative) {
-    fail(`The available quantity "${shown}" is negative.`);
-    return null;
-  }
+  if (negative) return refused(`The available quantity "${shown}" is negative.`);
   if ((before !== '' || after !== '') && !atLeast && !/^(pcs|pc|stk|st|x)\.?$/i.test(after)) {
-    fail(`The available quantity "${shown}" is not a whole number.`);
-    return null;
+    return refused(`The available quantity "${shown}" is not a whole number.`);
   }
-  const money = cachedMoney(run, { decimalComma: format.decimal === ',', maxDecimals: 0 });
-  if (!money.ok) {
-    fail(`The available quantity "${shown}" is not a whole number.`);
-    return null;
-  }
+  const money = parseMoney(run, { decimalComma: format.decimal === ',', maxDecimals: 0 });
+  if (!money.ok) return refused(`The available quantity "${shown}" is not a whole number.`);
   const n = Number(money.value);
   if (n > MAX_AVAILABLE) {
-    fail(`The available quantity "${shown}" is more than ${MAX_AVAILABLE.toLocaleString('en')}.`);
-    return null;
+    return refused(
+      `The available quantity "${shown}" is more than ${MAX_AVAILABLE.toLocaleString('en')}.`,
+    );
   }
-  if (atLeast) warn(`"${shown}" is read as ${n} available (the least the supplier promises).`);
-  return n;
+  return value(
+    n,
+    atLeast ? `"${shown}" is read as ${n} available (the least the supplier promises).` : null,
+  );
 }
 
-export function readLeadDays(
-  raw: string,
-  format: DetectedFormat,
-  fail: (m: string) => void,
-): number | null {
+export function readLeadDays(raw: string): CellReading<number> {
   const shown = raw.trim();
-  if (shown === '') return null;
+  if (shown === '') return EMPTY;
   const read = readNumberCell(raw);
   if (!read.ok || read.cell.before !== '') {
-    fail(`The lead time "${shown}" is not a number of days.`);
-    return null;
+    return refused(`The lead time "${shown}" is not a number of days.`);
   }
   const { run, negative, after } = read.cell;
   const word = after.toLowerCase().replace(/\.$/, '');
   const factor = DAY_WORDS.has(word) ? 1 : WEEK_WORDS.has(word) ? 7 : 0;
   if (negative || factor === 0 || !/^\d+$/.test(run)) {
-    fail(`The lead time "${shown}" is not a whole number of days (or weeks, "3 wk").`);
-    return null;
+    return refused(`The lead time "${shown}" is not a whole number of days (or weeks, "3 wk").`);
   }
   const days = Number(run) * factor;
-  if (days > MAX_LEAD_DAYS) {
-    fail(`The lead time "${shown}" is more than ${MAX_LEAD_DAYS} days.`);
-    return null;
-  }
-  return days;
+  if (days > MAX_LEAD_DAYS)
+    return refused(`The lead time "${shown}" is more than ${MAX_LEAD_DAYS} days.`);
+  return value(days);
 }
 
-export function readGtin(raw: string, fail: (m: string) => void): string | null {
+export function readGtin(raw: string): CellReading<string> {
   const shown = raw.trim();
-  if (shown === '') return null;
+  if (shown === '') return EMPTY;
   if (/^\d[.,]?\d*e\+?\d+$/i.test(shown)) {
-    fail(
+    return refused(
       `The GTIN "${shown}" was turned into a number in exponent form by a spreadsheet; format the ` +
         'column as text and export again.',
     );
-    return null;
   }
   const problem = gtinProblem(shown);
-  if (problem) {
-    fail(`The GTIN "${shown}": ${problem}`);
-    return null;
-  }
+  if (problem) return refused(`The GTIN "${shown}": ${problem}`);
   // The 14-digit form, as the catalog stores GTINs, so an EAN-13 and a UPC-A of one box compare equal.
-  return normalizeGtin(shown);
+  return { value: normalizeGtin(shown), error: null, warning: null };
+}
+
+/** The currency column: the code in capitals, or why it is not one (an empty cell gives null). */
+export function readCurrency(raw: string): CellReading<string> {
+  const code = raw.trim().toUpperCase();
+  if (code === '') return EMPTY;
+  if (!isCurrencyCode(code)) return refused(`"${raw.trim()}" is not an ISO 4217 currency code.`);
+  return value(code);
 }
