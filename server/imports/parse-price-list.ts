@@ -5,7 +5,7 @@
 import { createReadStream } from 'node:fs';
 import { pipeline } from 'node:stream';
 import iconv from 'iconv-lite';
-import { parse, type CsvError, type InfoRecord, type Options } from 'csv-parse';
+import { Parser, type CsvError, type Options } from 'csv-parse';
 import { BadRequest } from '../errors';
 import type { DetectedFormat } from './detect-format';
 import { resolveMapping } from './propose-mapping';
@@ -53,6 +53,26 @@ interface ParsedRecord {
 }
 
 /**
+ * csv-parse, numbering each record by its line. The parser hands a record over (push) the moment it
+ * has read it, when its own line count (`info.lines`) is the one an on_record callback would be
+ * given; reading the count here spares the copy of the parser's whole info that it makes for every
+ * record when on_record is set.
+ */
+class NumberedParser extends Parser {
+  constructor(
+    options: Options,
+    private readonly numbered: (record: string[], lines: number) => ParsedRecord,
+  ) {
+    super(options);
+  }
+
+  override push(chunk: unknown, encoding?: BufferEncoding): boolean {
+    if (chunk === null) return super.push(chunk, encoding);
+    return super.push(this.numbered(chunk as string[], this.info.lines), encoding);
+  }
+}
+
+/**
  * Reads the list row by row. Throws BadRequest when the file as a whole cannot be read (a quote never
  * closed, a row too long, a missing required column); everything wrong with single rows comes out as
  * 'error' items with the line number.
@@ -92,7 +112,7 @@ export async function* readPriceListChunks(
     return { start: end - breaks, end };
   };
 
-  const parserOptions: Options<ParsedRecord, string[]> = {
+  const parserOptions: Options = {
     delimiter: format.delimiter,
     // A UTF-8 byte-order mark before the header is not part of the first column's name.
     bom: format.encoding !== 'windows-1252',
@@ -104,11 +124,6 @@ export async function* readPriceListChunks(
     skip_empty_lines: true,
     skip_records_with_error: true,
     max_record_size: maxRecordBytes,
-    on_record: (record: string[], info: InfoRecord): ParsedRecord => {
-      const { start, end } = linesOf(info.lines, record);
-      lastCompleteLine = end;
-      return { fields: record, line: start };
-    },
     on_skip: (err: CsvError | undefined) => {
       if (!err) return undefined;
       if (FATAL_CODES.has(err.code)) throw fatalError(err, lastCompleteLine, maxRecordBytes);
@@ -133,8 +148,11 @@ export async function* readPriceListChunks(
       return undefined;
     },
   };
-  // The typings only let on_record return a row of strings; ours returns the row with its line.
-  const parser = parse(parserOptions as unknown as Options);
+  const parser = new NumberedParser(parserOptions, (record, lines) => {
+    const { start, end } = linesOf(lines, record);
+    lastCompleteLine = end;
+    return { fields: record, line: start };
+  });
 
   // pipeline() destroys every stream when one fails, so a read error surfaces in the loop below.
   if (format.encoding === 'windows-1252') {
