@@ -3,7 +3,10 @@
 // stock-movements.ts, the job's half here). The read comes after the lock, as a statement of its
 // own, so it sees whatever an earlier holder of the job's lock committed. Each is a named
 // (prepared) statement: PostgreSQL parses and plans it once per connection instead of on every
-// hold, which for these joins and CTEs costs more than running them.
+// hold, which for these joins and CTEs costs more than running them. The job's other cylinders are
+// read by the job's key alone and their steps counted in the FILTER: with a step test in the WHERE
+// the planner may walk the index of every cylinder with a step instead (it did at the bench, on
+// statistics taken before most cylinders had one), more of them with each hold.
 import type { Knex } from 'knex';
 import type { JobState } from '../../shared/api/jobs';
 import type { PartKind } from '../../shared/api/catalog';
@@ -90,13 +93,13 @@ export async function readHoldPlace(
             AND h.unit_id IS NOT NULL AND h.released_at IS NULL
           LIMIT 1) ph ON true
        CROSS JOIN LATERAL (
-         SELECT count(*) AS to_bore,
-                count(*) FILTER (WHERE NOT EXISTS (
+         SELECT count(*) FILTER (WHERE oc.chosen_step_id IS NOT NULL) AS to_bore,
+                count(*) FILTER (WHERE oc.chosen_step_id IS NOT NULL AND NOT EXISTS (
                   SELECT 1 FROM holds h
                    WHERE h.job_id = oc.job_id AND h.cylinder = oc.n
                      AND h.unit_id IS NOT NULL AND h.released_at IS NULL)) AS without_piston
            FROM job_cylinders oc
-          WHERE oc.job_id = c.job_id AND oc.n <> c.n AND oc.chosen_step_id IS NOT NULL) o
+          WHERE oc.job_id = c.job_id AND oc.n <> c.n) o
        LEFT JOIN piston_units u ON u.id = :unitId
        LEFT JOIN parts p ON p.id = coalesce(u.part_id, :partId)
        LEFT JOIN series_steps s ON s.id = p.step_id
