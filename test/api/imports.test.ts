@@ -415,6 +415,24 @@ describe('uploading and committing a price list', () => {
     expect(next.body.counts).toMatchObject({ ok: 6, errors: 1, missing: 0, up: 1, unchanged: 5 });
   });
 
+  it('when a SKU and a description hold backslashes, then the staged rows keep them as written', async () => {
+    // The staging COPY uses PostgreSQL's text format, where a backslash starts an escape (PostgreSQL
+    // documentation, COPY, "Text Format"): unescaped, "\N" would stage NULL and "\t" a tab.
+    const supplier = await makeSupplier();
+    const preview = await upload(
+      staff,
+      supplier.id,
+      'sku,description,price\nBK\\1,Ring set \\N 54 mm,12.50\nBK-2,Liner \\t \\\\ end\\,13.00\n',
+    );
+    expect(preview.status).toBe(201);
+    expect(
+      preview.body.sample.map((r: { sku: string; description: string }) => [r.sku, r.description]),
+    ).toEqual([
+      ['BK\\1', 'Ring set \\N 54 mm'],
+      ['BK-2', 'Liner \\t \\\\ end\\'],
+    ]);
+  });
+
   it('when a mapping is sent with the upload, then it is used and remembered for the next list', async () => {
     const supplier = await makeSupplier();
     const list = 'Code,Text,Amount,Bore\nC-1,Piston,12.50,54.25\n';
