@@ -2,9 +2,7 @@ import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
 import { HttpErrorResponse } from '@angular/common/http';
 import { MatButtonModule } from '@angular/material/button';
 import { MatExpansionModule } from '@angular/material/expansion';
-import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
-import { MatInputModule } from '@angular/material/input';
 import { MatPaginatorModule } from '@angular/material/paginator';
 import { catchError, map, of, throwError } from 'rxjs';
 
@@ -13,6 +11,7 @@ import { AlertsApi } from './alerts-api';
 import { ShopDatePipe } from '../core/shop-date-pipe';
 import { PagedList, type Filters } from '../ui/paged-list';
 import { ListState } from '../ui/list-state';
+import { SearchField } from '../ui/list-fields';
 
 /** A page of the mailbox, or none at all when mail goes to the shop's own server. */
 type Mailbox = MailboxPageJson & { realSmtp: boolean };
@@ -21,13 +20,12 @@ type Mailbox = MailboxPageJson & { realSmtp: boolean };
 @Component({
   selector: 'app-mailbox-page',
   imports: [
+    SearchField,
     ListState,
     ShopDatePipe,
     MatButtonModule,
     MatExpansionModule,
-    MatFormFieldModule,
     MatIconModule,
-    MatInputModule,
     MatPaginatorModule,
   ],
   templateUrl: './mailbox-page.html',

@@ -1,8 +1,6 @@
 import { ChangeDetectionStrategy, Component, computed, inject } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
-import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
-import { MatInputModule } from '@angular/material/input';
 import { MatTooltipModule } from '@angular/material/tooltip';
 import { Router, RouterLink } from '@angular/router';
 
@@ -14,6 +12,7 @@ import { DataTable } from '../ui/data-table';
 import { TableColumn, TableEmpty } from '../ui/table-column';
 import { CatalogApi } from './catalog-api';
 import { ListState } from '../ui/list-state';
+import { SearchField } from '../ui/list-fields';
 
 const SORTABLE = ['code', 'name', 'standardBore', 'strokeType'] as const;
 
@@ -21,13 +20,12 @@ const SORTABLE = ['code', 'name', 'standardBore', 'strokeType'] as const;
 @Component({
   selector: 'app-family-list',
   imports: [
+    SearchField,
     ListState,
     MatTooltipModule,
     LengthPipe,
     MatButtonModule,
-    MatFormFieldModule,
     MatIconModule,
-    MatInputModule,
     DataTable,
     TableColumn,
     TableEmpty,

@@ -12,7 +12,7 @@ import { map } from 'rxjs';
 import type { CustomerListItemJson } from '../../../shared/api/customers';
 import { CustomersApi } from './customers-api';
 import { debounced, loadEach } from '../ui/load';
-import { SearchField } from '../ui/search-field';
+import { OfferSearch } from '../ui/offer-search';
 
 type Found = { items: CustomerListItemJson[]; message: string };
 
@@ -25,9 +25,9 @@ export const SEARCH_MIN = 2;
  */
 @Component({
   selector: 'app-customer-search',
-  imports: [SearchField],
+  imports: [OfferSearch],
   template: `
-    <app-search-field
+    <app-offer-search
       [label]="label()"
       icon="person_search"
       hint="Name, phone or e-mail; two letters are enough"
@@ -46,7 +46,7 @@ export const SEARCH_MIN = 2;
           · {{ c.email }}
         }
       </ng-template>
-    </app-search-field>
+    </app-offer-search>
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,
 })

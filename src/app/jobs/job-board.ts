@@ -10,9 +10,7 @@ import {
 } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
-import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
-import { MatInputModule } from '@angular/material/input';
 import { MatSlideToggleModule } from '@angular/material/slide-toggle';
 import { RouterLink } from '@angular/router';
 
@@ -29,6 +27,7 @@ import { ShopDatePipe } from '../core/shop-date-pipe';
 import { BenchMode, BenchModeToggle } from '../ui/bench-mode';
 import { ListState } from '../ui/list-state';
 import { debounced, loadEach } from '../ui/load';
+import { SearchField, type Searched } from '../ui/list-fields';
 
 /** Enough for every open job a shop has on the go; more than this shows a note to search. */
 const BOARD_SIZE = 300;
@@ -40,14 +39,13 @@ const BOARD_SIZE = 300;
 @Component({
   selector: 'app-job-board',
   imports: [
+    SearchField,
     BenchModeToggle,
     ShopDatePipe,
     ListState,
     MatButtonModule,
     MatButtonToggleModule,
-    MatFormFieldModule,
     MatIconModule,
-    MatInputModule,
     MatSlideToggleModule,
     NgTemplateOutlet,
     RouterLink,
@@ -66,6 +64,11 @@ export class JobBoard {
   protected readonly canTakeIn = computed(() => this.session.may('runCounter'));
 
   protected readonly text = signal('');
+  /** The board has no paged list: the search box drives its own text, sent with the board's query. */
+  protected readonly search: Searched = {
+    text: this.text,
+    onSearch: (value) => this.text.set(value),
+  };
   protected readonly show = signal<'open' | 'closed'>('open');
   protected readonly waitingOnly = signal(false);
   private readonly q = debounced(this.text);

@@ -13,7 +13,7 @@ import { debounce, map, timer } from 'rxjs';
 import type { PartJson } from '../../../shared/api/catalog';
 import { StockApi } from './stock-api';
 import { loadEach } from '../ui/load';
-import { SearchField } from '../ui/search-field';
+import { OfferSearch } from '../ui/offer-search';
 
 type Found = { parts: PartJson[]; message: string; text: string; scan: boolean };
 
@@ -23,9 +23,9 @@ type Found = { parts: PartJson[]; message: string; text: string; scan: boolean }
  */
 @Component({
   selector: 'app-part-picker',
-  imports: [SearchField],
+  imports: [OfferSearch],
   template: `
-    <app-search-field
+    <app-offer-search
       [label]="label()"
       icon="barcode_scanner"
       hint="Part number or words, or scan the box's barcode"
@@ -42,7 +42,7 @@ type Found = { parts: PartJson[]; message: string; text: string; scan: boolean }
           · {{ p.stepLabel }}
         }
       </ng-template>
-    </app-search-field>
+    </app-offer-search>
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,
 })

@@ -17,6 +17,7 @@ import { SuppliersApi } from './suppliers-api';
 import { PagedList } from '../ui/paged-list';
 import { debounced, loadEach } from '../ui/load';
 import { ListState } from '../ui/list-state';
+import { SearchField } from '../ui/list-fields';
 
 /**
  * Supplier items no catalog part is linked to yet. The buyer links each to our part, helped by
@@ -25,6 +26,7 @@ import { ListState } from '../ui/list-state';
 @Component({
   selector: 'app-mapping-queue',
   imports: [
+    SearchField,
     ListState,
     LengthPipe,
     MatAutocompleteModule,

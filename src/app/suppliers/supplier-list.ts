@@ -1,8 +1,6 @@
 import { ChangeDetectionStrategy, Component, computed, inject } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
-import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
-import { MatInputModule } from '@angular/material/input';
 import { MatTooltipModule } from '@angular/material/tooltip';
 import { Router, RouterLink } from '@angular/router';
 
@@ -14,6 +12,7 @@ import { TableColumn, TableEmpty } from '../ui/table-column';
 import { SuppliersApi } from './suppliers-api';
 import { ShopDatePipe } from '../core/shop-date-pipe';
 import { ListState } from '../ui/list-state';
+import { SearchField } from '../ui/list-fields';
 
 const SORTABLE = ['name', 'currency', 'leadDays', 'items', 'lastImport'] as const;
 
@@ -21,13 +20,12 @@ const SORTABLE = ['name', 'currency', 'leadDays', 'items', 'lastImport'] as cons
 @Component({
   selector: 'app-supplier-list',
   imports: [
+    SearchField,
     ListState,
     MatTooltipModule,
     ShopDatePipe,
     MatButtonModule,
-    MatFormFieldModule,
     MatIconModule,
-    MatInputModule,
     DataTable,
     TableColumn,
     TableEmpty,

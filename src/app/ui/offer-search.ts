@@ -16,10 +16,11 @@ import { MatInputModule } from '@angular/material/input';
  * A search box that offers what it found as you type (a customer, a part): the finder owns the
  * searching, this field the look. Each offer is drawn by the `<ng-template let-item>` inside it;
  * the hint says what may be typed, or why nothing is offered. The box empties once an offer is
- * picked (the finder shows the pick beside it).
+ * picked (the finder shows the pick beside it). A list page's plain search box is `SearchField` in
+ * `list-fields.ts`.
  */
 @Component({
-  selector: 'app-search-field',
+  selector: 'app-offer-search',
   imports: [
     MatAutocompleteModule,
     MatFormFieldModule,
@@ -68,7 +69,7 @@ import { MatInputModule } from '@angular/material/input';
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
-export class SearchField<T extends { id: string }> {
+export class OfferSearch<T extends { id: string }> {
   readonly label = input.required<string>();
   /** The Material symbol before the text: person_search, barcode_scanner… */
   readonly icon = input.required<string>();
