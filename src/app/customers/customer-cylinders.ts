@@ -1,17 +1,26 @@
 import { ChangeDetectionStrategy, Component, input, output } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
-import { MatTableModule } from '@angular/material/table';
 import { RouterLink } from '@angular/router';
 
 import type { CustomerCylinderJson } from '../../../shared/api/customers';
 import { LengthPipe } from '../core/length-pipe';
 import { ShopDatePipe } from '../core/shop-date-pipe';
+import { DataTable } from '../ui/data-table';
+import { TableColumn } from '../ui/table-column';
 
 /** The customer's cylinders under the shop's marks: bores so far and the steps they have left. */
 @Component({
   selector: 'app-customer-cylinders',
-  imports: [ShopDatePipe, LengthPipe, MatButtonModule, MatIconModule, MatTableModule, RouterLink],
+  imports: [
+    DataTable,
+    LengthPipe,
+    MatButtonModule,
+    MatIconModule,
+    RouterLink,
+    ShopDatePipe,
+    TableColumn,
+  ],
   template: `
     <section aria-labelledby="cylinders-title">
       <h2 id="cylinders-title">Cylinders ({{ cylinders().length }})</h2>
@@ -26,62 +35,46 @@ import { ShopDatePipe } from '../core/shop-date-pipe';
           No cylinder marked yet. Cylinders are added under the shop's mark when a job is taken in.
         </p>
       } @else {
-        <div class="table-scroll" tabindex="0" role="region" aria-label="Table: cylinders">
-          <table mat-table [dataSource]="cylinders()">
-            <caption class="visually-hidden">
-              The customer's cylinders
-            </caption>
-            <ng-container matColumnDef="mark">
-              <th mat-header-cell *matHeaderCellDef scope="col">Shop's mark</th>
-              <td mat-cell *matCellDef="let c" class="nowrap">
-                <a class="strong" [routerLink]="['/customers', customerId(), 'cylinders', c.id]">{{
-                  c.mark
-                }}</a>
-                @if (c.castNumber) {
-                  <span class="muted">· cast {{ c.castNumber }}</span>
-                }
-              </td>
-            </ng-container>
-            <ng-container matColumnDef="family">
-              <th mat-header-cell *matHeaderCellDef scope="col">Family</th>
-              <td mat-cell *matCellDef="let c">{{ c.familyCode }}</td>
-            </ng-container>
-            <ng-container matColumnDef="bores">
-              <th mat-header-cell *matHeaderCellDef scope="col" class="num">Bores</th>
-              <td mat-cell *matCellDef="let c" class="num">{{ c.bores.length }}</td>
-            </ng-container>
-            <ng-container matColumnDef="last">
-              <th mat-header-cell *matHeaderCellDef scope="col">Last bore</th>
-              <td mat-cell *matCellDef="let c">
-                @if (c.bores.at(-1); as b) {
-                  {{ b.stepLabel ?? '—' }} · {{ b.finishedBore | length }} · {{ b.date | shopDate }}
-                } @else {
-                  <span class="muted">never bored here</span>
-                }
-              </td>
-            </ng-container>
-            <ng-container matColumnDef="left">
-              <th mat-header-cell *matHeaderCellDef scope="col" class="num">Steps left</th>
-              <td mat-cell *matCellDef="let c" class="num" [class.last]="c.stepsLeft <= 1">
-                {{ c.stepsLeft }}
-                @if (c.stepsLeft === 0) {
-                  <span class="small">sleeve next</span>
-                } @else if (c.stepsLeft === 1) {
-                  <span class="small">one left</span>
-                }
-              </td>
-            </ng-container>
-            <tr mat-header-row *matHeaderRowDef="columns"></tr>
-            <tr mat-row *matRowDef="let row; columns: columns"></tr>
-          </table>
-        </div>
+        <app-data-table
+          caption="The customer's cylinders"
+          regionLabel="Table: cylinders"
+          [rows]="cylinders()"
+          [columns]="columns"
+        >
+          <ng-template tableColumn="mark" header="Shop's mark" cellClass="nowrap" let-c>
+            <a class="strong" [routerLink]="['/customers', customerId(), 'cylinders', c.id]">{{
+              c.mark
+            }}</a>
+            @if (c.castNumber) {
+              <span class="muted">· cast {{ c.castNumber }}</span>
+            }
+          </ng-template>
+          <ng-template tableColumn="family" header="Family" let-c>{{ c.familyCode }}</ng-template>
+          <ng-template tableColumn="bores" header="Bores" num let-c>{{
+            c.bores.length
+          }}</ng-template>
+          <ng-template tableColumn="last" header="Last bore" let-c>
+            @if (c.bores.at(-1); as b) {
+              {{ b.stepLabel ?? '—' }} · {{ b.finishedBore | length }} · {{ b.date | shopDate }}
+            } @else {
+              <span class="muted">never bored here</span>
+            }
+          </ng-template>
+          <ng-template tableColumn="left" header="Steps left" num let-c>
+            <span [class.last]="c.stepsLeft <= 1">
+              {{ c.stepsLeft }}
+              @if (c.stepsLeft === 0) {
+                <span class="small">sleeve next</span>
+              } @else if (c.stepsLeft === 1) {
+                <span class="small">one left</span>
+              }
+            </span>
+          </ng-template>
+        </app-data-table>
       }
     </section>
   `,
   styles: `
-    .nowrap {
-      white-space: nowrap;
-    }
     h2 {
       margin: 0 0 8px;
       font: var(--mat-sys-title-medium);

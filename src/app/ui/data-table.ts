@@ -63,6 +63,11 @@ export class DataTable {
   readonly rowClass = input<((row: Row) => string) | null>(null);
   /** What the paginator is called for screen readers, e.g. "Pages of suppliers". */
   readonly pagesLabel = input('');
+  /**
+   * Names the table's box as a region a keyboard can reach and scroll ("Table: bores"), for a
+   * table that sits among a page's other sections rather than being the page.
+   */
+  readonly regionLabel = input('');
   /** What the empty row says when the list failed to load. */
   readonly failedText = input('The list could not be loaded.');
 
