@@ -1,6 +1,6 @@
 import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
-import { NonNullableFormBuilder, ReactiveFormsModule, type ValidatorFn } from '@angular/forms';
+import { NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
 import { ErrorStateMatcher, ShowOnDirtyErrorStateMatcher } from '@angular/material/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatCheckboxModule } from '@angular/material/checkbox';
@@ -15,18 +15,15 @@ import { LABEL_STOCK_NAMES, LABEL_STOCKS } from '../../../shared/label-stock';
 import { settingWarning } from '../../../shared/settings-ranges';
 import { shopSettingsSchema } from '../../../shared/settings-schema';
 import { apiErrorMessage } from '../core/api-error';
-import { controlError, placeApiErrors } from '../core/field-errors';
+import { controlError, fieldRules, placeApiErrors } from '../core/field-errors';
 import { Notifier } from '../core/notifier';
 import { Session } from '../core/session';
 import { SettingsApi } from './settings-api';
-import { schemaValidator } from '../core/field-errors';
 
 type Key = keyof ShopSettingsJson;
 
 /** The server's own rule for one setting, checked at every keystroke. */
-function schemaRule(key: Key): ValidatorFn {
-  return schemaValidator(shopSettingsSchema.shape[key]);
-}
+const schemaRule = fieldRules(shopSettingsSchema);
 
 /** The owner's shop settings: name and hours for e-mails, bench and buying policies, tax, deposits. */
 @Component({

@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
 import {
   FormControl,
@@ -19,16 +19,16 @@ import { catchError, map, of, startWith, Subject, switchMap } from 'rxjs';
 
 import { familyInput, type FamilyJson, type StepSeriesJson } from '../../../shared/api/catalog';
 import { familyWarning } from '../../../shared/settings-ranges';
-import { apiErrorBody, apiErrorMessage, apiFieldErrors } from '../core/api-error';
 import { Notifier } from '../core/notifier';
 import { Session } from '../core/session';
 import { lengthForField, lengthText, lengthValidator, otherUnitHint } from '../ui/length-input';
 import { CatalogApi, type FamilyBody, type FamilyChanges } from './catalog-api';
 import { StepSeriesDialog } from './step-series-dialog';
-import { schemaValidator } from '../core/field-errors';
+import { fieldRules } from '../core/field-errors';
 import { loadIntoForm } from '../ui/load';
 import { ListState } from '../ui/list-state';
 import { FormAlert } from '../ui/form-alert';
+import { FormSave } from '../ui/form-save';
 
 /** The length fields, in form order, with what each one means at the bench. */
 const LENGTHS = [
@@ -104,9 +104,7 @@ const LENGTHS = [
 type LengthKey = (typeof LENGTHS)[number]['key'];
 
 /** The server's own rule for one family field (the lengths have theirs, in the length input). */
-function rule(field: keyof typeof familyInput.shape) {
-  return schemaValidator(familyInput.shape[field]);
-}
+const rule = fieldRules(familyInput);
 
 /** Adds or edits an engine family: its sizes, the maker's limits and the step series it uses. */
 @Component({
@@ -191,9 +189,7 @@ export class FamilyForm {
     (id) => this.api.family(id),
     (family) => this.fill(family),
   );
-  protected readonly busy = signal(false);
-  protected readonly problem = signal('');
-  protected readonly serverErrors = signal<Record<string, string>>({});
+  protected readonly save = new FormSave();
   protected readonly editing = computed(() => Boolean(this.id()));
 
   /** A caution (not a refusal) for a figure far outside what shops usually meet. */
@@ -209,7 +205,7 @@ export class FamilyForm {
     const control = this.form.controls.lengths.controls[key];
     if (control.hasError('required')) return 'Enter this size, e.g. "64.00" or "2.5000 in".';
     const message = control.getError('length') as string | null;
-    return message ?? this.serverErrors()[key] ?? '';
+    return message ?? this.save.fieldErrors()[key] ?? '';
   }
 
   protected addSeries(): void {
@@ -229,43 +225,23 @@ export class FamilyForm {
   }
 
   protected submit(): void {
-    if (this.busy()) return;
-    if (this.form.invalid) {
-      this.form.markAllAsTouched();
-      return;
-    }
+    if (!this.save.ready(this.form)) return;
     const body = this.body();
     const id = this.id();
     if (id && Object.keys(body).length === 0) {
       void this.router.navigate(['/catalog/families', id, 'ladder']);
       return;
     }
-    this.busy.set(true);
-    this.problem.set('');
-    this.serverErrors.set({});
     const request = id
       ? this.api.updateFamily(id, body)
       : this.api.createFamily(body as FamilyBody);
-    request.subscribe({
-      next: (family) => {
+    this.save.send(request, {
+      saved: (family) => {
         this.notifier.success(id ? `${family.code} saved.` : `${family.code} added.`);
         void this.router.navigate(['/catalog/families', family.id, 'ladder']);
       },
-      error: (error: unknown) => {
-        this.busy.set(false);
-        const fields = apiFieldErrors(error);
-        this.serverErrors.set(fields);
-        for (const [field, message] of Object.entries(fields)) {
-          const control =
-            (this.form.controls.lengths.controls as Record<string, FormControl<string>>)[field] ??
-            (this.form.controls as unknown as Record<string, FormControl<unknown>>)[field];
-          if (control) {
-            control.setErrors({ server: message });
-            control.markAsTouched();
-          }
-        }
-        this.problem.set(apiErrorBody(error)?.error.message ?? apiErrorMessage(error));
-      },
+      // The sizes sit in their own group; the server names them alone ("standardBore").
+      controlOf: (field) => this.form.controls.lengths.get(field) ?? this.form.get(field),
     });
   }
 

@@ -55,3 +55,13 @@ export function schemaValidator(rule: z.ZodMiniType): ValidatorFn {
     return { schema: detailSentence({ message }).replace(/^./, (c) => c.toUpperCase()) };
   };
 }
+
+/**
+ * The server's own rule for each field of a contract's object schema, as validators:
+ * `const rule = fieldRules(familyInput)`, then `code: ['', [Validators.required, rule('code')]]`.
+ */
+export function fieldRules<Shape extends Record<string, z.ZodMiniType>>(schema: {
+  shape: Shape;
+}): (field: keyof Shape) => ValidatorFn {
+  return (field) => schemaValidator(schema.shape[field]);
+}

@@ -1,10 +1,5 @@
-import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
-import {
-  FormControl,
-  NonNullableFormBuilder,
-  ReactiveFormsModule,
-  Validators,
-} from '@angular/forms';
+import { ChangeDetectionStrategy, Component, computed, inject, input } from '@angular/core';
+import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatCheckboxModule } from '@angular/material/checkbox';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -12,18 +7,16 @@ import { MatInputModule } from '@angular/material/input';
 import { Router, RouterLink } from '@angular/router';
 
 import { supplierInput } from '../../../shared/api/suppliers';
-import { apiErrorBody, apiErrorMessage, apiFieldErrors } from '../core/api-error';
 import { Notifier } from '../core/notifier';
 import { SuppliersApi, type SupplierBody } from './suppliers-api';
-import { schemaValidator } from '../core/field-errors';
+import { fieldRules } from '../core/field-errors';
 import { loadIntoForm } from '../ui/load';
 import { ListState } from '../ui/list-state';
 import { FormAlert } from '../ui/form-alert';
+import { FormSave } from '../ui/form-save';
 
 /** The server's own rule for one supplier field. */
-function rule(field: keyof typeof supplierInput.shape) {
-  return schemaValidator(supplierInput.shape[field]);
-}
+const rule = fieldRules(supplierInput);
 
 /** A supplier's details: who they are, where orders go, their currency, lead time and terms. */
 @Component({
@@ -79,17 +72,11 @@ export class SupplierForm {
         active: supplier.active,
       }),
   );
-  protected readonly busy = signal(false);
-  protected readonly problem = signal('');
-  protected readonly serverErrors = signal<Record<string, string>>({});
+  protected readonly save = new FormSave();
   protected readonly editing = computed(() => Boolean(this.id()));
 
   protected submit(): void {
-    if (this.busy()) return;
-    if (this.form.invalid) {
-      this.form.markAllAsTouched();
-      return;
-    }
+    if (!this.save.ready(this.form)) return;
     const v = this.form.getRawValue();
     const body: SupplierBody = {
       name: v.name.trim(),
@@ -103,30 +90,12 @@ export class SupplierForm {
       ...(this.editing() ? { active: v.active } : {}),
     };
     const id = this.id();
-    this.busy.set(true);
-    this.problem.set('');
-    this.serverErrors.set({});
-    const request = id ? this.api.updateSupplier(id, body) : this.api.createSupplier(body);
-    request.subscribe({
-      next: (supplier) => {
+    this.save.send(id ? this.api.updateSupplier(id, body) : this.api.createSupplier(body), {
+      saved: (supplier) => {
         this.notifier.success(id ? `${supplier.name} saved.` : `${supplier.name} added.`);
         void this.router.navigate(['/suppliers', supplier.id]);
       },
-      error: (error: unknown) => {
-        this.busy.set(false);
-        const fields = apiFieldErrors(error);
-        this.serverErrors.set(fields);
-        for (const [field, message] of Object.entries(fields)) {
-          const control = (this.form.controls as unknown as Record<string, FormControl<unknown>>)[
-            field
-          ];
-          if (control) {
-            control.setErrors({ server: message });
-            control.markAsTouched();
-          }
-        }
-        this.problem.set(apiErrorBody(error)?.error.message ?? apiErrorMessage(error));
-      },
+      controlOf: (field) => this.form.get(field),
     });
   }
 }
