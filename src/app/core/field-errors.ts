@@ -1,4 +1,5 @@
-import type { AbstractControl, ValidationErrors, ValidatorFn } from '@angular/forms';
+import { signal } from '@angular/core';
+import type { AbstractControl, FormGroup, ValidationErrors, ValidatorFn } from '@angular/forms';
 import type * as z from '../../../shared/zod';
 
 import { apiErrorBody, apiFieldErrors, apiUnplacedMessage, detailSentence } from './api-error';
@@ -64,4 +65,58 @@ export function fieldRules<Shape extends Record<string, z.ZodMiniType>>(schema: 
   shape: Shape;
 }): (field: keyof Shape) => ValidatorFn {
   return (field) => schemaValidator(schema.shape[field]);
+}
+
+/** One reason the schema gave, as zod reports it. */
+interface Issue {
+  readonly path: readonly PropertyKey[];
+  readonly message: string;
+}
+
+/**
+ * The reasons shown under a form's own fields, one each, whether the schema found them before
+ * sending or the server answered with them: `errors()` for the template, and each control marked
+ * (`server`) and touched so its field shows the error. A reason for a field the form lacks is
+ * left out (the page says the server's message instead).
+ */
+export class FieldMarks<F extends string> {
+  readonly errors = signal<Partial<Record<F, string>>>({});
+
+  constructor(
+    private readonly form: FormGroup,
+    private readonly fields: readonly F[],
+  ) {}
+
+  /** The first issue for each field, in the form's words (`words`, e.g. a sentence). */
+  showIssues(issues: readonly Issue[], words: (message: string) => string = (m) => m): void {
+    const errors: Partial<Record<F, string>> = {};
+    for (const issue of issues) {
+      const field = String(issue.path[0] ?? '') as F;
+      if (this.fields.includes(field) && !errors[field]) errors[field] = words(issue.message);
+    }
+    this.show(errors);
+  }
+
+  /** The server's reasons for the form's fields; false when it named none of them. */
+  showServer(error: unknown): boolean {
+    const fields = apiFieldErrors(error);
+    const known: Partial<Record<F, string>> = {};
+    for (const f of this.fields) if (fields[f]) known[f] = fields[f];
+    this.show(known);
+    return Object.keys(known).length > 0;
+  }
+
+  /** No reasons: a fresh start for the form. */
+  clear(): void {
+    this.errors.set({});
+  }
+
+  private show(errors: Partial<Record<F, string>>): void {
+    this.errors.set(errors);
+    for (const f of this.fields) {
+      const control = this.form.get(f);
+      control?.setErrors(errors[f] ? { server: true } : null);
+      if (errors[f]) control?.markAsTouched();
+    }
+  }
 }

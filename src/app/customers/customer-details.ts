@@ -7,12 +7,12 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 
 import { customerPatch, type CustomerJson } from '../../../shared/api/customers';
-import { apiErrorMessage, apiFieldErrors } from '../core/api-error';
+import { apiErrorMessage } from '../core/api-error';
+import { FieldMarks } from '../core/field-errors';
 import { CustomersApi } from './customers-api';
 import { ShopDatePipe } from '../core/shop-date-pipe';
 
 const FIELDS = ['name', 'phone', 'email', 'acceptsEmail', 'notes'] as const;
-type Field = (typeof FIELDS)[number];
 
 /** A customer's contact details, read at a glance and edited in place. */
 @Component({
@@ -40,7 +40,6 @@ export class CustomerDetails {
 
   protected readonly editing = signal(false);
   protected readonly busy = signal(false);
-  protected readonly errors = signal<Partial<Record<Field, string>>>({});
   protected readonly problem = signal('');
   protected readonly form = this.fb.group({
     name: [''],
@@ -49,6 +48,7 @@ export class CustomerDetails {
     acceptsEmail: [false],
     notes: [''],
   });
+  protected readonly marks = new FieldMarks(this.form, FIELDS);
 
   protected edit(): void {
     const c = this.customer();
@@ -59,7 +59,7 @@ export class CustomerDetails {
       acceptsEmail: c.acceptsEmail,
       notes: c.notes,
     });
-    this.errors.set({});
+    this.marks.clear();
     this.problem.set('');
     this.editing.set(true);
   }
@@ -70,12 +70,7 @@ export class CustomerDetails {
     // The schema the server checks with: the same words before the round trip.
     const checked = customerPatch.safeParse(v);
     if (!checked.success) {
-      const errors: Partial<Record<Field, string>> = {};
-      for (const issue of checked.error.issues) {
-        const field = String(issue.path[0] ?? '') as Field;
-        if (FIELDS.includes(field) && !errors[field]) errors[field] = issue.message;
-      }
-      this.show(errors);
+      this.marks.showIssues(checked.error.issues);
       return;
     }
     this.busy.set(true);
@@ -95,21 +90,8 @@ export class CustomerDetails {
         },
         error: (error: unknown) => {
           this.busy.set(false);
-          const fields = apiFieldErrors(error);
-          const known: Partial<Record<Field, string>> = {};
-          for (const f of FIELDS) if (fields[f]) known[f] = fields[f];
-          this.show(known);
-          if (Object.keys(known).length === 0) this.problem.set(apiErrorMessage(error));
+          if (!this.marks.showServer(error)) this.problem.set(apiErrorMessage(error));
         },
       });
-  }
-
-  private show(errors: Partial<Record<Field, string>>): void {
-    this.errors.set(errors);
-    for (const f of FIELDS) {
-      const control = this.form.controls[f];
-      control.setErrors(errors[f] ? { server: true } : null);
-      if (errors[f]) control.markAsTouched();
-    }
   }
 }

@@ -7,11 +7,11 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 
 import { customerInput, type CustomerListItemJson } from '../../../shared/api/customers';
-import { apiErrorMessage, apiFieldErrors } from '../core/api-error';
+import { apiErrorMessage } from '../core/api-error';
+import { FieldMarks } from '../core/field-errors';
 import { CustomersApi } from '../customers/customers-api';
 
 const FIELDS = ['name', 'phone', 'email', 'acceptsEmail'] as const;
-type Field = (typeof FIELDS)[number];
 
 /** A customer new to the shop, added from the intake form without leaving it. */
 @Component({
@@ -30,23 +30,23 @@ type Field = (typeof FIELDS)[number];
       <mat-form-field appearance="outline">
         <mat-label>Customer name</mat-label>
         <input matInput formControlName="name" autocomplete="off" />
-        @if (errors().name) {
-          <mat-error>{{ errors().name }}</mat-error>
+        @if (marks.errors().name) {
+          <mat-error>{{ marks.errors().name }}</mat-error>
         }
       </mat-form-field>
       <div class="row">
         <mat-form-field appearance="outline">
           <mat-label>Phone</mat-label>
           <input matInput type="tel" inputmode="tel" formControlName="phone" autocomplete="off" />
-          @if (errors().phone) {
-            <mat-error>{{ errors().phone }}</mat-error>
+          @if (marks.errors().phone) {
+            <mat-error>{{ marks.errors().phone }}</mat-error>
           }
         </mat-form-field>
         <mat-form-field appearance="outline">
           <mat-label>E-mail</mat-label>
           <input matInput type="email" formControlName="email" autocomplete="off" />
-          @if (errors().email) {
-            <mat-error>{{ errors().email }}</mat-error>
+          @if (marks.errors().email) {
+            <mat-error>{{ marks.errors().email }}</mat-error>
           }
         </mat-form-field>
       </div>
@@ -110,7 +110,7 @@ export class IntakeCustomerForm {
     email: [''],
     acceptsEmail: [true],
   });
-  protected readonly errors = signal<Partial<Record<Field, string>>>({});
+  protected readonly marks = new FieldMarks(this.form, FIELDS);
   protected readonly problem = signal('');
   protected readonly busy = signal(false);
 
@@ -121,12 +121,7 @@ export class IntakeCustomerForm {
     // The schema the server checks with, so the same words show before the round trip.
     const checked = customerInput.safeParse(v);
     if (!checked.success) {
-      const errors: Partial<Record<Field, string>> = {};
-      for (const issue of checked.error.issues) {
-        const field = String(issue.path[0] ?? '') as Field;
-        if (FIELDS.includes(field) && !errors[field]) errors[field] = sentence(issue.message);
-      }
-      this.show(errors);
+      this.marks.showIssues(checked.error.issues, sentence);
       return;
     }
     this.busy.set(true);
@@ -144,22 +139,9 @@ export class IntakeCustomerForm {
         },
         error: (error: unknown) => {
           this.busy.set(false);
-          const fields = apiFieldErrors(error);
-          const known: Partial<Record<Field, string>> = {};
-          for (const f of FIELDS) if (fields[f]) known[f] = fields[f];
-          this.show(known);
-          if (Object.keys(known).length === 0) this.problem.set(apiErrorMessage(error));
+          if (!this.marks.showServer(error)) this.problem.set(apiErrorMessage(error));
         },
       });
-  }
-
-  private show(errors: Partial<Record<Field, string>>): void {
-    this.errors.set(errors);
-    for (const f of FIELDS) {
-      const control = this.form.controls[f];
-      control.setErrors(errors[f] ? { server: true } : null);
-      if (errors[f]) control.markAsTouched();
-    }
   }
 }
 

@@ -1,10 +1,8 @@
 import { ChangeDetectionStrategy, Component, input, output } from '@angular/core';
-import { MatButtonModule } from '@angular/material/button';
-import { MatIconModule } from '@angular/material/icon';
-import { MatTooltipModule } from '@angular/material/tooltip';
 
 import type { EstimateLineJson, InvoiceJson, InvoiceLineJson } from '../../../shared/api/money';
 import { formatAmount, LINE_KIND_LABELS } from './money-words';
+import { RowActions } from '../ui/row-actions';
 
 /** The figures an estimate and an invoice share: lines, totals, and the tax they were worked with. */
 export type PricedFigures = Pick<
@@ -19,7 +17,7 @@ export type PricedFigures = Pick<
  */
 @Component({
   selector: 'app-estimate-table',
-  imports: [MatButtonModule, MatIconModule, MatTooltipModule],
+  imports: [RowActions],
   templateUrl: './estimate-table.html',
   styleUrl: './estimate-table.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,

@@ -6,7 +6,6 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
-import { MatTooltipModule } from '@angular/material/tooltip';
 
 import {
   LABOUR_PER,
@@ -26,6 +25,7 @@ import { AMOUNT_PATTERN, formatAmount } from './money-words';
 import { DataTable } from '../ui/data-table';
 import { ListState } from '../ui/list-state';
 import { TableColumn, TableEmpty } from '../ui/table-column';
+import { RowActions } from '../ui/row-actions';
 
 export const PER_LABELS: Record<LabourPer, string> = {
   cylinder: 'Per cylinder',
@@ -39,6 +39,7 @@ export const PER_LABELS: Record<LabourPer, string> = {
 @Component({
   selector: 'app-labour-list',
   imports: [
+    RowActions,
     DataTable,
     ListState,
     TableColumn,
@@ -49,7 +50,6 @@ export const PER_LABELS: Record<LabourPer, string> = {
     MatIconModule,
     MatInputModule,
     MatSelectModule,
-    MatTooltipModule,
     ReactiveFormsModule,
   ],
   templateUrl: './labour-list.html',
