@@ -1,6 +1,7 @@
 // The only file building queries for alerts and their mail.
 import type { Knex } from 'knex';
 import { db } from '../db/knex';
+import { pageOf } from '../db/paging';
 import type { AlertsQuery } from '../../shared/api/alerts';
 
 export interface AlertRow {
@@ -70,19 +71,16 @@ export async function listAlerts(
     if (q.state === 'acknowledged') qb.whereNotNull('a.acknowledged_at');
     if (q.partId) qb.where('a.part_id', q.partId);
   });
-  const [{ count }] = await base.clone().count<{ count: number }[]>('* as count');
-  const rows = await base
-    .clone()
-    .select(ALERT_COLUMNS)
-    .select(k.raw('(pl.on_hand - pl.held)::int AS free'))
-    .select(k.raw('coalesce(oo.quantity, 0)::int AS on_order'))
-    .orderBy([
-      { column: 'a.raised_at', order: 'desc' },
-      { column: 'a.id', order: 'desc' },
-    ])
-    .limit(q.pageSize)
-    .offset((q.page - 1) * q.pageSize);
-  return { rows: rows as AlertRow[], total: Number(count) };
+  return pageOf<AlertRow>(base, q, (list) =>
+    list
+      .select(ALERT_COLUMNS)
+      .select(k.raw('(pl.on_hand - pl.held)::int AS free'))
+      .select(k.raw('coalesce(oo.quantity, 0)::int AS on_order'))
+      .orderBy([
+        { column: 'a.raised_at', order: 'desc' },
+        { column: 'a.id', order: 'desc' },
+      ]),
+  );
 }
 
 export async function findAlert(id: string, k: Knex = db): Promise<AlertRow | undefined> {

@@ -2,6 +2,7 @@
 // exposure list. Rows come out with database names; the service shapes them for the API.
 import type { Knex } from 'knex';
 import { db } from '../db/knex';
+import { pageOf } from '../db/paging';
 import { familyEmptyStepsSql } from '../stock/part-needs-repository';
 import { containsPattern } from '../db/like-pattern';
 export * from './parts-repository';
@@ -22,7 +23,8 @@ export interface StepRow {
   offset_nm: number;
 }
 
-export interface FamilyRow {
+/** A row of engine_families as stored. */
+export interface EngineFamilyRow {
   id: string;
   code: string;
   name: string;
@@ -43,6 +45,7 @@ export interface FamilyRow {
   ring_gap_max_nm: number | null;
   forged_clearance_min_nm: number | null;
   forged_clearance_max_nm: number | null;
+  /** Ring end gap per unit of bore, exact decimal text ("0.00400"). */
   ring_gap_per_bore: string;
   hone_crosshatch_deg: string;
   hone_grits: string;
@@ -50,6 +53,10 @@ export interface FamilyRow {
   active: boolean;
   created_at: Date;
   updated_at: Date;
+}
+
+/** A family as the catalog lists it: with its step series and how its steps stand in stock. */
+export interface FamilyRow extends EngineFamilyRow {
   series_code: string;
   series_name: string;
   pistons_on_hand: number;
@@ -57,17 +64,7 @@ export interface FamilyRow {
   empty_steps: number;
 }
 
-export type FamilyColumns = Omit<
-  FamilyRow,
-  | 'id'
-  | 'created_at'
-  | 'updated_at'
-  | 'series_code'
-  | 'series_name'
-  | 'pistons_on_hand'
-  | 'pistons_free'
-  | 'empty_steps'
->;
+export type FamilyColumns = Omit<EngineFamilyRow, 'id' | 'created_at' | 'updated_at'>;
 
 // ---- Step series ------------------------------------------------------------------------------
 
@@ -142,15 +139,31 @@ const FAMILY_SORT_COLUMNS: Record<string, string> = {
   strokeType: 'f.stroke_type',
 };
 
+export interface FamilyListQuery {
+  q?: string;
+  active?: boolean;
+  sort?: string;
+  dir?: 'asc' | 'desc';
+  page: number;
+  pageSize: number;
+}
+
+/** A family's own columns, its series' code and name, and how its steps stand in stock. */
+function familyListed(query: Knex.QueryBuilder) {
+  return query
+    .select(
+      'f.*',
+      's.code as series_code',
+      's.name as series_name',
+      'st.pistons_on_hand',
+      'st.pistons_free',
+      'st.empty_steps',
+    )
+    .joinRaw(FAMILY_STOCK);
+}
+
 export async function listFamilies(
-  opts: {
-    q?: string;
-    active?: boolean;
-    sort?: string;
-    dir?: 'asc' | 'desc';
-    page: number;
-    pageSize: number;
-  },
+  opts: FamilyListQuery,
   k: Knex = db,
 ): Promise<{ rows: FamilyRow[]; total: number }> {
   const base = familyBase(k);
@@ -159,41 +172,17 @@ export async function listFamilies(
     base.where((w) => w.whereILike('f.code', like).orWhereILike('f.name', like));
   }
   if (opts.active !== undefined) base.where('f.active', opts.active);
-  const [{ count }] = await base.clone().count<{ count: number }[]>('* as count');
   const sortColumn = FAMILY_SORT_COLUMNS[opts.sort ?? 'code'] ?? 'f.code';
-  const rows = await base
-    .clone()
-    .select(
-      'f.*',
-      's.code as series_code',
-      's.name as series_name',
-      'st.pistons_on_hand',
-      'st.pistons_free',
-      'st.empty_steps',
-    )
-    .joinRaw(FAMILY_STOCK)
-    .orderBy([
+  return pageOf<FamilyRow>(base, opts, (list) =>
+    familyListed(list).orderBy([
       { column: sortColumn, order: opts.dir ?? 'asc' },
       { column: 'f.code', order: 'asc' },
-    ])
-    .limit(opts.pageSize)
-    .offset((opts.page - 1) * opts.pageSize);
-  return { rows: rows as FamilyRow[], total: Number(count) };
+    ]),
+  );
 }
 
 export async function findFamily(id: string, k: Knex = db): Promise<FamilyRow | undefined> {
-  const row = await familyBase(k)
-    .select(
-      'f.*',
-      's.code as series_code',
-      's.name as series_name',
-      'st.pistons_on_hand',
-      'st.pistons_free',
-      'st.empty_steps',
-    )
-    .joinRaw(FAMILY_STOCK)
-    .where('f.id', id)
-    .first();
+  const row = await familyListed(familyBase(k)).where('f.id', id).first();
   return row as FamilyRow | undefined;
 }
 

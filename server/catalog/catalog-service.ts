@@ -95,17 +95,7 @@ export async function createStepSeries(
 
 // ---- Engine families --------------------------------------------------------------------------
 
-export async function listFamilies(
-  query: {
-    q?: string;
-    active?: boolean;
-    sort?: string;
-    dir?: 'asc' | 'desc';
-    page: number;
-    pageSize: number;
-  },
-  k: Conn = db,
-) {
+export async function listFamilies(query: repo.FamilyListQuery, k: Conn = db) {
   const { rows, total } = await repo.listFamilies(query, k);
   return { items: rows.map(familyJson), total };
 }

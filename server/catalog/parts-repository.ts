@@ -2,6 +2,7 @@
 // checks a part's fields need; catalog-repository.ts re-exports these with the rest of the catalog.
 import type { Knex } from 'knex';
 import { db } from '../db/knex';
+import { pageOf } from '../db/paging';
 import type { PartKind } from '../../shared/api/catalog';
 import { containsPattern } from '../db/like-pattern';
 
@@ -135,23 +136,16 @@ export async function listParts(
       if (opts.gtin) w.orWhere('p.gtin', opts.gtin);
     });
   }
-  const [{ count }] = await base.clone().count<{ count: number }[]>('* as count');
   const order = opts.dir === 'desc' ? 'DESC' : 'ASC';
-  const query = base
-    .clone()
-    .select(PART_COLUMNS)
-    .limit(opts.pageSize)
-    .offset((opts.page - 1) * opts.pageSize);
-  if (opts.sort === 'free') {
-    query.orderByRaw(`${FREE_SQL} ${order}, p.sku ASC`);
-  } else if (opts.sort === 'family') {
-    query.orderByRaw(`f.code ${order} NULLS LAST, ss.offset_nm ASC NULLS FIRST, p.sku ASC`);
-  } else {
+  return pageOf<PartRow>(base, opts, (list) => {
+    list.select(PART_COLUMNS);
+    if (opts.sort === 'free') return list.orderByRaw(`${FREE_SQL} ${order}, p.sku ASC`);
+    if (opts.sort === 'family') {
+      return list.orderByRaw(`f.code ${order} NULLS LAST, ss.offset_nm ASC NULLS FIRST, p.sku ASC`);
+    }
     const column = PART_SORTS[opts.sort ?? 'sku'] ?? 'p.sku';
-    query.orderByRaw(`${column} ${order} NULLS LAST, p.sku ASC`);
-  }
-  const rows = (await query) as PartRow[];
-  return { rows, total: Number(count) };
+    return list.orderByRaw(`${column} ${order} NULLS LAST, p.sku ASC`);
+  });
 }
 
 export async function findPart(id: string, k: Knex = db): Promise<PartRow | undefined> {

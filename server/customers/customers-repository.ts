@@ -2,6 +2,7 @@
 // customer row is locked FOR UPDATE by whoever merges or erases it, so the two cannot interleave.
 import type { Knex } from 'knex';
 import { db } from '../db/knex';
+import { pageOf } from '../db/paging';
 import { containsPattern } from '../db/like-pattern';
 import type { JobState } from '../../shared/api/jobs';
 
@@ -99,20 +100,15 @@ export async function searchCustomers(
       }
     });
   }
-  const [{ count }] = await base.clone().count<{ count: number }[]>('* as count');
   const prefix = `${q.replace(/[\\%_]/g, (ch) => `\\${ch}`)}%`;
-  const rows = await base
-    .clone()
-    .select(COLUMNS.map((c) => `c.${c}`))
-    .orderByRaw(
+  return pageOf<CustomerRow>(base, f, (list) =>
+    list.select(COLUMNS.map((c) => `c.${c}`)).orderByRaw(
       `(c.name ILIKE ? OR c.name ILIKE ?) DESC,
        (SELECT max(j.created_at) FROM jobs j WHERE j.customer_id = c.id) DESC NULLS LAST,
        lower(c.name), c.id`,
       [prefix, `% ${prefix}`],
-    )
-    .limit(f.pageSize)
-    .offset((f.page - 1) * f.pageSize);
-  return { rows: rows as CustomerRow[], total: Number(count) };
+    ),
+  );
 }
 
 /**

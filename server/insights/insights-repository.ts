@@ -12,13 +12,28 @@ import { movedCte } from './moves-sums';
 
 export type { PeriodArgs } from './sales-sums';
 
-export interface SalesRowDb {
-  family_id: string | null;
-  step_id: string | null;
-  grand: number;
+/** What was sold in a period: units issued, their revenue and margin (NUMERIC text). */
+export interface SalesSumsDb {
   units: number;
   revenue: string;
   margin: string;
+}
+
+/** The part a report's row names, with its family and step. */
+export interface PartNamesDb {
+  sku: string;
+  description: string;
+  kind: string;
+  family_id: string | null;
+  family_code: string | null;
+  step_id: string | null;
+  step_label: string | null;
+}
+
+export interface SalesRowDb extends SalesSumsDb {
+  family_id: string | null;
+  step_id: string | null;
+  grand: number;
   family_code: string | null;
   family_name: string | null;
   step_label: string | null;
@@ -59,11 +74,8 @@ export async function salesBy(
   return result.rows;
 }
 
-export interface MonthRowDb {
+export interface MonthRowDb extends SalesSumsDb {
   month: string;
-  units: number;
-  revenue: string;
-  margin: string;
 }
 
 /** Every month of the period (months with no sales too), in the shop's time zone. */
@@ -94,18 +106,8 @@ export async function salesByMonth(args: PeriodArgs, k: Knex = db): Promise<Mont
   return result.rows;
 }
 
-export interface TopSellerDb {
+export interface TopSellerDb extends PartNamesDb, SalesSumsDb {
   part_id: string;
-  sku: string;
-  description: string;
-  kind: string;
-  family_id: string | null;
-  family_code: string | null;
-  step_id: string | null;
-  step_label: string | null;
-  units: number;
-  revenue: string;
-  margin: string;
 }
 
 const RANK_COLUMNS = { units: 's.units', revenue: 's.revenue', margin: 's.margin' } as const;
@@ -210,7 +212,7 @@ export async function stockValue(months: number, k: Knex = db): Promise<StockVal
   return result.rows;
 }
 
-export interface DeadStockDb {
+export interface DeadStockDb extends PartNamesDb {
   since: Date;
   part_id: string | null;
   on_hand: number;
@@ -218,13 +220,6 @@ export interface DeadStockDb {
   value: string;
   last_issued_at: Date | null;
   last_received_at: Date | null;
-  sku: string;
-  description: string;
-  kind: string;
-  family_id: string | null;
-  family_code: string | null;
-  step_id: string | null;
-  step_label: string | null;
   total_value: string | null;
 }
 

@@ -39,6 +39,22 @@ function iso(value: Date | null | undefined): string | null {
   return value ? value.toISOString() : null;
 }
 
+function salesSums(r: repo.SalesSumsDb) {
+  return { units: Number(r.units), revenue: moneyOut(r.revenue), margin: moneyOut(r.margin) };
+}
+
+function partNames(r: repo.PartNamesDb) {
+  return {
+    sku: r.sku,
+    description: r.description,
+    kind: r.kind,
+    familyId: r.family_id,
+    familyCode: r.family_code,
+    stepId: r.step_id,
+    stepLabel: r.step_label,
+  };
+}
+
 /**
  * The shop's time zone and home currency. An unknown zone in the settings falls back to UTC rather
  * than failing every page.
@@ -57,7 +73,8 @@ export function resolvePeriod(query: { from?: string; to?: string }, timeZone: s
   return { ...defaultPeriod(timeZone), timeZone };
 }
 
-async function periodArgs(query: { from?: string; to?: string }, k: Knex) {
+/** The period asked for, the shop's currency, and the period as the repositories take it. */
+export async function periodArgs(query: { from?: string; to?: string }, k: Knex) {
   const shop = await shopContext(k);
   const period = resolvePeriod(query, shop.timeZone);
   return {
@@ -88,15 +105,9 @@ export async function sales(
         familyName: r.family_name,
         stepLabel: r.step_label,
         stepPosition: r.step_position,
-        units: Number(r.units),
-        revenue: moneyOut(r.revenue),
-        margin: moneyOut(r.margin),
+        ...salesSums(r),
       })),
-    totals: {
-      units: Number(grand.units),
-      revenue: moneyOut(grand.revenue),
-      margin: moneyOut(grand.margin),
-    },
+    totals: salesSums(grand),
     by: query.by,
     period,
     currency,
@@ -110,12 +121,7 @@ export async function monthly(
   const { period, currency, args } = await periodArgs(query, k);
   const rows = await repo.salesByMonth(args, k);
   return {
-    months: rows.map((r) => ({
-      month: r.month,
-      units: Number(r.units),
-      revenue: moneyOut(r.revenue),
-      margin: moneyOut(r.margin),
-    })),
+    months: rows.map((r) => ({ month: r.month, ...salesSums(r) })),
     period,
     currency,
   };
@@ -128,19 +134,7 @@ export async function topSellers(
   const { period, currency, args } = await periodArgs(query, k);
   const rows = await repo.topSellers({ ...args, rank: query.rank, limit: query.limit }, k);
   return {
-    items: rows.map((r) => ({
-      partId: r.part_id,
-      sku: r.sku,
-      description: r.description,
-      kind: r.kind,
-      familyId: r.family_id,
-      familyCode: r.family_code,
-      stepId: r.step_id,
-      stepLabel: r.step_label,
-      units: Number(r.units),
-      revenue: moneyOut(r.revenue),
-      margin: moneyOut(r.margin),
-    })),
+    items: rows.map((r) => ({ partId: r.part_id, ...partNames(r), ...salesSums(r) })),
     rank: query.rank,
     period,
     currency,
@@ -185,13 +179,7 @@ export async function deadStock(months: number, k: Knex = db): Promise<DeadStock
       onHand: r.on_hand,
       value: moneyOut(r.value),
       lastIssuedAt: iso(r.last_issued_at),
-      sku: r.sku,
-      description: r.description,
-      kind: r.kind,
-      familyId: r.family_id,
-      familyCode: r.family_code,
-      stepId: r.step_id,
-      stepLabel: r.step_label,
+      ...partNames(r),
       held: r.held,
       lastReceivedAt: iso(r.last_received_at),
     })),

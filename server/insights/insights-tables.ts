@@ -10,9 +10,37 @@ import type {
   SupplierReliabilityAnswer,
   TopSellersAnswer,
 } from '../../shared/api/insights';
-import type { CsvTable } from './insights-csv';
+import type { CsvColumn, CsvTable } from './insights-csv';
 
 const NO_FAMILY = 'No engine family';
+
+interface PartNames {
+  sku: string;
+  description: string;
+  familyCode: string | null;
+  stepLabel: string | null;
+}
+
+/** The part a row is about, the same four columns in every report of parts. */
+function partColumns<T extends PartNames>(): CsvColumn<T>[] {
+  return [
+    { header: 'Part number', text: (r) => r.sku },
+    { header: 'Description', text: (r) => r.description },
+    { header: 'Family', text: (r) => r.familyCode ?? NO_FAMILY },
+    { header: 'Step', text: (r) => r.stepLabel ?? '' },
+  ];
+}
+
+/** What was sold: units, revenue and margin, in every sales report. */
+function salesColumns<
+  T extends { units: number; revenue: string; margin: string },
+>(): CsvColumn<T>[] {
+  return [
+    { header: 'Units', value: (r) => r.units },
+    { header: 'Revenue', value: (r) => r.revenue },
+    { header: 'Margin', value: (r) => r.margin },
+  ];
+}
 
 type SalesRowOut = SalesAnswer['rows'][number] | (SalesAnswer['totals'] & { total: true });
 
@@ -43,9 +71,7 @@ export function salesTable(answer: SalesAnswer): CsvTable<SalesRowOut> {
             },
           ]
         : []),
-      { header: 'Units', value: (r) => r.units },
-      { header: 'Revenue', value: (r) => r.revenue },
-      { header: 'Margin', value: (r) => r.margin },
+      ...salesColumns(),
       { header: 'Family id', value: (r) => (isTotal(r) ? '' : r.familyId) },
       { header: 'Step id', value: (r) => (isTotal(r) ? '' : r.stepId) },
     ],
@@ -56,12 +82,7 @@ export function salesTable(answer: SalesAnswer): CsvTable<SalesRowOut> {
 export function monthlyTable(answer: MonthlyAnswer): CsvTable<MonthlyAnswer['months'][number]> {
   return {
     name: `sales-by-month-${answer.period.from}-to-${answer.period.to}`,
-    columns: [
-      { header: 'Month', value: (r) => r.month },
-      { header: 'Units', value: (r) => r.units },
-      { header: 'Revenue', value: (r) => r.revenue },
-      { header: 'Margin', value: (r) => r.margin },
-    ],
+    columns: [{ header: 'Month', value: (r) => r.month }, ...salesColumns()],
     rows: answer.months,
   };
 }
@@ -71,16 +92,7 @@ export function topSellersTable(
 ): CsvTable<TopSellersAnswer['items'][number]> {
   return {
     name: `top-sellers-by-${answer.rank}-${answer.period.from}-to-${answer.period.to}`,
-    columns: [
-      { header: 'Part number', text: (r) => r.sku },
-      { header: 'Description', text: (r) => r.description },
-      { header: 'Family', text: (r) => r.familyCode ?? NO_FAMILY },
-      { header: 'Step', text: (r) => r.stepLabel ?? '' },
-      { header: 'Units', value: (r) => r.units },
-      { header: 'Revenue', value: (r) => r.revenue },
-      { header: 'Margin', value: (r) => r.margin },
-      { header: 'Part id', value: (r) => r.partId },
-    ],
+    columns: [...partColumns(), ...salesColumns(), { header: 'Part id', value: (r) => r.partId }],
     rows: answer.items,
   };
 }
@@ -121,10 +133,7 @@ export function deadStockTable(
   return {
     name: `dead-stock-${answer.months}-months`,
     columns: [
-      { header: 'Part number', text: (r) => r.sku },
-      { header: 'Description', text: (r) => r.description },
-      { header: 'Family', text: (r) => r.familyCode ?? NO_FAMILY },
-      { header: 'Step', text: (r) => r.stepLabel ?? '' },
+      ...partColumns(),
       { header: 'On hand', value: (r) => r.onHand },
       { header: 'Held for jobs', value: (r) => r.held },
       { header: 'Value at average cost', value: (r) => r.value },
@@ -141,10 +150,7 @@ export function abcTable(answer: AbcAnswer): CsvTable<AbcAnswer['items'][number]
     name: `abc-${answer.months}-months`,
     columns: [
       { header: 'Class', value: (r) => r.class },
-      { header: 'Part number', text: (r) => r.sku },
-      { header: 'Description', text: (r) => r.description },
-      { header: 'Family', text: (r) => r.familyCode ?? NO_FAMILY },
-      { header: 'Step', text: (r) => r.stepLabel ?? '' },
+      ...partColumns(),
       { header: `Issue value at cost, last ${answer.months} months`, value: (r) => r.value },
       { header: 'Share', value: (r) => r.share },
       { header: 'Cumulative share', value: (r) => r.cumulative },

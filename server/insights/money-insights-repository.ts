@@ -118,10 +118,14 @@ export async function estimatesByMonth(args: PeriodArgs, k: Knex = db): Promise<
   return result.rows;
 }
 
-export interface OutstandingDb {
+/** The job a money row is about, as the owner knows it. */
+export interface JobNamesDb {
   job_id: string;
   job_number: string;
   customer_name: string | null;
+}
+
+export interface OutstandingDb extends JobNamesDb {
   invoice_number: string;
   issued_at: Date;
   total: string;
@@ -153,10 +157,7 @@ export async function outstanding(k: Knex = db): Promise<OutstandingDb[]> {
   return result.rows;
 }
 
-export interface DepositHeldDb {
-  job_id: string;
-  job_number: string;
-  customer_name: string | null;
+export interface DepositHeldDb extends JobNamesDb {
   job_state: string;
   amount: string;
   paid_at: Date | null;

@@ -14,18 +14,8 @@ import type {
   RevenueAnswer,
   RevenueMonth,
 } from '../../shared/api/insights';
-import { resolvePeriod, shopContext } from './insights-service';
+import { periodArgs, shopContext } from './insights-service';
 import * as repo from './money-insights-repository';
-
-async function periodOf(query: { from?: string; to?: string }, k: Knex) {
-  const shop = await shopContext(k);
-  const period = resolvePeriod(query, shop.timeZone);
-  return {
-    period,
-    currency: shop.currency,
-    args: { fromDay: period.from, toDay: period.to, tz: period.timeZone },
-  };
-}
 
 type RevenueAmount = 'labour' | 'parts' | 'other' | 'tax' | 'invoiced' | 'credited';
 
@@ -33,7 +23,7 @@ export async function revenue(
   query: { from?: string; to?: string },
   k: Knex = db,
 ): Promise<RevenueAnswer> {
-  const { period, currency, args } = await periodOf(query, k);
+  const { period, currency, args } = await periodArgs(query, k);
   const rows = await repo.revenueByMonth(args, k);
   const months: RevenueMonth[] = rows.map((r) => ({
     month: r.month,
@@ -85,7 +75,7 @@ export async function estimates(
   query: { from?: string; to?: string },
   k: Knex = db,
 ): Promise<EstimatesAnswer> {
-  const { period, args } = await periodOf(query, k);
+  const { period, args } = await periodArgs(query, k);
   const rows = await repo.estimatesByMonth(args, k);
   const whole = rows.find((r) => r.month === null);
   if (!whole) throw new Error('insights: the estimates total row is missing');
@@ -98,12 +88,14 @@ export async function estimates(
   };
 }
 
+function jobNames(r: repo.JobNamesDb) {
+  return { jobId: r.job_id, jobNumber: r.job_number, customerName: r.customer_name };
+}
+
 export async function outstanding(k: Knex = db): Promise<OutstandingAnswer> {
   const { currency } = await shopContext(k);
   const items = (await repo.outstanding(k)).map((r) => ({
-    jobId: r.job_id,
-    jobNumber: r.job_number,
-    customerName: r.customer_name,
+    ...jobNames(r),
     invoiceNumber: r.invoice_number,
     issuedAt: r.issued_at.toISOString(),
     total: fixedMoney(r.total, currency),
@@ -125,9 +117,7 @@ export async function outstanding(k: Knex = db): Promise<OutstandingAnswer> {
 export async function depositsHeld(k: Knex = db): Promise<DepositsHeldAnswer> {
   const { currency } = await shopContext(k);
   const items = (await repo.depositsHeld(k)).map((r) => ({
-    jobId: r.job_id,
-    jobNumber: r.job_number,
-    customerName: r.customer_name,
+    ...jobNames(r),
     jobState: r.job_state,
     amount: fixedMoney(r.amount, currency),
     paidAt: r.paid_at ? r.paid_at.toISOString() : null,

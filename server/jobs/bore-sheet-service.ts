@@ -4,7 +4,7 @@
 // machinist overrides it with a reason that stays with the cylinder.
 import type { Knex } from 'knex';
 import { db } from '../db/knex';
-import { BadRequest, Conflict, NotFound } from '../errors';
+import { BadRequest, Conflict } from '../errors';
 import { getSettings } from '../settings/settings-service';
 import { whyNotApproved } from '../money/approval-service';
 import { requiredSettingLength, settingLength } from '../settings/setting-length';
@@ -25,8 +25,8 @@ import type { CutUndoJson } from '../../shared/cut-undo';
 import { cutUndoFacts } from './cut-undo-service';
 import * as repo from './jobs-repository';
 import * as holdsRepo from './holds-repository';
-import { getCylinder } from './cylinder-service';
-import { requireCylinder, requireOpenJob } from './jobs-service';
+import { cylinderContext, getCylinder } from './cylinder-service';
+import { lockOpenCylinder } from './jobs-service';
 import { advanceState } from './job-state';
 import { familyClearances, honedFitJson, lengthOrNull, toReadings } from './jobs-json';
 import { earlierBoreJson } from './cylinder-service';
@@ -34,13 +34,7 @@ import { lastBoreBefore } from '../customers/cylinders-service';
 
 /** Everything the sheet and the cut are worked out from, read in one place so they cannot disagree. */
 async function sheetFacts(jobId: string, n: number, k: Knex) {
-  const job = await repo.findJob(jobId, k);
-  if (!job) throw new NotFound('That job');
-  requireCylinder(job, n);
-  const family = await repo.findFamily(job.family_id, k);
-  if (!family) throw new NotFound("That job's engine family");
-  const cylinder = (await repo.cylindersOf(jobId, k)).find((c) => c.n === n);
-  if (!cylinder) throw new NotFound(`Cylinder ${n} of job ${job.number}`);
+  const { job, family, cylinder } = await cylinderContext(jobId, n, k);
   const holds = await holdsRepo.holdsOfJob(jobId, { activeOnly: true }, k);
   const piston = holds.find((h) => h.cylinder === n && h.unit_id !== null);
   if (!piston || piston.unit_id === null || piston.unit_label === null) {
@@ -240,10 +234,7 @@ export async function markCut(
   k: Knex = db,
 ): Promise<CylinderJson> {
   await k.transaction(async (trx) => {
-    const job = await requireOpenJob(trx, jobId, 'change');
-    requireCylinder(job, n);
-    const cylinder = await repo.lockCylinder(trx, jobId, n);
-    if (!cylinder) throw new NotFound(`Cylinder ${n} of job ${job.number}`);
+    const { job, cylinder } = await lockOpenCylinder(trx, jobId, n);
     if (cylinder.cut_at) {
       throw new Conflict(
         `Cylinder ${n} of job ${job.number} is already marked as cut.`,

@@ -16,7 +16,7 @@ import {
 import * as repo from './jobs-repository';
 import * as cuts from './cut-undo-repository';
 import { getCylinder } from './cylinder-service';
-import { requireCylinder, requireOpenJob } from './jobs-service';
+import { lockOpenCylinder } from './jobs-service';
 
 export async function undoCut(
   actor: CutUndoActor,
@@ -27,10 +27,7 @@ export async function undoCut(
   k: Knex = db,
 ): Promise<CylinderJson> {
   await k.transaction(async (trx) => {
-    const job = await requireOpenJob(trx, jobId, 'change');
-    requireCylinder(job, n);
-    const cylinder = await repo.lockCylinder(trx, jobId, n);
-    if (!cylinder) throw new NotFound(`Cylinder ${n} of job ${job.number}`);
+    const { job } = await lockOpenCylinder(trx, jobId, n);
     const cut = await cuts.cutOf(trx, jobId, n);
     if (!cut) throw new NotFound(`Cylinder ${n} of job ${job.number}`);
     const reason = input.reason?.trim() ?? '';

@@ -22,7 +22,7 @@ import { stepNominalBore } from '../../shared/step-series';
 import type { BoreJson } from '../../shared/api/customers';
 import * as repo from './jobs-repository';
 import * as holdsRepo from './holds-repository';
-import { requireCylinder, requireOpenJob } from './jobs-service';
+import { lockOpenCylinder, requireCylinder } from './jobs-service';
 import { advanceAfterHoning, advanceState } from './job-state';
 import {
   cylinderJson,
@@ -38,7 +38,8 @@ import { lastBoreConstraint, stepsLeftAfter, stepsLeftWarning } from '../../shar
 
 type Conn = Knex;
 
-async function context(jobId: string, n: number, k: Conn) {
+/** A job's cylinder with the job and its engine family, read (not locked); not found when any is missing. */
+export async function cylinderContext(jobId: string, n: number, k: Conn) {
   const job = await repo.findJob(jobId, k);
   if (!job) throw new NotFound('That job');
   requireCylinder(job, n);
@@ -55,7 +56,7 @@ export async function getCylinder(
   unit: LengthUnit,
   k: Conn = db,
 ): Promise<CylinderJson> {
-  const { family, cylinder } = await context(jobId, n, k);
+  const { family, cylinder } = await cylinderContext(jobId, n, k);
   const [readings, holds] = await Promise.all([
     repo.readingsOf(jobId, k),
     holdsRepo.holdsOfJob(jobId, { activeOnly: true }, k),
@@ -118,10 +119,7 @@ export async function putReadings(
     unit: r.diameter.unit,
   }));
   const result = await k.transaction(async (trx) => {
-    const job = await requireOpenJob(trx, jobId, 'change');
-    requireCylinder(job, n);
-    const cylinder = await repo.lockCylinder(trx, jobId, n);
-    if (!cylinder) throw new NotFound(`Cylinder ${n} of job ${job.number}`);
+    const { job, cylinder } = await lockOpenCylinder(trx, jobId, n);
     if (cylinder.cut_at) {
       throw new Conflict(
         `Cylinder ${n} is already cut; its wear readings are kept as they were before the cut.`,
@@ -175,7 +173,7 @@ export async function recommendation(
   unit: LengthUnit,
   k: Conn = db,
 ): Promise<RecommendationJson> {
-  const { job, family, cylinder } = await context(jobId, n, k);
+  const { job, family, cylinder } = await cylinderContext(jobId, n, k);
   if (cylinder.largest_nm === null) {
     throw new Conflict(
       `Enter the bore readings for cylinder ${n} of job ${job.number} first; the step follows from the worst wear.`,
@@ -266,10 +264,7 @@ export async function patchCylinder(
   k: Conn = db,
 ): Promise<CylinderJson> {
   await k.transaction(async (trx) => {
-    const job = await requireOpenJob(trx, jobId, 'change');
-    requireCylinder(job, n);
-    const cylinder = await repo.lockCylinder(trx, jobId, n);
-    if (!cylinder) throw new NotFound(`Cylinder ${n} of job ${job.number}`);
+    const { job, cylinder } = await lockOpenCylinder(trx, jobId, n);
     refuseStaleFinish(job.number, cylinder, patch);
     const family = await repo.findFamily(job.family_id, trx);
     if (!family) throw new NotFound("That job's engine family");

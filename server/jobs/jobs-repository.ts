@@ -5,38 +5,13 @@
 // KEY keeps inserts that merely reference the job (notes, ledger rows) from waiting on it.
 import type { Knex } from 'knex';
 import { db } from '../db/knex';
+import { pageOf } from '../db/paging';
 import { containsPattern } from '../db/like-pattern';
 import { OPEN_STATES, type JobState } from '../../shared/api/jobs';
 import type { NeededPart } from '../../shared/part-needs';
 import { waitingForSql, waitingSql } from '../stock/part-needs-repository';
+import type { EngineFamilyRow } from '../catalog/catalog-repository';
 export * from './job-records-repository';
-
-export interface FamilyRow {
-  id: string;
-  code: string;
-  name: string;
-  cylinders: number;
-  standard_bore_nm: number;
-  clearance_min_nm: number;
-  clearance_max_nm: number;
-  hone_allowance_nm: number;
-  cleanup_nm: number;
-  max_oversize_nm: number;
-  max_taper_nm: number | null;
-  max_out_of_round_nm: number | null;
-  ring_gap_min_nm: number | null;
-  ring_gap_max_nm: number | null;
-  forged_clearance_min_nm: number | null;
-  forged_clearance_max_nm: number | null;
-  /** Ring end gap per unit of bore, exact decimal text ("0.00400"). */
-  ring_gap_per_bore: string;
-  stroke_nm: number;
-  hone_crosshatch_deg: string;
-  hone_grits: string;
-  step_series_id: string;
-  stroke_type: 'two' | 'four';
-  active: boolean;
-}
 
 export interface JobRow {
   id: string;
@@ -114,7 +89,10 @@ const FAMILY_COLUMNS = [
   'step_series_id',
   'stroke_type',
   'active',
-];
+] as const;
+
+/** The family columns a job's rules and pages read. */
+export type FamilyRow = Pick<EngineFamilyRow, (typeof FAMILY_COLUMNS)[number]>;
 
 export async function findFamily(id: string, k: Knex = db): Promise<FamilyRow | undefined> {
   return k('engine_families').select(FAMILY_COLUMNS).where({ id }).first();
@@ -287,69 +265,55 @@ export async function listJobs(
         ),
     );
   }
-  const [{ count }] = await base.clone().count<{ count: number }[]>('* as count');
   const column = LIST_SORTS[f.sort ?? 'due'] ?? LIST_SORTS.due;
   const order = f.dir === 'desc' ? 'DESC' : 'ASC';
-  const rows = await base
-    .clone()
-    .join('engine_families as f', 'f.id', 'j.family_id')
-    .select(
-      'j.id',
-      'j.number',
-      'j.state',
-      'j.customer_id',
-      'j.customer_name',
-      'j.family_id',
-      'f.code as family_code',
-      'f.name as family_name',
-      'j.cylinders',
-      'j.asked_for',
-      k.raw(`to_char(j.due_date, 'YYYY-MM-DD') AS due_date`),
-      k.raw(
-        `(j.due_date IS NOT NULL AND j.due_date < ?::date AND j.state IN (${OPEN_STATES.map((s) => `'${s}'`).join(', ')})) AS overdue`,
-        [f.today],
-      ),
-      k.raw(`${WAITING_SQL} AS waiting_for_parts`),
-      k.raw(`${WAITING_FOR_SQL} AS waiting_for`),
-      k.raw(
-        `(SELECT count(*) FROM holds h WHERE h.job_id = j.id AND h.unit_id IS NOT NULL
+  return pageOf<JobListRow>(base, f, (list) =>
+    list
+      .join('engine_families as f', 'f.id', 'j.family_id')
+      .select(
+        'j.id',
+        'j.number',
+        'j.state',
+        'j.customer_id',
+        'j.customer_name',
+        'j.family_id',
+        'f.code as family_code',
+        'f.name as family_name',
+        'j.cylinders',
+        'j.asked_for',
+        k.raw(`to_char(j.due_date, 'YYYY-MM-DD') AS due_date`),
+        ...jobFlags(k, f.today),
+        'j.created_at',
+      )
+      .orderByRaw(`${column} ${order} NULLS LAST, j.number ASC`),
+  );
+}
+
+/** The flags of a job's list row, worked out in SQL; `today` is the shop's local date. */
+function jobFlags(k: Knex, today: string) {
+  return [
+    k.raw(`${WAITING_SQL} AS waiting_for_parts`),
+    k.raw(`${WAITING_FOR_SQL} AS waiting_for`),
+    k.raw(
+      `(j.due_date IS NOT NULL AND j.due_date < ?::date AND j.state IN (${OPEN_STATES.map((s) => `'${s}'`).join(', ')})) AS overdue`,
+      [today],
+    ),
+    k.raw(
+      `(SELECT count(*) FROM holds h WHERE h.job_id = j.id AND h.unit_id IS NOT NULL
             AND h.released_at IS NULL)::int AS pistons_held`,
-      ),
-      k.raw(
-        `(SELECT count(*) FROM job_cylinders c WHERE c.job_id = j.id AND c.cut_at IS NOT NULL)::int
+    ),
+    k.raw(
+      `(SELECT count(*) FROM job_cylinders c WHERE c.job_id = j.id AND c.cut_at IS NOT NULL)::int
           AS cylinders_cut`,
-      ),
-      k.raw(AWAITING_APPROVAL_SQL),
-      'j.created_at',
-    )
-    .orderByRaw(`${column} ${order} NULLS LAST, j.number ASC`)
-    .limit(f.pageSize)
-    .offset((f.page - 1) * f.pageSize);
-  return { rows: rows as JobListRow[], total: Number(count) };
+    ),
+    k.raw(AWAITING_APPROVAL_SQL),
+  ];
 }
 
 export async function jobListRow(id: string, today: string, k: Knex = db): Promise<JobListRow> {
   const found = await k('jobs as j')
     .join('engine_families as f', 'f.id', 'j.family_id')
-    .select(
-      k.raw(`${WAITING_SQL} AS waiting_for_parts`),
-      k.raw(`${WAITING_FOR_SQL} AS waiting_for`),
-      k.raw(
-        `(j.due_date IS NOT NULL AND j.due_date < ?::date AND j.state IN (${OPEN_STATES.map((s) => `'${s}'`).join(', ')})) AS overdue`,
-        [today],
-      ),
-      k.raw(
-        `(SELECT count(*) FROM holds h WHERE h.job_id = j.id AND h.unit_id IS NOT NULL
-            AND h.released_at IS NULL)::int AS pistons_held`,
-      ),
-      k.raw(
-        `(SELECT count(*) FROM job_cylinders c WHERE c.job_id = j.id AND c.cut_at IS NOT NULL)::int
-          AS cylinders_cut`,
-      ),
-      k.raw(AWAITING_APPROVAL_SQL),
-      'f.code as family_code',
-      'f.name as family_name',
-    )
+    .select(...jobFlags(k, today), 'f.code as family_code', 'f.name as family_name')
     .where('j.id', id)
     .first();
   return found as JobListRow;

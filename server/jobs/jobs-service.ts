@@ -68,6 +68,18 @@ export function requireCylinder(job: { number: string; cylinders: number }, n: n
   }
 }
 
+/**
+ * Locks an open job and one of its cylinders for a change: not found when either is missing, a
+ * conflict when the job is closed.
+ */
+export async function lockOpenCylinder(trx: Conn, jobId: string, n: number) {
+  const job = await requireOpenJob(trx, jobId, 'change');
+  requireCylinder(job, n);
+  const cylinder = await repo.lockCylinder(trx, jobId, n);
+  if (!cylinder) throw new NotFound(`Cylinder ${n} of job ${job.number}`);
+  return { job, cylinder };
+}
+
 // ---- Intake -----------------------------------------------------------------------------------
 
 export async function createJob(
@@ -140,16 +152,7 @@ export async function createJob(
 
 // ---- Reading jobs -----------------------------------------------------------------------------
 
-export interface JobListQuery {
-  states?: JobState[];
-  q?: string;
-  familyId?: string;
-  waiting?: boolean;
-  sort?: string;
-  dir?: 'asc' | 'desc';
-  page: number;
-  pageSize: number;
-}
+export type JobListQuery = Omit<repo.JobFilter, 'today'>;
 
 export async function listJobs(query: JobListQuery, k: Conn = db): Promise<Page<JobListItemJson>> {
   const today = await shopToday(k);
@@ -286,6 +289,30 @@ export async function addNote(
 
 // ---- Closing a job ----------------------------------------------------------------------------
 
+/** The last step of handing back or calling off: the state, the job's event and the audit row. */
+async function closeJob(
+  trx: Conn,
+  actorId: string,
+  job: { id: string; state: JobState },
+  close: {
+    action: string;
+    state: 'handed_back' | 'called_off';
+    text: string;
+    after: Record<string, unknown>;
+  },
+): Promise<void> {
+  await repo.setJobState(trx, job.id, close.state);
+  await repo.insertEvent(trx, { jobId: job.id, userId: actorId, kind: 'state', text: close.text });
+  await recordAudit(trx, {
+    userId: actorId,
+    action: close.action,
+    entity: 'job',
+    entityId: job.id,
+    before: { state: job.state },
+    after: { state: close.state, ...close.after },
+  });
+}
+
 /**
  * Hands the job back: every part held for it is issued (a ledger 'issue' row at the part's sale
  * price and its current moving average cost), the pistons leave the shelf, and the job closes.
@@ -339,23 +366,14 @@ export async function collectJob(
     faultPoint('jobs.collect.afterIssue');
     // The invoice charges what was just issued; a balance still owed does not stop the hand-back.
     const invoice = await issueInvoice(trx, actorId, id);
-    await repo.setJobState(trx, id, 'handed_back');
-    await repo.insertEvent(trx, {
-      jobId: id,
-      userId: actorId,
-      kind: 'state',
+    await closeJob(trx, actorId, job, {
+      action: 'job.collect',
+      state: 'handed_back',
       text:
         issued.length > 0
           ? `Handed back. Issued: ${issued.join(', ')}.`
           : 'Handed back. No parts were held, so none were issued.',
-    });
-    await recordAudit(trx, {
-      userId: actorId,
-      action: 'job.collect',
-      entity: 'job',
-      entityId: id,
-      before: { state: job.state },
-      after: { state: 'handed_back', issuedHolds: holds.map((h) => h.id), invoice: invoice.number },
+      after: { issuedHolds: holds.map((h) => h.id), invoice: invoice.number },
     });
   });
   return getJob(id, unit, k);
@@ -383,25 +401,16 @@ export async function cancelJob(
       });
     }
     const settled = await settleCalledOff(trx, actorId, job);
-    await repo.setJobState(trx, id, 'called_off');
-    await repo.insertEvent(trx, {
-      jobId: id,
-      userId: actorId,
-      kind: 'state',
+    await closeJob(trx, actorId, job, {
+      action: 'job.cancel',
+      state: 'called_off',
       text: [
         holds.length > 0
           ? `Called off. Released ${holds.length} hold${holds.length === 1 ? '' : 's'} back to the shelf.`
           : 'Called off.',
         ...settled.map((t) => `${t}.`),
       ].join(' '),
-    });
-    await recordAudit(trx, {
-      userId: actorId,
-      action: 'job.cancel',
-      entity: 'job',
-      entityId: id,
-      before: { state: job.state },
-      after: { state: 'called_off', releasedHolds: holds.map((h) => h.id) },
+      after: { releasedHolds: holds.map((h) => h.id) },
     });
   });
   return getJob(id, unit, k);

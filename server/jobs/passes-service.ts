@@ -3,10 +3,10 @@
 // refused with both counts instead of moving the machinist's place back or forward unseen.
 import type { Knex } from 'knex';
 import { db } from '../db/knex';
-import { Conflict, NotFound } from '../errors';
+import { Conflict } from '../errors';
 import type { PassesDoneInput } from '../../shared/api/jobs';
 import * as repo from './jobs-repository';
-import { requireCylinder, requireOpenJob } from './jobs-service';
+import { lockOpenCylinder } from './jobs-service';
 
 export async function putPassesDone(
   actorId: string,
@@ -16,10 +16,7 @@ export async function putPassesDone(
   k: Knex = db,
 ): Promise<{ passesDone: number }> {
   return k.transaction(async (trx) => {
-    const job = await requireOpenJob(trx, jobId, 'change');
-    requireCylinder(job, n);
-    const cylinder = await repo.lockCylinder(trx, jobId, n);
-    if (!cylinder) throw new NotFound(`Cylinder ${n} of job ${job.number}`);
+    const { job, cylinder } = await lockOpenCylinder(trx, jobId, n);
     if (cylinder.cut_at) {
       throw new Conflict(
         `Cylinder ${n} is already marked as cut; its passes are all behind it.`,

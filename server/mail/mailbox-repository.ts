@@ -1,5 +1,6 @@
 import type { Knex } from 'knex';
 import { db } from '../db/knex';
+import { pageOf } from '../db/paging';
 
 export interface MailboxRow {
   id: string;
@@ -22,14 +23,10 @@ export async function listMailbox(
       qb.where((w) => w.whereILike('subject', like).orWhereILike('to_address', like));
     }
   });
-  const [{ count }] = await base.clone().count<{ count: number }[]>('* as count');
-  const rows = await base
-    .clone()
-    .orderBy([
+  return pageOf<MailboxRow>(base, opts, (list) =>
+    list.orderBy([
       { column: 'received_at', order: 'desc' },
       { column: 'id', order: 'desc' },
-    ])
-    .limit(opts.pageSize)
-    .offset((opts.page - 1) * opts.pageSize);
-  return { rows, total: Number(count) };
+    ]),
+  );
 }

@@ -137,22 +137,37 @@ export async function setPartRule(
     .update({ ...rule, updated_at: k.fn.now() });
 }
 
+/** One part's demand over the shop's calendar days in [from, to). */
+export interface DemandWindow {
+  partId: string;
+  from: Date;
+  to: Date;
+  timeZone: string;
+}
+
+export interface DayQuantity {
+  day: string;
+  quantity: number;
+}
+
+/** Runs a per-day count whose bindings are the window's zone, part and ends, in that order. */
+async function perDay(k: Knex, sql: string, w: DemandWindow): Promise<DayQuantity[]> {
+  const { rows } = (await k.raw(sql, [w.timeZone, w.partId, w.from, w.to])) as {
+    rows: DayQuantity[];
+  };
+  return rows;
+}
+
 /** Units issued per day (shop's calendar days) in [from, to). Days without issues are absent. */
-export async function dailyIssues(
-  partId: string,
-  from: Date,
-  to: Date,
-  timeZone: string,
-  k: Knex = db,
-): Promise<{ day: string; quantity: number }[]> {
-  const { rows } = (await k.raw(
+export function dailyIssues(w: DemandWindow, k: Knex = db): Promise<DayQuantity[]> {
+  return perDay(
+    k,
     `SELECT to_char((at AT TIME ZONE ?)::date, 'YYYY-MM-DD') AS day, sum(-quantity)::int AS quantity
        FROM stock_ledger
       WHERE part_id = ? AND kind = 'issue' AND at >= ? AND at < ?
       GROUP BY 1 ORDER BY 1`,
-    [timeZone, partId, from, to],
-  )) as { rows: { day: string; quantity: number }[] };
-  return rows;
+    w,
+  );
 }
 
 /**
@@ -162,14 +177,9 @@ export async function dailyIssues(
  * that later got its piston is demand already counted by its issue; a counter request is always
  * lost. Only pistons: shortages are recorded per step, which rings do not have.
  */
-export async function dailyLostDemand(
-  partId: string,
-  from: Date,
-  to: Date,
-  timeZone: string,
-  k: Knex = db,
-): Promise<{ day: string; quantity: number }[]> {
-  const { rows } = (await k.raw(
+export function dailyLostDemand(w: DemandWindow, k: Knex = db): Promise<DayQuantity[]> {
+  return perDay(
+    k,
     `SELECT to_char((s.at AT TIME ZONE ?)::date, 'YYYY-MM-DD') AS day, count(*)::int AS quantity
        FROM parts p
        JOIN step_shortages s ON s.family_id = p.family_id AND s.step_id = p.step_id
@@ -179,9 +189,8 @@ export async function dailyLostDemand(
                WHERE l.job_id = s.job_id AND l.kind = 'issue' AND lp.kind = 'piston'
                  AND lp.family_id = s.family_id AND lp.step_id = s.step_id))
       GROUP BY 1 ORDER BY 1`,
-    [timeZone, partId, from, to],
-  )) as { rows: { day: string; quantity: number }[] };
-  return rows;
+    w,
+  );
 }
 
 /**

@@ -166,20 +166,14 @@ export async function suggestion(
   // Whole days only: the window ends where today begins in the shop's time zone.
   const to = today;
   const from = to.minus({ days: q.windowDays });
-  const issued = await repo.dailyIssues(
+  const demandWindow = {
     partId,
-    from.toJSDate(),
-    to.toJSDate(),
-    settings.timeZone,
-    k,
-  );
-  const lost = await repo.dailyLostDemand(
-    partId,
-    from.toJSDate(),
-    to.toJSDate(),
-    settings.timeZone,
-    k,
-  );
+    from: from.toJSDate(),
+    to: to.toJSDate(),
+    timeZone: settings.timeZone,
+  };
+  const issued = await repo.dailyIssues(demandWindow, k);
+  const lost = await repo.dailyLostDemand(demandWindow, k);
   // What the shop could not sell was demand too: it counts on the day it was asked for.
   const byDay = new Map(issued.map((d) => [d.day, d.quantity]));
   for (const d of lost) byDay.set(d.day, (byDay.get(d.day) ?? 0) + d.quantity);

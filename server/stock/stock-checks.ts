@@ -5,9 +5,9 @@ import { BadRequest } from '../errors';
 import { formatLength, type Nm } from '../../shared/lengths';
 import { stepNominalBore } from '../../shared/step-series';
 import type { UnitStatus } from '../../shared/api/catalog';
-import type { LedgerJson } from '../../shared/api/stock';
+import type { LedgerJson, StockChangeJson } from '../../shared/api/stock';
 import * as repo from './stock-repository';
-import { ledgerJson } from './stock-json';
+import { ledgerJson, levelsJson, unitJson } from './stock-json';
 
 type Conn = Knex;
 
@@ -67,4 +67,20 @@ export async function requireBin(
 
 export async function ledgerOut(k: Conn, ids: number[]): Promise<LedgerJson[]> {
   return (await repo.ledgerByIds(ids, k)).map(ledgerJson);
+}
+
+/** What a change to one piston answers: its ledger rows, the part's levels, the piston as it is now. */
+export async function unitChangeOut(
+  k: Conn,
+  ids: number[],
+  levels: repo.LevelsRow,
+  averageCost: string,
+  unitId: string,
+): Promise<StockChangeJson> {
+  const row = await repo.findUnit({ id: unitId }, k);
+  return {
+    ledger: await ledgerOut(k, ids),
+    levels: levelsJson(levels, averageCost),
+    unit: row ? unitJson(row) : undefined,
+  };
 }

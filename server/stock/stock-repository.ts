@@ -2,6 +2,7 @@
 // caller's transaction; the row locks (FOR UPDATE) order concurrent changes to one part.
 import type { Knex } from 'knex';
 import { db } from '../db/knex';
+import { pageOf } from '../db/paging';
 import { containsPattern } from '../db/like-pattern';
 import type { PartKind, UnitStatus } from '../../shared/api/catalog';
 import type { LedgerKind } from '../../shared/api/stock';
@@ -105,14 +106,7 @@ export async function listBins(
     const like = containsPattern(opts.q);
     base.where((w) => w.whereILike('b.code', like).orWhereILike('b.name', like));
   }
-  const [{ count }] = await base.clone().count<{ count: number }[]>('* as count');
-  const rows = await base
-    .clone()
-    .select(binColumns(k))
-    .orderBy('b.code')
-    .limit(opts.pageSize)
-    .offset((opts.page - 1) * opts.pageSize);
-  return { rows: rows as BinRow[], total: Number(count) };
+  return pageOf<BinRow>(base, opts, (list) => list.select(binColumns(k)).orderBy('b.code'));
 }
 
 export async function findBin(
@@ -291,16 +285,11 @@ export async function listUnits(
         .orWhereILike('f.code', like),
     );
   }
-  const [{ count }] = await base.clone().count<{ count: number }[]>('* as count');
   const column = UNIT_SORTS[opts.sort ?? 'label'] ?? 'u.label';
   const order = opts.dir === 'desc' ? 'DESC' : 'ASC';
-  const rows = await base
-    .clone()
-    .select(UNIT_COLUMNS)
-    .orderByRaw(`${column} ${order} NULLS LAST, u.label ASC`)
-    .limit(opts.pageSize)
-    .offset((opts.page - 1) * opts.pageSize);
-  return { rows: rows as UnitRow[], total: Number(count) };
+  return pageOf<UnitRow>(base, opts, (list) =>
+    list.select(UNIT_COLUMNS).orderByRaw(`${column} ${order} NULLS LAST, u.label ASC`),
+  );
 }
 
 export async function findUnit(
@@ -377,12 +366,7 @@ export async function listLedger(
         .orWhereILike('l.ref', like),
     );
   }
-  const [{ count }] = await base.clone().count<{ count: number }[]>('* as count');
-  const rows = await base
-    .clone()
-    .select(LEDGER_COLUMNS)
-    .orderBy('l.id', 'desc')
-    .limit(opts.pageSize)
-    .offset((opts.page - 1) * opts.pageSize);
-  return { rows: rows as LedgerRow[], total: Number(count) };
+  return pageOf<LedgerRow>(base, opts, (list) =>
+    list.select(LEDGER_COLUMNS).orderBy('l.id', 'desc'),
+  );
 }

@@ -29,6 +29,7 @@ import {
   checkSkirt,
   fieldError,
   ledgerOut,
+  unitChangeOut,
   requireBin,
   requirePart,
   STATUS_WORDS,
@@ -306,12 +307,7 @@ export async function move(
         before: { binId: unit.bin_id },
         after: { binId: toBin.id },
       });
-      const row = await repo.findUnit({ id: unit.id }, trx);
-      return {
-        ledger: await ledgerOut(trx, ids),
-        levels: levelsJson(levels, levels.average_cost),
-        unit: row ? unitJson(row) : undefined,
-      };
+      return unitChangeOut(trx, ids, levels, levels.average_cost, unit.id);
     });
   }
   const part = await requirePart(k, input.partId ?? '');

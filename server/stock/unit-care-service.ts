@@ -8,10 +8,9 @@ import { issueAtCost } from '../../shared/average-cost';
 import { formatLength, type Nm } from '../../shared/lengths';
 import type { StockChangeJson } from '../../shared/api/stock';
 import * as repo from './stock-repository';
-import { levelsJson, unitJson } from './stock-json';
 import { isCheckViolation } from '../db/pg-errors';
 import * as moves from './stock-movements';
-import { checkSkirt, ledgerOut, STATUS_WORDS } from './stock-checks';
+import { checkSkirt, STATUS_WORDS, unitChangeOut } from './stock-checks';
 
 type Conn = Knex;
 
@@ -63,12 +62,7 @@ export async function scrap(
         before: { status: unit.status },
         after: { status: 'scrapped', reason },
       });
-      const row = await repo.findUnit({ id: unit.id }, trx);
-      return {
-        ledger: await ledgerOut(trx, ids),
-        levels: levelsJson(after, levels.average_cost),
-        unit: row ? unitJson(row) : undefined,
-      };
+      return unitChangeOut(trx, ids, after, levels.average_cost, unit.id);
     });
   } catch (e) {
     if (isCheckViolation(e)) {
@@ -125,11 +119,6 @@ export async function measure(
       before: { skirtNm: unit.skirt_nm },
       after: { skirtNm },
     });
-    const row = await repo.findUnit({ id: unit.id }, trx);
-    return {
-      ledger: await ledgerOut(trx, ids),
-      levels: levelsJson(levels, levels.average_cost),
-      unit: row ? unitJson(row) : undefined,
-    };
+    return unitChangeOut(trx, ids, levels, levels.average_cost, unit.id);
   });
 }

@@ -2,6 +2,7 @@
 // mapping queue with its suggestions.
 import type { Knex } from 'knex';
 import { db } from '../db/knex';
+import { pageOf } from '../db/paging';
 import { containsPattern } from '../db/like-pattern';
 
 export interface SupplierRow {
@@ -109,16 +110,11 @@ export async function listSuppliers(
     const like = containsPattern(opts.q.trim());
     base.where((w) => w.whereILike('s.name', like).orWhereILike('s.email', like));
   }
-  const [{ count }] = await base.clone().count<{ count: number }[]>('* as count');
   const order = opts.dir === 'desc' ? 'DESC' : 'ASC';
   const column = SUPPLIER_SORTS[opts.sort ?? 'name'] ?? 'lower(s.name)';
-  const rows = (await base
-    .clone()
-    .select(supplierColumns(k))
-    .orderByRaw(`${column} ${order} NULLS LAST, lower(s.name) ASC`)
-    .limit(opts.pageSize)
-    .offset((opts.page - 1) * opts.pageSize)) as SupplierRow[];
-  return { rows, total: Number(count) };
+  return pageOf<SupplierRow>(base, opts, (list) =>
+    list.select(supplierColumns(k)).orderByRaw(`${column} ${order} NULLS LAST, lower(s.name) ASC`),
+  );
 }
 
 export async function findSupplier(id: string, k: Knex = db): Promise<SupplierRow | undefined> {
@@ -209,16 +205,13 @@ export async function listItems(
         .orWhereIn('i.part_id', k('parts').select('id').whereILike('sku', like)),
     );
   }
-  const [{ count }] = await base.clone().count<{ count: number }[]>('* as count');
   const order = opts.dir === 'desc' ? 'DESC' : 'ASC';
   const column = ITEM_SORTS[opts.sort ?? 'sku'] ?? 'i.sku';
-  const rows = (await base
-    .clone()
-    .select([...ITEM_COLUMNS, 's.name as supplier_name'])
-    .orderByRaw(`${column} ${order} NULLS LAST, i.sku ASC, i.id ASC`)
-    .limit(opts.pageSize)
-    .offset((opts.page - 1) * opts.pageSize)) as ItemRow[];
-  return { rows, total: Number(count) };
+  return pageOf<ItemRow>(base, opts, (list) =>
+    list
+      .select([...ITEM_COLUMNS, 's.name as supplier_name'])
+      .orderByRaw(`${column} ${order} NULLS LAST, i.sku ASC, i.id ASC`),
+  );
 }
 
 export async function findItem(
@@ -266,15 +259,12 @@ export async function priceHistory(
   k: Knex = db,
 ): Promise<{ rows: PriceRow[]; total: number }> {
   const base = k('supplier_item_prices as h').where('h.item_id', itemId);
-  const [{ count }] = await base.clone().count<{ count: number }[]>('* as count');
-  const rows = (await base
-    .clone()
-    .leftJoin('price_list_imports as m', 'm.id', 'h.import_id')
-    .select('h.price', 'h.currency', 'h.effective_from', 'h.import_id', 'm.file_name')
-    .orderBy('h.effective_from', 'desc')
-    .limit(pageSize)
-    .offset((page - 1) * pageSize)) as PriceRow[];
-  return { rows, total: Number(count) };
+  return pageOf<PriceRow>(base, { page, pageSize }, (list) =>
+    list
+      .leftJoin('price_list_imports as m', 'm.id', 'h.import_id')
+      .select('h.price', 'h.currency', 'h.effective_from', 'h.import_id', 'm.file_name')
+      .orderBy('h.effective_from', 'desc'),
+  );
 }
 
 // ---- Mapping suggestions -------------------------------------------------------------------------

@@ -1,5 +1,6 @@
 import type { Knex } from 'knex';
 import { db } from '../db/knex';
+import { pageOf } from '../db/paging';
 import { containsPattern } from '../db/like-pattern';
 import type { Role, SessionUser, LengthUnit } from '../../shared/session-types';
 
@@ -65,15 +66,10 @@ export async function listUsers(
       b.where((w) => w.whereILike('name', like).orWhereILike('email', like));
     }
   });
-  const [{ count }] = await base.clone().count<{ count: number }[]>('* as count');
   const column = SORTABLE[opts.sort ?? 'name'];
-  const pageSize = opts.pageSize ?? 100;
-  const rows = await base
-    .clone()
-    .orderBy([{ column, order: opts.dir ?? 'asc' }, { column: 'id' }])
-    .limit(pageSize)
-    .offset(((opts.page ?? 1) - 1) * pageSize);
-  return { rows, total: Number(count) };
+  return pageOf<UserRow>(base, { page: opts.page ?? 1, pageSize: opts.pageSize ?? 100 }, (list) =>
+    list.orderBy([{ column, order: opts.dir ?? 'asc' }, { column: 'id' }]),
+  );
 }
 
 export async function insertUser(
