@@ -302,31 +302,6 @@ export async function firstStaged(k: Knex, importId: string, limit: number): Pro
 
 // ---- Comparison with what the supplier offers now -------------------------------------------------
 
-export async function compare(k: Knex, importId: string, supplierId: string): Promise<Comparison> {
-  const result = await k.raw<{ rows: Comparison[] }>(
-    `WITH gp AS (${GTIN_PARTS}),
-          s AS (SELECT * FROM price_list_import_rows WHERE import_id = :imp AND ok)
-     SELECT
-       count(*) FILTER (WHERE si.id IS NULL)::int AS new,
-       count(*) FILTER (WHERE si.id IS NOT NULL
-                          AND (s.currency <> si.currency OR s.price > si.price))::int AS up,
-       count(*) FILTER (WHERE si.id IS NOT NULL AND s.currency = si.currency
-                          AND s.price < si.price)::int AS down,
-       count(*) FILTER (WHERE si.id IS NOT NULL AND s.currency = si.currency
-                          AND s.price = si.price)::int AS unchanged,
-       (SELECT count(*) FROM supplier_items x
-         WHERE x.supplier_id = :sup AND NOT x.dropped
-           AND NOT EXISTS (SELECT 1 FROM price_list_import_rows r
-                            WHERE r.import_id = :imp AND r.sku = x.sku))::int AS missing,
-       count(*) FILTER (WHERE si.part_id IS NULL AND gp.id IS NULL)::int AS unmapped
-       FROM s
-       LEFT JOIN supplier_items si ON si.supplier_id = :sup AND si.sku = s.sku
-       LEFT JOIN gp ON gp.g14 = lpad(s.gtin, 14, '0')`,
-    { imp: importId, sup: supplierId },
-  );
-  return result.rows[0];
-}
-
 export interface PriceChangeRow {
   line: number;
   sku: string;
@@ -337,35 +312,69 @@ export interface PriceChangeRow {
   percent: string;
 }
 
-export async function priceChanges(
+export interface PriceChanges {
+  upAverage: string | null;
+  downAverage: string | null;
+  largest: PriceChangeRow[];
+}
+
+/**
+ * The staged list beside what the supplier offers now: the preview's counts, the average price rise
+ * and fall, and the largest changes. The staged rows are joined with the supplier's items once and
+ * every figure is read from that join.
+ */
+export async function compare(
   k: Knex,
   importId: string,
   supplierId: string,
   limit: number,
-): Promise<{ upAverage: string | null; downAverage: string | null; largest: PriceChangeRow[] }> {
-  const changed = `FROM price_list_import_rows s
-                   JOIN supplier_items si ON si.supplier_id = :sup AND si.sku = s.sku
-                  WHERE s.import_id = :imp AND s.ok AND s.currency = si.currency
-                    AND s.price <> si.price`;
-  const averages = await k.raw<{ rows: { up: string | null; down: string | null }[] }>(
-    `SELECT round(avg((s.price - si.price) / si.price * 100)
-                  FILTER (WHERE s.price > si.price), 1)::text AS up,
-            round(avg((s.price - si.price) / si.price * 100)
-                  FILTER (WHERE s.price < si.price), 1)::text AS down
-       ${changed}`,
-    { imp: importId, sup: supplierId },
-  );
-  const largest = await k.raw<{ rows: PriceChangeRow[] }>(
-    `SELECT s.line, s.sku, s.description, si.price::text AS old_price, s.price::text AS new_price,
-            s.currency, round((s.price - si.price) / si.price * 100, 1)::text AS percent
-       ${changed}
-      ORDER BY abs(s.price - si.price) / si.price DESC, s.line
-      LIMIT :limit`,
+): Promise<{ comparison: Comparison; changes: PriceChanges }> {
+  const result = await k.raw<{
+    rows: (Comparison & { up_average: string | null; down_average: string | null } & {
+      largest: PriceChangeRow[];
+    })[];
+  }>(
+    `WITH gp AS (${GTIN_PARTS}),
+          j AS MATERIALIZED (
+            SELECT s.line, s.sku, s.description, s.price, s.currency, s.gtin,
+                   si.id AS item_id, si.part_id, si.price AS old_price, si.currency AS old_currency
+              FROM price_list_import_rows s
+              LEFT JOIN supplier_items si ON si.supplier_id = :sup AND si.sku = s.sku
+             WHERE s.import_id = :imp AND s.ok),
+          changed AS (
+            SELECT * FROM j
+             WHERE item_id IS NOT NULL AND currency = old_currency AND price <> old_price)
+     SELECT
+       count(*) FILTER (WHERE item_id IS NULL)::int AS new,
+       count(*) FILTER (WHERE item_id IS NOT NULL
+                          AND (currency <> old_currency OR price > old_price))::int AS up,
+       count(*) FILTER (WHERE item_id IS NOT NULL AND currency = old_currency
+                          AND price < old_price)::int AS down,
+       count(*) FILTER (WHERE item_id IS NOT NULL AND currency = old_currency
+                          AND price = old_price)::int AS unchanged,
+       (SELECT count(*) FROM supplier_items x
+         WHERE x.supplier_id = :sup AND NOT x.dropped
+           AND NOT EXISTS (SELECT 1 FROM price_list_import_rows r
+                            WHERE r.import_id = :imp AND r.sku = x.sku))::int AS missing,
+       count(*) FILTER (WHERE part_id IS NULL AND gp.id IS NULL)::int AS unmapped,
+       (SELECT round(avg((price - old_price) / old_price * 100) FILTER (WHERE price > old_price), 1)::text
+          FROM changed) AS up_average,
+       (SELECT round(avg((price - old_price) / old_price * 100) FILTER (WHERE price < old_price), 1)::text
+          FROM changed) AS down_average,
+       (SELECT coalesce(json_agg(json_build_object(
+                 'line', line, 'sku', sku, 'description', description,
+                 'old_price', old_price::text, 'new_price', price::text, 'currency', currency,
+                 'percent', round((price - old_price) / old_price * 100, 1)::text)
+               ORDER BY ratio DESC, line), '[]')
+          FROM (SELECT *, abs(price - old_price) / old_price AS ratio FROM changed
+                 ORDER BY ratio DESC, line LIMIT :limit) top) AS largest
+       FROM j
+       LEFT JOIN gp ON gp.g14 = lpad(j.gtin, 14, '0')`,
     { imp: importId, sup: supplierId, limit },
   );
+  const { up_average, down_average, largest, ...comparison } = result.rows[0];
   return {
-    upAverage: averages.rows[0]?.up ?? null,
-    downAverage: averages.rows[0]?.down ?? null,
-    largest: largest.rows,
+    comparison,
+    changes: { upAverage: up_average ?? null, downAverage: down_average ?? null, largest },
   };
 }

@@ -197,8 +197,7 @@ export async function previewPriceList(
 
     await repo.markProgress(trx, progressToken, 'comparing');
     await repo.analyzeStaging(trx);
-    const comparison = await repo.compare(trx, id, supplierId);
-    const changes = await repo.priceChanges(trx, id, supplierId, LARGEST_CHANGES);
+    const { comparison, changes } = await repo.compare(trx, id, supplierId, LARGEST_CHANGES);
     const sample = await repo.firstStaged(trx, id, SAMPLE_ROWS);
     await repo.updateImport(trx, id, {
       counts: { rows: counts.rows, ok: counts.ok, errors: counts.errors, ...comparison },
@@ -242,7 +241,7 @@ function sampleJson(r: repo.StagedRow): SampleRowJson {
   };
 }
 
-function changesJson(c: Awaited<ReturnType<typeof repo.priceChanges>>): PriceChangesJson {
+function changesJson(c: repo.PriceChanges): PriceChangesJson {
   return {
     upAveragePercent: c.upAverage,
     downAveragePercent: c.downAverage,
