@@ -35,24 +35,32 @@ function checkAddress(to: string): string {
   return address;
 }
 
+/** Inserts one outbox row unless its dedupe key was already used: its id, or null. */
+async function queueOnce(
+  trx: Knex.Transaction | Knex,
+  row: Record<string, unknown> & { to_address: string; dedupe_key: string | null },
+): Promise<string | null> {
+  const rows = await trx('outbox')
+    .insert(row)
+    .onConflict(trx.raw('(dedupe_key) WHERE dedupe_key IS NOT NULL'))
+    .ignore()
+    .returning('id');
+  return (rows[0] as { id: string } | undefined)?.id ?? null;
+}
+
 /** Queues one message; returns its outbox id, or null when its dedupe key was already used. */
 export async function enqueueMail(
   trx: Knex.Transaction | Knex,
   mail: OutgoingMail,
 ): Promise<string | null> {
-  const rows = await trx('outbox')
-    .insert({
-      to_address: checkAddress(mail.to),
-      subject: mail.subject,
-      body_text: mail.text,
-      body_html: mail.html ?? null,
-      attachments: JSON.stringify(mail.attachments ?? []),
-      dedupe_key: mail.dedupeKey ?? null,
-    })
-    .onConflict(trx.raw('(dedupe_key) WHERE dedupe_key IS NOT NULL'))
-    .ignore()
-    .returning('id');
-  return (rows[0] as { id: string } | undefined)?.id ?? null;
+  return queueOnce(trx, {
+    to_address: checkAddress(mail.to),
+    subject: mail.subject,
+    body_text: mail.text,
+    body_html: mail.html ?? null,
+    attachments: JSON.stringify(mail.attachments ?? []),
+    dedupe_key: mail.dedupeKey ?? null,
+  });
 }
 
 /** Queues a message the worker renders from a named template just before sending. */
@@ -60,17 +68,12 @@ export async function enqueueTemplated(
   trx: Knex.Transaction | Knex,
   mail: TemplatedMail,
 ): Promise<string | null> {
-  const rows = await trx('outbox')
-    .insert({
-      to_address: checkAddress(mail.to),
-      template: mail.template,
-      data: JSON.stringify(mail.data),
-      dedupe_key: mail.dedupeKey ?? null,
-    })
-    .onConflict(trx.raw('(dedupe_key) WHERE dedupe_key IS NOT NULL'))
-    .ignore()
-    .returning('id');
-  return (rows[0] as { id: string } | undefined)?.id ?? null;
+  return queueOnce(trx, {
+    to_address: checkAddress(mail.to),
+    template: mail.template,
+    data: JSON.stringify(mail.data),
+    dedupe_key: mail.dedupeKey ?? null,
+  });
 }
 
 /** Where mail to an erased person is kept pointing: a reserved domain that delivers nowhere. */
