@@ -2,7 +2,6 @@ import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/cor
 import { MatButtonModule } from '@angular/material/button';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
 import { MatIconModule } from '@angular/material/icon';
-import { MatTooltipModule } from '@angular/material/tooltip';
 import { RouterLink } from '@angular/router';
 
 import type { AlertJson, AlertsPageJson, AlertState } from '../../../shared/api/alerts';
@@ -14,13 +13,14 @@ import { AlertsApi, type MailMode } from './alerts-api';
 import { ShopDatePipe } from '../core/shop-date-pipe';
 import { PagedList } from '../ui/paged-list';
 import { ListState } from '../ui/list-state';
+import { PartBuyingLinks } from '../purchasing/part-buying-links';
 
 /** Parts that fell to their reorder point, newest first; the buyer marks each as seen. */
 @Component({
   selector: 'app-alert-list',
   imports: [
+    PartBuyingLinks,
     ListState,
-    MatTooltipModule,
     ShopDatePipe,
     MatButtonModule,
     MatButtonToggleModule,

@@ -2,7 +2,6 @@ import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@a
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatSlideToggleModule } from '@angular/material/slide-toggle';
-import { MatTooltipModule } from '@angular/material/tooltip';
 import { RouterLink } from '@angular/router';
 
 import type { DraftsJson, ReorderLineJson, RuleSource } from '../../../shared/api/purchasing';
@@ -14,6 +13,7 @@ import { DataTable } from '../ui/data-table';
 import { ListState } from '../ui/list-state';
 import { TableActions, TableColumn, TableEmpty } from '../ui/table-column';
 import { SearchField } from '../ui/list-fields';
+import { PartBuyingLinks } from './part-buying-links';
 
 const SOURCE_WORDS: Record<RuleSource, string> = {
   part: 'its own rule',
@@ -29,13 +29,13 @@ const SOURCE_WORDS: Record<RuleSource, string> = {
 @Component({
   selector: 'app-reorder-list',
   imports: [
+    PartBuyingLinks,
     DataTable,
     ListState,
     TableActions,
     TableColumn,
     TableEmpty,
     SearchField,
-    MatTooltipModule,
     MatButtonModule,
     MatIconModule,
     MatSlideToggleModule,
