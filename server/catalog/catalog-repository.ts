@@ -2,6 +2,7 @@
 // exposure list. Rows come out with database names; the service shapes them for the API.
 import type { Knex } from 'knex';
 import { db } from '../db/knex';
+import { insertRow, lockRow, updateRow } from '../db/rows';
 import { pageOf } from '../db/paging';
 import { familyEmptyStepsSql } from '../stock/part-needs-repository';
 import { containsPattern } from '../db/like-pattern';
@@ -98,16 +99,16 @@ export async function insertSeries(
   series: { code: string; name: string; unit: 'mm' | 'in'; custom: boolean },
   steps: { label: string; offset_nm: number }[],
 ): Promise<string> {
-  const [row] = await k('step_series').insert(series).returning<{ id: string }[]>('id');
+  const seriesId = await insertRow(k, 'step_series', series);
   await k('series_steps').insert(
     steps.map((s, position) => ({
-      series_id: row.id,
+      series_id: seriesId,
       position,
       label: s.label,
       offset_nm: s.offset_nm,
     })),
   );
-  return row.id;
+  return seriesId;
 }
 
 // ---- Engine families --------------------------------------------------------------------------
@@ -186,24 +187,16 @@ export async function findFamily(id: string, k: Knex = db): Promise<FamilyRow | 
   return row as FamilyRow | undefined;
 }
 
-export async function insertFamily(k: Knex, columns: FamilyColumns): Promise<string> {
-  const [row] = await k('engine_families').insert(columns).returning<{ id: string }[]>('id');
-  return row.id;
+export function insertFamily(k: Knex, columns: FamilyColumns): Promise<string> {
+  return insertRow(k, 'engine_families', columns);
 }
 
-export async function updateFamily(
-  k: Knex,
-  id: string,
-  columns: Partial<FamilyColumns>,
-): Promise<void> {
-  await k('engine_families')
-    .update({ ...columns, updated_at: k.fn.now() })
-    .where({ id });
+export function updateFamily(k: Knex, id: string, columns: Partial<FamilyColumns>): Promise<void> {
+  return updateRow(k, 'engine_families', id, columns);
 }
 
-export async function lockFamily(k: Knex, id: string): Promise<boolean> {
-  const row = await k('engine_families').select('id').where({ id }).forUpdate().first();
-  return Boolean(row);
+export function lockFamily(k: Knex, id: string): Promise<boolean> {
+  return lockRow(k, 'engine_families', id);
 }
 
 /** Parts of the family sized to a step: they tie the family to its step series. */

@@ -2,6 +2,7 @@
 // checks a part's fields need; catalog-repository.ts re-exports these with the rest of the catalog.
 import type { Knex } from 'knex';
 import { db } from '../db/knex';
+import { insertRow, lockRow, updateRow } from '../db/rows';
 import { pageOf } from '../db/paging';
 import type { PartKind } from '../../shared/api/catalog';
 import { containsPattern } from '../db/like-pattern';
@@ -152,24 +153,16 @@ export async function findPart(id: string, k: Knex = db): Promise<PartRow | unde
   return (await partBase(k).select(PART_COLUMNS).where('p.id', id).first()) as PartRow | undefined;
 }
 
-export async function insertPart(k: Knex, columns: PartColumns): Promise<string> {
-  const [row] = await k('parts').insert(columns).returning<{ id: string }[]>('id');
-  return row.id;
+export function insertPart(k: Knex, columns: PartColumns): Promise<string> {
+  return insertRow(k, 'parts', columns);
 }
 
-export async function updatePart(
-  k: Knex,
-  id: string,
-  columns: Partial<PartColumns>,
-): Promise<void> {
-  await k('parts')
-    .update({ ...columns, updated_at: k.fn.now() })
-    .where({ id });
+export function updatePart(k: Knex, id: string, columns: Partial<PartColumns>): Promise<void> {
+  return updateRow(k, 'parts', id, columns);
 }
 
-export async function lockPart(k: Knex, id: string): Promise<boolean> {
-  const row = await k('parts').select('id').where({ id }).forUpdate().first();
-  return Boolean(row);
+export function lockPart(k: Knex, id: string): Promise<boolean> {
+  return lockRow(k, 'parts', id);
 }
 
 export function componentsOf(kitIds: string[], k: Knex = db): Promise<ComponentRow[]> {

@@ -2,6 +2,7 @@
 // customer row is locked FOR UPDATE by whoever merges or erases it, so the two cannot interleave.
 import type { Knex } from 'knex';
 import { db } from '../db/knex';
+import { insertRow, updateRow } from '../db/rows';
 import { pageOf } from '../db/paging';
 import { containsPattern } from '../db/like-pattern';
 import type { JobState } from '../../shared/api/jobs';
@@ -142,7 +143,7 @@ export async function findByContact(
     .first()) as CustomerRow | undefined;
 }
 
-export async function insertCustomer(
+export function insertCustomer(
   trx: Knex,
   row: {
     name: string;
@@ -152,18 +153,15 @@ export async function insertCustomer(
     notes: string;
   },
 ): Promise<string> {
-  const [created] = await trx('customers').insert(row).returning<{ id: string }[]>('id');
-  return created.id;
+  return insertRow(trx, 'customers', row);
 }
 
-export async function updateCustomer(
+export function updateCustomer(
   trx: Knex,
   id: string,
   changes: Record<string, unknown>,
 ): Promise<void> {
-  await trx('customers')
-    .update({ ...changes, updated_at: trx.fn.now() })
-    .where({ id });
+  return updateRow(trx, 'customers', id, changes);
 }
 
 export async function deleteCustomer(trx: Knex, id: string): Promise<void> {
@@ -268,7 +266,7 @@ export async function findCylinderByMark(
     .first();
 }
 
-export async function insertCylinder(
+export function insertCylinder(
   trx: Knex,
   row: {
     customer_id: string;
@@ -278,8 +276,7 @@ export async function insertCylinder(
     created_by: string | null;
   },
 ): Promise<string> {
-  const [created] = await trx('cylinders').insert(row).returning<{ id: string }[]>('id');
-  return created.id;
+  return insertRow(trx, 'cylinders', row);
 }
 
 /**

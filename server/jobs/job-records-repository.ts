@@ -2,6 +2,7 @@
 // queries under a job, beside the job's own in jobs-repository.ts (which re-exports these).
 import type { Knex } from 'knex';
 import { db } from '../db/knex';
+import { insertRow } from '../db/rows';
 import type { Axis, Depth } from '../../shared/bore-wear';
 import type { LengthUnit } from '../../shared/lengths';
 
@@ -194,7 +195,7 @@ export async function countPhotos(trx: Knex, jobId: string): Promise<number> {
   return Number(count);
 }
 
-export async function insertPhoto(
+export function insertPhoto(
   trx: Knex,
   photo: {
     job_id: string;
@@ -207,8 +208,7 @@ export async function insertPhoto(
     created_by: string | null;
   },
 ): Promise<string> {
-  const [row] = await trx('job_photos').insert(photo).returning<{ id: string }[]>('id');
-  return row.id;
+  return insertRow(trx, 'job_photos', photo);
 }
 
 export async function photoBytes(

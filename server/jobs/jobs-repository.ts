@@ -5,6 +5,7 @@
 // KEY keeps inserts that merely reference the job (notes, ledger rows) from waiting on it.
 import type { Knex } from 'knex';
 import { db } from '../db/knex';
+import { updateRow } from '../db/rows';
 import { pageOf } from '../db/paging';
 import { containsPattern } from '../db/like-pattern';
 import { OPEN_STATES, type JobState } from '../../shared/api/jobs';
@@ -190,14 +191,8 @@ export async function lockJob(
   return (await locked.first()) as JobRow | undefined;
 }
 
-export async function updateJob(
-  trx: Knex,
-  id: string,
-  changes: Record<string, unknown>,
-): Promise<void> {
-  await trx('jobs')
-    .update({ ...changes, updated_at: trx.fn.now() })
-    .where({ id });
+export function updateJob(trx: Knex, id: string, changes: Record<string, unknown>): Promise<void> {
+  return updateRow(trx, 'jobs', id, changes);
 }
 
 export async function setJobState(trx: Knex, id: string, state: JobState): Promise<void> {

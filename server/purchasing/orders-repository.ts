@@ -1,6 +1,7 @@
 // Queries for purchase orders, their lines and receipts, and jobs waiting on order lines.
 import type { Knex } from 'knex';
 import { db } from '../db/knex';
+import { lockRow, updateRow } from '../db/rows';
 import type { OrderState, OrdersQuery } from '../../shared/api/purchasing';
 export * from './waits-repository';
 
@@ -72,8 +73,7 @@ export async function findOrder(id: string, k: Knex = db): Promise<OrderRow | un
 }
 
 export async function lockOrder(k: Knex, id: string): Promise<OrderRow | undefined> {
-  const locked = await k('purchase_orders').where({ id }).forUpdate().first('id');
-  if (!locked) return undefined;
+  if (!(await lockRow(k, 'purchase_orders', id))) return undefined;
   return findOrder(id, k);
 }
 
@@ -194,7 +194,7 @@ export async function replaceLines(
   );
 }
 
-export async function updateOrder(
+export function updateOrder(
   k: Knex,
   id: string,
   patch: Partial<{
@@ -209,9 +209,7 @@ export async function updateOrder(
     shipping_cost: string;
   }>,
 ): Promise<void> {
-  await k('purchase_orders')
-    .where({ id })
-    .update({ ...patch, updated_at: k.fn.now() });
+  return updateRow(k, 'purchase_orders', id, patch);
 }
 
 export async function lineTotals(

@@ -1,6 +1,7 @@
 // Queries for reorder rules, defaults, the reorder list and the issue history behind a suggestion.
 import type { Knex } from 'knex';
 import { db } from '../db/knex';
+import { updateRow } from '../db/rows';
 import type { ReorderListQuery, RuleSource } from '../../shared/api/purchasing';
 
 export interface ReorderPartRow {
@@ -127,14 +128,12 @@ export async function lockPart(
   return k('parts').where({ id }).forUpdate().first('reorder_point', 'order_up_to');
 }
 
-export async function setPartRule(
+export function setPartRule(
   k: Knex,
   id: string,
   rule: { reorder_point: number | null; order_up_to: number | null },
 ): Promise<void> {
-  await k('parts')
-    .where({ id })
-    .update({ ...rule, updated_at: k.fn.now() });
+  return updateRow(k, 'parts', id, rule);
 }
 
 /** One part's demand over the shop's calendar days in [from, to). */

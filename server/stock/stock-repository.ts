@@ -2,6 +2,7 @@
 // caller's transaction; the row locks (FOR UPDATE) order concurrent changes to one part.
 import type { Knex } from 'knex';
 import { db } from '../db/knex';
+import { insertRow } from '../db/rows';
 import { pageOf } from '../db/paging';
 import { containsPattern } from '../db/like-pattern';
 import type { PartKind, UnitStatus } from '../../shared/api/catalog';
@@ -116,9 +117,8 @@ export async function findBin(
   return k('bins').select('id', 'code').where({ id }).first();
 }
 
-export async function insertBin(k: Knex, bin: { code: string; name: string }): Promise<string> {
-  const [row] = await k('bins').insert(bin).returning<{ id: string }[]>('id');
-  return row.id;
+export function insertBin(k: Knex, bin: { code: string; name: string }): Promise<string> {
+  return insertRow(k, 'bins', bin);
 }
 
 export async function binById(id: string, k: Knex = db): Promise<BinRow | undefined> {

@@ -2,6 +2,7 @@
 // mapping queue with its suggestions.
 import type { Knex } from 'knex';
 import { db } from '../db/knex';
+import { insertRow, updateRow } from '../db/rows';
 import { pageOf } from '../db/paging';
 import { containsPattern } from '../db/like-pattern';
 
@@ -127,15 +128,12 @@ export async function lockSupplier(k: Knex, id: string): Promise<SupplierRow | u
   return (await k('suppliers').where('id', id).forUpdate().first()) as SupplierRow | undefined;
 }
 
-export async function insertSupplier(k: Knex, columns: SupplierColumns): Promise<string> {
-  const [row] = await k('suppliers').insert(columns).returning('id');
-  return row.id as string;
+export function insertSupplier(k: Knex, columns: SupplierColumns): Promise<string> {
+  return insertRow(k, 'suppliers', columns);
 }
 
-export async function updateSupplier(k: Knex, id: string, columns: SupplierColumns): Promise<void> {
-  await k('suppliers')
-    .where('id', id)
-    .update({ ...columns, updated_at: k.fn.now() });
+export function updateSupplier(k: Knex, id: string, columns: SupplierColumns): Promise<void> {
+  return updateRow(k, 'suppliers', id, columns);
 }
 
 // ---- Items --------------------------------------------------------------------------------------
