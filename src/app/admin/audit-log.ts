@@ -8,13 +8,10 @@ import {
   linkedSignal,
 } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
-import { MatDatepickerModule } from '@angular/material/datepicker';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
-import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
 import { RouterLink } from '@angular/router';
-import type { DateTime } from 'luxon';
 
 import {
   AUDIT_ID_FIELDS,
@@ -23,7 +20,6 @@ import {
   type AuditPageJson,
   type AuditRefJson,
 } from '../../../shared/api/audit';
-import { dayOf } from '../core/shop-date-adapter';
 import { DataTable } from '../ui/data-table';
 import { TableColumn, TableEmpty } from '../ui/table-column';
 import { AuditApi } from './audit-api';
@@ -31,6 +27,7 @@ import { actionWords, entityWords, fieldChanges, type FieldChange } from './audi
 import { ShopDatePipe } from '../core/shop-date-pipe';
 import { PagedList } from '../ui/paged-list';
 import { ListState } from '../ui/list-state';
+import { FilterDate } from '../ui/filter-date';
 
 /** "jobId" reads "job", "toBinId" "to bin", "unitPrice" "unit price". */
 function idFieldName(field: string): string {
@@ -61,14 +58,13 @@ type AuditFilters = {
 @Component({
   selector: 'app-audit-log',
   imports: [
+    FilterDate,
     ListState,
     NgTemplateOutlet,
     ShopDatePipe,
     MatButtonModule,
-    MatDatepickerModule,
     MatFormFieldModule,
     MatIconModule,
-    MatInputModule,
     MatSelectModule,
     DataTable,
     TableColumn,
@@ -176,10 +172,6 @@ export class AuditLog {
 
   protected onEntity(entity: string): void {
     this.list.setFilters({ entity, entityId: '' });
-  }
-
-  protected day(value: DateTime | null): string {
-    return dayOf(value) ?? '';
   }
 
   protected clearFilters(): void {

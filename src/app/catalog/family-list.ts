@@ -1,7 +1,6 @@
 import { ChangeDetectionStrategy, Component, computed, inject } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
-import { MatTooltipModule } from '@angular/material/tooltip';
 import { Router, RouterLink } from '@angular/router';
 
 import type { FamilyJson } from '../../../shared/api/catalog';
@@ -13,6 +12,7 @@ import { TableColumn, TableEmpty } from '../ui/table-column';
 import { CatalogApi } from './catalog-api';
 import { ListState } from '../ui/list-state';
 import { SearchField } from '../ui/list-fields';
+import { IconLink } from '../ui/icon-link';
 
 const SORTABLE = ['code', 'name', 'standardBore', 'strokeType'] as const;
 
@@ -22,7 +22,7 @@ const SORTABLE = ['code', 'name', 'standardBore', 'strokeType'] as const;
   imports: [
     SearchField,
     ListState,
-    MatTooltipModule,
+    IconLink,
     LengthPipe,
     MatButtonModule,
     MatIconModule,

@@ -1,8 +1,6 @@
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
-import { MatButtonModule } from '@angular/material/button';
-import { MatIconModule } from '@angular/material/icon';
-import { MatTooltipModule } from '@angular/material/tooltip';
-import { RouterLink } from '@angular/router';
+
+import { IconLink } from '../ui/icon-link';
 
 /**
  * A part's two buying links at the end of a row, named for the part: who has it (the sourcing
@@ -11,25 +9,19 @@ import { RouterLink } from '@angular/router';
  */
 @Component({
   selector: 'app-part-buying-links',
-  imports: [MatButtonModule, MatIconModule, MatTooltipModule, RouterLink],
+  imports: [IconLink],
   template: `
-    <a
-      mat-icon-button
-      [routerLink]="['/purchasing/sourcing']"
-      [queryParams]="sourcingQuery()"
-      [attr.aria-label]="'Who has ' + sku()"
-      [matTooltip]="'Who has ' + sku()"
-    >
-      <mat-icon>travel_explore</mat-icon>
-    </a>
-    <a
-      mat-icon-button
-      [routerLink]="['/purchasing/reorder', partId()]"
-      [attr.aria-label]="'Reorder rule of ' + sku()"
-      [matTooltip]="'Reorder rule of ' + sku()"
-    >
-      <mat-icon>tune</mat-icon>
-    </a>
+    <app-icon-link
+      icon="travel_explore"
+      [link]="['/purchasing/sourcing']"
+      [query]="sourcingQuery()"
+      [label]="'Who has ' + sku()"
+    />
+    <app-icon-link
+      icon="tune"
+      [link]="['/purchasing/reorder', partId()]"
+      [label]="'Reorder rule of ' + sku()"
+    />
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,
 })

@@ -1,7 +1,6 @@
 import { ChangeDetectionStrategy, Component, computed, inject } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
-import { MatTooltipModule } from '@angular/material/tooltip';
 import { Router, RouterLink } from '@angular/router';
 
 import type { SupplierJson } from '../../../shared/api/suppliers';
@@ -13,6 +12,7 @@ import { SuppliersApi } from './suppliers-api';
 import { ShopDatePipe } from '../core/shop-date-pipe';
 import { ListState } from '../ui/list-state';
 import { SearchField } from '../ui/list-fields';
+import { IconLink } from '../ui/icon-link';
 
 const SORTABLE = ['name', 'currency', 'leadDays', 'items', 'lastImport'] as const;
 
@@ -22,7 +22,7 @@ const SORTABLE = ['name', 'currency', 'leadDays', 'items', 'lastImport'] as cons
   imports: [
     SearchField,
     ListState,
-    MatTooltipModule,
+    IconLink,
     ShopDatePipe,
     MatButtonModule,
     MatIconModule,
