@@ -1,7 +1,5 @@
 import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
-import { MatButtonModule } from '@angular/material/button';
-import { MatDialogModule } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
@@ -13,7 +11,7 @@ import { ROLE_LABELS, ROLE_SUMMARIES } from '../core/role-labels';
 import { UsersApi, type UserRow } from './users-api';
 import { DialogSave } from '../ui/dialog-save';
 import { RevealPassword } from '../ui/reveal-password';
-import { FormAlert } from '../ui/form-alert';
+import { DialogForm } from '../ui/dialog-form';
 
 const FIELDS = ['name', 'email', 'role', 'password'] as const;
 type Field = (typeof FIELDS)[number];
@@ -26,9 +24,7 @@ function isField(name: string): name is Field {
 @Component({
   selector: 'app-user-add-dialog',
   imports: [
-    FormAlert,
-    MatButtonModule,
-    MatDialogModule,
+    DialogForm,
     MatFormFieldModule,
     MatInputModule,
     MatSelectModule,

@@ -1,7 +1,6 @@
 import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
-import { MatDialogModule } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
@@ -18,7 +17,7 @@ import {
 } from '../../../shared/step-series';
 import { CatalogApi } from './catalog-api';
 import { DialogSave } from '../ui/dialog-save';
-import { FormAlert } from '../ui/form-alert';
+import { DialogForm } from '../ui/dialog-form';
 
 interface Preset {
   label: string;
@@ -56,59 +55,56 @@ const PRESETS: Preset[] = [
 @Component({
   selector: 'app-step-series-dialog',
   imports: [
-    FormAlert,
+    DialogForm,
     MatButtonModule,
-    MatDialogModule,
     MatFormFieldModule,
     MatInputModule,
     MatSelectModule,
     ReactiveFormsModule,
   ],
   template: `
-    <h2 mat-dialog-title>New step series</h2>
-    <form [formGroup]="form" (ngSubmit)="submit()" novalidate>
-      <mat-dialog-content class="dialog-form">
-        <app-form-alert [message]="save.problem()" />
-        <p class="presets">
-          Start from:
-          @for (p of presets; track p.code) {
-            <button mat-stroked-button type="button" (click)="usePreset(p)">{{ p.label }}</button>
-          }
-        </p>
-        <mat-form-field appearance="outline" subscriptSizing="dynamic">
-          <mat-label>Code</mat-label>
-          <input matInput formControlName="code" autocomplete="off" required />
-        </mat-form-field>
-        <mat-form-field appearance="outline" subscriptSizing="dynamic">
-          <mat-label>Name</mat-label>
-          <input matInput formControlName="name" autocomplete="off" required />
-        </mat-form-field>
-        <mat-form-field appearance="outline" subscriptSizing="dynamic">
-          <mat-label>Steps are named in</mat-label>
-          <mat-select formControlName="unit">
-            <mat-option value="mm">millimetres</mat-option>
-            <mat-option value="in">inches</mat-option>
-          </mat-select>
-        </mat-form-field>
-        <mat-form-field appearance="outline" subscriptSizing="dynamic">
-          <mat-label>Oversizes</mat-label>
-          <input matInput formControlName="offsets" autocomplete="off" required />
-          <mat-hint
-            >Ascending, separated by spaces or semicolons, e.g. 0.25; 0.50; 0.75; 1.00</mat-hint
-          >
-          @if (offsetsError()) {
-            <mat-error>{{ offsetsError() }}</mat-error>
-          }
-        </mat-form-field>
-        @if (preview().length) {
-          <p class="preview">Steps: {{ preview().join(' · ') }}</p>
+    <app-dialog-form
+      heading="New step series"
+      [formGroup]="form"
+      (ngSubmit)="submit()"
+      [save]="save"
+      action="Add series"
+    >
+      <p class="presets">
+        Start from:
+        @for (p of presets; track p.code) {
+          <button mat-stroked-button type="button" (click)="usePreset(p)">{{ p.label }}</button>
         }
-      </mat-dialog-content>
-      <mat-dialog-actions align="end">
-        <button mat-button type="button" mat-dialog-close>Cancel</button>
-        <button mat-flat-button type="submit" [disabled]="save.busy()">Add series</button>
-      </mat-dialog-actions>
-    </form>
+      </p>
+      <mat-form-field appearance="outline" subscriptSizing="dynamic">
+        <mat-label>Code</mat-label>
+        <input matInput formControlName="code" autocomplete="off" required />
+      </mat-form-field>
+      <mat-form-field appearance="outline" subscriptSizing="dynamic">
+        <mat-label>Name</mat-label>
+        <input matInput formControlName="name" autocomplete="off" required />
+      </mat-form-field>
+      <mat-form-field appearance="outline" subscriptSizing="dynamic">
+        <mat-label>Steps are named in</mat-label>
+        <mat-select formControlName="unit">
+          <mat-option value="mm">millimetres</mat-option>
+          <mat-option value="in">inches</mat-option>
+        </mat-select>
+      </mat-form-field>
+      <mat-form-field appearance="outline" subscriptSizing="dynamic">
+        <mat-label>Oversizes</mat-label>
+        <input matInput formControlName="offsets" autocomplete="off" required />
+        <mat-hint
+          >Ascending, separated by spaces or semicolons, e.g. 0.25; 0.50; 0.75; 1.00</mat-hint
+        >
+        @if (offsetsError()) {
+          <mat-error>{{ offsetsError() }}</mat-error>
+        }
+      </mat-form-field>
+      @if (preview().length) {
+        <p class="preview">Steps: {{ preview().join(' · ') }}</p>
+      }
+    </app-dialog-form>
   `,
   styles: `
     .presets {

@@ -1,7 +1,7 @@
 import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
-import { MAT_DIALOG_DATA, MatDialogModule } from '@angular/material/dialog';
+import { MAT_DIALOG_DATA } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 
@@ -10,65 +10,57 @@ import type { StockChangeJson } from '../../../shared/api/stock';
 import { PartPicker } from './part-picker';
 import { StockApi } from './stock-api';
 import { DialogSave } from '../ui/dialog-save';
-import { FormAlert } from '../ui/form-alert';
+import { DialogForm } from '../ui/dialog-form';
 
 /** Corrects a counted part's on-hand after a count (+ found, − missing), with the reason. */
 @Component({
   selector: 'app-adjust-dialog',
   imports: [
-    FormAlert,
+    DialogForm,
     MatButtonModule,
-    MatDialogModule,
     MatFormFieldModule,
     MatInputModule,
     PartPicker,
     ReactiveFormsModule,
   ],
   template: `
-    <h2 mat-dialog-title>Correct a count</h2>
-    <form [formGroup]="form" (ngSubmit)="submit()" novalidate>
-      <mat-dialog-content class="dialog-form">
-        <app-form-alert [message]="save.problem()" />
-        @if (part(); as p) {
-          <p>
-            <strong>{{ p.sku }}</strong> {{ p.description }}<br />
-            On hand {{ p.onHand }}, held {{ p.held }}, free {{ p.free }}
-            @if (!data) {
-              <button mat-button type="button" (click)="part.set(null)">Change</button>
-            }
-          </p>
-          @if (p.kind === 'piston') {
-            <p class="note">
-              Pistons are counted one by one: scrap a missing one from its row under Pistons, or
-              receive a found one.
-            </p>
+    <app-dialog-form
+      heading="Correct a count"
+      [formGroup]="form"
+      (ngSubmit)="submit()"
+      [save]="save"
+      action="Save"
+      [blocked]="!part() || part()?.kind === 'piston'"
+    >
+      @if (part(); as p) {
+        <p>
+          <strong>{{ p.sku }}</strong> {{ p.description }}<br />
+          On hand {{ p.onHand }}, held {{ p.held }}, free {{ p.free }}
+          @if (!data) {
+            <button mat-button type="button" (click)="part.set(null)">Change</button>
           }
-        } @else {
-          <app-part-picker label="Part counted" (picked)="part.set($event)" />
+        </p>
+        @if (p.kind === 'piston') {
+          <p class="note">
+            Pistons are counted one by one: scrap a missing one from its row under Pistons, or
+            receive a found one.
+          </p>
         }
-        <mat-form-field appearance="outline">
-          <mat-label>Change</mat-label>
-          <input matInput type="number" formControlName="quantity" required />
-          <mat-hint>+2 when two more were found, −3 when three are missing</mat-hint>
-          <mat-error>A whole number other than 0.</mat-error>
-        </mat-form-field>
-        <mat-form-field appearance="outline">
-          <mat-label>Reason</mat-label>
-          <input matInput formControlName="reason" autocomplete="off" required />
-          <mat-error>Say why the count changes.</mat-error>
-        </mat-form-field>
-      </mat-dialog-content>
-      <mat-dialog-actions align="end">
-        <button mat-button type="button" mat-dialog-close>Cancel</button>
-        <button
-          mat-flat-button
-          type="submit"
-          [disabled]="save.busy() || !part() || part()?.kind === 'piston'"
-        >
-          Save
-        </button>
-      </mat-dialog-actions>
-    </form>
+      } @else {
+        <app-part-picker label="Part counted" (picked)="part.set($event)" />
+      }
+      <mat-form-field appearance="outline">
+        <mat-label>Change</mat-label>
+        <input matInput type="number" formControlName="quantity" required />
+        <mat-hint>+2 when two more were found, −3 when three are missing</mat-hint>
+        <mat-error>A whole number other than 0.</mat-error>
+      </mat-form-field>
+      <mat-form-field appearance="outline">
+        <mat-label>Reason</mat-label>
+        <input matInput formControlName="reason" autocomplete="off" required />
+        <mat-error>Say why the count changes.</mat-error>
+      </mat-form-field>
+    </app-dialog-form>
   `,
   // p.note, not .note as in the measure dialog: see ui/list-fields.ts on identical inline styles
   styles: `

@@ -1,7 +1,6 @@
 import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
-import { MatButtonModule } from '@angular/material/button';
-import { MAT_DIALOG_DATA, MatDialogModule } from '@angular/material/dialog';
+import { MAT_DIALOG_DATA } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 
@@ -12,57 +11,47 @@ import { Session } from '../core/session';
 import { lengthText, lengthValidator, otherUnitHint } from '../ui/length-input';
 import { StockApi } from './stock-api';
 import { DialogSave } from '../ui/dialog-save';
-import { FormAlert } from '../ui/form-alert';
+import { DialogForm } from '../ui/dialog-form';
 
 /** Records a piston's measured skirt diameter; closes with the change. */
 @Component({
   selector: 'app-measure-dialog',
-  imports: [
-    FormAlert,
-    LengthPipe,
-    MatButtonModule,
-    MatDialogModule,
-    MatFormFieldModule,
-    MatInputModule,
-    ReactiveFormsModule,
-  ],
+  imports: [DialogForm, LengthPipe, MatFormFieldModule, MatInputModule, ReactiveFormsModule],
   template: `
-    <h2 mat-dialog-title>Measure {{ unit.label }}</h2>
-    <form [formGroup]="form" (ngSubmit)="submit()" novalidate>
-      <mat-dialog-content class="dialog-form">
-        <app-form-alert [message]="save.problem()" />
-        <p>
-          {{ unit.sku }} · {{ unit.stepLabel }}
-          @if (unit.nominalBore) {
-            · bore {{ unit.nominalBore | length }}
-          }
-          @if (unit.skirt) {
-            · measured before: {{ unit.skirt | length }}
-          }
-        </p>
-        <p class="note">Across the skirt at the maker's height, at 90° to the pin.</p>
-        <mat-form-field appearance="outline">
-          <mat-label>Skirt diameter</mat-label>
-          <input
-            matInput
-            formControlName="skirt"
-            inputmode="decimal"
-            autocomplete="off"
-            required
-            cdkFocusInitial
-          />
-          <span matTextSuffix>{{ session.unit() }}</span>
-          @if (hint(); as h) {
-            <mat-hint>{{ h }}</mat-hint>
-          }
-          <mat-error>{{ error() }}</mat-error>
-        </mat-form-field>
-      </mat-dialog-content>
-      <mat-dialog-actions align="end">
-        <button mat-button type="button" mat-dialog-close>Cancel</button>
-        <button mat-flat-button type="submit" [disabled]="save.busy()">Save size</button>
-      </mat-dialog-actions>
-    </form>
+    <app-dialog-form
+      [heading]="'Measure ' + unit.label"
+      [formGroup]="form"
+      (ngSubmit)="submit()"
+      [save]="save"
+      action="Save size"
+    >
+      <p>
+        {{ unit.sku }} · {{ unit.stepLabel }}
+        @if (unit.nominalBore) {
+          · bore {{ unit.nominalBore | length }}
+        }
+        @if (unit.skirt) {
+          · measured before: {{ unit.skirt | length }}
+        }
+      </p>
+      <p class="note">Across the skirt at the maker's height, at 90° to the pin.</p>
+      <mat-form-field appearance="outline">
+        <mat-label>Skirt diameter</mat-label>
+        <input
+          matInput
+          formControlName="skirt"
+          inputmode="decimal"
+          autocomplete="off"
+          required
+          cdkFocusInitial
+        />
+        <span matTextSuffix>{{ session.unit() }}</span>
+        @if (hint(); as h) {
+          <mat-hint>{{ h }}</mat-hint>
+        }
+        <mat-error>{{ error() }}</mat-error>
+      </mat-form-field>
+    </app-dialog-form>
   `,
   styles: `
     .note {

@@ -1,8 +1,7 @@
 import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
-import { MatButtonModule } from '@angular/material/button';
-import { MAT_DIALOG_DATA, MatDialogModule } from '@angular/material/dialog';
+import { MAT_DIALOG_DATA } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatSelectModule } from '@angular/material/select';
 import { catchError, map, of } from 'rxjs';
@@ -10,7 +9,7 @@ import { catchError, map, of } from 'rxjs';
 import type { BinJson, StockChangeJson } from '../../../shared/api/stock';
 import { StockApi } from './stock-api';
 import { DialogSave } from '../ui/dialog-save';
-import { FormAlert } from '../ui/form-alert';
+import { DialogForm } from '../ui/dialog-form';
 
 /** What moves: one piston (by its unit) or all of a counted part. */
 export interface MoveTarget {
@@ -24,42 +23,33 @@ export interface MoveTarget {
 /** Moves a piston, or all of a counted part, to another bin; closes with the change. */
 @Component({
   selector: 'app-move-dialog',
-  imports: [
-    FormAlert,
-    MatButtonModule,
-    MatDialogModule,
-    MatFormFieldModule,
-    MatSelectModule,
-    ReactiveFormsModule,
-  ],
+  imports: [DialogForm, MatFormFieldModule, MatSelectModule, ReactiveFormsModule],
   template: `
-    <h2 mat-dialog-title>Move {{ data.name }}</h2>
-    <form [formGroup]="form" (ngSubmit)="submit()" novalidate>
-      <mat-dialog-content class="dialog-form">
-        <app-form-alert [message]="save.problem()" />
-        <mat-form-field appearance="outline">
-          <mat-label>To bin</mat-label>
-          <mat-select formControlName="toBinId" required>
-            @for (b of bins(); track b.id) {
-              <mat-option [value]="b.id" [disabled]="b.id === data.binId">
-                {{ b.code }}
-                @if (b.name) {
-                  — {{ b.name }}
-                }
-                @if (b.id === data.binId) {
-                  (here now)
-                }
-              </mat-option>
-            }
-          </mat-select>
-          <mat-error>Choose the bin it goes to.</mat-error>
-        </mat-form-field>
-      </mat-dialog-content>
-      <mat-dialog-actions align="end">
-        <button mat-button type="button" mat-dialog-close>Cancel</button>
-        <button mat-flat-button type="submit" [disabled]="save.busy()">Move</button>
-      </mat-dialog-actions>
-    </form>
+    <app-dialog-form
+      [heading]="'Move ' + data.name"
+      [formGroup]="form"
+      (ngSubmit)="submit()"
+      [save]="save"
+      action="Move"
+    >
+      <mat-form-field appearance="outline">
+        <mat-label>To bin</mat-label>
+        <mat-select formControlName="toBinId" required>
+          @for (b of bins(); track b.id) {
+            <mat-option [value]="b.id" [disabled]="b.id === data.binId">
+              {{ b.code }}
+              @if (b.name) {
+                — {{ b.name }}
+              }
+              @if (b.id === data.binId) {
+                (here now)
+              }
+            </mat-option>
+          }
+        </mat-select>
+        <mat-error>Choose the bin it goes to.</mat-error>
+      </mat-form-field>
+    </app-dialog-form>
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,
 })

@@ -1,50 +1,36 @@
 import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
-import { MatButtonModule } from '@angular/material/button';
-import { MAT_DIALOG_DATA, MatDialogModule } from '@angular/material/dialog';
+import { MAT_DIALOG_DATA } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 
 import type { StockChangeJson, UnitJson } from '../../../shared/api/stock';
 import { StockApi } from './stock-api';
 import { DialogSave } from '../ui/dialog-save';
-import { FormAlert } from '../ui/form-alert';
+import { DialogForm } from '../ui/dialog-form';
 
 /** Writes a piston off (damaged, dropped, missing at a count), with the reason on record. */
 @Component({
   selector: 'app-scrap-dialog',
-  imports: [
-    FormAlert,
-    MatButtonModule,
-    MatDialogModule,
-    MatFormFieldModule,
-    MatInputModule,
-    ReactiveFormsModule,
-  ],
+  imports: [DialogForm, MatFormFieldModule, MatInputModule, ReactiveFormsModule],
   template: `
-    <h2 mat-dialog-title>Scrap {{ unit.label }}?</h2>
-    <form [formGroup]="form" (ngSubmit)="submit()" novalidate>
-      <mat-dialog-content class="dialog-form">
-        <app-form-alert [message]="save.problem()" />
-        <p>It leaves stock for good; the ledger keeps who did it and why.</p>
-        <mat-form-field appearance="outline">
-          <mat-label>Reason</mat-label>
-          <input matInput formControlName="reason" autocomplete="off" required cdkFocusInitial />
-          <mat-hint>e.g. skirt scored, dropped, missing at the count</mat-hint>
-          <mat-error>Say why it is scrapped.</mat-error>
-        </mat-form-field>
-      </mat-dialog-content>
-      <mat-dialog-actions align="end">
-        <button mat-button type="button" mat-dialog-close>Keep it</button>
-        <button mat-flat-button type="submit" class="danger" [disabled]="save.busy()">Scrap</button>
-      </mat-dialog-actions>
-    </form>
-  `,
-  styles: `
-    .danger {
-      --mat-button-filled-container-color: var(--mat-sys-error);
-      --mat-button-filled-label-text-color: var(--mat-sys-on-error);
-    }
+    <app-dialog-form
+      [heading]="'Scrap ' + unit.label + '?'"
+      [formGroup]="form"
+      (ngSubmit)="submit()"
+      [save]="save"
+      action="Scrap"
+      cancel="Keep it"
+      danger
+    >
+      <p>It leaves stock for good; the ledger keeps who did it and why.</p>
+      <mat-form-field appearance="outline">
+        <mat-label>Reason</mat-label>
+        <input matInput formControlName="reason" autocomplete="off" required cdkFocusInitial />
+        <mat-hint>e.g. skirt scored, dropped, missing at the count</mat-hint>
+        <mat-error>Say why it is scrapped.</mat-error>
+      </mat-form-field>
+    </app-dialog-form>
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
