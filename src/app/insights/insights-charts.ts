@@ -27,7 +27,8 @@ export interface BarChart {
   summary: string;
 }
 
-function axisOptions(money: string | null, title?: string) {
+/** A figure axis from zero: amounts in the currency given (short, "€12K"), counts otherwise. */
+export function axisOptions(money: string | null, title?: string) {
   return {
     beginAtZero: true,
     grid: { color: GRID },
@@ -47,6 +48,33 @@ function baseOptions(): ChartOptions<'bar'> {
       tooltip: { mode: 'index', intersect: false },
     },
     scales: { x: { grid: { display: false }, ticks: { color: INK } } },
+  };
+}
+
+/**
+ * Bars stacked per label (a family's steps, a month's labour and parts), the legend below, over the
+ * figure axis given; several charts share it so their stacks read alike.
+ */
+export function stackedBarOptions(y: ReturnType<typeof axisOptions>): ChartOptions<'bar'> {
+  const options = baseOptions();
+  options.scales = {
+    x: { stacked: true, grid: { display: false }, ticks: { color: INK } },
+    y: { stacked: true, ...y },
+  };
+  return options;
+}
+
+/** A line drawn over the bars on the right-hand axis (y1): Chart.js mixes chart types per dataset. */
+function lineOverBars(label: string, data: number[]) {
+  return {
+    type: 'line' as unknown as 'bar',
+    label,
+    data,
+    borderColor: LINE_COLOUR,
+    backgroundColor: LINE_COLOUR,
+    borderWidth: 2,
+    yAxisID: 'y1',
+    order: 1,
   };
 }
 
@@ -80,11 +108,7 @@ export function salesByFamilyChart(answer: SalesAnswer, measure: Measure): BarCh
     stack: 'steps',
   }));
   const money = measure === 'units' ? null : answer.currency;
-  const options = baseOptions();
-  options.scales = {
-    x: { stacked: true, grid: { display: false }, ticks: { color: INK } },
-    y: { stacked: true, ...axisOptions(money, measureLabel(measure)) },
-  };
+  const options = stackedBarOptions(axisOptions(money, measureLabel(measure)));
   options.plugins = {
     ...options.plugins,
     tooltip: {
@@ -133,17 +157,10 @@ export function monthlyChart(answer: MonthlyAnswer, currency: string): BarChart 
           yAxisID: 'y',
           order: 2,
         },
-        {
-          // A line over the bars: Chart.js mixes chart types per dataset.
-          type: 'line' as unknown as 'bar',
-          label: 'Units',
-          data: answer.months.map((m) => m.units),
-          borderColor: LINE_COLOUR,
-          backgroundColor: LINE_COLOUR,
-          borderWidth: 2,
-          yAxisID: 'y1',
-          order: 1,
-        },
+        lineOverBars(
+          'Units',
+          answer.months.map((m) => m.units),
+        ),
       ],
     },
     options,
@@ -241,16 +258,10 @@ export function paretoChart(answer: AbcAnswer, top = 30): BarChart {
           yAxisID: 'y',
           order: 2,
         },
-        {
-          type: 'line' as unknown as 'bar',
-          label: 'Running share of value',
-          data: items.map((i) => Number(i.cumulative) * 100),
-          borderColor: LINE_COLOUR,
-          backgroundColor: LINE_COLOUR,
-          borderWidth: 2,
-          yAxisID: 'y1',
-          order: 1,
-        },
+        lineOverBars(
+          'Running share of value',
+          items.map((i) => Number(i.cumulative) * 100),
+        ),
       ],
     },
     options,

@@ -2,9 +2,9 @@
 // typed by hand, discounts among them, as a third part), with the table beside it holding the same
 // figures and the tax and credit notes.
 import type { RevenueAnswer } from '../../../shared/api/insights';
-import type { BarChart } from './insights-charts';
-import { GRID, INK, seriesColour } from './chart-palette';
-import { formatAmount, formatAmountShort } from './insights-format';
+import { axisOptions, stackedBarOptions, type BarChart } from './insights-charts';
+import { seriesColour } from './chart-palette';
+import { formatAmount } from './insights-format';
 
 export function revenueChart(answer: RevenueAnswer): BarChart {
   const labels = answer.months.map((m) => m.month);
@@ -31,25 +31,7 @@ export function revenueChart(answer: RevenueAnswer): BarChart {
         part('Other lines', (m) => m.other, 4),
       ],
     },
-    options: {
-      plugins: {
-        legend: { position: 'bottom', labels: { color: INK, boxWidth: 14, boxHeight: 14 } },
-        tooltip: { mode: 'index', intersect: false },
-      },
-      scales: {
-        x: { stacked: true, grid: { display: false }, ticks: { color: INK } },
-        y: {
-          stacked: true,
-          beginAtZero: true,
-          grid: { color: GRID },
-          ticks: {
-            color: INK,
-            callback: (value: string | number) => formatAmountShort(Number(value), answer.currency),
-          },
-          title: { display: true, text: 'Invoiced', color: INK },
-        },
-      },
-    },
+    options: stackedBarOptions(axisOptions(answer.currency, 'Invoiced')),
     summary:
       best && Number(best.invoiced) > 0
         ? `Labour, parts and other lines invoiced per month from ${labels[0]} to ${labels[labels.length - 1]}; the most was invoiced in ${best.month}, ${formatAmount(best.invoiced, answer.currency)}.`

@@ -1,13 +1,16 @@
 // The chart beside "cylinders near their last step": per engine family, how many cylinders have
 // no step left (sleeves to expect) and how many have a few left (customers to tell).
 import type { NearLastStepAnswer } from '../../../shared/api/customers';
-import { GRID, INK, seriesColour } from './chart-palette';
-import type { BarChart } from './insights-charts';
+import { seriesColour } from './chart-palette';
+import { axisOptions, stackedBarOptions, type BarChart } from './insights-charts';
 
 export function nearLastStepChart(answer: NearLastStepAnswer): BarChart {
   const families = [...new Set(answer.items.map((i) => i.familyCode))].sort();
   const count = (family: string, left: (n: number) => boolean) =>
     answer.items.filter((i) => i.familyCode === family && left(i.stepsLeft)).length;
+  // Cylinders come whole: no tick between one and two.
+  const counts = axisOptions(null, 'Cylinders');
+  const wholeCounts = { ...counts, ticks: { ...counts.ticks, precision: 0 } };
   return {
     data: {
       labels: families,
@@ -24,22 +27,7 @@ export function nearLastStepChart(answer: NearLastStepAnswer): BarChart {
         },
       ],
     },
-    options: {
-      plugins: {
-        legend: { position: 'bottom', labels: { color: INK, boxWidth: 14, boxHeight: 14 } },
-        tooltip: { mode: 'index', intersect: false },
-      },
-      scales: {
-        x: { stacked: true, grid: { display: false }, ticks: { color: INK } },
-        y: {
-          stacked: true,
-          beginAtZero: true,
-          grid: { color: GRID },
-          ticks: { color: INK, precision: 0 },
-          title: { display: true, text: 'Cylinders', color: INK },
-        },
-      },
-    },
+    options: stackedBarOptions(wholeCounts),
     summary: answer.items.length
       ? `${answer.sleevesToExpect} cylinder${answer.sleevesToExpect === 1 ? '' : 's'} with no step left and ${answer.items.length - answer.sleevesToExpect} within ${answer.within} step${answer.within === 1 ? '' : 's'} of the last, across ${families.length} famil${families.length === 1 ? 'y' : 'ies'}.`
       : 'No marked cylinder is near its last step.',
