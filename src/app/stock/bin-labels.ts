@@ -1,7 +1,5 @@
 import { ChangeDetectionStrategy, Component, computed, inject, input } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
-import { MatButtonModule } from '@angular/material/button';
-import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { RouterLink } from '@angular/router';
 import { catchError, map, of, startWith } from 'rxjs';
@@ -9,7 +7,8 @@ import { catchError, map, of, startWith } from 'rxjs';
 import type { BinJson } from '../../../shared/api/stock';
 import { apiErrorMessage } from '../core/api-error';
 import { Barcode } from '../ui/barcode';
-import { labelLayout, LabelLayoutToggle } from '../ui/label-layout';
+import { labelLayout } from '../ui/label-layout';
+import { labelSheets, LabelPageHeader } from '../ui/label-page';
 import { StockApi } from './stock-api';
 import { FormAlert } from '../ui/form-alert';
 
@@ -22,24 +21,14 @@ type Loaded =
  */
 @Component({
   selector: 'app-bin-labels',
-  imports: [
-    FormAlert,
-    Barcode,
-    LabelLayoutToggle,
-    MatButtonModule,
-    MatIconModule,
-    MatProgressBarModule,
-    RouterLink,
-  ],
+  imports: [FormAlert, Barcode, LabelPageHeader, MatProgressBarModule, RouterLink],
   template: `
     <section class="page labels-page">
-      <header class="page-header no-print">
-        <h1>Bin labels</h1>
-        <app-label-layout-toggle [single]="single()" />
-        <button mat-flat-button type="button" [disabled]="bins().length === 0" (click)="print()">
-          <mat-icon>print</mat-icon>Print
-        </button>
-      </header>
+      <app-label-page-header
+        heading="Bin labels"
+        [single]="single()"
+        [empty]="bins().length === 0"
+      />
       <p class="intro no-print">
         @if (single()) {
           One {{ layoutNow.sizeWords() }} label per page, for a label printer.
@@ -97,19 +86,9 @@ export class BinLabels {
     const wanted = (this.ids() ?? '').split(',').filter(Boolean);
     return wanted.length ? loaded.bins.filter((b) => wanted.includes(b.id)) : loaded.bins;
   });
-  protected readonly sheets = computed(() => {
-    const bins = this.bins();
-    const size = this.single() ? 1 : 21;
-    const sheets: BinJson[][] = [];
-    for (let i = 0; i < bins.length; i += size) sheets.push(bins.slice(i, i + size));
-    return sheets;
-  });
+  protected readonly sheets = labelSheets(this.bins, this.single);
   protected readonly error = computed(() => {
     const loaded = this.loaded();
     return loaded.state === 'error' ? loaded.message : '';
   });
-
-  protected print(): void {
-    window.print();
-  }
 }

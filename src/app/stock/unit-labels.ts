@@ -1,18 +1,15 @@
 import { ChangeDetectionStrategy, Component, computed, inject, input } from '@angular/core';
-import { MatButtonModule } from '@angular/material/button';
-import { MatIconModule } from '@angular/material/icon';
 import { RouterLink } from '@angular/router';
 import { map, type Observable } from 'rxjs';
 
 import type { UnitJson } from '../../../shared/api/stock';
 import { LengthPipe } from '../core/length-pipe';
 import { Barcode } from '../ui/barcode';
-import { labelLayout, LabelLayoutToggle } from '../ui/label-layout';
+import { labelLayout } from '../ui/label-layout';
+import { labelSheets, LabelPageHeader } from '../ui/label-page';
 import { StockApi } from './stock-api';
 import { loadEach } from '../ui/load';
 import { ListState } from '../ui/list-state';
-
-const LABELS_PER_SHEET = 21;
 
 /**
  * Printable piston labels: family, step, the measured size in both units, the label code as a
@@ -21,15 +18,7 @@ const LABELS_PER_SHEET = 21;
  */
 @Component({
   selector: 'app-unit-labels',
-  imports: [
-    ListState,
-    Barcode,
-    LabelLayoutToggle,
-    LengthPipe,
-    MatButtonModule,
-    MatIconModule,
-    RouterLink,
-  ],
+  imports: [ListState, Barcode, LabelPageHeader, LengthPipe, RouterLink],
   templateUrl: './unit-labels.html',
   styleUrl: './unit-labels.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -65,16 +54,5 @@ export class UnitLabels {
       ? this.loaded.error()
       : 'Open this page from a receipt or a piston.',
   );
-  /** Sheets of 21 labels; each prints on its own page. */
-  protected readonly sheets = computed(() => {
-    const units = this.units();
-    const size = this.single() ? 1 : LABELS_PER_SHEET;
-    const sheets: UnitJson[][] = [];
-    for (let i = 0; i < units.length; i += size) sheets.push(units.slice(i, i + size));
-    return sheets;
-  });
-
-  protected print(): void {
-    window.print();
-  }
+  protected readonly sheets = labelSheets(this.units, this.single);
 }
