@@ -20,12 +20,7 @@ import { FormAlert } from '../ui/form-alert';
       <nav class="crumbs no-print" aria-label="Breadcrumb">
         <a routerLink="/imports">Price-list log</a>
       </nav>
-      <app-list-state
-        [loading]="loaded.loading()"
-        [error]="loaded.error()"
-        progressLabel="Loading the list"
-        [retryable]="false"
-      />
+      <app-list-state [list]="loaded" progressLabel="Loading the list" [retryable]="false" />
       @if (entry(); as e) {
         <header class="page-header">
           <h1>{{ e.fileName }}</h1>
